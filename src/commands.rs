@@ -1,0 +1,32 @@
+//! The subcommands behind the binary: each takes its parsed arguments and a writer,
+//! and returns what the process should exit with.
+
+use std::process::ExitCode;
+
+/// How a command ended, mapped to the process exit status (DESIGN.md "Command line").
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Outcome {
+    /// Success; every leg meets the minimums.
+    Success,
+    /// The command ran, but at least one leg is `below` or `no-data`, or a check failed.
+    Findings,
+    /// Bad usage or bad input.
+    BadInput,
+}
+
+impl Outcome {
+    /// The exit status for this outcome: 0, 1 or 2.
+    pub const fn code(self) -> u8 {
+        match self {
+            Outcome::Success => 0,
+            Outcome::Findings => 1,
+            Outcome::BadInput => 2,
+        }
+    }
+}
+
+impl From<Outcome> for ExitCode {
+    fn from(o: Outcome) -> Self {
+        ExitCode::from(o.code())
+    }
+}
