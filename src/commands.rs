@@ -3,6 +3,8 @@
 
 use std::process::ExitCode;
 
+pub mod metar;
+
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Outcome {

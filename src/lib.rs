@@ -9,6 +9,7 @@
 //! operator's approved procedures and local regulations govern.
 
 pub mod commands;
+pub mod observation;
 pub mod units;
 
 /// The caution shown on every screen and in every report.

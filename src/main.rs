@@ -17,13 +17,17 @@ struct Cli {
 }
 
 #[derive(Subcommand, Debug)]
-enum Command {}
+enum Command {
+    /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
+    Metar(rhoboard::commands::metar::Args),
+}
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
     let mut out = std::io::stdout().lock();
     let result: anyhow::Result<Outcome> = match cli.command {
         None => Ok(Outcome::Success),
+        Some(Command::Metar(args)) => rhoboard::commands::metar::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),
