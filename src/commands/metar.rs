@@ -32,11 +32,12 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         None => Utc::now(),
     };
     let input = if args.text.len() == 1 && args.text.first().is_some_and(|t| t == "-") {
-        let mut s = String::new();
+        let mut bytes = Vec::new();
         std::io::stdin()
-            .read_to_string(&mut s)
+            .read_to_end(&mut bytes)
             .context("reading reports from standard input")?;
-        s
+        // Garbled bytes become U+FFFD and are reported as groups not understood.
+        String::from_utf8_lossy(&bytes).into_owned()
     } else if looks_unquoted(&args.text) {
         args.text.join(" ")
     } else {
@@ -180,7 +181,19 @@ pub fn to_json(r: &Report) -> Value {
 
 /// The readable decode: the report, then each group on its own line.
 pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Result<()> {
-    writeln!(out, "{}", r.text)?;
+    let shown: String = r
+        .text
+        .chars()
+        .flat_map(|c| {
+            let esc: Vec<char> = if c.is_control() {
+                c.escape_default().collect()
+            } else {
+                vec![c]
+            };
+            esc
+        })
+        .collect();
+    writeln!(out, "{shown}")?;
     let width = r
         .groups
         .iter()

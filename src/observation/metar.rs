@@ -78,6 +78,12 @@ pub enum DecodeError {
     /// `NIL`.
     #[error("NIL: the station sent no observation")]
     Nil,
+    /// Nothing in the text reads as a METAR group.
+    #[error("not a METAR: no group recognised, starting with '{start}'")]
+    NotMetar {
+        /// The first group, shortened and with control characters escaped.
+        start: String,
+    },
     /// A needed group is absent.
     #[error("{group} group missing (expected e.g. {})", group.example())]
     Missing {
@@ -114,8 +120,9 @@ impl DecodeError {
 /// The text may start with `METAR`/`SPECI`, end with `=`, and use any whitespace between
 /// groups; lower case is read as upper case.
 pub fn decode(text: &str, reference: DateTime<Utc>) -> Report {
-    let trimmed = text.trim();
-    let trimmed = trimmed.strip_suffix('=').unwrap_or(trimmed).trim_end();
+    let trimmed = text
+        .trim_start_matches(|c: char| c.is_ascii_whitespace())
+        .trim_end_matches(|c: char| c.is_ascii_whitespace() || c == '=');
     if trimmed.len() > MAX_REPORT_LEN {
         let mut cut = 60;
         while !trimmed.is_char_boundary(cut) {
@@ -252,13 +259,19 @@ struct Decoder<'a> {
 
 /// Shortens a group for quoting in a message.
 fn quote(s: &str) -> String {
-    if s.chars().count() <= 40 {
-        s.to_string()
-    } else {
-        let mut q: String = s.chars().take(40).collect();
-        q.push('…');
-        q
+    let mut q = String::with_capacity(s.len().min(48));
+    for (k, ch) in s.chars().enumerate() {
+        if k == 40 {
+            q.push('…');
+            break;
+        }
+        if ch.is_control() {
+            q.extend(ch.escape_default());
+        } else {
+            q.push(ch);
+        }
     }
+    q
 }
 
 fn all_digits(s: &str) -> bool {
@@ -602,6 +615,12 @@ impl<'a> Decoder<'a> {
     }
 
     fn finish(&mut self) {
+        if self.r.groups.is_empty() {
+            self.r.errors = vec![DecodeError::NotMetar {
+                start: quote(self.tok(0)),
+            }];
+            return;
+        }
         if self.r.nil {
             self.r.errors.push(DecodeError::Nil);
             return;
@@ -626,6 +645,9 @@ impl<'a> Decoder<'a> {
         }
         // Errors in report order: station, time, then the body groups by column.
         self.r.errors.sort_by_key(|e| match e {
+            DecodeError::Missing {
+                group: GroupName::Station | GroupName::Time,
+            } => 0,
             DecodeError::Malformed { column, .. } => *column,
             _ => usize::MAX,
         });
@@ -1322,10 +1344,15 @@ fn describe_weather(w: &Weather) -> String {
         return "present weather not observable (automatic station)".into();
     }
     let mut parts: Vec<&str> = Vec::new();
-    match w.intensity {
-        Intensity::Light => parts.push("light"),
-        Intensity::Heavy => parts.push("heavy"),
-        _ => {}
+    let intensity = match w.intensity {
+        Intensity::Light => Some("light"),
+        Intensity::Heavy => Some("heavy"),
+        _ => None,
+    };
+    // The intensity qualifies the precipitation: +TSRA is a thunderstorm with heavy rain.
+    let ts_with_precip = w.descriptor == Some("TS") && !w.phenomena.is_empty();
+    if !ts_with_precip && let Some(i) = intensity {
+        parts.push(i);
     }
     if let Some(d) = w.descriptor {
         parts.push(match d {
@@ -1340,8 +1367,11 @@ fn describe_weather(w: &Weather) -> String {
             _ => d,
         });
     }
-    if w.descriptor == Some("TS") && !w.phenomena.is_empty() {
+    if ts_with_precip {
         parts.push("with");
+        if let Some(i) = intensity {
+            parts.push(i);
+        }
     }
     for (k, p) in w.phenomena.iter().enumerate() {
         if k > 0 {
