@@ -45,10 +45,19 @@ pub struct Valid<'a> {
 
 #[derive(Debug, Clone, Default)]
 struct Station {
-    /// Sorted by observation time, one report per time.
-    times: Vec<DateTime<Utc>>,
+    /// Observation time and index into `reports`, sorted by time, one entry per time.
+    /// Small entries keep an out-of-order insert and the lookup cheap.
+    index: Vec<(DateTime<Utc>, u32)>,
+    /// Reports in arrival order (a replacement overwrites in place).
     reports: Vec<Report>,
     last_rejected: Option<Report>,
+}
+
+impl Station {
+    fn at(&self, k: usize) -> Option<&Report> {
+        let &(_, i) = self.index.get(k)?;
+        self.reports.get(i as usize)
+    }
 }
 
 /// Observations per station.
@@ -97,9 +106,11 @@ impl Store {
             Some(s) => s,
             None => self.stations.entry(report.station.clone()).or_default(),
         };
-        let idx = st.times.partition_point(|t| *t < at);
-        if st.times.get(idx) == Some(&at) {
-            let Some(old) = st.reports.get_mut(idx) else {
+        let idx = st.index.partition_point(|(t, _)| *t < at);
+        if let Some(&(t, slot)) = st.index.get(idx)
+            && t == at
+        {
+            let Some(old) = st.reports.get_mut(slot as usize) else {
                 return Insert::Duplicate;
             };
             if old.text == report.text {
@@ -111,18 +122,24 @@ impl Store {
             *old = report;
             return Insert::Replaced;
         }
-        let current = idx == st.times.len();
-        st.times.insert(idx, at);
-        st.reports.insert(idx, report);
+        let Ok(slot) = u32::try_from(st.reports.len()) else {
+            return Insert::Rejected(format!(
+                "{}: too many reports for one station",
+                report.label()
+            ));
+        };
+        let current = idx == st.index.len();
+        st.index.insert(idx, (at, slot));
+        st.reports.push(report);
         Insert::Added { current }
     }
 
     /// The report valid for `station` at `at`: the latest observed at or before it.
     pub fn valid_at(&self, station: &str, at: DateTime<Utc>) -> Option<Valid<'_>> {
         let st = self.stations.get(station)?;
-        let idx = st.times.partition_point(|t| *t <= at).checked_sub(1)?;
-        let report = st.reports.get(idx)?;
-        let observed = *st.times.get(idx)?;
+        let k = st.index.partition_point(|(t, _)| *t <= at).checked_sub(1)?;
+        let &(observed, _) = st.index.get(k)?;
+        let report = st.at(k)?;
         let age = at - observed;
         Some(Valid {
             report,
@@ -133,14 +150,15 @@ impl Store {
 
     /// The latest report of `station`, whatever its time.
     pub fn current(&self, station: &str) -> Option<&Report> {
-        self.stations.get(station)?.reports.last()
+        let st = self.stations.get(station)?;
+        st.at(st.index.len().checked_sub(1)?)
     }
 
     /// Every stored report of `station`, oldest first.
-    pub fn reports(&self, station: &str) -> &[Report] {
-        self.stations
-            .get(station)
-            .map_or(&[][..], |s| s.reports.as_slice())
+    pub fn reports<'a>(&'a self, station: &str) -> impl Iterator<Item = &'a Report> + 'a {
+        let st = self.stations.get(station);
+        let n = st.map_or(0, |s| s.index.len());
+        (0..n).filter_map(move |k| st.and_then(|s| s.at(k)))
     }
 
     /// The last report of `station` that was rejected, if any.
