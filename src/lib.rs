@@ -8,6 +8,7 @@
 //! rhoboard is a planning aid. The aircraft flight manual, the pilot in command, the
 //! operator's approved procedures and local regulations govern.
 
+pub mod assess;
 pub mod atmosphere;
 pub mod commands;
 pub mod units;
