@@ -11,6 +11,7 @@
 pub mod assess;
 pub mod atmosphere;
 pub mod commands;
+pub mod daylight;
 pub mod units;
 
 /// The caution shown on every screen and in every report.
