@@ -1,9 +1,11 @@
 //! The subcommands behind the binary: each takes its parsed arguments and a writer,
 //! and returns what the process should exit with.
 
-use std::process::ExitCode;
-
+pub mod calc;
 pub mod metar;
+pub mod overview;
+
+use std::process::ExitCode;
 
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]

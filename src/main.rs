@@ -4,7 +4,7 @@
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
-use rhoboard::commands::Outcome;
+use rhoboard::commands::{self, Outcome};
 
 /// rhoboard — density altitude, takeoff, landing, climb and wind against the
 /// operator's minimums, for every leg of the day. A planning aid: the aircraft flight
@@ -18,16 +18,19 @@ struct Cli {
 
 #[derive(Subcommand, Debug)]
 enum Command {
+    /// Pressure and density altitude, density, ISA deviation and TAS factor at a field.
+    Calc(commands::calc::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
-    Metar(rhoboard::commands::metar::Args),
+    Metar(commands::metar::Args),
 }
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
     let mut out = std::io::stdout().lock();
     let result: anyhow::Result<Outcome> = match cli.command {
-        None => Ok(Outcome::Success),
-        Some(Command::Metar(args)) => rhoboard::commands::metar::run(&args, &mut out),
+        None => commands::overview::run(&mut out),
+        Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
+        Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),

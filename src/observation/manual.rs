@@ -259,11 +259,13 @@ pub fn manual_observation(
         _ => (temperature_c, true),
     };
     if let (Some(t), Some(d)) = (temperature_c, dewpoint_c)
-        && d > t + 0.5
+        && d > t + 1e-9
     {
         errors.push(ManualError::Inconsistent {
             station: label.clone(),
-            problem: format!("dew point {d:.1} °C is above the temperature {t:.1} °C"),
+            problem: format!(
+                "dew point {d:.1} °C is above the temperature {t:.1} °C; the dew point can be at most the temperature"
+            ),
         });
     }
     let altimeter_hpa = match parse_pressure_hpa(&input.altimeter).and_then(|v| {
