@@ -3,6 +3,9 @@
 
 use std::process::ExitCode;
 
+pub mod init;
+pub mod validate;
+
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Outcome {

@@ -10,6 +10,7 @@
 
 pub mod atmosphere;
 pub mod commands;
+pub mod ops;
 pub mod units;
 
 /// The caution shown on every screen and in every report.
