@@ -1,6 +1,9 @@
 //! The subcommands behind the binary: each takes its parsed arguments and a writer,
 //! and returns what the process should exit with.
 
+pub mod calc;
+pub mod overview;
+
 use std::process::ExitCode;
 
 pub mod init;

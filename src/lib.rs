@@ -8,8 +8,10 @@
 //! rhoboard is a planning aid. The aircraft flight manual, the pilot in command, the
 //! operator's approved procedures and local regulations govern.
 
+pub mod assess;
 pub mod atmosphere;
 pub mod commands;
+pub mod daylight;
 pub mod ops;
 pub mod units;
 

@@ -4,7 +4,7 @@
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
-use rhoboard::commands::Outcome;
+use rhoboard::commands::{self, Outcome};
 
 /// rhoboard — density altitude, takeoff, landing, climb and wind against the
 /// operator's minimums, for every leg of the day. A planning aid: the aircraft flight
@@ -17,13 +17,23 @@ struct Cli {
 }
 
 #[derive(Subcommand, Debug)]
-enum Command {}
+enum Command {
+    /// Pressure and density altitude, density, ISA deviation and TAS factor at a field.
+    Calc(commands::calc::Args),
+    /// Checks an operator folder and reports every problem (file, line, column, field).
+    Validate(commands::validate::Args),
+    /// Writes a new operator folder from the fictional demo, every value marked to replace.
+    Init(commands::init::Args),
+}
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
     let mut out = std::io::stdout().lock();
     let result: anyhow::Result<Outcome> = match cli.command {
-        None => Ok(Outcome::Success),
+        None => commands::overview::run(&mut out),
+        Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
+        Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
+        Some(Command::Init(args)) => commands::init::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),

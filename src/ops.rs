@@ -10,8 +10,8 @@ pub mod actype;
 pub mod airfield;
 pub mod config;
 pub mod demo;
-pub mod demo_gen;
 pub mod demo_day;
+pub mod demo_gen;
 pub mod fleet;
 pub mod legs;
 pub mod load;
@@ -120,7 +120,9 @@ impl Ops {
 
     /// The aircraft with this registration.
     pub fn aircraft(&self, registration: &str) -> Option<&Aircraft> {
-        self.aircraft_index.get(registration).map(|&i| &self.aircraft[i])
+        self.aircraft_index
+            .get(registration)
+            .map(|&i| &self.aircraft[i])
     }
 
     /// The pilot with this id.

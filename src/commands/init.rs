@@ -37,7 +37,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         }
     }
     let files = demo::template();
-    files.write_dir(dir).with_context(|| format!("writing {}", dir.display()))?;
+    files
+        .write_dir(dir)
+        .with_context(|| format!("writing {}", dir.display()))?;
     for rel in files.files.keys() {
         writeln!(out, "wrote {}", dir.join(rel).display())?;
     }
@@ -52,7 +54,12 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         let cfg = config::config_file().context("this platform has no config folder")?;
         let abs = std::fs::canonicalize(dir).unwrap_or_else(|_| dir.clone());
         config::write_default(&cfg, &abs).with_context(|| format!("writing {}", cfg.display()))?;
-        writeln!(out, "Remembered {} as the default operator folder ({}).", abs.display(), cfg.display())?;
+        writeln!(
+            out,
+            "Remembered {} as the default operator folder ({}).",
+            abs.display(),
+            cfg.display()
+        )?;
     }
     Ok(Outcome::Success)
 }

@@ -60,12 +60,20 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             if loaded.report.warnings.is_empty() {
                 writeln!(out, "All is well: {}.", summary(ops))?;
             } else {
-                writeln!(out, "No errors ({} warning(s) above): {}.", loaded.report.warnings.len(), summary(ops))?;
+                writeln!(
+                    out,
+                    "No errors ({} warning(s) above): {}.",
+                    loaded.report.warnings.len(),
+                    summary(ops)
+                )?;
             }
             Ok(Outcome::Success)
         }
         None => {
-            writeln!(out, "Fix the errors above and run `rhoboard validate` again.")?;
+            writeln!(
+                out,
+                "Fix the errors above and run `rhoboard validate` again."
+            )?;
             Ok(Outcome::BadInput)
         }
     }

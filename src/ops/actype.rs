@@ -314,7 +314,12 @@ pub struct PerformanceAt {
 impl Performance {
     /// Locates a point once; read any of the five tables with the returned cell.
     #[inline]
-    pub fn locate(&self, mass_kg: f64, pressure_altitude_ft: f64, oat_c: f64) -> Result<Cell, OutsideTable> {
+    pub fn locate(
+        &self,
+        mass_kg: f64,
+        pressure_altitude_ft: f64,
+        oat_c: f64,
+    ) -> Result<Cell, OutsideTable> {
         self.grid.locate(mass_kg, pressure_altitude_ft, oat_c)
     }
 

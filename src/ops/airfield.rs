@@ -113,7 +113,11 @@ pub struct RunwayEnd {
 impl RunwayEnd {
     /// The runway number of the designator (`09L` → 9), if it has one.
     pub fn number(&self) -> Option<u32> {
-        let digits: String = self.designator.chars().take_while(|c| c.is_ascii_digit()).collect();
+        let digits: String = self
+            .designator
+            .chars()
+            .take_while(|c| c.is_ascii_digit())
+            .collect();
         let rest = &self.designator[digits.len()..];
         if digits.is_empty() || digits.len() > 2 || !matches!(rest, "" | "L" | "R" | "C") {
             return None;

@@ -50,9 +50,9 @@ pub fn choose(explicit: Option<&Path>, config: Option<&Path>) -> Choice {
 /// returned warning says why; the demo always loads.
 pub fn load_for_use(choice: &Choice) -> anyhow::Result<(super::Ops, Option<String>)> {
     let demo = || {
-        super::demo::load()
-            .ops
-            .ok_or_else(|| anyhow::anyhow!("the built-in demo failed its own checks (a bug; please report it)"))
+        super::demo::load().ops.ok_or_else(|| {
+            anyhow::anyhow!("the built-in demo failed its own checks (a bug; please report it)")
+        })
     };
     match choice {
         Choice::Demo => Ok((demo()?, None)),

@@ -25,15 +25,87 @@ struct Station {
 }
 
 const STATIONS: [Station; 9] = [
-    Station { id: "XSEA", t_min_c: 14.0, t_max_c: 31.0, dew_morning_c: 11.0, dew_evening_c: 13.0, dir_offset_deg: 0, last_hour: 17 },
-    Station { id: "XMRS", t_min_c: 12.0, t_max_c: 32.0, dew_morning_c: 11.0, dew_evening_c: 12.0, dir_offset_deg: 10, last_hour: 17 },
-    Station { id: "XFEN", t_min_c: 13.0, t_max_c: 32.0, dew_morning_c: 10.0, dew_evening_c: 11.0, dir_offset_deg: -10, last_hour: 17 },
-    Station { id: "XSHT", t_min_c: 12.0, t_max_c: 31.0, dew_morning_c: 10.0, dew_evening_c: 10.0, dir_offset_deg: 0, last_hour: 12 },
-    Station { id: "XKNL", t_min_c: 12.0, t_max_c: 30.0, dew_morning_c: 9.0, dew_evening_c: 9.0, dir_offset_deg: 20, last_hour: 17 },
-    Station { id: "XBRK", t_min_c: 10.0, t_max_c: 29.0, dew_morning_c: 8.0, dew_evening_c: 7.0, dir_offset_deg: 0, last_hour: 17 },
-    Station { id: "XMES", t_min_c: 10.0, t_max_c: 31.0, dew_morning_c: 6.0, dew_evening_c: 3.0, dir_offset_deg: -20, last_hour: 17 },
-    Station { id: "XPIN", t_min_c: 8.0, t_max_c: 29.0, dew_morning_c: 5.0, dew_evening_c: 2.0, dir_offset_deg: 10, last_hour: 17 },
-    Station { id: "XHIG", t_min_c: 7.0, t_max_c: 28.0, dew_morning_c: 3.0, dew_evening_c: 1.0, dir_offset_deg: 0, last_hour: 17 },
+    Station {
+        id: "XSEA",
+        t_min_c: 14.0,
+        t_max_c: 31.0,
+        dew_morning_c: 11.0,
+        dew_evening_c: 13.0,
+        dir_offset_deg: 0,
+        last_hour: 17,
+    },
+    Station {
+        id: "XMRS",
+        t_min_c: 12.0,
+        t_max_c: 32.0,
+        dew_morning_c: 11.0,
+        dew_evening_c: 12.0,
+        dir_offset_deg: 10,
+        last_hour: 17,
+    },
+    Station {
+        id: "XFEN",
+        t_min_c: 13.0,
+        t_max_c: 32.0,
+        dew_morning_c: 10.0,
+        dew_evening_c: 11.0,
+        dir_offset_deg: -10,
+        last_hour: 17,
+    },
+    Station {
+        id: "XSHT",
+        t_min_c: 12.0,
+        t_max_c: 31.0,
+        dew_morning_c: 10.0,
+        dew_evening_c: 10.0,
+        dir_offset_deg: 0,
+        last_hour: 12,
+    },
+    Station {
+        id: "XKNL",
+        t_min_c: 12.0,
+        t_max_c: 30.0,
+        dew_morning_c: 9.0,
+        dew_evening_c: 9.0,
+        dir_offset_deg: 20,
+        last_hour: 17,
+    },
+    Station {
+        id: "XBRK",
+        t_min_c: 10.0,
+        t_max_c: 29.0,
+        dew_morning_c: 8.0,
+        dew_evening_c: 7.0,
+        dir_offset_deg: 0,
+        last_hour: 17,
+    },
+    Station {
+        id: "XMES",
+        t_min_c: 10.0,
+        t_max_c: 31.0,
+        dew_morning_c: 6.0,
+        dew_evening_c: 3.0,
+        dir_offset_deg: -20,
+        last_hour: 17,
+    },
+    Station {
+        id: "XPIN",
+        t_min_c: 8.0,
+        t_max_c: 29.0,
+        dew_morning_c: 5.0,
+        dew_evening_c: 2.0,
+        dir_offset_deg: 10,
+        last_hour: 17,
+    },
+    Station {
+        id: "XHIG",
+        t_min_c: 7.0,
+        t_max_c: 28.0,
+        dew_morning_c: 3.0,
+        dew_evening_c: 1.0,
+        dir_offset_deg: 0,
+        last_hour: 17,
+    },
 ];
 
 /// Fraction of the day's warming reached at an hour (0 at 06Z, 1 at 15Z).
@@ -48,7 +120,11 @@ fn warming(hour: u32) -> f64 {
 
 fn temp_group(c: f64) -> String {
     let r = c.round() as i64;
-    if r < 0 { format!("M{:02}", -r) } else { format!("{r:02}") }
+    if r < 0 {
+        format!("M{:02}", -r)
+    } else {
+        format!("{r:02}")
+    }
 }
 
 fn tenths(c: f64) -> String {
@@ -92,7 +168,8 @@ pub fn metars() -> String {
     for s in &STATIONS {
         for hour in 6..=s.last_hour {
             let t = s.t_min_c + (s.t_max_c - s.t_min_c) * warming(hour);
-            let td = s.dew_morning_c + (s.dew_evening_c - s.dew_morning_c) * f64::from(hour - 6) / 11.0;
+            let td =
+                s.dew_morning_c + (s.dew_evening_c - s.dew_morning_c) * f64::from(hour - 6) / 11.0;
             let td = td.min(t);
             // Heat low: QNH falls through the day.
             let qnh = (1019.0 - 0.6 * f64::from(hour - 6)).round() as i64;

@@ -30,8 +30,10 @@
 
 use std::fmt::Write as _;
 
-use crate::atmosphere::{SEA_LEVEL_DENSITY_KG_M3, density_kg_m3, pressure_at_pressure_altitude_hpa};
-use crate::units::{MPS_PER_KT, M_PER_FT};
+use crate::atmosphere::{
+    SEA_LEVEL_DENSITY_KG_M3, density_kg_m3, pressure_at_pressure_altitude_hpa,
+};
+use crate::units::{M_PER_FT, MPS_PER_KT};
 
 /// Standard gravity, m/s².
 pub const G: f64 = 9.806_65;
@@ -107,7 +109,14 @@ impl Airframe {
 
     fn thrust_n(&self, rho: f64, v: f64, eta: f64) -> f64 {
         let area = std::f64::consts::PI * 0.25 * self.prop_diameter_m * self.prop_diameter_m;
-        f64::from(self.engines) * propeller_thrust_n(self.power_w(rho) / f64::from(self.engines), eta, rho, area, v)
+        f64::from(self.engines)
+            * propeller_thrust_n(
+                self.power_w(rho) / f64::from(self.engines),
+                eta,
+                rho,
+                area,
+                v,
+            )
     }
 
     fn power_w(&self, rho: f64) -> f64 {
@@ -133,13 +142,20 @@ pub fn propeller_thrust_n(power_w: f64, eta: f64, rho: f64, disk_area_m2: f64, v
         t * (v_mps + vi)
     };
     let static_t = (2.0 * rho * disk_area_m2 * target * target).cbrt();
-    let (mut lo, mut hi) = (0.0, static_t.max(target / v_mps.max(1e-9)).min(static_t * 10.0) + 1.0);
+    let (mut lo, mut hi) = (
+        0.0,
+        static_t.max(target / v_mps.max(1e-9)).min(static_t * 10.0) + 1.0,
+    );
     while useful(hi) < target {
         hi *= 2.0;
     }
     for _ in 0..100 {
         let mid = 0.5 * (lo + hi);
-        if useful(mid) < target { lo = mid } else { hi = mid }
+        if useful(mid) < target {
+            lo = mid
+        } else {
+            hi = mid
+        }
     }
     0.5 * (lo + hi)
 }
@@ -222,14 +238,19 @@ pub fn climb_fpm(af: &Airframe, mass_kg: f64, rho: f64) -> f64 {
 }
 
 /// The demo tables' pressure-altitude axis, ft.
-pub const PRESSURE_ALTITUDES_FT: [f64; 12] =
-    [-1000.0, 0.0, 1000.0, 2000.0, 3000.0, 4000.0, 5000.0, 6000.0, 7000.0, 8000.0, 9000.0, 10000.0];
+pub const PRESSURE_ALTITUDES_FT: [f64; 12] = [
+    -1000.0, 0.0, 1000.0, 2000.0, 3000.0, 4000.0, 5000.0, 6000.0, 7000.0, 8000.0, 9000.0, 10000.0,
+];
 /// The demo tables' OAT axis, °C.
 pub const OATS_C: [f64; 6] = [-10.0, 0.0, 10.0, 20.0, 30.0, 40.0];
 
 /// Dry-air density at a grid point, kg/m³ (manual tables are for dry air).
 pub fn grid_density(pressure_altitude_ft: f64, oat_c: f64) -> f64 {
-    density_kg_m3(pressure_at_pressure_altitude_hpa(pressure_altitude_ft), oat_c, None)
+    density_kg_m3(
+        pressure_at_pressure_altitude_hpa(pressure_altitude_ft),
+        oat_c,
+        None,
+    )
 }
 
 /// Rounds a distance the way the demo manual prints it: to 5 m.
@@ -363,7 +384,11 @@ pub fn tables(af: &Airframe) -> Tables {
 }
 
 fn num(v: f64) -> String {
-    if v.fract() == 0.0 && v.abs() < 1e15 { format!("{}", v as i64) } else { format!("{v}") }
+    if v.fract() == 0.0 && v.abs() < 1e15 {
+        format!("{}", v as i64)
+    } else {
+        format!("{v}")
+    }
 }
 
 fn list(v: &[f64]) -> String {
@@ -520,14 +545,26 @@ fn mass_balance_json(af: &Airframe) -> String {
             r#"      {"id": "seats", "name": "Pilot and passenger", "arm_mm": 990, "max_mass_kg": 200, "seats": 2},
       {"id": "baggage", "name": "Baggage area", "arm_mm": 1640, "max_mass_kg": 25}"#,
             (1070.0, 90.0),
-            [(500.0, 790.0), (650.0, 790.0), (750.0, 860.0), (750.0, 920.0), (500.0, 920.0)],
+            [
+                (500.0, 790.0),
+                (650.0, 790.0),
+                (750.0, 860.0),
+                (750.0, 920.0),
+                (500.0, 920.0),
+            ],
         ),
         "ft4" => (
             r#"      {"id": "front_seats", "name": "Front seats", "arm_mm": 940, "max_mass_kg": 220, "seats": 2},
       {"id": "rear_seats", "name": "Rear seats", "arm_mm": 1850, "max_mass_kg": 200, "seats": 2},
       {"id": "baggage", "name": "Baggage area", "arm_mm": 2410, "max_mass_kg": 55}"#,
             (1220.0, 180.0),
-            [(700.0, 890.0), (900.0, 890.0), (1150.0, 1000.0), (1150.0, 1200.0), (700.0, 1200.0)],
+            [
+                (700.0, 890.0),
+                (900.0, 890.0),
+                (1150.0, 1000.0),
+                (1150.0, 1200.0),
+                (700.0, 1200.0),
+            ],
         ),
         _ => (
             r#"      {"id": "front_seats", "name": "Pilot and front passenger", "arm_mm": 1000, "max_mass_kg": 220, "seats": 2},
@@ -535,7 +572,13 @@ fn mass_balance_json(af: &Airframe) -> String {
       {"id": "rear_seats", "name": "Rear row", "arm_mm": 2700, "max_mass_kg": 180, "seats": 2},
       {"id": "baggage", "name": "Baggage area", "arm_mm": 3300, "max_mass_kg": 70}"#,
             (1250.0, 300.0),
-            [(950.0, 1050.0), (1250.0, 1050.0), (1600.0, 1250.0), (1600.0, 1470.0), (950.0, 1470.0)],
+            [
+                (950.0, 1050.0),
+                (1250.0, 1050.0),
+                (1600.0, 1250.0),
+                (1600.0, 1470.0),
+                (950.0, 1470.0),
+            ],
         ),
     };
     let _ = mtow;
@@ -568,7 +611,10 @@ pub fn generated_files() -> Vec<(String, String)> {
         .iter()
         .map(|af| (format!("fleet/types/{}.json", af.id), type_json(af)))
         .collect();
-    v.push((format!("fixtures/demo/observations/{DEMO_DATE}.txt"), super::demo_day::metars()));
+    v.push((
+        format!("fixtures/demo/observations/{DEMO_DATE}.txt"),
+        super::demo_day::metars(),
+    ));
     v
 }
 

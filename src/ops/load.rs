@@ -129,7 +129,9 @@ impl OpsFiles {
             ("forecasts", "txt"),
         ] {
             let d = dir.join(sub);
-            let Ok(entries) = std::fs::read_dir(&d) else { continue };
+            let Ok(entries) = std::fs::read_dir(&d) else {
+                continue;
+            };
             let mut names: Vec<_> = entries
                 .filter_map(|e| e.ok())
                 .map(|e| e.file_name().to_string_lossy().into_owned())
@@ -156,7 +158,11 @@ impl OpsFiles {
     }
 
     /// Files under a sub-folder with an extension, in name order.
-    pub fn under<'a>(&'a self, sub: &'a str, ext: &'a str) -> impl Iterator<Item = (&'a str, &'a str)> + 'a {
+    pub fn under<'a>(
+        &'a self,
+        sub: &'a str,
+        ext: &'a str,
+    ) -> impl Iterator<Item = (&'a str, &'a str)> + 'a {
         self.files.iter().filter_map(move |(k, v)| {
             let rest = k.strip_prefix(sub)?.strip_prefix('/')?;
             (!rest.contains('/') && rest.ends_with(ext)).then_some((k.as_str(), v.as_str()))
@@ -175,19 +181,32 @@ pub struct Collector<'a> {
 impl<'a> Collector<'a> {
     /// A collector over these files.
     pub fn new(files: &'a OpsFiles) -> Collector<'a> {
-        Collector { files, spans: HashMap::new(), report: Report::default() }
+        Collector {
+            files,
+            spans: HashMap::new(),
+            report: Report::default(),
+        }
     }
 
     fn spans(&mut self, file: &str) -> &Spans {
         let text = self.files.files.get(file).map_or("", String::as_str);
-        self.spans.entry(file.to_string()).or_insert_with(|| Spans::new(text))
+        self.spans
+            .entry(file.to_string())
+            .or_insert_with(|| Spans::new(text))
     }
 
     /// Records a problem at a field path (positioned at the value, or its nearest
     /// existing parent).
     pub fn at(&mut self, severity: Severity, file: &str, path: &str, message: impl Into<String>) {
         let (line, column) = self.spans(file).position(path);
-        self.push(severity, file, path.to_string(), line, column, message.into());
+        self.push(
+            severity,
+            file,
+            path.to_string(),
+            line,
+            column,
+            message.into(),
+        );
     }
 
     /// Records an error at a field path.
@@ -200,8 +219,23 @@ impl<'a> Collector<'a> {
         self.at(Severity::Warning, file, path, message);
     }
 
-    fn push(&mut self, severity: Severity, file: &str, path: String, line: usize, column: usize, message: String) {
-        let d = Diagnostic { severity, file: file.to_string(), path, line, column, message };
+    fn push(
+        &mut self,
+        severity: Severity,
+        file: &str,
+        path: String,
+        line: usize,
+        column: usize,
+        message: String,
+    ) {
+        let d = Diagnostic {
+            severity,
+            file: file.to_string(),
+            path,
+            line,
+            column,
+            message,
+        };
         let list = match severity {
             Severity::Error => &mut self.report.errors,
             Severity::Warning => &mut self.report.warnings,
@@ -215,7 +249,8 @@ impl<'a> Collector<'a> {
     /// file (for an element parsed on its own), with the path found by position.
     fn serde_error(&mut self, file: &str, err: &serde_json::Error, base: usize) {
         let text = self.files.files.get(file).map_or("", String::as_str);
-        let elem_off = line_col_to_offset_in(text.get(base..).unwrap_or(""), err.line(), err.column());
+        let elem_off =
+            line_col_to_offset_in(text.get(base..).unwrap_or(""), err.line(), err.column());
         let offset = base + elem_off;
         let spans = self.spans(file);
         let (line, column) = spans.line_col(offset);
@@ -234,7 +269,11 @@ impl<'a> Collector<'a> {
 
     /// Parses one JSON file as `T`. On failure every element of the named arrays is
     /// also parsed on its own, so one file with three broken elements reports all three.
-    pub fn parse<T: DeserializeOwned>(&mut self, file: &str, lists: &[(&str, Parser)]) -> Option<T> {
+    pub fn parse<T: DeserializeOwned>(
+        &mut self,
+        file: &str,
+        lists: &[(&str, Parser)],
+    ) -> Option<T> {
         let text = self.files.files.get(file)?;
         if let Some(v) = schema_version(text) {
             if v != u64::from(SCHEMA_VERSION) {
@@ -314,7 +353,10 @@ pub fn load_files(files: &OpsFiles) -> Loaded {
         super::validate::check_cross(ops, &mut c);
     }
     let ok = c.report.errors.is_empty();
-    Loaded { ops: if ok { ops } else { None }, report: c.report }
+    Loaded {
+        ops: if ok { ops } else { None },
+        report: c.report,
+    }
 }
 
 fn missing(c: &mut Collector<'_>, file: &str) {
@@ -358,7 +400,13 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
     for (file, _) in files.under("fleet/types", ".json") {
         match c.parse::<AircraftTypeFile>(file, &[]) {
             Some(t) => match Performance::from_file(&t.performance) {
-                Ok(performance) => types.push((file.to_string(), AircraftType { file: t, performance })),
+                Ok(performance) => types.push((
+                    file.to_string(),
+                    AircraftType {
+                        file: t,
+                        performance,
+                    },
+                )),
                 Err((path, msg)) => {
                     c.error(file, &path, msg);
                     complete = false;
@@ -415,5 +463,13 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
         // naming an airfield whose file did not parse); fix the files first.
         return None;
     }
-    Some(Ops::new(operator, pilots, aircraft, types, airfields, legs, observations))
+    Some(Ops::new(
+        operator,
+        pilots,
+        aircraft,
+        types,
+        airfields,
+        legs,
+        observations,
+    ))
 }

@@ -215,6 +215,7 @@ pub enum Required {
     /// Ground roll.
     GroundRoll,
     /// Distance to (takeoff) or from (landing) 50 ft.
+    #[serde(rename = "distance_50ft")]
     Distance50ft,
 }
 

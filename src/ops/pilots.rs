@@ -32,8 +32,12 @@ pub enum Category {
 
 impl Category {
     /// Every category, strictest first.
-    pub const ALL: [Category; 4] =
-        [Category::StudentSolo, Category::Charter, Category::Solo, Category::Dual];
+    pub const ALL: [Category; 4] = [
+        Category::StudentSolo,
+        Category::Charter,
+        Category::Solo,
+        Category::Dual,
+    ];
 
     /// The JSON name.
     pub const fn name(self) -> &'static str {

@@ -62,7 +62,11 @@ impl Scanner<'_> {
         self.ws();
         let start = self.i;
         let slot = self.nodes.len();
-        self.nodes.push(Node { path: path.to_string(), start, end: start });
+        self.nodes.push(Node {
+            path: path.to_string(),
+            start,
+            end: start,
+        });
         match *self.b.get(self.i)? {
             b'{' => {
                 self.i += 1;
@@ -81,8 +85,11 @@ impl Scanner<'_> {
                             return None;
                         }
                         self.i += 1;
-                        let child =
-                            if path.is_empty() { key } else { format!("{path}.{key}") };
+                        let child = if path.is_empty() {
+                            key
+                        } else {
+                            format!("{path}.{key}")
+                        };
                         self.value(&child, depth + 1)?;
                         self.ws();
                         match self.b.get(self.i)? {
@@ -124,7 +131,10 @@ impl Scanner<'_> {
             }
             _ => {
                 while self.i < self.b.len()
-                    && !matches!(self.b[self.i], b',' | b'}' | b']' | b' ' | b'\t' | b'\n' | b'\r')
+                    && !matches!(
+                        self.b[self.i],
+                        b',' | b'}' | b']' | b' ' | b'\t' | b'\n' | b'\r'
+                    )
                 {
                     self.i += 1;
                 }
@@ -142,10 +152,22 @@ impl Spans {
     /// Indexes a JSON text.
     pub fn new(text: &str) -> Spans {
         let mut line_starts = vec![0];
-        line_starts.extend(text.bytes().enumerate().filter(|&(_, c)| c == b'\n').map(|(i, _)| i + 1));
-        let mut s = Scanner { b: text.as_bytes(), i: 0, nodes: Vec::new() };
+        line_starts.extend(
+            text.bytes()
+                .enumerate()
+                .filter(|&(_, c)| c == b'\n')
+                .map(|(i, _)| i + 1),
+        );
+        let mut s = Scanner {
+            b: text.as_bytes(),
+            i: 0,
+            nodes: Vec::new(),
+        };
         let _ = s.value("", 0);
-        Spans { line_starts, nodes: s.nodes }
+        Spans {
+            line_starts,
+            nodes: s.nodes,
+        }
     }
 
     /// 1-based line and column (in bytes; the files are expected to be mostly ASCII) of a byte offset.
@@ -156,13 +178,20 @@ impl Spans {
 
     /// Byte offset of a 1-based line and column.
     pub fn offset(&self, line: usize, column: usize) -> usize {
-        let start = self.line_starts.get(line.saturating_sub(1)).copied().unwrap_or(0);
+        let start = self
+            .line_starts
+            .get(line.saturating_sub(1))
+            .copied()
+            .unwrap_or(0);
         start + column.saturating_sub(1)
     }
 
     /// Byte span of the value at a path, if the path exists.
     pub fn span(&self, path: &str) -> Option<(usize, usize)> {
-        self.nodes.iter().find(|n| n.path == path).map(|n| (n.start, n.end))
+        self.nodes
+            .iter()
+            .find(|n| n.path == path)
+            .map(|n| (n.start, n.end))
     }
 
     /// Position of the value at a path, or of its nearest existing ancestor.
@@ -197,9 +226,9 @@ impl Spans {
         self.nodes
             .iter()
             .filter(|n| {
-                n.path.strip_prefix(&prefix).is_some_and(|rest| {
-                    rest.find(']').is_some_and(|j| j + 1 == rest.len())
-                })
+                n.path
+                    .strip_prefix(&prefix)
+                    .is_some_and(|rest| rest.find(']').is_some_and(|j| j + 1 == rest.len()))
             })
             .map(|n| (n.path.clone(), n.start, n.end))
             .collect()
@@ -212,7 +241,8 @@ mod tests {
 
     #[test]
     fn paths_and_positions() {
-        let text = "{\n  \"a\": 1,\n  \"ends\": [\n    {\"tora_m\": 5},\n    {\"tora_m\": 6}\n  ]\n}\n";
+        let text =
+            "{\n  \"a\": 1,\n  \"ends\": [\n    {\"tora_m\": 5},\n    {\"tora_m\": 6}\n  ]\n}\n";
         let s = Spans::new(text);
         assert_eq!(s.position("a"), (2, 8));
         assert_eq!(s.position("ends[1].tora_m"), (5, 16));

@@ -150,7 +150,11 @@ fn locate_axis(axis: Axis, points: &[f64], x: f64) -> Result<(usize, usize, f64)
     let n = points.len();
     let lo = points[0];
     let hi = points[n - 1];
-    let outside = OutsideTable { axis, value: x, range: (lo, hi) };
+    let outside = OutsideTable {
+        axis,
+        value: x,
+        range: (lo, hi),
+    };
     // NaN fails both comparisons, so it is refused here too.
     if !(x >= lo && x <= hi) {
         return Err(outside);
@@ -188,7 +192,11 @@ impl Grid {
         if n > 1_000_000 {
             return Err(GridError::TooLarge(n));
         }
-        Ok(Grid { mass_kg, pressure_altitude_ft, oat_c })
+        Ok(Grid {
+            mass_kg,
+            pressure_altitude_ft,
+            oat_c,
+        })
     }
 
     /// Mass axis, kg.
@@ -231,10 +239,18 @@ impl Grid {
     ///
     /// An axis with a single point accepts only that exact value.
     #[inline]
-    pub fn locate(&self, mass_kg: f64, pressure_altitude_ft: f64, oat_c: f64) -> Result<Cell, OutsideTable> {
+    pub fn locate(
+        &self,
+        mass_kg: f64,
+        pressure_altitude_ft: f64,
+        oat_c: f64,
+    ) -> Result<Cell, OutsideTable> {
         let (mi, md, mf) = locate_axis(Axis::Mass, &self.mass_kg, mass_kg)?;
-        let (pi, pd, pf) =
-            locate_axis(Axis::PressureAltitude, &self.pressure_altitude_ft, pressure_altitude_ft)?;
+        let (pi, pd, pf) = locate_axis(
+            Axis::PressureAltitude,
+            &self.pressure_altitude_ft,
+            pressure_altitude_ft,
+        )?;
         let (ti, td, tf) = locate_axis(Axis::Oat, &self.oat_c, oat_c)?;
         let n_t = self.oat_c.len();
         let n_p = self.pressure_altitude_ft.len();
@@ -268,7 +284,12 @@ fn check_axis(axis: Axis, v: &[f64]) -> Result<(), GridError> {
     }
     for (i, w) in v.windows(2).enumerate() {
         if w[1] <= w[0] {
-            return Err(GridError::NotIncreasing { axis, index: i + 1, prev: w[0], next: w[1] });
+            return Err(GridError::NotIncreasing {
+                axis,
+                index: i + 1,
+                prev: w[0],
+                next: w[1],
+            });
         }
     }
     Ok(())
@@ -284,7 +305,11 @@ impl Table {
     /// Builds a table from the JSON nesting `[mass][pressure altitude][oat]`, checking
     /// the shape against the grid and every value finite.
     pub fn from_nested(grid: &Grid, nested: &[Vec<Vec<f64>>]) -> Result<Table, TableError> {
-        let (nm, np, nt) = (grid.mass_kg.len(), grid.pressure_altitude_ft.len(), grid.oat_c.len());
+        let (nm, np, nt) = (
+            grid.mass_kg.len(),
+            grid.pressure_altitude_ft.len(),
+            grid.oat_c.len(),
+        );
         if nested.len() != nm {
             return Err(TableError::Shape {
                 at: String::new(),
@@ -314,7 +339,9 @@ impl Table {
                 }
                 for (t, v) in row.iter().enumerate() {
                     if !v.is_finite() {
-                        return Err(TableError::NotFinite { at: format!("[{m}][{p}][{t}]") });
+                        return Err(TableError::NotFinite {
+                            at: format!("[{m}][{p}][{t}]"),
+                        });
                     }
                 }
                 values.extend_from_slice(row);
@@ -356,7 +383,11 @@ impl Table {
         for k in 0..8 {
             // A cell from a different-sized grid would index out of range; `get`
             // keeps that from becoming a panic and counts the corner as zero.
-            let v = self.values.get(cell.offsets[k] as usize).copied().unwrap_or(0.0);
+            let v = self
+                .values
+                .get(cell.offsets[k] as usize)
+                .copied()
+                .unwrap_or(0.0);
             sum += v * cell.weights[k];
         }
         sum

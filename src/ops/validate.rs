@@ -21,7 +21,11 @@ fn file_stem(file: &str) -> &str {
 
 fn positive(c: &mut Collector<'_>, file: &str, path: &str, v: f64, what: &str) {
     if !(v > 0.0 && v.is_finite()) {
-        c.error(file, path, format!("{what} must be a positive number, found {v}"));
+        c.error(
+            file,
+            path,
+            format!("{what} must be a positive number, found {v}"),
+        );
     }
 }
 
@@ -39,11 +43,20 @@ pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
         c.error(
             f,
             "time_zone.utc_offset_min",
-            format!("UTC offset {} min is beyond ±14 h", o.time_zone.utc_offset_min),
+            format!(
+                "UTC offset {} min is beyond ±14 h",
+                o.time_zone.utc_offset_min
+            ),
         );
     }
     let p = &o.policy;
-    positive(c, f, "policy.stale_after_min", p.stale_after_min, "stale age");
+    positive(
+        c,
+        f,
+        "policy.stale_after_min",
+        p.stale_after_min,
+        "stale age",
+    );
     if !(0.0..=100.0).contains(&p.wind.headwind_credit_percent) {
         c.error(
             f,
@@ -64,15 +77,34 @@ pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
             ),
         );
     }
-    for (phase, fb) in [("takeoff", &p.fallback_corrections.takeoff), ("landing", &p.fallback_corrections.landing)] {
-        for (name, r) in [("grass_dry", &fb.grass_dry), ("grass_wet", &fb.grass_wet), ("paved_wet", &fb.paved_wet)] {
+    for (phase, fb) in [
+        ("takeoff", &p.fallback_corrections.takeoff),
+        ("landing", &p.fallback_corrections.landing),
+    ] {
+        for (name, r) in [
+            ("grass_dry", &fb.grass_dry),
+            ("grass_wet", &fb.grass_wet),
+            ("paved_wet", &fb.paved_wet),
+        ] {
             let path = format!("policy.fallback_corrections.{phase}.{name}.rule");
             surface_rule(c, f, &path, r.rule);
-            non_empty(c, f, &format!("policy.fallback_corrections.{phase}.{name}.source"), &r.source, "source");
+            non_empty(
+                c,
+                f,
+                &format!("policy.fallback_corrections.{phase}.{name}.source"),
+                &r.source,
+                "source",
+            );
         }
-        let path = format!("policy.fallback_corrections.{phase}.adverse_slope.increase_percent_per_percent");
+        let path = format!(
+            "policy.fallback_corrections.{phase}.adverse_slope.increase_percent_per_percent"
+        );
         if !(fb.adverse_slope.increase_percent_per_percent >= 0.0) {
-            c.error(f, &path, "slope correction must be zero or positive (a favourable slope earns no credit)");
+            c.error(
+                f,
+                &path,
+                "slope correction must be zero or positive (a favourable slope earns no credit)",
+            );
         }
     }
     if o.categories.is_empty() {
@@ -80,16 +112,31 @@ pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
     }
     for (cat, m) in &o.categories {
         let base = format!("categories.{}", cat.name());
-        for (kind, checks, landing) in [("takeoff_checks", &m.takeoff_checks, false), ("landing_checks", &m.landing_checks, true)] {
+        for (kind, checks, landing) in [
+            ("takeoff_checks", &m.takeoff_checks, false),
+            ("landing_checks", &m.landing_checks, true),
+        ] {
             if checks.is_empty() {
-                c.error(f, &format!("{base}.{kind}"), format!("no {kind}: give at least one `required × factor ≤ available` check"));
+                c.error(
+                    f,
+                    &format!("{base}.{kind}"),
+                    format!("no {kind}: give at least one `required × factor ≤ available` check"),
+                );
             }
             for (i, ch) in checks.iter().enumerate() {
                 let path = format!("{base}.{kind}[{i}]");
                 if !(ch.factor >= 1.0 && ch.factor.is_finite()) {
-                    c.error(f, &format!("{path}.factor"), format!("factor {} must be at least 1.0", ch.factor));
+                    c.error(
+                        f,
+                        &format!("{path}.factor"),
+                        format!("factor {} must be at least 1.0", ch.factor),
+                    );
                 }
-                let ok = if landing { ch.available == Available::Lda } else { ch.available != Available::Lda };
+                let ok = if landing {
+                    ch.available == Available::Lda
+                } else {
+                    ch.available != Available::Lda
+                };
                 if !ok {
                     c.error(
                         f,
@@ -97,11 +144,18 @@ pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
                         if landing {
                             "a landing check compares with `lda`".to_string()
                         } else {
-                            "a takeoff check compares with `tora`, `toda` or `asda`, not `lda`".to_string()
+                            "a takeoff check compares with `tora`, `toda` or `asda`, not `lda`"
+                                .to_string()
                         },
                     );
                 }
-                non_empty(c, f, &format!("{path}.source"), &ch.source, "source of the factor");
+                non_empty(
+                    c,
+                    f,
+                    &format!("{path}.source"),
+                    &ch.source,
+                    "source of the factor",
+                );
             }
         }
         for (name, v) in [
@@ -120,11 +174,22 @@ pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
             ("min_climb_rate_fpm", m.min_climb_rate_fpm),
         ] {
             if !(v >= 0.0 && v.is_finite()) {
-                c.error(f, &format!("{base}.{name}"), format!("{name} must be zero or positive, found {v}"));
+                c.error(
+                    f,
+                    &format!("{base}.{name}"),
+                    format!("{name} must be zero or positive, found {v}"),
+                );
             }
         }
         if m.max_gust_kt < m.max_wind_kt {
-            c.warn(f, &format!("{base}.max_gust_kt"), format!("max gust {} kt is below max wind {} kt", m.max_gust_kt, m.max_wind_kt));
+            c.warn(
+                f,
+                &format!("{base}.max_gust_kt"),
+                format!(
+                    "max gust {} kt is below max wind {} kt",
+                    m.max_gust_kt, m.max_wind_kt
+                ),
+            );
         }
     }
 }
@@ -152,7 +217,11 @@ pub fn check_pilots(p: &PilotsFile, c: &mut Collector<'_>) {
     for (i, pilot) in p.pilots.iter().enumerate() {
         let path = format!("pilots[{i}]");
         if let Some(first) = seen.insert(pilot.id.as_str(), i) {
-            c.error(f, &format!("{path}.id"), format!("duplicate pilot id '{}' (also pilots[{first}])", pilot.id));
+            c.error(
+                f,
+                &format!("{path}.id"),
+                format!("duplicate pilot id '{}' (also pilots[{first}])", pilot.id),
+            );
         }
         non_empty(c, f, &format!("{path}.id"), &pilot.id, "pilot id");
         non_empty(c, f, &format!("{path}.name"), &pilot.name, "pilot name");
@@ -169,10 +238,29 @@ pub fn check_aircraft_file(a: &AircraftFile, c: &mut Collector<'_>) {
     for (i, ac) in a.aircraft.iter().enumerate() {
         let path = format!("aircraft[{i}]");
         if let Some(first) = seen.insert(ac.registration.as_str(), i) {
-            c.error(f, &format!("{path}.registration"), format!("duplicate registration '{}' (also aircraft[{first}])", ac.registration));
+            c.error(
+                f,
+                &format!("{path}.registration"),
+                format!(
+                    "duplicate registration '{}' (also aircraft[{first}])",
+                    ac.registration
+                ),
+            );
         }
-        non_empty(c, f, &format!("{path}.registration"), &ac.registration, "registration");
-        positive(c, f, &format!("{path}.empty_mass_kg"), ac.empty_mass_kg, "empty mass");
+        non_empty(
+            c,
+            f,
+            &format!("{path}.registration"),
+            &ac.registration,
+            "registration",
+        );
+        positive(
+            c,
+            f,
+            &format!("{path}.empty_mass_kg"),
+            ac.empty_mass_kg,
+            "empty mass",
+        );
         match (ac.status, &ac.maintenance) {
             (Status::Maintenance, None) => c.error(
                 f,
@@ -197,24 +285,63 @@ fn index_path(m: usize, p: usize, t: usize) -> String {
 pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
     let tf = &t.file;
     if tf.id != file_stem(file) {
-        c.error(file, "id", format!("id '{}' differs from the file name; name the file {}.json", tf.id, tf.id));
+        c.error(
+            file,
+            "id",
+            format!(
+                "id '{}' differs from the file name; name the file {}.json",
+                tf.id, tf.id
+            ),
+        );
     }
     non_empty(c, file, "name", &tf.name, "type name");
     if tf.engines == 0 {
         c.error(file, "engines", "engines must be at least 1");
     }
     let l = &tf.limits;
-    positive(c, file, "limits.max_takeoff_mass_kg", l.max_takeoff_mass_kg, "maximum takeoff mass");
-    positive(c, file, "limits.max_landing_mass_kg", l.max_landing_mass_kg, "maximum landing mass");
-    positive(c, file, "limits.max_demonstrated_crosswind_kt", l.max_demonstrated_crosswind_kt, "maximum demonstrated crosswind");
+    positive(
+        c,
+        file,
+        "limits.max_takeoff_mass_kg",
+        l.max_takeoff_mass_kg,
+        "maximum takeoff mass",
+    );
+    positive(
+        c,
+        file,
+        "limits.max_landing_mass_kg",
+        l.max_landing_mass_kg,
+        "maximum landing mass",
+    );
+    positive(
+        c,
+        file,
+        "limits.max_demonstrated_crosswind_kt",
+        l.max_demonstrated_crosswind_kt,
+        "maximum demonstrated crosswind",
+    );
     if l.max_landing_mass_kg > l.max_takeoff_mass_kg {
-        c.warn(file, "limits.max_landing_mass_kg", "maximum landing mass is above maximum takeoff mass; check the manual");
+        c.warn(
+            file,
+            "limits.max_landing_mass_kg",
+            "maximum landing mass is above maximum takeoff mass; check the manual",
+        );
     }
     let s = &tf.speeds;
-    for (name, v) in [("rotation_kias", s.rotation_kias), ("vx_kias", s.vx_kias), ("vy_kias", s.vy_kias), ("approach_kias", s.approach_kias)] {
+    for (name, v) in [
+        ("rotation_kias", s.rotation_kias),
+        ("vx_kias", s.vx_kias),
+        ("vy_kias", s.vy_kias),
+        ("approach_kias", s.approach_kias),
+    ] {
         positive(c, file, &format!("speeds.{name}"), v, name);
     }
-    for (name, v) in [("document", &tf.source.document), ("revision", &tf.source.revision), ("entered_by", &tf.source.entered_by), ("checked_by", &tf.source.checked_by)] {
+    for (name, v) in [
+        ("document", &tf.source.document),
+        ("revision", &tf.source.revision),
+        ("entered_by", &tf.source.entered_by),
+        ("checked_by", &tf.source.checked_by),
+    ] {
         non_empty(c, file, &format!("source.{name}"), v, name);
     }
     let g = &t.performance.grid;
@@ -228,15 +355,35 @@ pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
     }
     let p = &tf.performance;
     let distances: [(&str, &Nested, &Option<String>); 4] = [
-        ("takeoff.ground_roll_m", &p.takeoff.ground_roll_m, &p.takeoff.irregular_ok),
-        ("takeoff.distance_50ft_m", &p.takeoff.distance_50ft_m, &p.takeoff.irregular_ok),
-        ("landing.distance_50ft_m", &p.landing.distance_50ft_m, &p.landing.irregular_ok),
-        ("landing.ground_roll_m", &p.landing.ground_roll_m, &p.landing.irregular_ok),
+        (
+            "takeoff.ground_roll_m",
+            &p.takeoff.ground_roll_m,
+            &p.takeoff.irregular_ok,
+        ),
+        (
+            "takeoff.distance_50ft_m",
+            &p.takeoff.distance_50ft_m,
+            &p.takeoff.irregular_ok,
+        ),
+        (
+            "landing.distance_50ft_m",
+            &p.landing.distance_50ft_m,
+            &p.landing.irregular_ok,
+        ),
+        (
+            "landing.ground_roll_m",
+            &p.landing.ground_roll_m,
+            &p.landing.irregular_ok,
+        ),
     ];
     for (name, table, irregular) in distances {
         for_each(table, |m, pa, oat, v| {
             if !(v > 0.0) {
-                c.error(file, &format!("performance.{name}{}", index_path(m, pa, oat)), format!("distance {v} m must be positive"));
+                c.error(
+                    file,
+                    &format!("performance.{name}{}", index_path(m, pa, oat)),
+                    format!("distance {v} m must be positive"),
+                );
             }
         });
         if irregular.is_none() {
@@ -244,12 +391,33 @@ pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
         }
     }
     if p.climb.irregular_ok.is_none() {
-        monotonic(file, "performance.climb.rate_fpm", &p.climb.rate_fpm, g, false, c);
+        monotonic(
+            file,
+            "performance.climb.rate_fpm",
+            &p.climb.rate_fpm,
+            g,
+            false,
+            c,
+        );
     }
-    positive(c, file, "performance.climb.climb_speed_kias", p.climb.climb_speed_kias, "climb speed");
+    positive(
+        c,
+        file,
+        "performance.climb.climb_speed_kias",
+        p.climb.climb_speed_kias,
+        "climb speed",
+    );
     for (phase, gr, d50) in [
-        ("takeoff", &p.takeoff.ground_roll_m, &p.takeoff.distance_50ft_m),
-        ("landing", &p.landing.ground_roll_m, &p.landing.distance_50ft_m),
+        (
+            "takeoff",
+            &p.takeoff.ground_roll_m,
+            &p.takeoff.distance_50ft_m,
+        ),
+        (
+            "landing",
+            &p.landing.ground_roll_m,
+            &p.landing.distance_50ft_m,
+        ),
     ] {
         for_each(gr, |m, pa, oat, v| {
             let d = d50[m][pa][oat];
@@ -262,21 +430,41 @@ pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
             }
         });
     }
-    for (phase, pc) in [("takeoff", &tf.corrections.takeoff), ("landing", &tf.corrections.landing)] {
-        for (name, r) in [("grass_dry", pc.grass_dry), ("grass_wet", pc.grass_wet), ("paved_wet", pc.paved_wet)] {
+    for (phase, pc) in [
+        ("takeoff", &tf.corrections.takeoff),
+        ("landing", &tf.corrections.landing),
+    ] {
+        for (name, r) in [
+            ("grass_dry", pc.grass_dry),
+            ("grass_wet", pc.grass_wet),
+            ("paved_wet", pc.paved_wet),
+        ] {
             if let Some(r) = r {
                 surface_rule(c, file, &format!("corrections.{phase}.{name}"), r);
             }
         }
         for (name, v) in [
-            ("headwind_decrease_percent_per_kt", pc.headwind_decrease_percent_per_kt),
-            ("tailwind_increase_percent_per_kt", pc.tailwind_increase_percent_per_kt),
-            ("adverse_slope_increase_percent_per_percent", pc.adverse_slope_increase_percent_per_percent),
+            (
+                "headwind_decrease_percent_per_kt",
+                pc.headwind_decrease_percent_per_kt,
+            ),
+            (
+                "tailwind_increase_percent_per_kt",
+                pc.tailwind_increase_percent_per_kt,
+            ),
+            (
+                "adverse_slope_increase_percent_per_percent",
+                pc.adverse_slope_increase_percent_per_percent,
+            ),
         ] {
             if let Some(v) = v
                 && !(v >= 0.0 && v.is_finite())
             {
-                c.error(file, &format!("corrections.{phase}.{name}"), format!("{v} must be zero or positive"));
+                c.error(
+                    file,
+                    &format!("corrections.{phase}.{name}"),
+                    format!("{v} must be zero or positive"),
+                );
             }
         }
     }
@@ -284,12 +472,28 @@ pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
         let mut ids = HashSet::new();
         for (i, st) in mb.stations.iter().enumerate() {
             if !ids.insert(st.id.as_str()) {
-                c.error(file, &format!("mass_balance.stations[{i}].id"), format!("duplicate station id '{}'", st.id));
+                c.error(
+                    file,
+                    &format!("mass_balance.stations[{i}].id"),
+                    format!("duplicate station id '{}'", st.id),
+                );
             }
-            positive(c, file, &format!("mass_balance.stations[{i}].max_mass_kg"), st.max_mass_kg, "station limit");
+            positive(
+                c,
+                file,
+                &format!("mass_balance.stations[{i}].max_mass_kg"),
+                st.max_mass_kg,
+                "station limit",
+            );
         }
         for (i, tank) in mb.fuel_tanks.iter().enumerate() {
-            positive(c, file, &format!("mass_balance.fuel_tanks[{i}].usable_capacity_l"), tank.usable_capacity_l, "tank capacity");
+            positive(
+                c,
+                file,
+                &format!("mass_balance.fuel_tanks[{i}].usable_capacity_l"),
+                tank.usable_capacity_l,
+                "tank capacity",
+            );
             if !(0.5..=1.0).contains(&tank.fuel_density_kg_per_l) {
                 c.error(
                     file,
@@ -299,7 +503,11 @@ pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
             }
         }
         if mb.envelope.len() < 3 {
-            c.error(file, "mass_balance.envelope", "the CG envelope needs at least 3 points");
+            c.error(
+                file,
+                "mass_balance.envelope",
+                "the CG envelope needs at least 3 points",
+            );
         }
     }
 }
@@ -316,7 +524,14 @@ fn for_each(t: &Nested, mut f: impl FnMut(usize, usize, usize, f64)) {
 
 /// Distances must not fall, and climb rates must not rise, as mass, pressure altitude
 /// or OAT rise. One message per offending value, naming the axis.
-fn monotonic(file: &str, name: &str, t: &Nested, g: &super::tables::Grid, rising: bool, c: &mut Collector<'_>) {
+fn monotonic(
+    file: &str,
+    name: &str,
+    t: &Nested,
+    g: &super::tables::Grid,
+    rising: bool,
+    c: &mut Collector<'_>,
+) {
     let what = if rising { "decreases" } else { "increases" };
     let bad = |prev: f64, v: f64| if rising { v < prev } else { v > prev };
     let axes = [
@@ -366,20 +581,49 @@ fn angle_diff(a: f64, b: f64) -> f64 {
 /// Checks one airfield file.
 pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
     if a.id != file_stem(file) {
-        c.error(file, "id", format!("id '{}' differs from the file name; name the file {}.json", a.id, a.id));
+        c.error(
+            file,
+            "id",
+            format!(
+                "id '{}' differs from the file name; name the file {}.json",
+                a.id, a.id
+            ),
+        );
     }
     non_empty(c, file, "name", &a.name, "airfield name");
     if !(-1500.0..=16000.0).contains(&a.elevation_ft) {
-        c.error(file, "elevation_ft", format!("elevation {} ft is outside -1,500 to 16,000 ft; is it in metres?", a.elevation_ft));
+        c.error(
+            file,
+            "elevation_ft",
+            format!(
+                "elevation {} ft is outside -1,500 to 16,000 ft; is it in metres?",
+                a.elevation_ft
+            ),
+        );
     }
     if !(-90.0..=90.0).contains(&a.latitude_deg) {
-        c.error(file, "latitude_deg", format!("latitude {} is outside -90 to 90", a.latitude_deg));
+        c.error(
+            file,
+            "latitude_deg",
+            format!("latitude {} is outside -90 to 90", a.latitude_deg),
+        );
     }
     if !(-180.0..=180.0).contains(&a.longitude_deg) {
-        c.error(file, "longitude_deg", format!("longitude {} is outside -180 to 180", a.longitude_deg));
+        c.error(
+            file,
+            "longitude_deg",
+            format!("longitude {} is outside -180 to 180", a.longitude_deg),
+        );
     }
     if !(-180.0..=180.0).contains(&a.magnetic_variation_deg) {
-        c.error(file, "magnetic_variation_deg", format!("variation {} is outside -180 to 180", a.magnetic_variation_deg));
+        c.error(
+            file,
+            "magnetic_variation_deg",
+            format!(
+                "variation {} is outside -180 to 180",
+                a.magnetic_variation_deg
+            ),
+        );
     }
     if a.runway_ends.is_empty() {
         c.error(file, "runway_ends", "no runway ends");
@@ -388,22 +632,59 @@ pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
     for (i, e) in a.runway_ends.iter().enumerate() {
         let p = format!("runway_ends[{i}]");
         if let Some(first) = seen.insert(e.designator.as_str(), i) {
-            c.error(file, &format!("{p}.designator"), format!("duplicate designator '{}' (also runway_ends[{first}])", e.designator));
+            c.error(
+                file,
+                &format!("{p}.designator"),
+                format!(
+                    "duplicate designator '{}' (also runway_ends[{first}])",
+                    e.designator
+                ),
+            );
         }
-        for (name, v) in [("tora_m", e.tora_m), ("toda_m", e.toda_m), ("asda_m", e.asda_m), ("lda_m", e.lda_m)] {
+        for (name, v) in [
+            ("tora_m", e.tora_m),
+            ("toda_m", e.toda_m),
+            ("asda_m", e.asda_m),
+            ("lda_m", e.lda_m),
+        ] {
             positive(c, file, &format!("{p}.{name}"), v, name);
         }
         if e.tora_m > e.toda_m {
-            c.error(file, &format!("{p}.toda_m"), format!("TODA {} m is shorter than TORA {} m; TODA is TORA plus any clearway", e.toda_m, e.tora_m));
+            c.error(
+                file,
+                &format!("{p}.toda_m"),
+                format!(
+                    "TODA {} m is shorter than TORA {} m; TODA is TORA plus any clearway",
+                    e.toda_m, e.tora_m
+                ),
+            );
         }
         if e.asda_m < e.tora_m {
-            c.error(file, &format!("{p}.asda_m"), format!("ASDA {} m is shorter than TORA {} m; ASDA is TORA plus any stopway", e.asda_m, e.tora_m));
+            c.error(
+                file,
+                &format!("{p}.asda_m"),
+                format!(
+                    "ASDA {} m is shorter than TORA {} m; ASDA is TORA plus any stopway",
+                    e.asda_m, e.tora_m
+                ),
+            );
         }
         if !(0.0..=360.0).contains(&e.true_heading_deg) {
-            c.error(file, &format!("{p}.true_heading_deg"), format!("heading {} is outside 0 to 360", e.true_heading_deg));
+            c.error(
+                file,
+                &format!("{p}.true_heading_deg"),
+                format!("heading {} is outside 0 to 360", e.true_heading_deg),
+            );
         }
         match e.number() {
-            None => c.error(file, &format!("{p}.designator"), format!("designator '{}' is not a runway number 01–36 with an optional L, C or R", e.designator)),
+            None => c.error(
+                file,
+                &format!("{p}.designator"),
+                format!(
+                    "designator '{}' is not a runway number 01–36 with an optional L, C or R",
+                    e.designator
+                ),
+            ),
             Some(n) => {
                 let magnetic = normalise_deg(e.true_heading_deg - a.magnetic_variation_deg);
                 let diff = angle_diff(magnetic, f64::from(n) * 10.0);
@@ -420,21 +701,46 @@ pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
             }
         }
         if !(-10.0..=10.0).contains(&e.slope_percent) {
-            c.error(file, &format!("{p}.slope_percent"), format!("slope {} % is outside -10 to 10 %", e.slope_percent));
+            c.error(
+                file,
+                &format!("{p}.slope_percent"),
+                format!("slope {} % is outside -10 to 10 %", e.slope_percent),
+            );
         }
         if let Some(g) = &e.required_climb_gradient {
-            positive(c, file, &format!("{p}.required_climb_gradient.ft_per_nm"), g.ft_per_nm, "required climb gradient");
+            positive(
+                c,
+                file,
+                &format!("{p}.required_climb_gradient.ft_per_nm"),
+                g.ft_per_nm,
+                "required climb gradient",
+            );
         }
         for (k, x) in e.intersections.iter().enumerate() {
             let q = format!("{p}.intersections[{k}]");
             if x.tora_m > e.tora_m {
-                c.error(file, &format!("{q}.tora_m"), format!("intersection TORA {} m is longer than the full TORA {} m", x.tora_m, e.tora_m));
+                c.error(
+                    file,
+                    &format!("{q}.tora_m"),
+                    format!(
+                        "intersection TORA {} m is longer than the full TORA {} m",
+                        x.tora_m, e.tora_m
+                    ),
+                );
             }
             if x.tora_m > x.toda_m {
-                c.error(file, &format!("{q}.toda_m"), format!("TODA {} m is shorter than TORA {} m", x.toda_m, x.tora_m));
+                c.error(
+                    file,
+                    &format!("{q}.toda_m"),
+                    format!("TODA {} m is shorter than TORA {} m", x.toda_m, x.tora_m),
+                );
             }
             if x.asda_m < x.tora_m {
-                c.error(file, &format!("{q}.asda_m"), format!("ASDA {} m is shorter than TORA {} m", x.asda_m, x.tora_m));
+                c.error(
+                    file,
+                    &format!("{q}.asda_m"),
+                    format!("ASDA {} m is shorter than TORA {} m", x.asda_m, x.tora_m),
+                );
             }
         }
     }
@@ -442,15 +748,22 @@ pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
     for i in 0..a.runway_ends.len() {
         for j in (i + 1)..a.runway_ends.len() {
             let (ei, ej) = (&a.runway_ends[i], &a.runway_ends[j]);
-            let (Some(ni), Some(nj)) = (ei.number(), ej.number()) else { continue };
-            let si = ei.designator.trim_start_matches(|c: char| c.is_ascii_digit());
-            let sj = ej.designator.trim_start_matches(|c: char| c.is_ascii_digit());
+            let (Some(ni), Some(nj)) = (ei.number(), ej.number()) else {
+                continue;
+            };
+            let si = ei
+                .designator
+                .trim_start_matches(|c: char| c.is_ascii_digit());
+            let sj = ej
+                .designator
+                .trim_start_matches(|c: char| c.is_ascii_digit());
             let swapped = matches!((si, sj), ("", "") | ("C", "C") | ("L", "R") | ("R", "L"));
             if (ni + 18 - 1) % 36 + 1 != nj && (nj + 18 - 1) % 36 + 1 != ni || !swapped {
                 continue;
             }
             let (a_s, b_s) = (ei.slope_percent, ej.slope_percent);
-            let opposite = (a_s == 0.0 && b_s == 0.0) || (a_s * b_s < 0.0 && (a_s + b_s).abs() <= 0.05 * a_s.abs().max(b_s.abs()) + 0.01);
+            let opposite = (a_s == 0.0 && b_s == 0.0)
+                || (a_s * b_s < 0.0 && (a_s + b_s).abs() <= 0.05 * a_s.abs().max(b_s.abs()) + 0.01);
             if !opposite {
                 c.error(
                     file,
@@ -466,7 +779,11 @@ pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
     if let Some(pref) = &a.preferential_end
         && !a.runway_ends.iter().any(|e| &e.designator == pref)
     {
-        c.error(file, "preferential_end", format!("preferential end '{pref}' is not one of the runway ends"));
+        c.error(
+            file,
+            "preferential_end",
+            format!("preferential end '{pref}' is not one of the runway ends"),
+        );
     }
 }
 
@@ -474,7 +791,14 @@ pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
 pub fn check_legs_file(file: &str, l: &LegsFile, c: &mut Collector<'_>) {
     let stem = file_stem(file);
     if l.date.to_string() != stem {
-        c.error(file, "date", format!("date {} differs from the file name; name the file {}.json", l.date, l.date));
+        c.error(
+            file,
+            "date",
+            format!(
+                "date {} differs from the file name; name the file {}.json",
+                l.date, l.date
+            ),
+        );
     }
     for (i, leg) in l.legs.iter().enumerate() {
         let p = format!("legs[{i}]");
@@ -487,18 +811,36 @@ pub fn check_legs_file(file: &str, l: &LegsFile, c: &mut Collector<'_>) {
             );
         }
         if leg.arrives_at <= leg.departs_at {
-            c.error(file, &format!("{p}.arrives_at"), format!("arrives at {} before or when it departs ({})", leg.arrives_at.to_rfc3339(), leg.departs_at.to_rfc3339()));
+            c.error(
+                file,
+                &format!("{p}.arrives_at"),
+                format!(
+                    "arrives at {} before or when it departs ({})",
+                    leg.arrives_at.to_rfc3339(),
+                    leg.departs_at.to_rfc3339()
+                ),
+            );
         }
         match (&leg.takeoff_mass_kg, &leg.loads) {
             (None, None) => c.error(file, &p, "give either `takeoff_mass_kg` or `loads`"),
-            (Some(_), Some(_)) => c.error(file, &format!("{p}.loads"), "give either `takeoff_mass_kg` or `loads`, not both"),
-            (Some(m), None) => positive(c, file, &format!("{p}.takeoff_mass_kg"), *m, "takeoff mass"),
+            (Some(_), Some(_)) => c.error(
+                file,
+                &format!("{p}.loads"),
+                "give either `takeoff_mass_kg` or `loads`, not both",
+            ),
+            (Some(m), None) => {
+                positive(c, file, &format!("{p}.takeoff_mass_kg"), *m, "takeoff mass")
+            }
             (None, Some(_)) => {}
         }
         if let Some(m) = leg.landing_mass_kg {
             positive(c, file, &format!("{p}.landing_mass_kg"), m, "landing mass");
             if leg.takeoff_mass_kg.is_some_and(|t| m > t) {
-                c.error(file, &format!("{p}.landing_mass_kg"), "landing mass is above the takeoff mass");
+                c.error(
+                    file,
+                    &format!("{p}.landing_mass_kg"),
+                    "landing mass is above the takeoff mass",
+                );
             }
         }
     }
@@ -530,14 +872,29 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
     let af = "fleet/aircraft.json";
     for (i, a) in ops.aircraft.iter().enumerate() {
         if ops.aircraft_type(&a.type_id).is_none() {
-            c.error(af, &format!("aircraft[{i}].type_id"), format!("unknown aircraft type '{}'; add fleet/types/{}.json or fix the id", a.type_id, a.type_id));
+            c.error(
+                af,
+                &format!("aircraft[{i}].type_id"),
+                format!(
+                    "unknown aircraft type '{}'; add fleet/types/{}.json or fix the id",
+                    a.type_id, a.type_id
+                ),
+            );
         }
     }
     for (i, p) in ops.pilots.iter().enumerate() {
-        for (kind, list) in [("solo", &p.endorsements.solo), ("cross_country", &p.endorsements.cross_country), ("night", &p.endorsements.night)] {
+        for (kind, list) in [
+            ("solo", &p.endorsements.solo),
+            ("cross_country", &p.endorsements.cross_country),
+            ("night", &p.endorsements.night),
+        ] {
             for (k, e) in list.iter().enumerate() {
                 if ops.aircraft_type(&e.type_id).is_none() {
-                    c.error("pilots.json", &format!("pilots[{i}].endorsements.{kind}[{k}].type_id"), format!("unknown aircraft type '{}'", e.type_id));
+                    c.error(
+                        "pilots.json",
+                        &format!("pilots[{i}].endorsements.{kind}[{k}].type_id"),
+                        format!("unknown aircraft type '{}'", e.type_id),
+                    );
                 }
             }
         }
@@ -548,43 +905,99 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
         let p = format!("legs[{k}]");
         if let Some(first) = leg_ids.insert(leg.id.as_str(), i) {
             let (ff, fk) = &ops.leg_files[first];
-            c.error(file, &format!("{p}.id"), format!("duplicate leg id '{}' (also {ff} legs[{fk}])", leg.id));
+            c.error(
+                file,
+                &format!("{p}.id"),
+                format!("duplicate leg id '{}' (also {ff} legs[{fk}])", leg.id),
+            );
         }
         match ops.aircraft(&leg.aircraft) {
-            None => c.error(file, &format!("{p}.aircraft"), format!("unknown aircraft '{}'; it is not in fleet/aircraft.json", leg.aircraft)),
+            None => c.error(
+                file,
+                &format!("{p}.aircraft"),
+                format!(
+                    "unknown aircraft '{}'; it is not in fleet/aircraft.json",
+                    leg.aircraft
+                ),
+            ),
             Some(a) => {
                 if a.status == Status::Maintenance {
-                    let note = a.maintenance.as_ref().map_or(String::new(), |m| format!(" ({})", m.note));
-                    c.error(file, &format!("{p}.aircraft"), format!("aircraft {} is in maintenance{note}; choose another aircraft", a.registration));
+                    let note = a
+                        .maintenance
+                        .as_ref()
+                        .map_or(String::new(), |m| format!(" ({})", m.note));
+                    c.error(
+                        file,
+                        &format!("{p}.aircraft"),
+                        format!(
+                            "aircraft {} is in maintenance{note}; choose another aircraft",
+                            a.registration
+                        ),
+                    );
                 }
                 if let (Some(t), Some(m)) = (ops.aircraft_type(&a.type_id), leg.takeoff_mass_kg)
                     && m > t.file.limits.max_takeoff_mass_kg
                 {
-                    c.error(file, &format!("{p}.takeoff_mass_kg"), format!("takeoff mass {m} kg is above the maximum takeoff mass {} kg", t.file.limits.max_takeoff_mass_kg));
+                    c.error(
+                        file,
+                        &format!("{p}.takeoff_mass_kg"),
+                        format!(
+                            "takeoff mass {m} kg is above the maximum takeoff mass {} kg",
+                            t.file.limits.max_takeoff_mass_kg
+                        ),
+                    );
                 }
             }
         }
         match ops.pilot(&leg.pilot) {
-            None => c.error(file, &format!("{p}.pilot"), format!("unknown pilot '{}'; it is not in pilots.json", leg.pilot)),
+            None => c.error(
+                file,
+                &format!("{p}.pilot"),
+                format!("unknown pilot '{}'; it is not in pilots.json", leg.pilot),
+            ),
             Some(pl) => {
-                if (leg.category == Category::StudentSolo) != (pl.category == Category::StudentSolo) {
-                    c.warn(file, &format!("{p}.category"), format!("leg category {} but pilot {} is listed as {}", leg.category.name(), pl.id, pl.category.name()));
+                if (leg.category == Category::StudentSolo) != (pl.category == Category::StudentSolo)
+                {
+                    c.warn(
+                        file,
+                        &format!("{p}.category"),
+                        format!(
+                            "leg category {} but pilot {} is listed as {}",
+                            leg.category.name(),
+                            pl.id,
+                            pl.category.name()
+                        ),
+                    );
                 }
             }
         }
         for (field, id) in [("from", &leg.from), ("to", &leg.to)] {
             if ops.airfield(id).is_none() {
-                c.error(file, &format!("{p}.{field}"), format!("unknown airfield '{id}'; add airfields/{id}.json or fix the id"));
+                c.error(
+                    file,
+                    &format!("{p}.{field}"),
+                    format!("unknown airfield '{id}'; add airfields/{id}.json or fix the id"),
+                );
             }
         }
         if ops.minimums(leg.category).is_none() {
-            c.error(file, &format!("{p}.category"), format!("operator.json has no minimums for category {}", leg.category.name()));
+            c.error(
+                file,
+                &format!("{p}.category"),
+                format!(
+                    "operator.json has no minimums for category {}",
+                    leg.category.name()
+                ),
+            );
         }
     }
     // Per aircraft, in time order: overlaps (error) and position continuity (warning).
     let mut by_aircraft: HashMap<&str, Vec<usize>> = HashMap::new();
     for (i, leg) in ops.legs.iter().enumerate() {
-        by_aircraft.entry(leg.aircraft.as_str()).or_default().push(i);
+        by_aircraft
+            .entry(leg.aircraft.as_str())
+            .or_default()
+            .push(i);
     }
     let mut regs: Vec<_> = by_aircraft.into_iter().collect();
     regs.sort();
@@ -594,15 +1007,40 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
             let (a, b) = (&ops.legs[w[0]], &ops.legs[w[1]]);
             let (file, k) = &ops.leg_files[w[1]];
             if b.departs_utc() < a.arrives_utc() {
-                c.error(file, &format!("legs[{k}].departs_at"), format!("aircraft {} is on leg {} until {}, which overlaps leg {}", b.aircraft, a.id, a.arrives_utc().format("%H%MZ"), b.id));
+                c.error(
+                    file,
+                    &format!("legs[{k}].departs_at"),
+                    format!(
+                        "aircraft {} is on leg {} until {}, which overlaps leg {}",
+                        b.aircraft,
+                        a.id,
+                        a.arrives_utc().format("%H%MZ"),
+                        b.id
+                    ),
+                );
             } else if b.from != a.to {
-                c.warn(file, &format!("legs[{k}].from"), format!("aircraft {} departs {} but its previous leg {} landed at {}", b.aircraft, b.from, a.id, a.to));
+                c.warn(
+                    file,
+                    &format!("legs[{k}].from"),
+                    format!(
+                        "aircraft {} departs {} but its previous leg {} landed at {}",
+                        b.aircraft, b.from, a.id, a.to
+                    ),
+                );
             }
         }
     }
     // Coverage: tables against the folder's observations and airfields.
-    let hottest = ops.observations.iter().filter_map(|(_, t)| max_reported_temperature(t)).reduce(f64::max);
-    let highest = ops.airfields.iter().map(|a| a.elevation_ft).reduce(f64::max);
+    let hottest = ops
+        .observations
+        .iter()
+        .filter_map(|(_, t)| max_reported_temperature(t))
+        .reduce(f64::max);
+    let highest = ops
+        .airfields
+        .iter()
+        .map(|a| a.elevation_ft)
+        .reduce(f64::max);
     for (t, file) in ops.types.iter().zip(&ops.type_files) {
         let g = &t.performance.grid;
         let (_, top_oat) = g.range(Axis::Oat);

@@ -1,0 +1,52 @@
+//! What `rhoboard` prints with no subcommand while the board is being built: what the
+//! tool does, the caution, and a worked `calc` example computed live.
+
+use std::io::Write;
+
+use crate::commands::Outcome;
+use crate::commands::calc::{self, Inputs};
+
+/// The worked example's inputs: a warm afternoon at a high field (invented values).
+pub const EXAMPLE: [&str; 4] = ["5900ft", "30.12inHg", "31C", "8C"];
+
+/// Prints the overview.
+pub fn run(out: &mut dyn Write) -> anyhow::Result<Outcome> {
+    writeln!(
+        out,
+        "rhoboard {} — a dispatch board for flight schools and charter operators.\n\
+         For every planned leg it works out density altitude, takeoff and landing distance\n\
+         against the runway, climb and wind against the operator's own minimums.\n",
+        env!("CARGO_PKG_VERSION")
+    )?;
+    writeln!(out, "{}\n", crate::CAUTION)?;
+    let args = calc::Args {
+        elevation: EXAMPLE[0].into(),
+        altimeter: EXAMPLE[1].into(),
+        temp: EXAMPLE[2].into(),
+        dewpoint: Some(EXAMPLE[3].into()),
+        ias: Some("65kt".into()),
+        json: false,
+    };
+    writeln!(
+        out,
+        "Worked example — rhoboard calc --elevation {} --altimeter {} --temp {} --dewpoint {} --ias 65kt\n",
+        EXAMPLE[0], EXAMPLE[1], EXAMPLE[2], EXAMPLE[3]
+    )?;
+    let result = calc::compute(&Inputs::from_args(&args)?);
+    writeln!(
+        out,
+        "  pressure altitude {} ft, density altitude {} ft (ISA {:+.1} °C), 65 kt indicated is {:.0} kt true.\n  {}\n",
+        calc::feet(result.pressure_altitude_ft),
+        calc::feet(result.density_altitude_ft),
+        result.isa_deviation_c,
+        result.true_airspeed_kt.unwrap_or(f64::NAN),
+        calc::meaning(&result)
+    )?;
+    writeln!(
+        out,
+        "Commands in this version (rhoboard help COMMAND for each):\n  \
+         calc       the air at a field from elevation, altimeter setting and temperature\n\n\
+         Values carry their unit: 5900ft 1800m 30.12inHg 1019hPa 31C 88F 15kt."
+    )?;
+    Ok(Outcome::Success)
+}
