@@ -31,7 +31,7 @@ pub use legs::Leg;
 pub use load::{Diagnostic, Loaded, OpsFiles, Report, Severity, load_files};
 pub use operator::{Minimums, OperatorFile};
 pub use pilots::{Category, Pilot};
-pub use tables::{Axis, Cell, Grid, OutsideTable, Table};
+pub use tables::{Axis, Cell, Clamped, Grid, OutsideTable, Table};
 
 /// A loaded, checked operator. Lists keep file order; lookups by id are hashed.
 #[derive(Debug, Clone)]

@@ -134,7 +134,7 @@ pub fn gagg_ferrar(sigma: f64) -> f64 {
 /// `T (V + v_i) = η P`, `v_i = (−V + √(V² + 2T/(ρA)))/2`, by bisection.
 pub fn propeller_thrust_n(power_w: f64, eta: f64, rho: f64, disk_area_m2: f64, v_mps: f64) -> f64 {
     let target = eta * power_w;
-    if !(target > 0.0) {
+    if target.is_nan() || target <= 0.0 {
         return 0.0;
     }
     let useful = |t: f64| {

@@ -275,15 +275,15 @@ impl<'a> Collector<'a> {
         lists: &[(&str, Parser)],
     ) -> Option<T> {
         let text = self.files.files.get(file)?;
-        if let Some(v) = schema_version(text) {
-            if v != u64::from(SCHEMA_VERSION) {
-                self.error(
-                    file,
-                    "schema_version",
-                    format!("schema_version {v} is not one this build reads ({SCHEMA_VERSION})"),
-                );
-                return None;
-            }
+        if let Some(v) = schema_version(text)
+            && v != u64::from(SCHEMA_VERSION)
+        {
+            self.error(
+                file,
+                "schema_version",
+                format!("schema_version {v} is not one this build reads ({SCHEMA_VERSION})"),
+            );
+            return None;
         }
         match serde_json::from_str::<T>(text) {
             Ok(v) => Some(v),
@@ -353,6 +353,9 @@ pub fn load_files(files: &OpsFiles) -> Loaded {
         super::validate::check_cross(ops, &mut c);
     }
     let ok = c.report.errors.is_empty();
+    let key = |d: &Diagnostic| (d.file.clone(), d.line, d.column);
+    c.report.errors.sort_by_key(key);
+    c.report.warnings.sort_by_key(key);
     Loaded {
         ops: if ok { ops } else { None },
         report: c.report,

@@ -275,6 +275,57 @@ impl Grid {
     }
 }
 
+/// Which axes a conservative lookup held at the table's lowest value.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]
+pub struct Clamped {
+    /// Mass below the lightest table mass: the lightest used.
+    pub mass: bool,
+    /// Pressure altitude below the lowest row: the lowest used.
+    pub pressure_altitude: bool,
+    /// OAT below the coldest column: the coldest used.
+    pub oat: bool,
+}
+
+impl Clamped {
+    /// Whether any axis was held.
+    pub const fn any(self) -> bool {
+        self.mass || self.pressure_altitude || self.oat
+    }
+}
+
+impl Grid {
+    /// Like [`Grid::locate`], but a value *below* an axis is held at the axis's lowest
+    /// point (and reported in [`Clamped`]); above is still [`OutsideTable`].
+    ///
+    /// This is conservative for checked tables: validation requires distances not to
+    /// fall, and climb rates not to rise, as mass, pressure altitude and OAT rise, so the
+    /// lowest row gives a distance at least as long and a climb at most as good as the
+    /// true (lighter, lower, colder) value. Typical use: a sea-level field under high
+    /// pressure (negative pressure altitude) with a manual that starts at sea level.
+    /// A table with `irregular_ok` is not monotonic; use [`Grid::locate`] for it.
+    #[inline]
+    pub fn locate_conservative(
+        &self,
+        mass_kg: f64,
+        pressure_altitude_ft: f64,
+        oat_c: f64,
+    ) -> Result<(Cell, Clamped), OutsideTable> {
+        let clamp = |v: &[f64], x: f64| if x < v[0] { (v[0], true) } else { (x, false) };
+        let (m, cm) = clamp(&self.mass_kg, mass_kg);
+        let (p, cp) = clamp(&self.pressure_altitude_ft, pressure_altitude_ft);
+        let (t, ct) = clamp(&self.oat_c, oat_c);
+        let cell = self.locate(m, p, t)?;
+        Ok((
+            cell,
+            Clamped {
+                mass: cm,
+                pressure_altitude: cp,
+                oat: ct,
+            },
+        ))
+    }
+}
+
 fn check_axis(axis: Axis, v: &[f64]) -> Result<(), GridError> {
     if v.is_empty() {
         return Err(GridError::Empty(axis));

@@ -2,6 +2,11 @@
 //! meaning) and across files (references, overlaps, coverage). Every problem is
 //! collected; nothing stops at the first.
 
+#![expect(
+    clippy::neg_cmp_op_on_partial_ord,
+    reason = "`!(x >= 0.0)` also refuses NaN, which `x < 0.0` would let through"
+)]
+
 use std::collections::{HashMap, HashSet};
 
 use super::Ops;
@@ -17,6 +22,16 @@ use super::tables::Axis;
 fn file_stem(file: &str) -> &str {
     let name = file.rsplit('/').next().unwrap_or(file);
     name.strip_suffix(".json").unwrap_or(name)
+}
+
+fn template(c: &mut Collector<'_>, file: &str, notice: &Option<String>) {
+    if notice.is_some() {
+        c.warn(
+            file,
+            "replace_before_use",
+            "this file is still the fictional template from `rhoboard init`: replace its values with your own, then delete `replace_before_use`",
+        );
+    }
 }
 
 fn positive(c: &mut Collector<'_>, file: &str, path: &str, v: f64, what: &str) {
@@ -38,6 +53,7 @@ fn non_empty(c: &mut Collector<'_>, file: &str, path: &str, v: &str, what: &str)
 /// Checks `operator.json`.
 pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
     let f = "operator.json";
+    template(c, f, &o.replace_before_use);
     non_empty(c, f, "name", &o.name, "operator name");
     if o.time_zone.utc_offset_min.abs() > 14 * 60 {
         c.error(
@@ -213,6 +229,7 @@ fn surface_rule(c: &mut Collector<'_>, f: &str, path: &str, r: SurfaceRule) {
 /// Checks `pilots.json`.
 pub fn check_pilots(p: &PilotsFile, c: &mut Collector<'_>) {
     let f = "pilots.json";
+    template(c, f, &p.replace_before_use);
     let mut seen = HashMap::new();
     for (i, pilot) in p.pilots.iter().enumerate() {
         let path = format!("pilots[{i}]");
@@ -234,6 +251,7 @@ pub fn check_pilots(p: &PilotsFile, c: &mut Collector<'_>) {
 /// Checks `fleet/aircraft.json`.
 pub fn check_aircraft_file(a: &AircraftFile, c: &mut Collector<'_>) {
     let f = "fleet/aircraft.json";
+    template(c, f, &a.replace_before_use);
     let mut seen = HashMap::new();
     for (i, ac) in a.aircraft.iter().enumerate() {
         let path = format!("aircraft[{i}]");
@@ -284,6 +302,7 @@ fn index_path(m: usize, p: usize, t: usize) -> String {
 /// Checks one type file (its tables have been built, so the shapes match the axes).
 pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
     let tf = &t.file;
+    template(c, file, &tf.replace_before_use);
     if tf.id != file_stem(file) {
         c.error(
             file,
@@ -580,6 +599,7 @@ fn angle_diff(a: f64, b: f64) -> f64 {
 
 /// Checks one airfield file.
 pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
+    template(c, file, &a.replace_before_use);
     if a.id != file_stem(file) {
         c.error(
             file,
@@ -789,6 +809,7 @@ pub fn check_airfield(file: &str, a: &Airfield, c: &mut Collector<'_>) {
 
 /// Checks one legs file on its own.
 pub fn check_legs_file(file: &str, l: &LegsFile, c: &mut Collector<'_>) {
+    template(c, file, &l.replace_before_use);
     let stem = file_stem(file);
     if l.date.to_string() != stem {
         c.error(
