@@ -253,12 +253,28 @@ impl<'a> Collector<'a> {
             line_col_to_offset_in(text.get(base..).unwrap_or(""), err.line(), err.column());
         let offset = base + elem_off;
         let spans = self.spans(file);
-        let (line, column) = spans.line_col(offset);
-        let path = spans.path_at(offset.saturating_sub(1)).to_string();
         let mut msg = err.to_string();
         if let Some(i) = msg.rfind(" at line ") {
             msg.truncate(i);
         }
+        // A missing field is reported at the object's closing brace: name the object.
+        let (path, (line, column)) = if msg.starts_with("missing field") {
+            let p = spans.path_at(offset).to_string();
+            let pos = spans.position(&p);
+            (p, pos)
+        } else {
+            (
+                spans.path_at(offset.saturating_sub(1)).to_string(),
+                spans.line_col(offset),
+            )
+        };
+        let msg = msg
+            .replace(
+                "expected f64",
+                "expected a number (the unit is in the field name)",
+            )
+            .replace("expected u32", "expected a whole number")
+            .replace("expected u64", "expected a whole number");
         let msg = match err.classify() {
             serde_json::error::Category::Syntax => format!("JSON syntax: {msg}"),
             serde_json::error::Category::Eof => format!("JSON ends too early: {msg}"),
