@@ -1576,7 +1576,15 @@ pub fn describe(r: &Report, g: &Group) -> String {
         GroupKind::Temperature => {
             let f = |v: Option<f64>| v.map_or("not reported".to_string(), |v| format!("{v:.0} °C"));
             if r.temperature_from_remarks {
-                "temperature and dew point (whole degrees; the remark T group gives tenths)".into()
+                // The fields hold the remark's tenths; show the group's own whole degrees.
+                let text = r.group_text(g);
+                let (t, d) = text.split_once('/').unwrap_or((text, ""));
+                let whole = |s: &str| temp_value(s).ok().flatten();
+                format!(
+                    "temperature {}, dew point {} (the remark T group's tenths are used)",
+                    f(whole(t)),
+                    f(whole(d))
+                )
             } else {
                 format!(
                     "temperature {}, dew point {}",
