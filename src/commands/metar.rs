@@ -8,7 +8,7 @@ use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
 
 use super::Outcome;
-use crate::observation::{Ceiling, Report, describe, split_reports};
+use crate::observation::{Ceiling, DecodeError, Report, describe, split_reports};
 
 /// Arguments of `rhoboard metar`.
 #[derive(Debug, Clone, clap::Args)]
@@ -194,28 +194,44 @@ pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Resu
         })
         .collect();
     writeln!(out, "{shown}")?;
-    let width = r
-        .groups
+    // Decoded groups, groups not understood and malformed needed groups, in report order.
+    let mut lines: Vec<(usize, String, String)> = Vec::new();
+    for g in &r.groups {
+        let column = r.text.get(..g.start).map_or(0, |p| p.chars().count()) + 1;
+        lines.push((column, r.group_text(g).to_string(), describe(r, g)));
+    }
+    for n in &r.not_understood {
+        lines.push((
+            n.column,
+            n.group.clone(),
+            format!("not understood: {}", n.reason),
+        ));
+    }
+    for e in &r.errors {
+        if let DecodeError::Malformed {
+            group,
+            text,
+            column,
+            problem,
+        } = e
+        {
+            lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
+        }
+    }
+    lines.sort_by_key(|(column, _, _)| *column);
+    let width = lines
         .iter()
-        .map(|g| r.group_text(g).chars().count())
+        .map(|(_, t, _)| t.chars().count())
         .filter(|n| *n <= 24)
         .max()
         .unwrap_or(8);
-    for g in &r.groups {
-        let text = r.group_text(g);
+    for (_, text, meaning) in &lines {
         if text.chars().count() > 24 {
             writeln!(out, "  {text}")?;
-            writeln!(out, "  {:width$}  {}", "", describe(r, g))?;
+            writeln!(out, "  {:width$}  {meaning}", "")?;
         } else {
-            writeln!(out, "  {text:width$}  {}", describe(r, g))?;
+            writeln!(out, "  {text:width$}  {meaning}")?;
         }
-    }
-    for n in &r.not_understood {
-        writeln!(
-            out,
-            "  {:width$}  not understood (column {}): {}",
-            n.group, n.column, n.reason
-        )?;
     }
     let ceiling = match r.ceiling {
         Ceiling::None => "none".to_string(),
