@@ -293,7 +293,7 @@ pub fn manual_observation(
         return Err(errors);
     }
     let wind = Wind {
-        direction_deg: if calm { Some(360.0) } else { direction_deg },
+        direction_deg: if calm { Some(0.0) } else { direction_deg },
         variable,
         speed_kt,
         speed_bound: Bound::Exact,
