@@ -7,6 +7,9 @@ pub mod overview;
 
 use std::process::ExitCode;
 
+pub mod init;
+pub mod validate;
+
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Outcome {

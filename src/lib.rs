@@ -13,6 +13,7 @@ pub mod atmosphere;
 pub mod commands;
 pub mod daylight;
 pub mod observation;
+pub mod ops;
 pub mod units;
 
 /// The caution shown on every screen and in every report.

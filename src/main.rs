@@ -22,6 +22,10 @@ enum Command {
     Calc(commands::calc::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
+    /// Checks an operator folder and reports every problem (file, line, column, field).
+    Validate(commands::validate::Args),
+    /// Writes a new operator folder from the fictional demo, every value marked to replace.
+    Init(commands::init::Args),
 }
 
 fn main() -> ExitCode {
@@ -31,6 +35,8 @@ fn main() -> ExitCode {
         None => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
+        Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
+        Some(Command::Init(args)) => commands::init::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),

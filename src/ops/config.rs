@@ -1,0 +1,88 @@
+//! Where the configured operator folder is remembered: a one-line file in the
+//! platform config dir (`directories`), overridden by `--ops DIR`.
+
+use std::path::{Path, PathBuf};
+
+/// The file holding the default operator folder, if the platform has a config dir.
+pub fn config_file() -> Option<PathBuf> {
+    directories::ProjectDirs::from("", "", "rhoboard").map(|d| d.config_dir().join("ops-folder"))
+}
+
+/// Reads the remembered operator folder from a config file; `None` when unset.
+pub fn read_default(config: &Path) -> Option<PathBuf> {
+    let text = std::fs::read_to_string(config).ok()?;
+    let line = text.lines().next()?.trim();
+    (!line.is_empty()).then(|| PathBuf::from(line))
+}
+
+/// Remembers an operator folder as the default.
+pub fn write_default(config: &Path, folder: &Path) -> std::io::Result<()> {
+    if let Some(parent) = config.parent() {
+        std::fs::create_dir_all(parent)?;
+    }
+    std::fs::write(config, format!("{}\n", folder.display()))
+}
+
+/// Which operator to use.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum Choice {
+    /// A folder named with `--ops`: failing to load it is an error.
+    Explicit(PathBuf),
+    /// The remembered default: failing to load it warns and falls back to the demo.
+    Configured(PathBuf),
+    /// The built-in demo.
+    Demo,
+}
+
+/// Picks the operator: `--ops` first, then the remembered default, else the demo.
+pub fn choose(explicit: Option<&Path>, config: Option<&Path>) -> Choice {
+    if let Some(p) = explicit {
+        return Choice::Explicit(p.to_path_buf());
+    }
+    match config.and_then(read_default) {
+        Some(p) => Choice::Configured(p),
+        None => Choice::Demo,
+    }
+}
+
+/// Loads the chosen operator for use (board, check, report). An explicit folder that
+/// fails is an error; a configured default that fails falls back to the demo and the
+/// returned warning says why; the demo always loads.
+pub fn load_for_use(choice: &Choice) -> anyhow::Result<(super::Ops, Option<String>)> {
+    let demo = || {
+        super::demo::load().ops.ok_or_else(|| {
+            anyhow::anyhow!("the built-in demo failed its own checks (a bug; please report it)")
+        })
+    };
+    match choice {
+        Choice::Demo => Ok((demo()?, None)),
+        Choice::Explicit(dir) => {
+            let loaded = super::load_dir(dir)?;
+            match loaded.ops {
+                Some(ops) => Ok((ops, None)),
+                None => Err(anyhow::anyhow!(
+                    "operator folder {} has {} problem(s); run `rhoboard validate --ops {}`",
+                    dir.display(),
+                    loaded.report.errors.len(),
+                    dir.display()
+                )),
+            }
+        }
+        Choice::Configured(dir) => {
+            let why = match super::load_dir(dir) {
+                Ok(loaded) => match loaded.ops {
+                    Some(ops) => return Ok((ops, None)),
+                    None => format!("{} problem(s)", loaded.report.errors.len()),
+                },
+                Err(e) => format!("{e:#}"),
+            };
+            Ok((
+                demo()?,
+                Some(format!(
+                    "the configured operator folder {} did not load ({why}); showing the built-in demo — run `rhoboard validate`",
+                    dir.display()
+                )),
+            ))
+        }
+    }
+}

@@ -1,0 +1,377 @@
+//! One broken operator per kind of problem (`tests/bad-ops/<case>/`), each checked for
+//! the exact message `rhoboard validate` prints.
+//!
+//! A case folder holds only the files that differ from `tests/bad-ops/_base/` (a small,
+//! valid operator), plus an optional `DELETE` listing files to remove. The test lays the
+//! base and the case into a temporary folder and runs the real command on it.
+
+use std::path::{Path, PathBuf};
+
+use rhoboard::commands::validate::{Args, run};
+
+fn copy_tree(from: &Path, to: &Path) {
+    for e in std::fs::read_dir(from).unwrap() {
+        let e = e.unwrap();
+        let p = e.path();
+        let target = to.join(e.file_name());
+        if p.is_dir() {
+            std::fs::create_dir_all(&target).unwrap();
+            copy_tree(&p, &target);
+        } else if e.file_name() != "DELETE" {
+            std::fs::copy(&p, &target).unwrap();
+        }
+    }
+}
+
+/// Lays out a case and returns what `rhoboard validate` prints, after the first line
+/// (which names the temporary folder), followed by the exit code.
+fn validate_case(name: &str) -> String {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/bad-ops");
+    let dir: PathBuf =
+        std::env::temp_dir().join(format!("rhoboard-bad-{name}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    copy_tree(&root.join("_base"), &dir);
+    copy_tree(&root.join(name), &dir);
+    if let Ok(list) = std::fs::read_to_string(root.join(name).join("DELETE")) {
+        for f in list.lines().filter(|l| !l.trim().is_empty()) {
+            std::fs::remove_file(dir.join(f.trim())).unwrap();
+        }
+    }
+    let mut out = Vec::new();
+    let outcome = run(
+        &Args {
+            ops: Some(dir.clone()),
+        },
+        &mut out,
+    )
+    .unwrap();
+    std::fs::remove_dir_all(&dir).unwrap();
+    let text = String::from_utf8(out).unwrap();
+    let body: Vec<&str> = text.lines().skip(1).collect();
+    format!("{}\nexit {}", body.join("\n"), outcome.code())
+}
+
+#[test]
+fn the_base_is_valid() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/bad-ops/_base");
+    let loaded = rhoboard::ops::load_dir(&root).unwrap();
+    assert!(
+        loaded.report.errors.is_empty() && loaded.report.warnings.is_empty(),
+        "{:#?}",
+        loaded.report
+    );
+}
+
+#[test]
+fn every_case_folder_has_a_test() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/bad-ops");
+    let mut cases: Vec<String> = std::fs::read_dir(&root)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .filter(|n| n != "_base")
+        .collect();
+    cases.sort();
+    assert_eq!(cases, CASES);
+}
+const CASES: &[&str] = &[
+    "axes-not-increasing",
+    "climb-increases",
+    "designator-heading",
+    "distance-decreases",
+    "duplicate-ids",
+    "ground-roll-above-50ft",
+    "irregular-ok",
+    "json-syntax",
+    "leg-arrives-first",
+    "leg-maintenance",
+    "leg-overlap-and-position",
+    "leg-unknown-refs",
+    "leg-wrong-day-file",
+    "maintenance-without-note",
+    "missing-field",
+    "missing-file",
+    "non-positive-distance",
+    "schema-version",
+    "slope-signs",
+    "table-shape",
+    "table-too-cool",
+    "three-errors-one-file",
+    "tora-toda-asda",
+    "unknown-fields",
+    "variation-sign",
+    "wrong-type",
+];
+
+#[test]
+fn axes_not_increasing() {
+    insta::assert_snapshot!(validate_case("axes-not-increasing"), @r#"
+    1 error(s):
+      fleet/types/tiny.json:11:68: performance.axes.pressure_altitude_ft[1]: axis pressure_altitude_ft must be strictly increasing, but 0 follows 8000
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn climb_increases() {
+    insta::assert_snapshot!(validate_case("climb-increases"), @r#"
+    2 error(s):
+      fleet/types/tiny.json:22:40: performance.climb.rate_fpm[0][1][1]: value 940 increases from 900 as pressure altitude rises from 0 to 8000 ft; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
+      fleet/types/tiny.json:22:40: performance.climb.rate_fpm[0][1][1]: value 940 increases from 600 as OAT rises from -10 to 40 °C; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn designator_heading() {
+    insta::assert_snapshot!(validate_case("designator-heading"), @r#"
+    1 error(s):
+      airfields/XAAA.json:10:46: runway_ends[0].true_heading_deg: designator 09 disagrees with the magnetic heading 110° (true 112 − variation 2) by 20°; check the heading, the designator or the variation's sign (east positive)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn distance_decreases() {
+    insta::assert_snapshot!(validate_case("distance-decreases"), @r#"
+    2 error(s):
+      fleet/types/tiny.json:14:46: performance.takeoff.distance_50ft_m[0][1][1]: value 360 decreases from 370 as pressure altitude rises from 0 to 8000 ft; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
+      fleet/types/tiny.json:14:46: performance.takeoff.distance_50ft_m[0][1][1]: value 360 decreases from 460 as OAT rises from -10 to 40 °C; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn duplicate_ids() {
+    insta::assert_snapshot!(validate_case("duplicate-ids"), @r#"
+    4 error(s):
+      fleet/aircraft.json:5:22: aircraft[1].registration: duplicate registration 'X-TINA' (also aircraft[0])
+      legs/2026-06-14.json:7:12: legs[1].id: duplicate leg id 'T1' (also legs/2026-06-14.json legs[0])
+      legs/2026-06-14.json:8:15: legs[1].pilot: unknown pilot 'ins-bo'; it is not in pilots.json
+      pilots.json:6:12: pilots[1].id: duplicate pilot id 'stu-ash' (also pilots[0])
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn ground_roll_above_50ft() {
+    insta::assert_snapshot!(validate_case("ground-roll-above-50ft"), @r#"
+    1 error(s):
+      fleet/types/tiny.json:13:70: performance.takeoff.ground_roll_m[1][1][1]: ground roll 1500 m is longer than the 50 ft distance 930 m at the same point; one of them is mistyped
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn irregular_ok() {
+    insta::assert_snapshot!(validate_case("irregular-ok"), @r#"
+    All is well: 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    exit 0
+    "#);
+}
+
+#[test]
+fn json_syntax() {
+    insta::assert_snapshot!(validate_case("json-syntax"), @r#"
+    1 error(s):
+      airfields/XAAA.json:5:24: JSON syntax: key must be a string
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn leg_arrives_first() {
+    insta::assert_snapshot!(validate_case("leg-arrives-first"), @r#"
+    1 error(s):
+      legs/2026-06-14.json:5:70: legs[0].arrives_at: arrives at 2026-06-14T07:30:00+00:00 before or when it departs (2026-06-14T08:00:00+00:00)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn leg_maintenance() {
+    insta::assert_snapshot!(validate_case("leg-maintenance"), @r#"
+    1 error(s):
+      legs/2026-06-14.json:7:116: legs[1].aircraft: aircraft X-TINB is in maintenance (Propeller overhaul); choose another aircraft
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn leg_overlap_and_position() {
+    insta::assert_snapshot!(validate_case("leg-overlap-and-position"), @r#"
+    1 error(s):
+      legs/2026-06-14.json:7:32: legs[1].departs_at: aircraft X-TINA is on leg T1 until 0900Z, which overlaps leg T2
+    1 warning(s):
+      legs/2026-06-14.json:10:53: legs[2].from: aircraft X-TINA departs XBBB but its previous leg T2 landed at XAAA
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn leg_unknown_refs() {
+    insta::assert_snapshot!(validate_case("leg-unknown-refs"), @r#"
+    3 error(s):
+      legs/2026-06-14.json:5:106: legs[0].aircraft: unknown aircraft 'X-TINZ'; it is not in fleet/aircraft.json
+      legs/2026-06-14.json:6:15: legs[0].pilot: unknown pilot 'stu-ashe'; it is not in pilots.json
+      legs/2026-06-14.json:6:63: legs[0].from: unknown airfield 'XAAB'; add airfields/XAAB.json or fix the id
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn leg_wrong_day_file() {
+    insta::assert_snapshot!(validate_case("leg-wrong-day-file"), @r#"
+    1 error(s):
+      legs/2026-06-14.json:5:32: legs[0].departs_at: departs on 2026-06-15 UTC, but this file holds the legs departing on 2026-06-14; move it to legs/2026-06-15.json
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn maintenance_without_note() {
+    insta::assert_snapshot!(validate_case("maintenance-without-note"), @r#"
+    1 error(s):
+      fleet/aircraft.json:5:104: aircraft[1].status: status is `maintenance` but there is no `maintenance` note: add {"note": …, "since": "YYYY-MM-DD"}
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn missing_field() {
+    insta::assert_snapshot!(validate_case("missing-field"), @r#"
+    1 error(s):
+      fleet/aircraft.json:4:5: aircraft[0]: missing field `empty_mass_kg`
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn missing_file() {
+    insta::assert_snapshot!(validate_case("missing-file"), @r#"
+    1 error(s):
+      pilots.json:1:1: file is missing; every operator folder needs one (`rhoboard init DIR` writes a template)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn non_positive_distance() {
+    insta::assert_snapshot!(validate_case("non-positive-distance"), @r#"
+    2 error(s):
+      fleet/types/tiny.json:17:29: performance.landing.distance_50ft_m[0][0][0]: distance 0 m must be positive
+      fleet/types/tiny.json:18:27: performance.landing.ground_roll_m[0][0][0]: ground roll 140 m is longer than the 50 ft distance 0 m at the same point; one of them is mistyped
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn schema_version() {
+    insta::assert_snapshot!(validate_case("schema-version"), @r#"
+    1 error(s):
+      airfields/XBBB.json:2:21: schema_version: schema_version 2 is not one this build reads (1)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn slope_signs() {
+    insta::assert_snapshot!(validate_case("slope-signs"), @r#"
+    1 error(s):
+      airfields/XAAA.json:11:147: runway_ends[1].slope_percent: runway 27 slopes 1 % and its opposite end 09 slopes 1 %; opposite ends carry opposite signs (uphill one way is downhill the other)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn table_shape() {
+    insta::assert_snapshot!(validate_case("table-shape"), @r#"
+    1 error(s):
+      fleet/types/tiny.json:13:38: performance.takeoff.ground_roll_m[0][1]: expected 2 columns (one per oat_c value), found 1
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn table_too_cool() {
+    insta::assert_snapshot!(validate_case("table-too-cool"), @r#"
+    1 warning(s):
+      fleet/types/tiny.json:11:81: performance.axes.oat_c: tables stop at 40 °C while the folder's reports reach 43 °C; legs in that heat will be no-data
+    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    exit 0
+    "#);
+}
+
+#[test]
+fn three_errors_one_file() {
+    insta::assert_snapshot!(validate_case("three-errors-one-file"), @r#"
+    3 error(s):
+      airfields/XBBB.json:6:19: latitude_deg: latitude 140.2 is outside -90 to 90
+      airfields/XBBB.json:10:76: runway_ends[0].toda_m: TODA 650 m is shorter than TORA 700 m; TODA is TORA plus any clearway
+      airfields/XBBB.json:10:105: runway_ends[0].lda_m: lda_m must be a positive number, found -700
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn tora_toda_asda() {
+    insta::assert_snapshot!(validate_case("tora-toda-asda"), @r#"
+    2 error(s):
+      airfields/XAAA.json:10:75: runway_ends[0].toda_m: TODA 850 m is shorter than TORA 900 m; TODA is TORA plus any clearway
+      airfields/XAAA.json:10:90: runway_ends[0].asda_m: ASDA 800 m is shorter than TORA 900 m; ASDA is TORA plus any stopway
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn unknown_fields() {
+    insta::assert_snapshot!(validate_case("unknown-fields"), @r#"
+    2 error(s):
+      airfields/XAAA.json:10:56: runway_ends[0]: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
+      airfields/XAAA.json:11:130: runway_ends[1].surface: unknown variant `asphalt`, expected `paved` or `grass`
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn variation_sign() {
+    insta::assert_snapshot!(validate_case("variation-sign"), @r#"
+    2 error(s):
+      airfields/XAAA.json:10:46: runway_ends[0].true_heading_deg: designator 09 disagrees with the magnetic heading 104° (true 92 − variation -12) by 14°; check the heading, the designator or the variation's sign (east positive)
+      airfields/XAAA.json:11:46: runway_ends[1].true_heading_deg: designator 27 disagrees with the magnetic heading 284° (true 272 − variation -12) by 14°; check the heading, the designator or the variation's sign (east positive)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn wrong_type() {
+    insta::assert_snapshot!(validate_case("wrong-type"), @r#"
+    1 error(s):
+      airfields/XBBB.json:5:27: elevation_ft: invalid type: string "1200ft", expected a number (the unit is in the field name)
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
