@@ -266,3 +266,42 @@ pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Resu
     }
     Ok(())
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::observation::{ManualInput, manual_observation};
+    use chrono::TimeZone;
+
+    #[test]
+    fn manual_reports_serialise_tagged_as_manual() {
+        let input = ManualInput {
+            station: "XHA1".into(),
+            observed_at: Some(Utc.with_ymd_and_hms(2026, 6, 14, 12, 50, 0).unwrap()),
+            wind_direction: "calm".into(),
+            temperature: "88F".into(),
+            altimeter: "30.12inHg".into(),
+            ceiling: Some("none".into()),
+            ..ManualInput::default()
+        };
+        let r = manual_observation(&input, 5.0).unwrap();
+        let v = to_json(&r);
+        assert_eq!(v["kind"], "manual");
+        assert_eq!(v["ceiling"], "none");
+        assert_eq!(v["usable_for_performance"], true);
+        assert_eq!(v["wind"]["speed_kt"], 0.0);
+        assert_eq!(v["observed_at"], "2026-06-14T12:50:00Z");
+    }
+
+    #[test]
+    fn unquoted_words_are_one_report() {
+        let words = |s: &str| s.split(' ').map(String::from).collect::<Vec<_>>();
+        assert!(looks_unquoted(&words("XQAB 141250Z 27015KT")));
+        assert!(looks_unquoted(&words("METAR XQAB 141250Z 27015KT")));
+        assert!(!looks_unquoted(&[
+            "XQAB 141250Z 27015KT".into(),
+            "XHA1 141250Z 00000KT".into()
+        ]));
+        assert!(!looks_unquoted(&words("XQAB")));
+    }
+}
