@@ -5,6 +5,7 @@
 //! wind ([`wind`]), takeoff, climb and landing ([`perf`]), category limits ([`limits`]),
 //! runway in use, state ([`state`]), headroom and advice ([`leg`]).
 
+pub mod day;
 pub mod leg;
 pub mod limits;
 pub mod model;
@@ -13,6 +14,7 @@ pub mod perf;
 pub mod state;
 pub mod wind;
 
+pub use day::{Assessment, Change};
 pub use leg::{Context, LegResult, assess_leg};
 pub use model::{DaySettings, Model};
 pub use state::State;
