@@ -18,6 +18,7 @@ pub mod load;
 pub mod operator;
 pub mod pilots;
 pub mod spans;
+pub mod synthetic;
 pub mod tables;
 pub mod validate;
 
