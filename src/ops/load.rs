@@ -23,7 +23,7 @@ pub const SCHEMA_VERSION: u32 = 1;
 pub const MAX_FILE_BYTES: u64 = 256 * 1024 * 1024;
 
 /// Error or warning.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
 pub enum Severity {
     /// The data cannot be used as it is.
     Error,
@@ -32,7 +32,7 @@ pub enum Severity {
 }
 
 /// One problem found in the operator's data.
-#[derive(Debug, Clone, PartialEq, Eq)]
+#[derive(Debug, Clone, PartialEq, Eq, Hash)]
 pub struct Diagnostic {
     /// Error or warning.
     pub severity: Severity,
@@ -174,6 +174,7 @@ impl OpsFiles {
 pub struct Collector<'a> {
     files: &'a OpsFiles,
     spans: HashMap<String, Spans>,
+    seen: std::collections::HashSet<Diagnostic>,
     /// What was found so far.
     pub report: Report,
 }
@@ -184,6 +185,7 @@ impl<'a> Collector<'a> {
         Collector {
             files,
             spans: HashMap::new(),
+            seen: Default::default(),
             report: Report::default(),
         }
     }
@@ -240,7 +242,7 @@ impl<'a> Collector<'a> {
             Severity::Error => &mut self.report.errors,
             Severity::Warning => &mut self.report.warnings,
         };
-        if !list.contains(&d) {
+        if self.seen.insert(d.clone()) {
             list.push(d);
         }
     }
