@@ -12,6 +12,7 @@ pub mod assess;
 pub mod atmosphere;
 pub mod commands;
 pub mod daylight;
+pub mod observation;
 pub mod ops;
 pub mod units;
 

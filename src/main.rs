@@ -20,6 +20,8 @@ struct Cli {
 enum Command {
     /// Pressure and density altitude, density, ISA deviation and TAS factor at a field.
     Calc(commands::calc::Args),
+    /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
+    Metar(commands::metar::Args),
     /// Checks an operator folder and reports every problem (file, line, column, field).
     Validate(commands::validate::Args),
     /// Writes a new operator folder from the fictional demo, every value marked to replace.
@@ -32,6 +34,7 @@ fn main() -> ExitCode {
     let result: anyhow::Result<Outcome> = match cli.command {
         None => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
+        Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),
     };

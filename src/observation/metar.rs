@@ -1,0 +1,1615 @@
+//! A tolerant METAR/SPECI decoder: WMO Manual on Codes No. 306, FM 15, and ICAO Annex 3,
+//! with US practice (statute miles, `A` altimeter, `RMK` `T` group).
+//!
+//! [`decode`] never fails and never panics: it always returns a [`Report`]. Optional groups
+//! it cannot read are kept in [`Report::not_understood`] with their column; a missing or
+//! malformed group the assessment needs (station, time, wind, temperature and dew point,
+//! altimeter) goes into [`Report::errors`] and makes the report unusable for performance.
+
+use std::fmt;
+
+use chrono::{DateTime, Datelike, Duration, NaiveDate, Utc};
+
+use super::{
+    Bound, CloudLayer, Convective, Cover, DIRECTIONS, Group, GroupKind, Intensity, Kind,
+    NotUnderstood, Report, Rvr, SkyClear, SpeedUnit, Visibility, Weather, Wind, WindShear,
+};
+use crate::units::{HPA_PER_INHG, KMH_PER_KT, M_PER_FT, M_PER_SM, mps_to_kt};
+
+/// Longest report accepted; a real METAR with remarks is a few hundred characters.
+pub const MAX_REPORT_LEN: usize = 2_000;
+
+/// How far from the reference instant a day-hour-minute may resolve (WMO reports are
+/// read within hours; a generous bound still gets month and year rollover right).
+pub const MAX_TIME_DISTANCE_DAYS: i64 = 16;
+
+/// The groups the assessment needs, named in messages.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "lowercase")]
+pub enum GroupName {
+    /// Station identifier.
+    Station,
+    /// Day-hour-minute.
+    Time,
+    /// Surface wind.
+    Wind,
+    /// Temperature and dew point.
+    Temperature,
+    /// Altimeter setting.
+    Altimeter,
+}
+
+impl GroupName {
+    const fn example(self) -> &'static str {
+        match self {
+            GroupName::Station => "XQAB",
+            GroupName::Time => "141250Z",
+            GroupName::Wind => "27015KT",
+            GroupName::Temperature => "15/08",
+            GroupName::Altimeter => "Q1013 or A2992",
+        }
+    }
+}
+
+impl fmt::Display for GroupName {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(match self {
+            GroupName::Station => "station",
+            GroupName::Time => "time",
+            GroupName::Wind => "wind",
+            GroupName::Temperature => "temperature/dew point",
+            GroupName::Altimeter => "altimeter",
+        })
+    }
+}
+
+/// Why a report is unusable for performance.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum DecodeError {
+    /// Nothing but blanks.
+    #[error("empty report")]
+    Empty,
+    /// Longer than any METAR.
+    #[error("report is {len} characters long; a METAR is at most {MAX_REPORT_LEN}")]
+    TooLong {
+        /// Length in bytes.
+        len: usize,
+    },
+    /// `NIL`.
+    #[error("NIL: the station sent no observation")]
+    Nil,
+    /// Nothing in the text reads as a METAR group.
+    #[error("not a METAR: no group recognised, starting with '{start}'")]
+    NotMetar {
+        /// The first group, shortened and with control characters escaped.
+        start: String,
+    },
+    /// A needed group is absent.
+    #[error("{group} group missing (expected e.g. {})", group.example())]
+    Missing {
+        /// Which group.
+        group: GroupName,
+    },
+    /// A needed group is present but cannot be read.
+    #[error("{group} group '{text}' at column {column}: {problem}")]
+    Malformed {
+        /// Which group.
+        group: GroupName,
+        /// The group as reported (shortened when very long).
+        text: String,
+        /// 1-based column in the report.
+        column: usize,
+        /// What is wrong and what was expected.
+        problem: String,
+    },
+}
+
+impl DecodeError {
+    /// The group this error is about, if any.
+    pub fn group(&self) -> Option<GroupName> {
+        match self {
+            DecodeError::Missing { group } | DecodeError::Malformed { group, .. } => Some(*group),
+            _ => None,
+        }
+    }
+}
+
+/// Decodes one METAR or SPECI. `reference` is the instant the day-hour-minute is resolved
+/// against (the nearest matching UTC time within [`MAX_TIME_DISTANCE_DAYS`]).
+///
+/// The text may start with `METAR`/`SPECI`, end with `=`, and use any whitespace between
+/// groups; lower case is read as upper case.
+pub fn decode(text: &str, reference: DateTime<Utc>) -> Report {
+    let trimmed = text
+        .trim_start_matches(|c: char| c.is_ascii_whitespace())
+        .trim_end_matches(|c: char| c.is_ascii_whitespace() || c == '=');
+    if trimmed.len() > MAX_REPORT_LEN {
+        let mut cut = 60;
+        while !trimmed.is_char_boundary(cut) {
+            cut -= 1;
+        }
+        let mut head = trimmed.get(..cut).unwrap_or("").to_string();
+        head.push('…');
+        return Report {
+            text: head,
+            errors: vec![DecodeError::TooLong { len: trimmed.len() }],
+            ..Report::default()
+        };
+    }
+    // Normalise: one space between groups, upper case. Token spans index `norm`.
+    let mut norm = String::with_capacity(trimmed.len());
+    let mut spans: Vec<(usize, usize)> = Vec::with_capacity(24);
+    for tok in trimmed.split_ascii_whitespace() {
+        if !norm.is_empty() {
+            norm.push(' ');
+        }
+        let start = norm.len();
+        for ch in tok.chars() {
+            norm.push(ch.to_ascii_uppercase());
+        }
+        spans.push((start, norm.len()));
+    }
+    if spans.is_empty() {
+        return Report {
+            errors: vec![DecodeError::Empty],
+            ..Report::default()
+        };
+    }
+    let mut d = Decoder {
+        text: &norm,
+        spans: &spans,
+        reference,
+        r: Report::default(),
+        wind_done: false,
+        sector_done: false,
+        vis_done: false,
+        minvis_done: false,
+        temp_done: false,
+        altimeters: 0,
+    };
+    d.run();
+    let mut r = d.r;
+    r.text = norm;
+    r.derive();
+    r
+}
+
+/// Resolves a day-hour-minute to the UTC instant nearest `reference` (this month, the one
+/// before or the one after), or `None` when none lies within [`MAX_TIME_DISTANCE_DAYS`].
+pub fn resolve_time(
+    day: u32,
+    hour: u32,
+    minute: u32,
+    reference: DateTime<Utc>,
+) -> Option<DateTime<Utc>> {
+    let r = reference.date_naive();
+    let mut best: Option<(i64, DateTime<Utc>)> = None;
+    for delta in [-1i32, 0, 1] {
+        let months = r.year() * 12 + r.month0() as i32 + delta;
+        let (y, m0) = (months.div_euclid(12), months.rem_euclid(12));
+        let Some(date) = NaiveDate::from_ymd_opt(y, m0 as u32 + 1, day) else {
+            continue;
+        };
+        let Some(dt) = date.and_hms_opt(hour, minute, 0) else {
+            continue;
+        };
+        let dt = dt.and_utc();
+        let dist = (dt - reference).num_seconds().abs();
+        if best.is_none_or(|(b, _)| dist < b) {
+            best = Some((dist, dt));
+        }
+    }
+    best.filter(|(d, _)| *d <= Duration::days(MAX_TIME_DISTANCE_DAYS).num_seconds())
+        .map(|(_, dt)| dt)
+}
+
+/// What a group parser made of a token.
+enum Parsed {
+    /// Not this kind of group.
+    No,
+    /// Decoded; this many tokens consumed.
+    Ok(usize),
+    /// Clearly this kind of group, but malformed: what is wrong.
+    Bad(String),
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
+enum Stage {
+    Modifier,
+    Wind,
+    WindSector,
+    Visibility,
+    MinVisibility,
+    Rvr,
+    Weather,
+    Cloud,
+    Temperature,
+    Altimeter,
+    Recent,
+    WindShear,
+}
+
+const STAGES: [Stage; 12] = [
+    Stage::Modifier,
+    Stage::Wind,
+    Stage::WindSector,
+    Stage::Visibility,
+    Stage::MinVisibility,
+    Stage::Rvr,
+    Stage::Weather,
+    Stage::Cloud,
+    Stage::Temperature,
+    Stage::Altimeter,
+    Stage::Recent,
+    Stage::WindShear,
+];
+
+struct Decoder<'a> {
+    text: &'a str,
+    spans: &'a [(usize, usize)],
+    reference: DateTime<Utc>,
+    r: Report,
+    wind_done: bool,
+    sector_done: bool,
+    vis_done: bool,
+    minvis_done: bool,
+    temp_done: bool,
+    altimeters: u8,
+}
+
+/// Shortens a group for quoting in a message.
+fn quote(s: &str) -> String {
+    let mut q = String::with_capacity(s.len().min(48));
+    for (k, ch) in s.chars().enumerate() {
+        if k == 40 {
+            q.push('…');
+            break;
+        }
+        if ch.is_control() {
+            q.extend(ch.escape_default());
+        } else {
+            q.push(ch);
+        }
+    }
+    q
+}
+
+fn all_digits(s: &str) -> bool {
+    !s.is_empty() && s.bytes().all(|b| b.is_ascii_digit())
+}
+
+/// The value of an all-digit string of at most 9 digits.
+fn num(s: &str) -> Option<u32> {
+    if all_digits(s) && s.len() <= 9 {
+        s.parse().ok()
+    } else {
+        None
+    }
+}
+
+const DESCRIPTORS: [&str; 8] = ["MI", "BC", "PR", "DR", "BL", "SH", "TS", "FZ"];
+const PHENOMENA: [&str; 21] = [
+    "DZ", "RA", "SN", "SG", "IC", "PL", "GR", "GS", "UP", "BR", "FG", "FU", "VA", "DU", "SA", "HZ",
+    "PY", "PO", "SQ", "FC", "SS",
+];
+const PHENOMENA_MORE: [&str; 1] = ["DS"];
+
+fn phenomenon(code: &str) -> Option<&'static str> {
+    PHENOMENA
+        .iter()
+        .chain(PHENOMENA_MORE.iter())
+        .find(|p| **p == code)
+        .copied()
+}
+
+/// Parses the body of a weather group (after any intensity), e.g. `TSRA`, `FZDZ`, `BR`.
+fn weather_body(s: &str, intensity: Intensity) -> Option<Weather> {
+    let mut rest = s;
+    let mut descriptor = None;
+    if let Some(head) = rest.get(..2)
+        && let Some(d) = DESCRIPTORS.iter().find(|d| **d == head)
+    {
+        descriptor = Some(*d);
+        rest = rest.get(2..).unwrap_or("");
+    }
+    let mut phenomena = Vec::new();
+    while !rest.is_empty() {
+        let head = rest.get(..2)?;
+        phenomena.push(phenomenon(head)?);
+        rest = rest.get(2..).unwrap_or("");
+        if phenomena.len() > 4 {
+            return None;
+        }
+    }
+    let ok = !phenomena.is_empty()
+        || descriptor == Some("TS")
+        || (intensity == Intensity::Vicinity && descriptor.is_some());
+    ok.then_some(Weather {
+        intensity,
+        descriptor,
+        phenomena,
+        not_observed: false,
+    })
+}
+
+fn parse_weather(tok: &str) -> Option<Weather> {
+    if tok == "//" {
+        return Some(Weather {
+            not_observed: true,
+            ..Weather::default()
+        });
+    }
+    let (intensity, body) = if let Some(b) = tok.strip_prefix('-') {
+        (Intensity::Light, b)
+    } else if let Some(b) = tok.strip_prefix('+') {
+        (Intensity::Heavy, b)
+    } else if let Some(b) = tok.strip_prefix("VC") {
+        (Intensity::Vicinity, b)
+    } else {
+        (Intensity::Moderate, tok)
+    };
+    weather_body(body, intensity)
+}
+
+/// `P`/`M` prefix of a value.
+fn bound_prefix(s: &str) -> (Bound, &str) {
+    if let Some(r) = s.strip_prefix('P') {
+        (Bound::AtLeast, r)
+    } else if let Some(r) = s.strip_prefix('M') {
+        (Bound::LessThan, r)
+    } else {
+        (Bound::Exact, s)
+    }
+}
+
+/// `1/2`, `3/16` → the fraction.
+fn fraction(s: &str) -> Option<f64> {
+    let (n, d) = s.split_once('/')?;
+    let (n, d) = (num(n)?, num(d)?);
+    if d == 0 || n.to_string().len() > 2 || d > 16 {
+        return None;
+    }
+    Some(f64::from(n) / f64::from(d))
+}
+
+/// Statute miles in `P6SM`, `1/2SM`, `M1/4SM`, `10SM` (without the `SM`).
+fn miles(s: &str) -> Option<(Bound, f64)> {
+    let (bound, v) = bound_prefix(s);
+    if v.contains('/') {
+        fraction(v).map(|f| (bound, f))
+    } else if v.len() <= 3 {
+        num(v).map(|n| (bound, f64::from(n)))
+    } else {
+        None
+    }
+}
+
+/// Temperature `15`, `M05` in °C; `None` for `//`; error otherwise.
+fn temp_value(s: &str) -> Result<Option<f64>, ()> {
+    if s == "//" {
+        return Ok(None);
+    }
+    let (neg, digits) = match s.strip_prefix('M') {
+        Some(d) => (true, d),
+        None => (false, s),
+    };
+    if digits.len() != 2 {
+        return Err(());
+    }
+    let v = f64::from(num(digits).ok_or(())?);
+    Ok(Some(if neg { -v } else { v }))
+}
+
+/// `T02330139` remark: tenths of °C, sign digit 1 = minus.
+fn remark_temperature(tok: &str) -> Option<(f64, Option<f64>)> {
+    let body = tok.strip_prefix('T')?;
+    if !all_digits(body) || (body.len() != 4 && body.len() != 8) {
+        return None;
+    }
+    let tenths = |s: &str| -> Option<f64> {
+        let sign = match s.get(..1)? {
+            "0" => 1.0,
+            "1" => -1.0,
+            _ => return None,
+        };
+        Some(sign * f64::from(num(s.get(1..4)?)?) / 10.0)
+    };
+    let t = tenths(body.get(..4)?)?;
+    let d = match body.get(4..8) {
+        Some(s) => Some(tenths(s)?),
+        None => None,
+    };
+    Some((t, d))
+}
+
+impl<'a> Decoder<'a> {
+    fn tok(&self, i: usize) -> &'a str {
+        self.spans
+            .get(i)
+            .and_then(|&(s, e)| self.text.get(s..e))
+            .unwrap_or("")
+    }
+
+    fn start(&self, i: usize) -> usize {
+        self.spans.get(i).map_or(self.text.len(), |&(s, _)| s)
+    }
+
+    fn end(&self, i: usize) -> usize {
+        self.spans.get(i).map_or(self.text.len(), |&(_, e)| e)
+    }
+
+    /// 1-based character column of token `i`.
+    fn column(&self, i: usize) -> usize {
+        let s = self.start(i);
+        self.text.get(..s).map_or(s, |p| p.chars().count()) + 1
+    }
+
+    fn group(&mut self, kind: GroupKind, i: usize, ntok: usize) {
+        let start = self.start(i);
+        let end = self.end(i + ntok.saturating_sub(1));
+        self.r.groups.push(Group {
+            kind,
+            start,
+            len: end.saturating_sub(start),
+        });
+    }
+
+    fn error(&mut self, group: GroupName, i: usize, problem: String) {
+        let text = quote(self.tok(i));
+        let column = self.column(i);
+        self.r.errors.push(DecodeError::Malformed {
+            group,
+            text,
+            column,
+            problem,
+        });
+    }
+
+    fn not_understood(&mut self, i: usize, reason: impl Into<String>) {
+        let group = quote(self.tok(i));
+        let column = self.column(i);
+        self.r.not_understood.push(NotUnderstood {
+            group,
+            column,
+            reason: reason.into(),
+        });
+    }
+
+    fn run(&mut self) {
+        let n = self.spans.len();
+        let mut i = 0;
+        match self.tok(0) {
+            "METAR" => {
+                self.r.kind = Some(Kind::Metar);
+                self.group(GroupKind::ReportType, 0, 1);
+                i = 1;
+            }
+            "SPECI" => {
+                self.r.kind = Some(Kind::Speci);
+                self.group(GroupKind::ReportType, 0, 1);
+                i = 1;
+            }
+            _ => self.r.kind = Some(Kind::Metar),
+        }
+        if self.tok(i) == "COR" {
+            self.r.corrected = true;
+            self.group(GroupKind::Correction, i, 1);
+            i += 1;
+        }
+        i = self.station(i);
+        i = self.time(i);
+
+        let mut stage = Stage::Modifier;
+        while i < n {
+            let tok = self.tok(i);
+            if tok == "RMK" {
+                self.remarks(i);
+                break;
+            }
+            if matches!(tok, "NOSIG" | "BECMG" | "TEMPO") {
+                let mut j = i;
+                while j < n && self.tok(j) != "RMK" {
+                    j += 1;
+                }
+                self.r.trend = self
+                    .text
+                    .get(self.start(i)..self.end(j.saturating_sub(1)))
+                    .map(str::to_string);
+                self.group(GroupKind::Trend, i, j - i);
+                i = j;
+                continue;
+            }
+            let mut handled = false;
+            for &s in STAGES.iter().filter(|s| **s >= stage) {
+                if !self.open(s) {
+                    continue;
+                }
+                match self.parse(s, i) {
+                    Parsed::No => continue,
+                    Parsed::Ok(k) => {
+                        i += k.max(1);
+                        stage = s;
+                        handled = true;
+                        break;
+                    }
+                    Parsed::Bad(problem) => {
+                        match s {
+                            Stage::Wind => {
+                                self.wind_done = true;
+                                self.error(GroupName::Wind, i, problem);
+                            }
+                            Stage::Temperature => {
+                                self.temp_done = true;
+                                self.error(GroupName::Temperature, i, problem);
+                            }
+                            Stage::Altimeter => {
+                                self.altimeters += 1;
+                                self.error(GroupName::Altimeter, i, problem);
+                            }
+                            _ => self.not_understood(i, problem),
+                        }
+                        i += 1;
+                        stage = s;
+                        handled = true;
+                        break;
+                    }
+                }
+            }
+            if !handled {
+                // Out of order: still decode it (a ceiling must not be lost), but only
+                // when it reads cleanly.
+                for &s in STAGES.iter().filter(|s| **s < stage) {
+                    if !self.open(s) {
+                        continue;
+                    }
+                    if let Parsed::Ok(k) = self.parse(s, i) {
+                        i += k.max(1);
+                        handled = true;
+                        break;
+                    }
+                }
+            }
+            if !handled {
+                let reason = if self.r.nil {
+                    "after NIL"
+                } else if stage == Stage::Modifier && !self.wind_done {
+                    "not a group of a METAR"
+                } else {
+                    "not a group of a METAR, or out of place"
+                };
+                self.not_understood(i, reason);
+                i += 1;
+            }
+        }
+        self.finish();
+    }
+
+    /// Whether stage `s` can still take a group.
+    fn open(&self, s: Stage) -> bool {
+        match s {
+            Stage::Wind => !self.wind_done,
+            Stage::WindSector => !self.sector_done && self.wind_done,
+            Stage::Visibility => !self.vis_done,
+            Stage::MinVisibility => !self.minvis_done && self.vis_done,
+            Stage::Temperature => !self.temp_done,
+            Stage::Altimeter => self.altimeters < 2,
+            _ => true,
+        }
+    }
+
+    fn parse(&mut self, s: Stage, i: usize) -> Parsed {
+        match s {
+            Stage::Modifier => self.modifier(i),
+            Stage::Wind => self.wind(i),
+            Stage::WindSector => self.sector(i),
+            Stage::Visibility => self.visibility(i),
+            Stage::MinVisibility => self.min_visibility(i),
+            Stage::Rvr => self.rvr(i),
+            Stage::Weather => self.weather(i),
+            Stage::Cloud => self.cloud(i),
+            Stage::Temperature => self.temperature(i),
+            Stage::Altimeter => self.altimeter(i),
+            Stage::Recent => self.recent(i),
+            Stage::WindShear => self.wind_shear(i),
+        }
+    }
+
+    fn finish(&mut self) {
+        if self.r.groups.is_empty() {
+            self.r.errors = vec![DecodeError::NotMetar {
+                start: quote(self.tok(0)),
+            }];
+            return;
+        }
+        if self.r.nil {
+            self.r.errors.push(DecodeError::Nil);
+            return;
+        }
+        let has = |r: &Report, g: GroupName| r.errors.iter().any(|e| e.group() == Some(g));
+        if self.r.wind.is_none() && !has(&self.r, GroupName::Wind) {
+            self.r.errors.push(DecodeError::Missing {
+                group: GroupName::Wind,
+            });
+        }
+        if (self.r.temperature_c.is_none() || self.r.dewpoint_c.is_none())
+            && !has(&self.r, GroupName::Temperature)
+        {
+            self.r.errors.push(DecodeError::Missing {
+                group: GroupName::Temperature,
+            });
+        }
+        if self.r.altimeter_hpa.is_none() && !has(&self.r, GroupName::Altimeter) {
+            self.r.errors.push(DecodeError::Missing {
+                group: GroupName::Altimeter,
+            });
+        }
+        // Errors in report order: station, time, then the body groups by column.
+        self.r.errors.sort_by_key(|e| match e {
+            DecodeError::Missing {
+                group: GroupName::Station | GroupName::Time,
+            } => 0,
+            DecodeError::Malformed { column, .. } => *column,
+            _ => usize::MAX,
+        });
+    }
+
+    fn looks_like_time(tok: &str) -> bool {
+        let body = tok.strip_suffix('Z').unwrap_or(tok);
+        all_digits(body) && (tok.ends_with('Z') || body.len() == 6)
+    }
+
+    fn station(&mut self, i: usize) -> usize {
+        let tok = self.tok(i);
+        let b = tok.as_bytes();
+        let ok = b.len() == 4
+            && b.first().is_some_and(u8::is_ascii_uppercase)
+            && b.iter()
+                .all(|c| c.is_ascii_uppercase() || c.is_ascii_digit());
+        if ok {
+            self.r.station = tok.to_string();
+            self.group(GroupKind::Station, i, 1);
+            return i + 1;
+        }
+        if i >= self.spans.len() || Self::looks_like_time(tok) {
+            self.r.errors.push(DecodeError::Missing {
+                group: GroupName::Station,
+            });
+            return i;
+        }
+        self.error(
+            GroupName::Station,
+            i,
+            "expected 4 letters or digits starting with a letter".to_string(),
+        );
+        i + 1
+    }
+
+    fn time(&mut self, i: usize) -> usize {
+        let tok = self.tok(i);
+        if !Self::looks_like_time(tok) {
+            self.r.errors.push(DecodeError::Missing {
+                group: GroupName::Time,
+            });
+            return i;
+        }
+        let problem = match tok.strip_suffix('Z') {
+            None => Some("the Z (UTC) is missing after day, hour and minute".to_string()),
+            Some(b) if b.len() != 6 => Some(format!(
+                "expected 6 digits (day, hour, minute) before Z, found {}",
+                b.len()
+            )),
+            Some(b) => {
+                let day = num(b.get(0..2).unwrap_or("")).unwrap_or(99);
+                let hour = num(b.get(2..4).unwrap_or("")).unwrap_or(99);
+                let minute = num(b.get(4..6).unwrap_or("")).unwrap_or(99);
+                if !(1..=31).contains(&day) {
+                    Some(format!("day {day} is not a day of the month"))
+                } else if hour > 23 {
+                    Some(format!("hour {hour} is not an hour of the day (00-23)"))
+                } else if minute > 59 {
+                    Some(format!("minute {minute} is not a minute (00-59)"))
+                } else if let Some(t) = resolve_time(day, hour, minute, self.reference) {
+                    self.r.observed_at = Some(t);
+                    None
+                } else {
+                    Some(format!(
+                        "day {day} does not fall within {MAX_TIME_DISTANCE_DAYS} days of the reference date {}",
+                        self.reference.format("%Y-%m-%d")
+                    ))
+                }
+            }
+        };
+        self.r.time_text = quote(tok);
+        self.group(GroupKind::Time, i, 1);
+        if let Some(p) = problem {
+            self.error(GroupName::Time, i, p);
+        }
+        i + 1
+    }
+
+    fn modifier(&mut self, i: usize) -> Parsed {
+        match self.tok(i) {
+            "AUTO" => {
+                self.r.auto = true;
+                self.group(GroupKind::Auto, i, 1);
+                Parsed::Ok(1)
+            }
+            "COR" => {
+                self.r.corrected = true;
+                self.group(GroupKind::Correction, i, 1);
+                Parsed::Ok(1)
+            }
+            "NIL" => {
+                self.r.nil = true;
+                self.group(GroupKind::Nil, i, 1);
+                Parsed::Ok(1)
+            }
+            _ => Parsed::No,
+        }
+    }
+
+    fn wind(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let (body, unit) = if let Some(b) = tok.strip_suffix("KT") {
+            (b, SpeedUnit::Kt)
+        } else if let Some(b) = tok.strip_suffix("MPS") {
+            (b, SpeedUnit::Mps)
+        } else if let Some(b) = tok.strip_suffix("KMH") {
+            (b, SpeedUnit::Kmh)
+        } else {
+            // Not ending in a unit: is it a wind group with a bad or missing unit?
+            let b = tok.as_bytes();
+            let head_ok = tok.starts_with("VRB")
+                || b.get(..3).is_some_and(|h| h.iter().all(u8::is_ascii_digit));
+            if !head_ok || tok.len() < 5 {
+                return Parsed::No;
+            }
+            let digits_end = b
+                .iter()
+                .skip(3)
+                .position(|c| !(c.is_ascii_digit() || *c == b'G' || *c == b'P'))
+                .map_or(b.len(), |p| p + 3);
+            if digits_end < 5 {
+                return Parsed::No;
+            }
+            let suffix = tok.get(digits_end..).unwrap_or("");
+            if suffix.is_empty() {
+                return Parsed::Bad(
+                    "the speed unit is missing; expected KT, MPS or KMH after the speed".into(),
+                );
+            }
+            if suffix.len() <= 5 && suffix.bytes().all(|c| c.is_ascii_uppercase()) {
+                return Parsed::Bad(format!(
+                    "speed unit '{suffix}' not understood; expected KT, MPS or KMH"
+                ));
+            }
+            return Parsed::No;
+        };
+        if body.is_empty() || body.len() > 12 {
+            return Parsed::No;
+        }
+        if body.bytes().all(|c| c == b'/') {
+            return Parsed::Bad("wind not reported".into());
+        }
+        let (dir_text, rest) = (body.get(..3).unwrap_or(""), body.get(3..).unwrap_or(""));
+        let direction = if dir_text == "VRB" {
+            None
+        } else if let Some(d) = num(dir_text).filter(|_| dir_text.len() == 3) {
+            if d > 360 {
+                return Parsed::Bad(format!("direction {d}° is more than 360°"));
+            }
+            Some(f64::from(d))
+        } else {
+            return Parsed::Bad(
+                "expected 3 digits of direction (or VRB), then 2 or 3 digits of speed".into(),
+            );
+        };
+        let (speed_text, gust_text) = match rest.split_once('G') {
+            Some((s, g)) => (s, Some(g)),
+            None => (rest, None),
+        };
+        let speed_val = |s: &str| -> Option<(Bound, f64)> {
+            let (b, v) = match s.strip_prefix('P') {
+                Some(v) => (Bound::AtLeast, v),
+                None => (Bound::Exact, s),
+            };
+            if v.len() == 2 || v.len() == 3 {
+                num(v).map(|n| (b, f64::from(n)))
+            } else {
+                None
+            }
+        };
+        let Some((speed_bound, speed)) = speed_val(speed_text) else {
+            return Parsed::Bad(format!(
+                "expected 2 or 3 digits of speed after the direction, found '{speed_text}'"
+            ));
+        };
+        let gust = match gust_text {
+            None => None,
+            Some(g) => match speed_val(g) {
+                Some((_, v)) => Some(v),
+                None => {
+                    return Parsed::Bad(format!(
+                        "expected 2 or 3 digits of gust after G, found '{g}'"
+                    ));
+                }
+            },
+        };
+        let to_kt = |v: f64| match unit {
+            SpeedUnit::Kt => v,
+            SpeedUnit::Mps => mps_to_kt(v),
+            SpeedUnit::Kmh => v / KMH_PER_KT,
+        };
+        self.r.wind = Some(Wind {
+            direction_deg: direction,
+            variable: direction.is_none(),
+            speed_kt: to_kt(speed),
+            speed_bound,
+            gust_kt: gust.map(to_kt),
+            variable_from_deg: None,
+            variable_to_deg: None,
+            unit: Some(unit),
+        });
+        self.wind_done = true;
+        self.group(GroupKind::Wind, i, 1);
+        Parsed::Ok(1)
+    }
+
+    fn sector(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let Some((a, b)) = tok.split_once('V') else {
+            return Parsed::No;
+        };
+        if !(all_digits(a) && all_digits(b)) {
+            return Parsed::No;
+        }
+        let (Some(from), Some(to)) = (
+            num(a).filter(|_| a.len() == 3),
+            num(b).filter(|_| b.len() == 3),
+        ) else {
+            return Parsed::Bad("expected dddVddd, e.g. 240V300".into());
+        };
+        if from > 360 || to > 360 {
+            return Parsed::Bad("a sector direction is more than 360°".into());
+        }
+        if let Some(w) = self.r.wind.as_mut() {
+            w.variable_from_deg = Some(f64::from(from));
+            w.variable_to_deg = Some(f64::from(to));
+        }
+        self.sector_done = true;
+        self.group(GroupKind::WindSector, i, 1);
+        Parsed::Ok(1)
+    }
+
+    fn set_visibility(&mut self, v: Visibility, i: usize, ntok: usize) -> Parsed {
+        self.r.visibility = Some(v);
+        self.vis_done = true;
+        self.group(GroupKind::Visibility, i, ntok);
+        Parsed::Ok(ntok)
+    }
+
+    fn visibility(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        if tok == "CAVOK" {
+            self.r.cavok = true;
+            self.vis_done = true;
+            self.r.visibility = Some(Visibility {
+                prevailing_m: 10_000.0,
+                bound: Bound::AtLeast,
+                ..Visibility::default()
+            });
+            self.group(GroupKind::Cavok, i, 1);
+            return Parsed::Ok(1);
+        }
+        let (metres, ndv) = match tok.strip_suffix("NDV") {
+            Some(m) => (m, true),
+            None => (tok, false),
+        };
+        if metres.len() == 4 && all_digits(metres) {
+            let m = f64::from(num(metres).unwrap_or(0));
+            let (prevailing_m, bound) = match metres {
+                "9999" => (10_000.0, Bound::AtLeast),
+                "0000" => (50.0, Bound::LessThan),
+                _ => (m, Bound::Exact),
+            };
+            return self.set_visibility(
+                Visibility {
+                    prevailing_m,
+                    bound,
+                    no_directional_variation: ndv,
+                    ..Visibility::default()
+                },
+                i,
+                1,
+            );
+        }
+        if tok == "////" || tok == "////SM" {
+            self.vis_done = true;
+            return Parsed::Bad("visibility not reported".into());
+        }
+        // `1 1/2SM`: a whole number, then the fraction.
+        if tok.len() == 1 && all_digits(tok) {
+            let next = self.tok(i + 1);
+            if let Some(frac) = next.strip_suffix("SM").and_then(fraction) {
+                let sm = f64::from(num(tok).unwrap_or(0)) + frac;
+                return self.set_visibility(
+                    Visibility {
+                        prevailing_m: sm * M_PER_SM,
+                        reported_sm: Some(sm),
+                        ..Visibility::default()
+                    },
+                    i,
+                    2,
+                );
+            }
+            return Parsed::No;
+        }
+        if let Some(m) = tok.strip_suffix("SM") {
+            return match miles(m) {
+                Some((bound, sm)) => self.set_visibility(
+                    Visibility {
+                        prevailing_m: sm * M_PER_SM,
+                        reported_sm: Some(sm),
+                        bound,
+                        ..Visibility::default()
+                    },
+                    i,
+                    1,
+                ),
+                None => {
+                    Parsed::Bad("expected statute miles such as 3SM, 1/2SM, P6SM or 1 1/2SM".into())
+                }
+            };
+        }
+        Parsed::No
+    }
+
+    fn min_visibility(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let (Some(digits), Some(dir)) = (tok.get(..4), tok.get(4..)) else {
+            return Parsed::No;
+        };
+        if !all_digits(digits) {
+            return Parsed::No;
+        }
+        let Some(idx) = DIRECTIONS.iter().position(|d| *d == dir) else {
+            return Parsed::No;
+        };
+        if let Some(v) = self.r.visibility.as_mut() {
+            v.minimum_m = Some(f64::from(num(digits).unwrap_or(0)));
+            v.minimum_direction = u8::try_from(idx).ok();
+        }
+        self.minvis_done = true;
+        self.group(GroupKind::MinimumVisibility, i, 1);
+        Parsed::Ok(1)
+    }
+
+    fn rvr(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let Some(body) = tok.strip_prefix('R') else {
+            return Parsed::No;
+        };
+        if !body.as_bytes().first().is_some_and(u8::is_ascii_digit) || !body.contains('/') {
+            return Parsed::No;
+        }
+        let bad = || {
+            Parsed::Bad(
+                "expected R<runway>/<4 digits>[V<4 digits>][FT][/U, /D or /N], e.g. R28L/P1500N"
+                    .into(),
+            )
+        };
+        let Some((runway, mut rest)) = body.split_once('/') else {
+            return bad();
+        };
+        let rb = runway.as_bytes();
+        let runway_ok = (rb.len() == 2 || rb.len() == 3)
+            && rb.iter().take(2).all(u8::is_ascii_digit)
+            && rb.get(2).is_none_or(|c| matches!(c, b'L' | b'C' | b'R'));
+        if !runway_ok {
+            return bad();
+        }
+        let mut tendency = None;
+        for (suffix, t) in [
+            ("/U", 'U'),
+            ("/D", 'D'),
+            ("/N", 'N'),
+            ("U", 'U'),
+            ("D", 'D'),
+            ("N", 'N'),
+        ] {
+            if let Some(r) = rest.strip_suffix(suffix) {
+                tendency = Some(t);
+                rest = r;
+                break;
+            }
+        }
+        let (rest, in_feet) = match rest.strip_suffix("FT") {
+            Some(r) => (r, true),
+            None => (rest, false),
+        };
+        let (low, high) = match rest.split_once('V') {
+            Some((l, h)) => (l, Some(h)),
+            None => (rest, None),
+        };
+        let value = |s: &str| -> Option<(Bound, f64)> {
+            let (b, v) = bound_prefix(s);
+            (v.len() == 4).then(|| num(v).map(|n| (b, f64::from(n))))?
+        };
+        let Some((bound, range)) = value(low) else {
+            return bad();
+        };
+        let (variable_bound, variable_to) = match high {
+            None => (Bound::Exact, None),
+            Some(h) => match value(h) {
+                Some((b, v)) => (b, Some(v)),
+                None => return bad(),
+            },
+        };
+        let to_m = |v: f64| if in_feet { v * M_PER_FT } else { v };
+        self.r.rvr.push(Rvr {
+            runway: runway.to_string(),
+            range_m: to_m(range),
+            bound,
+            variable_to_m: variable_to.map(to_m),
+            variable_bound,
+            in_feet,
+            tendency,
+        });
+        let n = u16::try_from(self.r.rvr.len() - 1).unwrap_or(u16::MAX);
+        self.group(GroupKind::Rvr(n), i, 1);
+        Parsed::Ok(1)
+    }
+
+    fn weather(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        if tok.len() > 14 {
+            return Parsed::No;
+        }
+        match parse_weather(tok) {
+            Some(w) => {
+                self.r.weather.push(w);
+                let n = u16::try_from(self.r.weather.len() - 1).unwrap_or(u16::MAX);
+                self.group(GroupKind::Weather(n), i, 1);
+                Parsed::Ok(1)
+            }
+            None if tok.len() > 1 && (tok.starts_with('-') || tok.starts_with('+')) => {
+                Parsed::Bad("unknown weather code; expected e.g. -RA, +TSRA, SHSN, BR".into())
+            }
+            None => Parsed::No,
+        }
+    }
+
+    fn cloud(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let clear = match tok {
+            "NSC" => Some(SkyClear::Nsc),
+            "NCD" => Some(SkyClear::Ncd),
+            "SKC" => Some(SkyClear::Skc),
+            "CLR" => Some(SkyClear::Clr),
+            _ => None,
+        };
+        if let Some(c) = clear {
+            self.r.sky_clear = Some(c);
+            self.group(GroupKind::SkyClear, i, 1);
+            return Parsed::Ok(1);
+        }
+        let (cover, rest) = if let Some(r) = tok.strip_prefix("VV") {
+            (Cover::VerticalVisibility, r)
+        } else if let Some(r) = tok.strip_prefix("FEW") {
+            (Cover::Few, r)
+        } else if let Some(r) = tok.strip_prefix("SCT") {
+            (Cover::Scattered, r)
+        } else if let Some(r) = tok.strip_prefix("BKN") {
+            (Cover::Broken, r)
+        } else if let Some(r) = tok.strip_prefix("OVC") {
+            (Cover::Overcast, r)
+        } else if tok.len() >= 6 && tok.starts_with("///") {
+            (Cover::Unknown, tok.get(3..).unwrap_or(""))
+        } else {
+            return Parsed::No;
+        };
+        let (height, kind) = (rest.get(..3).unwrap_or(""), rest.get(3..).unwrap_or(""));
+        let base_ft = if height == "///" {
+            None
+        } else if height.len() == 3 && all_digits(height) {
+            Some(f64::from(num(height).unwrap_or(0)) * 100.0)
+        } else {
+            return Parsed::Bad(
+                "expected 3 digits of height in hundreds of feet (or ///), e.g. BKN012".into(),
+            );
+        };
+        let convective = match kind {
+            "" => None,
+            "CB" => Some(Convective::Cb),
+            "TCU" => Some(Convective::Tcu),
+            "///" => Some(Convective::Unknown),
+            _ => {
+                return Parsed::Bad(format!(
+                    "cloud type '{kind}' not understood; expected CB or TCU"
+                ));
+            }
+        };
+        if cover == Cover::VerticalVisibility && convective.is_some() {
+            return Parsed::Bad("a vertical visibility (VV) carries no cloud type".into());
+        }
+        self.r.clouds.push(CloudLayer {
+            cover,
+            base_ft,
+            convective,
+        });
+        let n = u16::try_from(self.r.clouds.len() - 1).unwrap_or(u16::MAX);
+        self.group(GroupKind::Cloud(n), i, 1);
+        Parsed::Ok(1)
+    }
+
+    fn temperature(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        if !tok.contains('/') || tok.len() > 9 || tok == "//" {
+            return Parsed::No;
+        }
+        if !tok
+            .bytes()
+            .all(|c| c.is_ascii_digit() || c == b'M' || c == b'/')
+        {
+            return Parsed::No;
+        }
+        let bad = "expected TT/DD in whole °C with M for minus, e.g. 15/08 or M02/M05";
+        let Some((t, d)) = tok.split_once('/') else {
+            return Parsed::No;
+        };
+        if t == "//" && (d == "//" || d.is_empty()) || tok.bytes().all(|c| c == b'/') {
+            self.temp_done = true;
+            return Parsed::Bad("temperature not reported".into());
+        }
+        let (Ok(t), Ok(dv)) = (
+            temp_value(t),
+            if d.is_empty() {
+                Ok(None)
+            } else {
+                temp_value(d)
+            },
+        ) else {
+            return Parsed::Bad(bad.into());
+        };
+        if let Some(v) = t
+            && !(-80.0..=60.0).contains(&v)
+        {
+            return Parsed::Bad(format!("temperature {v} °C is outside -80 to 60 °C"));
+        }
+        self.temp_done = true;
+        self.group(GroupKind::Temperature, i, 1);
+        if !self.r.temperature_from_remarks {
+            self.r.temperature_c = t;
+            self.r.dewpoint_c = dv;
+        }
+        if t.is_none() {
+            return Parsed::Bad("temperature not reported".into());
+        }
+        if dv.is_none() {
+            return Parsed::Bad("dew point not reported".into());
+        }
+        Parsed::Ok(1)
+    }
+
+    fn altimeter(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let (unit, body) = if let Some(b) = tok.strip_prefix('Q') {
+            ('Q', b)
+        } else if let Some(b) = tok.strip_prefix('A') {
+            ('A', b)
+        } else {
+            return Parsed::No;
+        };
+        let first = body.as_bytes().first().copied();
+        if !first.is_some_and(|c| c.is_ascii_digit() || c == b'/' || c == b'.') {
+            return Parsed::No;
+        }
+        if body.bytes().all(|c| c == b'/') {
+            return Parsed::Bad("altimeter setting not reported".into());
+        }
+        let Some(v) = num(body).filter(|_| body.len() == 4) else {
+            return Parsed::Bad(if unit == 'Q' {
+                "expected Q and 4 digits of whole hPa, e.g. Q1013".into()
+            } else {
+                "expected A and 4 digits of hundredths of inHg without a point, e.g. A2992".into()
+            });
+        };
+        let v = f64::from(v);
+        if unit == 'Q' {
+            if !(850.0..=1100.0).contains(&v) {
+                return Parsed::Bad(format!("{v} hPa is outside 850 to 1100 hPa"));
+            }
+            self.r.altimeter_hpa = Some(v);
+            if self.r.altimeter_inhg.is_none() {
+                self.r.altimeter_inhg = Some(v / HPA_PER_INHG);
+            }
+            self.group(GroupKind::AltimeterHpa, i, 1);
+        } else {
+            let inhg = v / 100.0;
+            if !(25.0..=32.5).contains(&inhg) {
+                return Parsed::Bad(format!("{inhg:.2} inHg is outside 25.00 to 32.50 inHg"));
+            }
+            // A reported Q value is exact; the A value is kept as reported beside it.
+            if !self
+                .r
+                .groups
+                .iter()
+                .any(|g| g.kind == GroupKind::AltimeterHpa)
+            {
+                self.r.altimeter_hpa = Some(inhg * HPA_PER_INHG);
+            }
+            self.r.altimeter_inhg = Some(inhg);
+            self.group(GroupKind::AltimeterInhg, i, 1);
+        }
+        self.altimeters += 1;
+        Parsed::Ok(1)
+    }
+
+    fn recent(&mut self, i: usize) -> Parsed {
+        let tok = self.tok(i);
+        let Some(body) = tok.strip_prefix("RE") else {
+            return Parsed::No;
+        };
+        if body.is_empty() {
+            return Parsed::No;
+        }
+        match weather_body(body, Intensity::Moderate) {
+            Some(w) => {
+                self.r.recent_weather.push(w);
+                let n = u16::try_from(self.r.recent_weather.len() - 1).unwrap_or(u16::MAX);
+                self.group(GroupKind::Recent(n), i, 1);
+                Parsed::Ok(1)
+            }
+            None => Parsed::Bad("unknown recent weather; expected e.g. RERA, RETS, REFZDZ".into()),
+        }
+    }
+
+    fn wind_shear(&mut self, i: usize) -> Parsed {
+        if self.tok(i) != "WS" {
+            return Parsed::No;
+        }
+        let next = self.tok(i + 1);
+        if next == "ALL" && self.tok(i + 2) == "RWY" {
+            self.r.wind_shear.push(WindShear::AllRunways);
+            let n = u16::try_from(self.r.wind_shear.len() - 1).unwrap_or(u16::MAX);
+            self.group(GroupKind::WindShear(n), i, 3);
+            return Parsed::Ok(3);
+        }
+        let rwy = next
+            .strip_prefix("RWY")
+            .or_else(|| next.strip_prefix('R'))
+            .filter(|r| {
+                let b = r.as_bytes();
+                (b.len() == 2 || b.len() == 3)
+                    && b.iter().take(2).all(u8::is_ascii_digit)
+                    && b.get(2).is_none_or(|c| matches!(c, b'L' | b'C' | b'R'))
+            });
+        match rwy {
+            Some(r) => {
+                self.r.wind_shear.push(WindShear::Runway(r.to_string()));
+                let n = u16::try_from(self.r.wind_shear.len() - 1).unwrap_or(u16::MAX);
+                self.group(GroupKind::WindShear(n), i, 2);
+                Parsed::Ok(2)
+            }
+            None => {
+                Parsed::Bad("expected a runway after WS (WS R27, WS RWY27) or WS ALL RWY".into())
+            }
+        }
+    }
+
+    fn remarks(&mut self, i: usize) {
+        let n = self.spans.len();
+        let text = if i + 1 < n {
+            self.text
+                .get(self.start(i + 1)..self.end(n - 1))
+                .unwrap_or("")
+        } else {
+            ""
+        };
+        self.r.remarks = Some(text.to_string());
+        self.group(GroupKind::Remarks, i, n - i);
+        for j in i + 1..n {
+            if let Some((t, d)) = remark_temperature(self.tok(j)) {
+                self.r.temperature_c = Some(t);
+                if d.is_some() {
+                    self.r.dewpoint_c = d;
+                }
+                self.r.temperature_from_remarks = true;
+                self.group(GroupKind::RemarkTemperature, j, 1);
+                break;
+            }
+        }
+    }
+}
+
+fn bound_word(b: Bound) -> &'static str {
+    match b {
+        Bound::Exact => "",
+        Bound::AtLeast => "more than ",
+        Bound::LessThan => "less than ",
+    }
+}
+
+fn fmt_num(v: f64) -> String {
+    if (v - v.round()).abs() < 1e-9 {
+        format!("{v:.0}")
+    } else {
+        let s = format!("{v:.2}");
+        s.trim_end_matches('0').to_string()
+    }
+}
+
+fn describe_weather(w: &Weather) -> String {
+    if w.not_observed {
+        return "present weather not observable (automatic station)".into();
+    }
+    let mut parts: Vec<&str> = Vec::new();
+    let intensity = match w.intensity {
+        Intensity::Light => Some("light"),
+        Intensity::Heavy => Some("heavy"),
+        _ => None,
+    };
+    // The intensity qualifies the precipitation: +TSRA is a thunderstorm with heavy rain.
+    let ts_with_precip = w.descriptor == Some("TS") && !w.phenomena.is_empty();
+    if !ts_with_precip && let Some(i) = intensity {
+        parts.push(i);
+    }
+    if let Some(d) = w.descriptor {
+        parts.push(match d {
+            "MI" => "shallow",
+            "BC" => "patches of",
+            "PR" => "partial",
+            "DR" => "low drifting",
+            "BL" => "blowing",
+            "SH" => "showers of",
+            "TS" => "thunderstorm",
+            "FZ" => "freezing",
+            _ => d,
+        });
+    }
+    if ts_with_precip {
+        parts.push("with");
+        if let Some(i) = intensity {
+            parts.push(i);
+        }
+    }
+    for (k, p) in w.phenomena.iter().enumerate() {
+        if k > 0 {
+            parts.push("and");
+        }
+        parts.push(match *p {
+            "DZ" => "drizzle",
+            "RA" => "rain",
+            "SN" => "snow",
+            "SG" => "snow grains",
+            "IC" => "ice crystals",
+            "PL" => "ice pellets",
+            "GR" => "hail",
+            "GS" => "small hail",
+            "UP" => "unknown precipitation",
+            "BR" => "mist",
+            "FG" => "fog",
+            "FU" => "smoke",
+            "VA" => "volcanic ash",
+            "DU" => "dust",
+            "SA" => "sand",
+            "HZ" => "haze",
+            "PY" => "spray",
+            "PO" => "dust/sand whirls",
+            "SQ" => "squalls",
+            "FC" => "funnel cloud",
+            "SS" => "sandstorm",
+            "DS" => "duststorm",
+            other => other,
+        });
+    }
+    if w.descriptor == Some("SH") && w.phenomena.is_empty() {
+        parts.push("showers");
+    }
+    if w.intensity == Intensity::Vicinity {
+        parts.push("in the vicinity");
+    }
+    parts.join(" ")
+}
+
+/// What a decoded group says, in plain words and units, for the readable decode.
+pub fn describe(r: &Report, g: &Group) -> String {
+    match g.kind {
+        GroupKind::ReportType => match r.kind {
+            Some(Kind::Speci) => "special report (SPECI)".into(),
+            _ => "routine report (METAR)".into(),
+        },
+        GroupKind::Correction => "correction of an earlier report".into(),
+        GroupKind::Auto => "fully automatic observation".into(),
+        GroupKind::Nil => "no observation (NIL)".into(),
+        GroupKind::Station => format!("station {}", r.station),
+        GroupKind::Time => match r.observed_at {
+            Some(t) => format!("observed {}", t.format("%Y-%m-%d %H:%M UTC")),
+            None => "observation time not readable".into(),
+        },
+        GroupKind::Wind => match &r.wind {
+            None => "wind not readable".into(),
+            Some(w) if w.is_calm() => "wind calm".into(),
+            Some(w) => {
+                let dir = match w.direction_deg {
+                    Some(d) => format!("from {d:03.0}° true"),
+                    None => "variable in direction".into(),
+                };
+                let mut s = format!(
+                    "wind {dir} at {}{} kt",
+                    bound_word(w.speed_bound),
+                    fmt_num(w.speed_kt)
+                );
+                if let Some(gk) = w.gust_kt {
+                    s.push_str(&format!(", gusting {} kt", fmt_num(gk)));
+                }
+                match w.unit {
+                    Some(SpeedUnit::Mps) => s.push_str(" (reported in m/s)"),
+                    Some(SpeedUnit::Kmh) => s.push_str(" (reported in km/h)"),
+                    _ => {}
+                }
+                s
+            }
+        },
+        GroupKind::WindSector => match &r.wind {
+            Some(Wind {
+                variable_from_deg: Some(a),
+                variable_to_deg: Some(b),
+                ..
+            }) => format!("wind direction varying between {a:03.0}° and {b:03.0}° true"),
+            _ => "variable wind sector".into(),
+        },
+        GroupKind::Cavok => {
+            "CAVOK: visibility 10 km or more, no cloud below 5,000 ft or below the highest \
+             minimum sector altitude, no cumulonimbus or towering cumulus, no significant weather"
+                .into()
+        }
+        GroupKind::Visibility => match &r.visibility {
+            None => "visibility not readable".into(),
+            Some(v) => {
+                let b = bound_word(v.bound);
+                let mut s = match v.reported_sm {
+                    Some(sm) => format!(
+                        "visibility {b}{} SM ({b}{:.0} m)",
+                        fmt_num(sm),
+                        v.prevailing_m
+                    ),
+                    None if v.bound == Bound::AtLeast => "visibility 10 km or more".into(),
+                    None if v.bound == Bound::LessThan => "visibility less than 50 m".into(),
+                    None => format!(
+                        "visibility {:.0} m ({} SM)",
+                        v.prevailing_m,
+                        fmt_num((v.prevailing_sm() * 100.0).round() / 100.0)
+                    ),
+                };
+                if v.no_directional_variation {
+                    s.push_str(", no directional variation available");
+                }
+                s
+            }
+        },
+        GroupKind::MinimumVisibility => match &r.visibility {
+            Some(Visibility {
+                minimum_m: Some(m),
+                minimum_direction,
+                ..
+            }) => {
+                let dir = minimum_direction
+                    .and_then(|d| DIRECTIONS.get(usize::from(d)))
+                    .unwrap_or(&"?");
+                format!("lowest visibility {m:.0} m, towards {dir}")
+            }
+            _ => "directional visibility".into(),
+        },
+        GroupKind::Rvr(n) => match r.rvr.get(usize::from(n)) {
+            None => "runway visual range".into(),
+            Some(v) => {
+                let unit = |m: f64| {
+                    if v.in_feet {
+                        format!("{:.0} ft", m / M_PER_FT)
+                    } else {
+                        format!("{m:.0} m")
+                    }
+                };
+                let mut s = format!(
+                    "runway {} visual range {}{}",
+                    v.runway,
+                    bound_word(v.bound),
+                    unit(v.range_m)
+                );
+                if let Some(h) = v.variable_to_m {
+                    s.push_str(&format!(
+                        " varying to {}{}",
+                        bound_word(v.variable_bound),
+                        unit(h)
+                    ));
+                }
+                match v.tendency {
+                    Some('U') => s.push_str(", increasing"),
+                    Some('D') => s.push_str(", decreasing"),
+                    Some('N') => s.push_str(", no change"),
+                    _ => {}
+                }
+                s
+            }
+        },
+        GroupKind::Weather(n) => r
+            .weather
+            .get(usize::from(n))
+            .map_or_else(String::new, describe_weather),
+        GroupKind::Recent(n) => r
+            .recent_weather
+            .get(usize::from(n))
+            .map_or_else(String::new, |w| format!("recent {}", describe_weather(w))),
+        GroupKind::Cloud(n) => match r.clouds.get(usize::from(n)) {
+            None => String::new(),
+            Some(c) => {
+                let cover = match c.cover {
+                    Cover::Few => "few clouds (1-2 oktas)",
+                    Cover::Scattered => "scattered clouds (3-4 oktas)",
+                    Cover::Broken => "broken clouds (5-7 oktas)",
+                    Cover::Overcast => "overcast (8 oktas)",
+                    Cover::VerticalVisibility => "sky obscured, vertical visibility",
+                    Cover::Unknown => "cloud of unknown amount",
+                };
+                let base = match c.base_ft {
+                    Some(ft) if c.cover == Cover::VerticalVisibility => format!(" {ft:.0} ft"),
+                    Some(ft) => format!(" at {ft:.0} ft"),
+                    None => " at unknown height".into(),
+                };
+                let kind = match c.convective {
+                    Some(Convective::Cb) => ", cumulonimbus",
+                    Some(Convective::Tcu) => ", towering cumulus",
+                    Some(Convective::Unknown) => ", cloud type not observable",
+                    None => "",
+                };
+                format!("{cover}{base}{kind}")
+            }
+        },
+        GroupKind::SkyClear => match r.sky_clear {
+            Some(SkyClear::Nsc) => "no significant cloud".into(),
+            Some(SkyClear::Ncd) => "no cloud detected (automatic)".into(),
+            Some(SkyClear::Skc) => "sky clear".into(),
+            Some(SkyClear::Clr) => "no cloud below 12,000 ft (automatic)".into(),
+            None => String::new(),
+        },
+        GroupKind::Temperature => {
+            let f = |v: Option<f64>| v.map_or("not reported".to_string(), |v| format!("{v:.0} °C"));
+            if r.temperature_from_remarks {
+                "temperature and dew point (whole degrees; the remark T group gives tenths)".into()
+            } else {
+                format!(
+                    "temperature {}, dew point {}",
+                    f(r.temperature_c),
+                    f(r.dewpoint_c)
+                )
+            }
+        }
+        GroupKind::AltimeterHpa => match r.altimeter_hpa {
+            Some(h) => format!("altimeter setting (QNH) {h:.0} hPa"),
+            None => String::new(),
+        },
+        GroupKind::AltimeterInhg => match r.altimeter_inhg {
+            Some(a) => format!(
+                "altimeter setting {a:.2} inHg ({:.1} hPa)",
+                a * HPA_PER_INHG
+            ),
+            None => String::new(),
+        },
+        GroupKind::WindShear(n) => match r.wind_shear.get(usize::from(n)) {
+            Some(WindShear::AllRunways) => "wind shear on all runways".into(),
+            Some(WindShear::Runway(rw)) => format!("wind shear on runway {rw}"),
+            None => String::new(),
+        },
+        GroupKind::Trend => "trend for the next two hours (kept as text)".into(),
+        GroupKind::Remarks => "remarks (kept as text)".into(),
+        GroupKind::RemarkTemperature => {
+            let f = |v: Option<f64>| v.map_or("not reported".to_string(), |v| format!("{v:.1} °C"));
+            format!(
+                "remark: temperature {}, dew point {} (tenths, used)",
+                f(r.temperature_c),
+                f(r.dewpoint_c)
+            )
+        }
+    }
+}

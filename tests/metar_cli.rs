@@ -1,0 +1,157 @@
+//! `rhoboard metar` end to end: readable and JSON output, stdin, exit codes.
+
+use std::io::Write;
+use std::process::{Command, Stdio};
+
+fn rhoboard(args: &[&str], stdin: Option<&str>) -> (i32, String) {
+    let mut child = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(args)
+        .stdin(Stdio::piped())
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .expect("run rhoboard");
+    if let Some(input) = stdin {
+        child
+            .stdin
+            .take()
+            .expect("stdin")
+            .write_all(input.as_bytes())
+            .expect("write stdin");
+    } else {
+        drop(child.stdin.take());
+    }
+    let out = child.wait_with_output().expect("wait");
+    (
+        out.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&out.stdout).into_owned(),
+    )
+}
+
+#[test]
+fn readable_decode_lists_each_group() {
+    let (code, out) = rhoboard(
+        &[
+            "metar",
+            "--date",
+            "2026-06-14",
+            "METAR XQAB 141250Z 27015G25KT 9999 -SHRA BKN012 21/12 Q1015 NOSIG",
+        ],
+        None,
+    );
+    assert_eq!(code, 0);
+    insta::assert_snapshot!(out, @r"
+    METAR XQAB 141250Z 27015G25KT 9999 -SHRA BKN012 21/12 Q1015 NOSIG
+      METAR       routine report (METAR)
+      XQAB        station XQAB
+      141250Z     observed 2026-06-14 12:50 UTC
+      27015G25KT  wind from 270° true at 15 kt, gusting 25 kt
+      9999        visibility 10 km or more
+      -SHRA       light showers of rain
+      BKN012      broken clouds (5-7 oktas) at 1200 ft
+      21/12       temperature 21 °C, dew point 12 °C
+      Q1015       altimeter setting (QNH) 1015 hPa
+      NOSIG       trend for the next two hours (kept as text)
+      ceiling: 1200 ft
+      usable for performance: yes
+    ");
+}
+
+#[test]
+fn unquoted_report_is_one_report() {
+    let (code, out) = rhoboard(
+        &[
+            "metar",
+            "--date",
+            "2026-06-14",
+            "XQAB",
+            "141250Z",
+            "27015KT",
+            "9999",
+            "FEW030",
+            "21/12",
+            "Q1015",
+        ],
+        None,
+    );
+    assert_eq!(code, 0, "{out}");
+    assert_eq!(
+        out.lines().next(),
+        Some("XQAB 141250Z 27015KT 9999 FEW030 21/12 Q1015")
+    );
+}
+
+#[test]
+fn json_for_a_days_file_on_stdin_exits_2_for_the_rejected_report() {
+    let day = include_str!("../fixtures/metar/day.txt");
+    let (code, out) = rhoboard(&["metar", "--json", "--date", "2026-06-14", "-"], Some(day));
+    assert_eq!(code, 2);
+    let v: serde_json::Value = serde_json::from_str(&out).expect("JSON");
+    let reports = v.as_array().expect("array");
+    assert_eq!(reports.len(), 29);
+    let first = &reports[0];
+    for key in [
+        "station",
+        "kind",
+        "observed_at",
+        "auto",
+        "corrected",
+        "wind",
+        "visibility_m",
+        "visibility_sm",
+        "cavok",
+        "weather",
+        "clouds",
+        "ceiling_ft",
+        "temperature_c",
+        "dewpoint_c",
+        "altimeter_hpa",
+        "altimeter_inhg",
+        "remarks",
+        "not_understood",
+        "usable_for_performance",
+        "errors",
+    ] {
+        assert!(first.get(key).is_some(), "missing key {key}");
+    }
+    for key in [
+        "direction_deg",
+        "variable",
+        "speed_kt",
+        "gust_kt",
+        "variable_from_deg",
+        "variable_to_deg",
+    ] {
+        assert!(first["wind"].get(key).is_some(), "missing wind key {key}");
+    }
+    assert_eq!(first["observed_at"], "2026-06-14T06:50:00Z");
+    assert_eq!(first["kind"], "metar");
+    let rejected: Vec<_> = reports
+        .iter()
+        .filter(|r| r["usable_for_performance"] == false)
+        .collect();
+    assert_eq!(rejected.len(), 1);
+    insta::assert_snapshot!(rejected[0]["errors"][0].as_str().unwrap(), @"observation XQAB 141920Z: wind group '26012KTS' at column 20: speed unit 'KTS' not understood; expected KT, MPS or KMH");
+    // The wrapped report was joined.
+    assert!(
+        reports.iter().any(|r| r["text"]
+            == "METAR XHA1 141250Z 20015G26KT 170V230 9999 FEW080 SCT200 23/M01 Q1016")
+    );
+}
+
+#[test]
+fn empty_input_and_a_bad_date_are_bad_input() {
+    let (code, out) = rhoboard(&["metar", "-"], Some("\n# nothing\n"));
+    assert_eq!(code, 2);
+    assert!(out.contains("no report given"));
+    let (code, _) = rhoboard(
+        &[
+            "metar",
+            "--date",
+            "14/06/2026",
+            "XQAB 141250Z 27015KT 9999 FEW030 21/12 Q1015",
+        ],
+        None,
+    );
+    assert_eq!(code, 2);
+}
