@@ -177,3 +177,32 @@ fn observations_cover_every_demo_airfield_hourly() {
     assert!(text.lines().any(|l| l.contains("G28KT")), "one gusty hour");
     let _ = OpsFiles::default();
 }
+
+#[test]
+fn every_demo_metar_decodes_cleanly() {
+    use chrono::{TimeZone, Utc};
+    let ops = demo::load().ops.unwrap();
+    let reference = Utc.with_ymd_and_hms(2026, 6, 14, 18, 0, 0).unwrap();
+    let reports = rhoboard::observation::file::decode_all(&ops.observations[0].1, reference);
+    assert_eq!(reports.len(), 103);
+    for r in &reports {
+        let rep = &r.report;
+        assert!(
+            rep.usable_for_performance(),
+            "line {}: {:?}",
+            r.line,
+            rep.error_lines()
+        );
+        assert!(
+            rep.not_understood.is_empty(),
+            "line {}: {:?}",
+            r.line,
+            rep.not_understood
+        );
+        assert!(ops.airfield(&rep.station).is_some(), "{}", rep.station);
+        assert_eq!(
+            rep.observed_at.unwrap().date_naive().to_string(),
+            demo::DATE
+        );
+    }
+}

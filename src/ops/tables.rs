@@ -273,7 +273,11 @@ impl Grid {
                 }
             }
         }
-        Ok(Cell { offsets, weights, grid_len: self.len() as u32 })
+        Ok(Cell {
+            offsets,
+            weights,
+            grid_len: self.len() as u32,
+        })
     }
 }
 
