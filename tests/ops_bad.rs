@@ -84,6 +84,7 @@ const CASES: &[&str] = &[
     "irregular-ok",
     "json-syntax",
     "leg-arrives-first",
+    "leg-loads",
     "leg-maintenance",
     "leg-overlap-and-position",
     "leg-unknown-refs",
@@ -92,6 +93,7 @@ const CASES: &[&str] = &[
     "missing-field",
     "missing-file",
     "non-positive-distance",
+    "observation-rejected",
     "schema-version",
     "slope-signs",
     "table-shape",
@@ -197,6 +199,17 @@ fn leg_arrives_first() {
 }
 
 #[test]
+fn leg_loads() {
+    insta::assert_snapshot!(validate_case("leg-loads"), @r#"
+    2 error(s):
+      legs/2026-06-14.json:7:41: legs[0].loads.stations[0].station: type tiny has no loading station 'front_seats' (it has: seats, baggage)
+      legs/2026-06-14.json:7:92: legs[0].loads.fuel_at_start_l: 100 L of fuel is more than the usable capacity 90 L
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
 fn leg_maintenance() {
     insta::assert_snapshot!(validate_case("leg-maintenance"), @r#"
     1 error(s):
@@ -278,6 +291,16 @@ fn non_positive_distance() {
       fleet/types/tiny.json:18:27: performance.landing.ground_roll_m[0][0][0]: ground roll 140 m is longer than the 50 ft distance 0 m at the same point; one of them is mistyped
     Fix the errors above and run `rhoboard validate` again.
     exit 2
+    "#);
+}
+
+#[test]
+fn observation_rejected() {
+    insta::assert_snapshot!(validate_case("observation-rejected"), @r#"
+    1 warning(s):
+      observations/2026-06-14.txt:3:1: report not usable: observation XAAA 140900Z: temperature/dew point group missing (expected e.g. 15/08)
+    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    exit 0
     "#);
 }
 

@@ -221,6 +221,18 @@ impl<'a> Collector<'a> {
         self.at(Severity::Warning, file, path, message);
     }
 
+    /// Records a problem at a line and column (for text files such as observations).
+    pub fn at_line(
+        &mut self,
+        severity: Severity,
+        file: &str,
+        line: usize,
+        column: usize,
+        message: impl Into<String>,
+    ) {
+        self.push(severity, file, String::new(), line, column, message.into());
+    }
+
     fn push(
         &mut self,
         severity: Severity,
