@@ -42,6 +42,7 @@ fn validate_case(name: &str) -> String {
     let outcome = run(
         &Args {
             ops: Some(dir.clone()),
+            json: false,
         },
         &mut out,
     )
@@ -74,6 +75,39 @@ fn every_case_folder_has_a_test() {
     cases.sort();
     assert_eq!(cases, CASES);
 }
+#[test]
+fn json_report_for_scripts() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/bad-ops");
+    let dir = std::env::temp_dir().join(format!("rhoboard-bad-json-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    copy_tree(&root.join("_base"), &dir);
+    copy_tree(&root.join("tora-toda-asda"), &dir);
+    let mut out = Vec::new();
+    let outcome = run(
+        &Args {
+            ops: Some(dir.clone()),
+            json: true,
+        },
+        &mut out,
+    )
+    .unwrap();
+    std::fs::remove_dir_all(&dir).unwrap();
+    assert_eq!(outcome.code(), 2);
+    let v: serde_json::Value = serde_json::from_slice(&out).unwrap();
+    assert_eq!(v["ok"], false);
+    insta::assert_snapshot!(serde_json::to_string_pretty(&v["errors"][0]).unwrap(), @r#"
+    {
+      "column": 75,
+      "file": "airfields/XAAA.json",
+      "line": 10,
+      "message": "TODA 850 m is shorter than TORA 900 m; TODA is TORA plus any clearway",
+      "path": "runway_ends[0].toda_m",
+      "severity": "error"
+    }
+    "#);
+}
+
 const CASES: &[&str] = &[
     "axes-not-increasing",
     "climb-increases",
@@ -94,6 +128,7 @@ const CASES: &[&str] = &[
     "missing-file",
     "non-positive-distance",
     "observation-rejected",
+    "operator-two-categories",
     "schema-version",
     "slope-signs",
     "table-shape",
@@ -305,6 +340,17 @@ fn observation_rejected() {
 }
 
 #[test]
+fn operator_two_categories() {
+    insta::assert_snapshot!(validate_case("operator-two-categories"), @r#"
+    2 error(s):
+      operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
+      operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
 fn schema_version() {
     insta::assert_snapshot!(validate_case("schema-version"), @r#"
     1 error(s):
@@ -371,7 +417,7 @@ fn tora_toda_asda() {
 fn unknown_fields() {
     insta::assert_snapshot!(validate_case("unknown-fields"), @r#"
     2 error(s):
-      airfields/XAAA.json:10:56: runway_ends[0]: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
+      airfields/XAAA.json:10:50: runway_ends[0].tora: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
       airfields/XAAA.json:11:130: runway_ends[1].surface: unknown variant `asphalt`, expected `paved` or `grass`
     Fix the errors above and run `rhoboard validate` again.
     exit 2

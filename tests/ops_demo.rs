@@ -150,6 +150,7 @@ fn validate_command_on_the_demo_says_all_is_well() {
     let mut out = Vec::new();
     let args = rhoboard::commands::validate::Args {
         ops: Some(dir.clone()),
+        json: false,
     };
     let outcome = rhoboard::commands::validate::run(&args, &mut out).unwrap();
     assert_eq!(outcome, rhoboard::commands::Outcome::Success);

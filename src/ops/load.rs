@@ -23,7 +23,8 @@ pub const SCHEMA_VERSION: u32 = 1;
 pub const MAX_FILE_BYTES: u64 = 256 * 1024 * 1024;
 
 /// Error or warning.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
 pub enum Severity {
     /// The data cannot be used as it is.
     Error,
@@ -32,7 +33,7 @@ pub enum Severity {
 }
 
 /// One problem found in the operator's data.
-#[derive(Debug, Clone, PartialEq, Eq, Hash)]
+#[derive(Debug, Clone, PartialEq, Eq, Hash, serde::Serialize)]
 pub struct Diagnostic {
     /// Error or warning.
     pub severity: Severity,
@@ -59,7 +60,7 @@ impl fmt::Display for Diagnostic {
 }
 
 /// Every problem found, errors and warnings apart.
-#[derive(Debug, Clone, Default, PartialEq, Eq)]
+#[derive(Debug, Clone, Default, PartialEq, Eq, serde::Serialize)]
 pub struct Report {
     /// Errors, in file order.
     pub errors: Vec<Diagnostic>,
@@ -276,6 +277,18 @@ impl<'a> Collector<'a> {
             let p = spans.path_at(offset).to_string();
             let pos = spans.position(&p);
             (p, pos)
+        } else if let Some(field) = msg
+            .strip_prefix("unknown field `")
+            .and_then(|r| r.split('`').next())
+        {
+            // Reported just after the key, which is not a value: name the key itself.
+            let parent = spans.path_at(offset.saturating_sub(1));
+            let p = if parent.is_empty() {
+                field.to_string()
+            } else {
+                format!("{parent}.{field}")
+            };
+            (p, spans.line_col(offset.saturating_sub(field.len() + 2)))
         } else {
             (
                 spans.path_at(offset.saturating_sub(1)).to_string(),
@@ -412,7 +425,10 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
 
     let mut complete = true;
     let operator = if files.files.contains_key("operator.json") {
-        c.parse::<OperatorFile>("operator.json", &[])
+        c.parse::<OperatorFile>(
+            "operator.json",
+            &[("categories", element::<super::operator::Minimums>)],
+        )
     } else {
         missing(c, "operator.json");
         None

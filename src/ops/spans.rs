@@ -220,15 +220,27 @@ impl Spans {
         best.map_or("", |n| n.path.as_str())
     }
 
-    /// The direct element paths and spans of the array at `path`.
+    /// The direct children (array elements or object members) of the value at `path`:
+    /// their paths and byte spans.
     pub fn elements(&self, path: &str) -> Vec<(String, usize, usize)> {
-        let prefix = format!("{path}[");
+        let index = format!("{path}[");
+        let member = if path.is_empty() {
+            String::new()
+        } else {
+            format!("{path}.")
+        };
         self.nodes
             .iter()
             .filter(|n| {
-                n.path
-                    .strip_prefix(&prefix)
-                    .is_some_and(|rest| rest.find(']').is_some_and(|j| j + 1 == rest.len()))
+                let elem = n
+                    .path
+                    .strip_prefix(&index)
+                    .is_some_and(|rest| rest.find(']').is_some_and(|j| j + 1 == rest.len()));
+                let memb = n
+                    .path
+                    .strip_prefix(&member)
+                    .is_some_and(|rest| !rest.is_empty() && !rest.contains(['.', '[']));
+                elem || (memb && n.path != path)
             })
             .map(|n| (n.path.clone(), n.start, n.end))
             .collect()
