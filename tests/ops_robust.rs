@@ -132,3 +132,59 @@ fn ten_thousand_airfields_load() {
     let loaded = load_files(&files);
     assert!(loaded.report.errors.len() >= 10_000);
 }
+
+#[test]
+fn a_huge_table_of_zeros_is_reported_briefly() {
+    // 10 × 100 × 100 = 100,000 values per table, all zero: 400,000 problems, listed up
+    // to the per-file cap and then counted.
+    let row = format!("[{}]", vec!["0"; 100].join(","));
+    let block = format!("[{}]", vec![row.as_str(); 100].join(","));
+    let table = format!("[{}]", vec![block.as_str(); 10].join(","));
+    let axis = |n: usize, step: usize| {
+        format!(
+            "[{}]",
+            (0..n)
+                .map(|i| (i * step).to_string())
+                .collect::<Vec<_>>()
+                .join(",")
+        )
+    };
+    let text = demo::files().files["fleet/types/ft2.json"].clone();
+    let start = text.find("\"performance\"").unwrap();
+    let end = text.find("\"corrections\"").unwrap();
+    let perf = format!(
+        "\"performance\": {{\"axes\": {{\"mass_kg\": {}, \"pressure_altitude_ft\": {}, \"oat_c\": {}}}, \
+         \"takeoff\": {{\"ground_roll_m\": {t}, \"distance_50ft_m\": {t}}}, \
+         \"landing\": {{\"distance_50ft_m\": {t}, \"ground_roll_m\": {t}}}, \
+         \"climb\": {{\"climb_speed_kias\": 68, \"rate_fpm\": {t}}}}},\n  ",
+        axis(10, 20),
+        axis(100, 100),
+        axis(100, 1),
+        t = table
+    );
+    let huge = format!("{}{}{}", &text[..start], perf, &text[end..]);
+    let started = std::time::Instant::now();
+    let loaded = load_files(&demo_with("fleet/types/ft2.json", huge));
+    let in_file: Vec<_> = loaded
+        .report
+        .errors
+        .iter()
+        .chain(&loaded.report.warnings)
+        .filter(|d| d.file == "fleet/types/ft2.json")
+        .collect();
+    assert_eq!(
+        in_file.len(),
+        rhoboard::ops::load::MAX_PER_FILE + 1,
+        "{:?} … {:?}",
+        in_file.first(),
+        in_file.last()
+    );
+    let more = loaded
+        .report
+        .errors
+        .iter()
+        .rfind(|d| d.file == "fleet/types/ft2.json")
+        .unwrap();
+    assert!(more.message.starts_with("… and "), "{more}");
+    assert!(started.elapsed().as_secs() < 10);
+}

@@ -19,6 +19,9 @@ use super::spans::Spans;
 /// The file format version this build reads.
 pub const SCHEMA_VERSION: u32 = 1;
 
+/// Problems listed per file; past this a file gets one "… and N more" line.
+pub const MAX_PER_FILE: usize = 200;
+
 /// Largest file read, bytes; anything bigger is refused with a message.
 pub const MAX_FILE_BYTES: u64 = 256 * 1024 * 1024;
 
@@ -176,6 +179,7 @@ pub struct Collector<'a> {
     files: &'a OpsFiles,
     spans: HashMap<String, Spans>,
     seen: std::collections::HashSet<Diagnostic>,
+    per_file: HashMap<String, usize>,
     /// What was found so far.
     pub report: Report,
 }
@@ -187,6 +191,7 @@ impl<'a> Collector<'a> {
             files,
             spans: HashMap::new(),
             seen: Default::default(),
+            per_file: HashMap::new(),
             report: Report::default(),
         }
     }
@@ -201,6 +206,13 @@ impl<'a> Collector<'a> {
     /// Records a problem at a field path (positioned at the value, or its nearest
     /// existing parent).
     pub fn at(&mut self, severity: Severity, file: &str, path: &str, message: impl Into<String>) {
+        // Past the per-file cap only the count matters (and finding positions would cost).
+        if let Some(n) = self.per_file.get_mut(file)
+            && *n >= MAX_PER_FILE
+        {
+            *n += 1;
+            return;
+        }
         let (line, column) = self.spans(file).position(path);
         self.push(
             severity,
@@ -251,12 +263,49 @@ impl<'a> Collector<'a> {
             column,
             message,
         };
+        let count = self.per_file.entry(d.file.clone()).or_insert(0);
+        if *count >= MAX_PER_FILE {
+            if self.seen.insert(d) {
+                *count += 1;
+            }
+            return;
+        }
         let list = match severity {
             Severity::Error => &mut self.report.errors,
             Severity::Warning => &mut self.report.warnings,
         };
         if self.seen.insert(d.clone()) {
+            *count += 1;
             list.push(d);
+        }
+    }
+
+    /// Adds, for every file with more than [`MAX_PER_FILE`] problems, one line saying
+    /// how many more there are.
+    fn finish(&mut self) {
+        let mut over: Vec<(String, usize)> = self
+            .per_file
+            .iter()
+            .filter(|&(_, &n)| n > MAX_PER_FILE)
+            .map(|(f, &n)| (f.clone(), n - MAX_PER_FILE))
+            .collect();
+        over.sort();
+        for (file, more) in over {
+            let last_line = self
+                .files
+                .files
+                .get(&file)
+                .map_or(1, |t| t.lines().count().max(1));
+            self.report.errors.push(Diagnostic {
+                severity: Severity::Error,
+                file,
+                path: String::new(),
+                line: last_line,
+                column: 1,
+                message: format!(
+                    "… and {more} more problem(s) in this file; fix the ones above and run again"
+                ),
+            });
         }
     }
 
@@ -395,6 +444,7 @@ pub fn load_files(files: &OpsFiles) -> Loaded {
     if let Some(ops) = &ops {
         super::validate::check_cross(ops, &mut c);
     }
+    c.finish();
     let ok = c.report.errors.is_empty();
     let key = |d: &Diagnostic| (d.file.clone(), d.line, d.column);
     c.report.errors.sort_by_key(key);

@@ -11,6 +11,7 @@
 pub struct Spans {
     line_starts: Vec<usize>,
     nodes: Vec<Node>,
+    by_path: std::collections::HashMap<String, usize>,
 }
 
 #[derive(Debug, Clone)]
@@ -164,9 +165,14 @@ impl Spans {
             nodes: Vec::new(),
         };
         let _ = s.value("", 0);
+        let mut by_path = std::collections::HashMap::with_capacity(s.nodes.len());
+        for (i, n) in s.nodes.iter().enumerate() {
+            by_path.entry(n.path.clone()).or_insert(i);
+        }
         Spans {
             line_starts,
             nodes: s.nodes,
+            by_path,
         }
     }
 
@@ -188,10 +194,9 @@ impl Spans {
 
     /// Byte span of the value at a path, if the path exists.
     pub fn span(&self, path: &str) -> Option<(usize, usize)> {
-        self.nodes
-            .iter()
-            .find(|n| n.path == path)
-            .map(|n| (n.start, n.end))
+        self.by_path
+            .get(path)
+            .map(|&i| (self.nodes[i].start, self.nodes[i].end))
     }
 
     /// Position of the value at a path, or of its nearest existing ancestor.
@@ -210,14 +215,14 @@ impl Spans {
 
     /// The deepest path whose value contains a byte offset (`""` for the top level).
     pub fn path_at(&self, offset: usize) -> &str {
-        let mut best: Option<&Node> = None;
-        for n in &self.nodes {
-            let inside = n.start <= offset && offset <= n.end;
-            if inside && best.is_none_or(|b| n.end - n.start <= b.end - b.start) {
-                best = Some(n);
-            }
-        }
-        best.map_or("", |n| n.path.as_str())
+        // Nodes are in document order (pre-order, starts increasing): the deepest node
+        // containing the offset is the last-starting one that still reaches it.
+        let last = self.nodes.partition_point(|n| n.start <= offset);
+        self.nodes[..last]
+            .iter()
+            .rev()
+            .find(|n| offset <= n.end)
+            .map_or("", |n| n.path.as_str())
     }
 
     /// The direct children (array elements or object members) of the value at `path`:
