@@ -137,9 +137,9 @@ fn ten_thousand_airfields_load() {
 fn a_huge_table_of_zeros_is_reported_briefly() {
     // 10 × 100 × 100 = 100,000 values per table, all zero: 400,000 problems, listed up
     // to the per-file cap and then counted.
-    let row = format!("[{}]", vec!["0"; 100].join(","));
-    let block = format!("[{}]", vec![row.as_str(); 100].join(","));
-    let table = format!("[{}]", vec![block.as_str(); 10].join(","));
+    let row = format!("[{}]", ["0"; 100].join(","));
+    let block = format!("[{}]", [row.as_str(); 100].join(","));
+    let table = format!("[{}]", [block.as_str(); 10].join(","));
     let axis = |n: usize, step: usize| {
         format!(
             "[{}]",
