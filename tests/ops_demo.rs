@@ -135,9 +135,11 @@ fn init_template_validates_with_only_replace_warnings() {
     insta::assert_snapshot!(loaded.report.warnings[0].to_string(), @"airfields/XBRK.json:3:25: replace_before_use: this file is still the fictional template from `rhoboard init`: replace its values with your own, then delete `replace_before_use`");
     // A second init into the same, now non-empty, folder refuses.
     let mut out = Vec::new();
-    assert_eq!(
-        rhoboard::commands::init::run(&args, &mut out).unwrap(),
-        rhoboard::commands::Outcome::BadInput
+    let err = rhoboard::commands::init::run(&args, &mut out).unwrap_err();
+    assert!(
+        err.to_string()
+            .ends_with("exists and is not empty; choose a new folder (nothing was written)"),
+        "{err}"
     );
     std::fs::remove_dir_all(&dir).unwrap();
 }
