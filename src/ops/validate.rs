@@ -920,6 +920,17 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
             }
         }
     }
+    for (i, p) in ops.pilots.iter().enumerate() {
+        for (k, id) in p.limitations.airfields.iter().enumerate() {
+            if ops.airfield(id).is_none() {
+                c.error(
+                    "pilots.json",
+                    &format!("pilots[{i}].limitations.airfields[{k}]"),
+                    format!("unknown airfield '{id}' in the pilot's written limitations"),
+                );
+            }
+        }
+    }
     let mut leg_ids: HashMap<&str, usize> = HashMap::new();
     for (i, leg) in ops.legs.iter().enumerate() {
         let (file, k) = &ops.leg_files[i];
