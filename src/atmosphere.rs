@@ -281,7 +281,7 @@ pub fn true_airspeed_factor(density_kg_m3: f64) -> f64 {
 }
 
 /// Everything about the air at a field that follows from one observation.
-#[derive(Debug, Clone, Copy, PartialEq)]
+#[derive(Debug, Clone, Copy, PartialEq, serde::Serialize)]
 pub struct AirData {
     /// Field elevation used, ft.
     pub elevation_ft: f64,

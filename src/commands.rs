@@ -2,6 +2,7 @@
 //! and returns what the process should exit with.
 
 pub mod calc;
+pub mod check;
 pub mod metar;
 pub mod overview;
 

@@ -20,6 +20,8 @@ struct Cli {
 enum Command {
     /// Pressure and density altitude, density, ISA deviation and TAS factor at a field.
     Calc(commands::calc::Args),
+    /// Assesses every leg of the day against the operator's minimums.
+    Check(commands::check::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
     /// Checks an operator folder and reports every problem (file, line, column, field).
@@ -34,6 +36,7 @@ fn main() -> ExitCode {
     let result: anyhow::Result<Outcome> = match cli.command {
         None => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
+        Some(Command::Check(args)) => commands::check::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),

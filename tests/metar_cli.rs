@@ -155,3 +155,18 @@ fn empty_input_and_a_bad_date_are_bad_input() {
     );
     assert_eq!(code, 2);
 }
+
+#[test]
+fn the_demo_operators_observation_day_decodes() {
+    let day = include_str!("../fixtures/demo/observations/2026-06-14.txt");
+    let (code, out) = rhoboard(&["metar", "--json", "--date", "2026-06-14", "-"], Some(day));
+    assert_eq!(code, 0, "every demo report is usable");
+    let v: serde_json::Value = serde_json::from_str(&out).expect("JSON");
+    let reports = v.as_array().expect("array");
+    assert!(reports.len() >= 100);
+    assert!(
+        reports
+            .iter()
+            .all(|r| r["not_understood"].as_array().is_some_and(Vec::is_empty))
+    );
+}

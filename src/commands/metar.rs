@@ -8,7 +8,7 @@ use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
 
 use super::Outcome;
-use crate::observation::{Ceiling, Report, describe, split_reports};
+use crate::observation::{Ceiling, DecodeError, Report, describe, split_reports};
 
 /// Arguments of `rhoboard metar`.
 #[derive(Debug, Clone, clap::Args)]
@@ -194,28 +194,44 @@ pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Resu
         })
         .collect();
     writeln!(out, "{shown}")?;
-    let width = r
-        .groups
+    // Decoded groups, groups not understood and malformed needed groups, in report order.
+    let mut lines: Vec<(usize, String, String)> = Vec::new();
+    for g in &r.groups {
+        let column = r.text.get(..g.start).map_or(0, |p| p.chars().count()) + 1;
+        lines.push((column, r.group_text(g).to_string(), describe(r, g)));
+    }
+    for n in &r.not_understood {
+        lines.push((
+            n.column,
+            n.group.clone(),
+            format!("not understood: {}", n.reason),
+        ));
+    }
+    for e in &r.errors {
+        if let DecodeError::Malformed {
+            group,
+            text,
+            column,
+            problem,
+        } = e
+        {
+            lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
+        }
+    }
+    lines.sort_by_key(|(column, _, _)| *column);
+    let width = lines
         .iter()
-        .map(|g| r.group_text(g).chars().count())
+        .map(|(_, t, _)| t.chars().count())
         .filter(|n| *n <= 24)
         .max()
         .unwrap_or(8);
-    for g in &r.groups {
-        let text = r.group_text(g);
+    for (_, text, meaning) in &lines {
         if text.chars().count() > 24 {
             writeln!(out, "  {text}")?;
-            writeln!(out, "  {:width$}  {}", "", describe(r, g))?;
+            writeln!(out, "  {:width$}  {meaning}", "")?;
         } else {
-            writeln!(out, "  {text:width$}  {}", describe(r, g))?;
+            writeln!(out, "  {text:width$}  {meaning}")?;
         }
-    }
-    for n in &r.not_understood {
-        writeln!(
-            out,
-            "  {:width$}  not understood (column {}): {}",
-            n.group, n.column, n.reason
-        )?;
     }
     let ceiling = match r.ceiling {
         Ceiling::None => "none".to_string(),
@@ -249,4 +265,43 @@ pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Resu
         }
     }
     Ok(())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::observation::{ManualInput, manual_observation};
+    use chrono::TimeZone;
+
+    #[test]
+    fn manual_reports_serialise_tagged_as_manual() {
+        let input = ManualInput {
+            station: "XHA1".into(),
+            observed_at: Some(Utc.with_ymd_and_hms(2026, 6, 14, 12, 50, 0).unwrap()),
+            wind_direction: "calm".into(),
+            temperature: "88F".into(),
+            altimeter: "30.12inHg".into(),
+            ceiling: Some("none".into()),
+            ..ManualInput::default()
+        };
+        let r = manual_observation(&input, 5.0).unwrap();
+        let v = to_json(&r);
+        assert_eq!(v["kind"], "manual");
+        assert_eq!(v["ceiling"], "none");
+        assert_eq!(v["usable_for_performance"], true);
+        assert_eq!(v["wind"]["speed_kt"], 0.0);
+        assert_eq!(v["observed_at"], "2026-06-14T12:50:00Z");
+    }
+
+    #[test]
+    fn unquoted_words_are_one_report() {
+        let words = |s: &str| s.split(' ').map(String::from).collect::<Vec<_>>();
+        assert!(looks_unquoted(&words("XQAB 141250Z 27015KT")));
+        assert!(looks_unquoted(&words("METAR XQAB 141250Z 27015KT")));
+        assert!(!looks_unquoted(&[
+            "XQAB 141250Z 27015KT".into(),
+            "XHA1 141250Z 00000KT".into()
+        ]));
+        assert!(!looks_unquoted(&words("XQAB")));
+    }
 }

@@ -7,6 +7,7 @@
 //! reports. A writer should append whole reports: a continuation line appended in a
 //! later write than its first line is read as a report of its own.
 
+use std::borrow::Cow;
 use std::fs::File;
 use std::io::{self, Read, Seek, SeekFrom};
 use std::path::{Path, PathBuf};
@@ -28,10 +29,14 @@ pub struct FileReport {
 /// Splits text into reports: `(first line number, report text)` pairs.
 pub fn split_reports(text: &str) -> Vec<(usize, String)> {
     split_from(text, 1)
+        .into_iter()
+        .map(|(line, t)| (line, t.into_owned()))
+        .collect()
 }
 
-fn split_from(text: &str, first_line: usize) -> Vec<(usize, String)> {
-    let mut out: Vec<(usize, String)> = Vec::new();
+/// Like [`split_reports`], borrowing single-line reports from `text`.
+fn split_from(text: &str, first_line: usize) -> Vec<(usize, Cow<'_, str>)> {
+    let mut out: Vec<(usize, Cow<'_, str>)> = Vec::new();
     let mut open = false;
     for (k, raw) in text.lines().enumerate() {
         let line = raw.strip_suffix('\r').unwrap_or(raw);
@@ -43,10 +48,11 @@ fn split_from(text: &str, first_line: usize) -> Vec<(usize, String)> {
         let continues = line.starts_with([' ', '\t']);
         match out.last_mut() {
             Some((_, prev)) if continues && open => {
-                prev.push(' ');
-                prev.push_str(trimmed);
+                let joined = prev.to_mut();
+                joined.push(' ');
+                joined.push_str(trimmed);
             }
-            _ => out.push((first_line + k, trimmed.to_string())),
+            _ => out.push((first_line + k, Cow::Borrowed(trimmed))),
         }
         open = !trimmed.ends_with('=');
     }
@@ -55,7 +61,7 @@ fn split_from(text: &str, first_line: usize) -> Vec<(usize, String)> {
 
 /// Decodes every report in `text`.
 pub fn decode_all(text: &str, reference: DateTime<Utc>) -> Vec<FileReport> {
-    split_reports(text)
+    split_from(text, 1)
         .into_iter()
         .map(|(line, t)| FileReport {
             line,

@@ -12,6 +12,11 @@ use crate::units::{
     UnitError, in_range, parse_length, parse_pressure_hpa, parse_speed_kt, parse_temperature_c,
 };
 
+/// What the manual-observation form says beside the wind direction.
+pub const WIND_FORM_NOTE: &str = "wind direction in degrees magnetic, as given by a tower, an \
+information broadcast or a windsock; mark it true if it is true (converted with the \
+airfield's magnetic variation)";
+
 /// Whether a hand-entered wind direction is magnetic (the default) or true.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum WindReference {
@@ -288,7 +293,7 @@ pub fn manual_observation(
         return Err(errors);
     }
     let wind = Wind {
-        direction_deg: if calm { Some(360.0) } else { direction_deg },
+        direction_deg: if calm { Some(0.0) } else { direction_deg },
         variable,
         speed_kt,
         speed_bound: Bound::Exact,

@@ -14,7 +14,7 @@ use super::{
     Bound, CloudLayer, Convective, Cover, DIRECTIONS, Group, GroupKind, Intensity, Kind,
     NotUnderstood, Report, Rvr, SkyClear, SpeedUnit, Visibility, Weather, Wind, WindShear,
 };
-use crate::units::{HPA_PER_INHG, KMH_PER_KT, M_PER_FT, M_PER_SM, mps_to_kt};
+use crate::units::{HPA_PER_INHG, KMH_PER_KT, M_PER_FT, M_PER_SM, MPS_PER_KT, mps_to_kt};
 
 /// Longest report accepted; a real METAR with remarks is a few hundred characters.
 pub const MAX_REPORT_LEN: usize = 2_000;
@@ -366,7 +366,7 @@ fn bound_prefix(s: &str) -> (Bound, &str) {
 fn fraction(s: &str) -> Option<f64> {
     let (n, d) = s.split_once('/')?;
     let (n, d) = (num(n)?, num(d)?);
-    if d == 0 || n.to_string().len() > 2 || d > 16 {
+    if d == 0 || n > 99 || d > 16 {
         return None;
     }
     Some(f64::from(n) / f64::from(d))
@@ -1435,18 +1435,23 @@ pub fn describe(r: &Report, g: &Group) -> String {
                     Some(d) => format!("from {d:03.0}° true"),
                     None => "variable in direction".into(),
                 };
+                // As reported, with knots beside a metric unit.
+                let speed = |kt: f64| match w.unit {
+                    Some(SpeedUnit::Mps) => {
+                        format!("{} m/s ({:.1} kt)", fmt_num((kt * MPS_PER_KT).round()), kt)
+                    }
+                    Some(SpeedUnit::Kmh) => {
+                        format!("{} km/h ({:.1} kt)", fmt_num((kt * KMH_PER_KT).round()), kt)
+                    }
+                    _ => format!("{} kt", fmt_num(kt)),
+                };
                 let mut s = format!(
-                    "wind {dir} at {}{} kt",
+                    "wind {dir} at {}{}",
                     bound_word(w.speed_bound),
-                    fmt_num(w.speed_kt)
+                    speed(w.speed_kt)
                 );
                 if let Some(gk) = w.gust_kt {
-                    s.push_str(&format!(", gusting {} kt", fmt_num(gk)));
-                }
-                match w.unit {
-                    Some(SpeedUnit::Mps) => s.push_str(" (reported in m/s)"),
-                    Some(SpeedUnit::Kmh) => s.push_str(" (reported in km/h)"),
-                    _ => {}
+                    s.push_str(&format!(", gusting {}", speed(gk)));
                 }
                 s
             }
@@ -1576,7 +1581,15 @@ pub fn describe(r: &Report, g: &Group) -> String {
         GroupKind::Temperature => {
             let f = |v: Option<f64>| v.map_or("not reported".to_string(), |v| format!("{v:.0} °C"));
             if r.temperature_from_remarks {
-                "temperature and dew point (whole degrees; the remark T group gives tenths)".into()
+                // The fields hold the remark's tenths; show the group's own whole degrees.
+                let text = r.group_text(g);
+                let (t, d) = text.split_once('/').unwrap_or((text, ""));
+                let whole = |s: &str| temp_value(s).ok().flatten();
+                format!(
+                    "temperature {}, dew point {} (the remark T group's tenths are used)",
+                    f(whole(t)),
+                    f(whole(d))
+                )
             } else {
                 format!(
                     "temperature {}, dew point {}",

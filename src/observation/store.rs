@@ -113,7 +113,7 @@ impl Store {
             let Some(old) = st.reports.get_mut(slot as usize) else {
                 return Insert::Duplicate;
             };
-            if old.text == report.text {
+            if same_report(&old.text, &report.text) {
                 return Insert::Duplicate;
             }
             if old.corrected && !report.corrected {
@@ -184,6 +184,14 @@ impl Store {
     }
 }
 
+/// Two texts are the same report when they differ only by a leading `METAR`.
+fn same_report(a: &str, b: &str) -> bool {
+    fn body(t: &str) -> &str {
+        t.strip_prefix("METAR ").unwrap_or(t)
+    }
+    body(a) == body(b)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -241,6 +249,7 @@ mod tests {
         let first = "XQAB 141250Z 27012KT 9999 FEW040 21/09 Q1015";
         s.insert(rep(first));
         assert_eq!(s.insert(rep(first)), Insert::Duplicate);
+        assert_eq!(s.insert(rep(&format!("METAR {first}="))), Insert::Duplicate);
         assert_eq!(
             s.insert(rep(
                 "METAR COR XQAB 141250Z 27012KT 9999 FEW040 23/09 Q1015"

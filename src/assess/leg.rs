@@ -1,0 +1,1394 @@
+//! One leg, assessed: the observation valid at departure and arrival, the air, the wind
+//! on every runway end, the runway in use, takeoff and climb at the departure, landing
+//! at the destination, the category's limits, the state, the headroom in degrees of
+//! warming, and the advice that goes with the numbers.
+
+use chrono::{DateTime, Utc};
+use serde::Serialize;
+
+use super::limits::{self, LimitCheck, LimitKind, Who};
+use super::model::{EndModel, Model, TypeModel};
+use super::perf::{self, CheckResult, ClimbChain, DistanceChain, PerfGap};
+use super::state::{State, verdict};
+use super::wind::{self, Direction, Side as XSide};
+use crate::atmosphere::AirData;
+use crate::observation::{Report, Store};
+use crate::ops::actype::Performance;
+use crate::ops::operator::{Available, DistanceCheck, Minimums, Required};
+use crate::ops::tables::OutsideTable;
+use crate::ops::{Airfield, Category, Leg, Ops, Pilot};
+
+/// Everything an assessment reads.
+#[derive(Clone, Copy)]
+pub struct Context<'a> {
+    /// The operator's data.
+    pub ops: &'a Ops,
+    /// Its compiled form.
+    pub model: &'a Model,
+    /// The observations.
+    pub store: &'a Store,
+    /// The reference time T: reports observed after it do not exist.
+    pub at: DateTime<Utc>,
+}
+
+/// The report an assessment used.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ObservationUsed {
+    /// Station.
+    pub station: String,
+    /// The report as received.
+    pub text: String,
+    /// Its observation time.
+    pub observed_at: DateTime<Utc>,
+    /// Age at the time it stands for, minutes.
+    pub age_min: f64,
+    /// Older than the policy allows.
+    pub stale: bool,
+    /// The event is after T: this is the latest report at T ("as of").
+    pub as_of: bool,
+    /// Typed in by hand.
+    pub manual: bool,
+}
+
+/// The report valid for an event at `event_at`, given the reference time.
+pub fn observation_for<'s>(
+    store: &'s Store,
+    station: &str,
+    event_at: DateTime<Utc>,
+    at: DateTime<Utc>,
+    stale_after_min: f64,
+) -> Option<(&'s Report, ObservationUsed)> {
+    let as_of = event_at > at;
+    let stands_for = if as_of { at } else { event_at };
+    let valid = store.valid_at(station, stands_for)?;
+    let observed_at = valid.report.observed_at?;
+    let age_min = (stands_for - observed_at).num_seconds() as f64 / 60.0;
+    Some((
+        valid.report,
+        ObservationUsed {
+            station: station.to_string(),
+            text: valid.report.text.clone(),
+            observed_at,
+            age_min,
+            stale: age_min > stale_after_min,
+            as_of,
+            manual: valid.report.kind == Some(crate::observation::Kind::Manual),
+        },
+    ))
+}
+
+/// The weather at a field that the runway computations need.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct FieldWx {
+    /// The air.
+    pub air: AirData,
+    /// Wind direction (steady, sector or any).
+    pub direction: Direction,
+    /// Mean wind, kt.
+    pub speed_kt: f64,
+    /// Gust, kt.
+    pub gust_kt: Option<f64>,
+}
+
+impl FieldWx {
+    /// From a usable report at a field of `elevation_ft`; `None` when a needed value is missing.
+    pub fn from_report(report: &Report, elevation_ft: f64) -> Option<FieldWx> {
+        let w = report.wind?;
+        let air = AirData::from_observation(
+            elevation_ft,
+            report.altimeter_hpa?,
+            report.temperature_c?,
+            report.dewpoint_c,
+        );
+        let direction = match (w.variable_from_deg, w.variable_to_deg, w.direction_deg) {
+            (Some(from_deg), Some(to_deg), _) => Direction::Sector { from_deg, to_deg },
+            (_, _, Some(d)) if !w.variable => Direction::Steady(d),
+            _ => Direction::Any,
+        };
+        Some(FieldWx {
+            air,
+            direction,
+            speed_kt: w.speed_kt,
+            gust_kt: w.gust_kt,
+        })
+    }
+
+    /// Whether the wind is calm.
+    pub fn calm(&self) -> bool {
+        self.speed_kt == 0.0 && self.gust_kt.is_none()
+    }
+
+    /// Wind on one end: (steady headwind for performance, crosswind and side with the
+    /// gust, tailwind with the gust).
+    pub fn on_end(&self, heading_true_deg: f64) -> EndWind {
+        let limit_speed = self.gust_kt.unwrap_or(self.speed_kt);
+        let (crosswind_kt, crosswind_from) =
+            wind::worst_crosswind(self.direction, limit_speed, heading_true_deg);
+        EndWind {
+            headwind_kt: wind::worst_headwind_kt(self.direction, self.speed_kt, heading_true_deg),
+            crosswind_kt,
+            crosswind_from,
+            tailwind_limit_kt: (-wind::worst_headwind_kt(
+                self.direction,
+                limit_speed,
+                heading_true_deg,
+            ))
+            .max(0.0),
+        }
+    }
+}
+
+/// The wind on one runway end.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct EndWind {
+    /// Steady (mean, worst direction) headwind component, kt; negative: tailwind.
+    pub headwind_kt: f64,
+    /// Crosswind component with the gust, kt.
+    pub crosswind_kt: f64,
+    /// Its side.
+    pub crosswind_from: XSide,
+    /// Tailwind component with the gust, kt (0 when none).
+    pub tailwind_limit_kt: f64,
+}
+
+/// Why a performance figure could not be found.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Gap {
+    /// Outside the flight-manual table.
+    Outside(OutsideTable),
+    /// A correction the manual does not give.
+    Perf(PerfGap),
+}
+
+impl std::fmt::Display for Gap {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            Gap::Outside(o) => o.fmt(f),
+            Gap::Perf(p) => p.fmt(f),
+        }
+    }
+}
+
+/// Looks up the table cell, held at an axis's bottom where that is conservative.
+fn locate(
+    ty: &TypeModel,
+    perf: &Performance,
+    mass_kg: f64,
+    pa_ft: f64,
+    oat_c: f64,
+) -> Result<crate::ops::Cell, Gap> {
+    if ty.conservative_below {
+        perf.grid
+            .locate_conservative(mass_kg, pa_ft, oat_c)
+            .map(|(c, _)| c)
+            .map_err(Gap::Outside)
+    } else {
+        perf.locate(mass_kg, pa_ft, oat_c).map_err(Gap::Outside)
+    }
+}
+
+/// The aircraft type, its rules, the masses and the buffers one leg or pairing is
+/// assessed with.
+#[derive(Clone, Copy)]
+pub struct Setup<'a> {
+    /// The compiled operator.
+    pub model: &'a Model,
+    /// The type.
+    pub ty: &'a TypeModel,
+    /// Its tables.
+    pub perf: &'a Performance,
+    /// The category's minimums.
+    pub mins: &'a Minimums,
+    /// Takeoff mass, kg.
+    pub takeoff_mass_kg: f64,
+    /// Landing mass, kg.
+    pub landing_mass_kg: f64,
+    /// Distance buffer, fraction.
+    pub distance_buffer: f64,
+    /// Climb buffer, fraction.
+    pub climb_buffer: f64,
+}
+
+impl Setup<'_> {
+    fn wind(&self, headwind_kt: f64) -> perf::WindInput {
+        perf::WindInput {
+            headwind_kt,
+            headwind_credit: self.model.headwind_credit,
+            tailwind_factor: self.model.tailwind_factor,
+        }
+    }
+}
+
+/// Takeoff and climb on one end: the cell is found once and read by the takeoff and
+/// climb tables.
+pub fn departure_chains(
+    s: &Setup<'_>,
+    end: &EndModel,
+    air: &AirData,
+    headwind_kt: f64,
+) -> Result<(DistanceChain, ClimbChain), Gap> {
+    let (ty, perf) = (s.ty, s.perf);
+    let cell = locate(
+        ty,
+        perf,
+        s.takeoff_mass_kg,
+        air.pressure_altitude_ft,
+        air.oat_c,
+    )?;
+    let chain = perf::distances(
+        &ty.takeoff,
+        perf.takeoff_ground_roll_m.at(&cell),
+        perf.takeoff_distance_50ft_m.at(&cell),
+        s.wind(headwind_kt),
+        end.surface,
+        end.slope_percent,
+    )
+    .map_err(Gap::Perf)?;
+    let climb = perf::climb(
+        perf.climb_rate_fpm.at(&cell),
+        ty.climb_speed_kias,
+        air.true_airspeed_factor,
+        headwind_kt,
+        s.mins.min_climb_rate_fpm,
+        end.required_gradient_ft_per_nm,
+    );
+    Ok((chain, climb))
+}
+
+/// Landing on one end.
+pub fn landing_chain(
+    s: &Setup<'_>,
+    end: &EndModel,
+    air: &AirData,
+    headwind_kt: f64,
+) -> Result<DistanceChain, Gap> {
+    let (ty, perf) = (s.ty, s.perf);
+    let cell = locate(
+        ty,
+        perf,
+        s.landing_mass_kg,
+        air.pressure_altitude_ft,
+        air.oat_c,
+    )?;
+    let rules = perf::landing_rules(&ty.landing, s.mins.wet_paved_landing_factor);
+    perf::distances(
+        &rules,
+        perf.landing_ground_roll_m.at(&cell),
+        perf.landing_distance_50ft_m.at(&cell),
+        s.wind(headwind_kt),
+        end.surface,
+        // A downhill landing is the adverse one.
+        -end.slope_percent,
+    )
+    .map_err(Gap::Perf)
+}
+
+/// One evaluated distance check with its rule text and source.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct NamedCheck {
+    /// The rule, e.g. `distance_50ft × 1.33 ≤ TODA`.
+    pub rule: String,
+    /// The numbers.
+    pub result: CheckResult,
+    /// Verdict against the distance buffer.
+    pub state: State,
+    /// Where the factor comes from.
+    pub source: String,
+}
+
+/// The rule text of a check.
+pub fn rule_text(c: &DistanceCheck, extra: f64) -> String {
+    let req = match c.required {
+        Required::GroundRoll => "ground_roll",
+        Required::Distance50ft => "distance_50ft",
+    };
+    let avail = match c.available {
+        Available::Tora => "TORA",
+        Available::Toda => "TODA",
+        Available::Asda => "ASDA",
+        Available::Lda => "LDA",
+    };
+    if (extra - 1.0).abs() > 1e-12 {
+        format!("{req} × {} × {extra} (wet) ≤ {avail}", c.factor)
+    } else {
+        format!("{req} × {} ≤ {avail}", c.factor)
+    }
+}
+
+/// Takeoff or landing, with its checks.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PhaseResult {
+    /// Mass used, kg.
+    pub mass_kg: f64,
+    /// The chain.
+    pub chain: DistanceChain,
+    /// The checks.
+    pub checks: Vec<NamedCheck>,
+    /// Smallest margin.
+    pub margin: f64,
+    /// Verdict.
+    pub state: State,
+}
+
+/// The climb with its verdict.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ClimbResult {
+    /// The chain.
+    pub chain: ClimbChain,
+    /// Verdict against the climb buffer.
+    pub state: State,
+}
+
+/// A runway end considered at a field.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct EndOption {
+    /// Designator.
+    pub designator: String,
+    /// The wind on it.
+    pub wind: EndWind,
+    /// Its state for this leg (performance and runway limits).
+    pub state: State,
+    /// Limiting score (margin ÷ buffer).
+    pub score: f64,
+    /// The runway in use.
+    pub in_use: bool,
+    /// Usable today.
+    pub usable: bool,
+}
+
+/// Departure or arrival.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Side {
+    /// Airfield id.
+    pub airfield: String,
+    /// The event time (departure or arrival).
+    pub event_at: DateTime<Utc>,
+    /// The report used.
+    pub observation: Option<ObservationUsed>,
+    /// The air.
+    pub air: Option<AirData>,
+    /// Runway in use.
+    pub runway: Option<String>,
+    /// Why that runway.
+    pub runway_reason: String,
+    /// The wind on it.
+    pub wind: Option<EndWind>,
+    /// Every end.
+    pub ends: Vec<EndOption>,
+    /// Takeoff (departure only).
+    pub takeoff: Option<PhaseResult>,
+    /// Climb (departure only).
+    pub climb: Option<ClimbResult>,
+    /// Landing (arrival only).
+    pub landing: Option<PhaseResult>,
+    /// The limits.
+    pub limits: Vec<LimitCheck>,
+    /// What could not be assessed.
+    pub gaps: Vec<String>,
+    /// The side's state.
+    pub state: State,
+}
+
+/// The check that decides a leg's state.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Limiting {
+    /// Its name, e.g. `XHIG 30 takeoff distance_50ft × 1.33 ≤ TODA`.
+    pub check: String,
+    /// Its margin in words, e.g. `-7 %` or `2 kt`.
+    pub margin: String,
+    /// Margin ÷ buffer.
+    pub score: f64,
+}
+
+/// Degrees of warming a leg can take.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Headroom {
+    /// Warming left, °C; negative when already below (the cooling needed).
+    pub warming_c: f64,
+    /// The departure OAT at which the leg turns below, °C.
+    pub warmest_oat_c: f64,
+    /// The search stopped at the top of the flight-manual table: at least this much.
+    pub table_ends: bool,
+    /// Whether the leg survives the operator's expected high, where one is given.
+    pub survives_expected_high: Option<bool>,
+}
+
+/// One leg, assessed.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LegResult {
+    /// Index in `Ops::legs`.
+    pub index: usize,
+    /// Leg id.
+    pub id: String,
+    /// Category.
+    pub category: Category,
+    /// State.
+    pub state: State,
+    /// The deciding check.
+    pub limiting: Option<Limiting>,
+    /// Headroom in degrees of warming; `None` for `no-data` and for legs below for
+    /// reasons warming or cooling cannot change.
+    pub headroom: Option<Headroom>,
+    /// Takeoff mass, kg.
+    pub takeoff_mass_kg: Option<f64>,
+    /// Landing mass, kg.
+    pub landing_mass_kg: Option<f64>,
+    /// Departure.
+    pub departure: Side,
+    /// Arrival.
+    pub arrival: Side,
+    /// Why the leg is not `within`.
+    pub reasons: Vec<String>,
+    /// Advice that goes with the numbers.
+    pub advice: Vec<String>,
+}
+
+/// What a score belongs to (cheap to carry while comparing).
+#[derive(Debug, Clone, Copy, PartialEq)]
+enum What {
+    Takeoff(usize),
+    Climb,
+    Landing(usize),
+    Limit(usize),
+}
+
+#[derive(Debug, Clone, Copy)]
+struct Worst {
+    state: State,
+    score: f64,
+    what: Option<What>,
+}
+
+impl Worst {
+    const NONE: Worst = Worst {
+        state: State::Within,
+        score: f64::INFINITY,
+        what: None,
+    };
+
+    fn add(&mut self, state: State, score: f64, what: What) {
+        if state > self.state || (state == self.state && score < self.score) {
+            *self = Worst {
+                state,
+                score,
+                what: Some(what),
+            };
+        }
+    }
+}
+
+/// The leg's masses: given, or from the loads (empty + stations + fuel). A leg that
+/// gives a takeoff mass but no landing mass lands, for the landing distance, at its
+/// takeoff mass held to the maximum landing mass (see [`landing_mass_assumed`]).
+pub fn leg_masses(ops: &Ops, leg: &Leg) -> (Option<f64>, Option<f64>) {
+    if let Some(tom) = leg.takeoff_mass_kg {
+        let mlm = ops
+            .aircraft(&leg.aircraft)
+            .and_then(|a| ops.aircraft_type(&a.type_id))
+            .map_or(tom, |t| t.file.limits.max_landing_mass_kg);
+        return (Some(tom), Some(leg.landing_mass_kg.unwrap_or(tom.min(mlm))));
+    }
+    let (Some(loads), Some(ac)) = (&leg.loads, ops.aircraft(&leg.aircraft)) else {
+        return (None, None);
+    };
+    let density = ops
+        .aircraft_type(&ac.type_id)
+        .and_then(|t| t.file.mass_balance.as_ref())
+        .and_then(|mb| mb.fuel_tanks.first())
+        .map_or(0.72, |t| t.fuel_density_kg_per_l);
+    let people: f64 = loads.stations.iter().map(|s| s.mass_kg).sum();
+    let takeoff_fuel_l = (loads.fuel_at_start_l - loads.taxi_fuel_l).max(0.0);
+    let tom = ac.empty_mass_kg + people + takeoff_fuel_l * density;
+    let hours = (leg.arrives_utc() - leg.departs_utc()).num_seconds() as f64 / 3_600.0;
+    let burn_l = (loads.burn_l_per_h * hours.max(0.0)).min(takeoff_fuel_l);
+    (Some(tom), Some(tom - burn_l * density))
+}
+
+/// Whether the landing mass was assumed rather than given or computed from loads.
+pub fn landing_mass_assumed(leg: &Leg) -> bool {
+    leg.takeoff_mass_kg.is_some() && leg.landing_mass_kg.is_none()
+}
+
+fn pct(margin: f64) -> String {
+    format!("{:+.0} %", margin * 100.0)
+}
+
+struct SideInput<'a> {
+    field_index: usize,
+    field: &'a Airfield,
+    event_at: DateTime<Utc>,
+    departure: bool,
+}
+
+/// Everything about one leg that headroom needs, resolved once.
+struct Plan<'a> {
+    setup: Setup<'a>,
+    dep: Option<(FieldWx, &'a EndModel, EndWind)>,
+    arr: Option<(FieldWx, &'a EndModel, EndWind)>,
+    max_da_dep: f64,
+    max_da_arr: f64,
+}
+
+/// The temperature-dependent part of a leg at a uniform warming `dt_c`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum TempOutcome {
+    Fine,
+    Below,
+    Outside,
+}
+
+impl Plan<'_> {
+    fn at_warming(&self, dt_c: f64) -> TempOutcome {
+        let mins = self.setup.mins;
+        if let Some((wx, end, w)) = &self.dep {
+            let air = wx.air.with_oat(wx.air.oat_c + dt_c);
+            match departure_chains(&self.setup, end, &air, w.headwind_kt) {
+                Err(_) => return TempOutcome::Outside,
+                Ok((chain, climb)) => {
+                    if perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0) < 0.0
+                        || climb.margin() < 0.0
+                        || air.density_altitude_ft > self.max_da_dep
+                    {
+                        return TempOutcome::Below;
+                    }
+                }
+            }
+        }
+        if let Some((wx, end, w)) = &self.arr {
+            let air = wx.air.with_oat(wx.air.oat_c + dt_c);
+            match landing_chain(&self.setup, end, &air, w.headwind_kt) {
+                Err(_) => return TempOutcome::Outside,
+                Ok(chain) => {
+                    let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
+                    if perf::min_margin(&chain, end, &mins.landing_checks, extra) < 0.0
+                        || air.density_altitude_ft > self.max_da_arr
+                    {
+                        return TempOutcome::Below;
+                    }
+                }
+            }
+        }
+        TempOutcome::Fine
+    }
+}
+
+/// Headroom by bisection to 0.1 °C on a uniform warming of both ends, station pressure
+/// held and dew points capped at the new temperature.
+fn headroom(plan: &Plan<'_>, expected_high_c: Option<f64>) -> Option<Headroom> {
+    let dep_oat = plan.dep.as_ref().map(|(wx, ..)| wx.air.oat_c);
+    let oats = [dep_oat, plan.arr.as_ref().map(|(wx, ..)| wx.air.oat_c)];
+    let min_oat = oats.iter().flatten().copied().fold(f64::INFINITY, f64::min);
+    let max_oat = oats
+        .iter()
+        .flatten()
+        .copied()
+        .fold(f64::NEG_INFINITY, f64::max);
+    if !min_oat.is_finite() {
+        return None;
+    }
+    // How far the tables reach from here.
+    let up = plan.setup.ty.oat_top_c - max_oat;
+    let down = plan.setup.ty.oat_bottom_c - min_oat;
+    let now = plan.at_warming(0.0);
+    let (warming, table_ends) = match now {
+        TempOutcome::Outside => return None,
+        TempOutcome::Fine => {
+            if up <= 0.0 || plan.at_warming(up) == TempOutcome::Fine {
+                (up.max(0.0), true)
+            } else {
+                // fine at lo, not fine at hi
+                let (mut lo, mut hi) = (0.0, up);
+                while hi - lo > 0.05 {
+                    let mid = 0.5 * (lo + hi);
+                    if plan.at_warming(mid) == TempOutcome::Fine {
+                        lo = mid;
+                    } else {
+                        hi = mid;
+                    }
+                }
+                (lo, false)
+            }
+        }
+        TempOutcome::Below => {
+            // Cooling needed: not fine at 0, find the warmest fine point below.
+            if down >= 0.0 || plan.at_warming(down) != TempOutcome::Fine {
+                (down.min(0.0), true)
+            } else {
+                let (mut lo, mut hi) = (down, 0.0);
+                while hi - lo > 0.05 {
+                    let mid = 0.5 * (lo + hi);
+                    if plan.at_warming(mid) == TempOutcome::Fine {
+                        lo = mid;
+                    } else {
+                        hi = mid;
+                    }
+                }
+                (lo, false)
+            }
+        }
+    };
+    let warming_c = (warming * 10.0).floor() / 10.0;
+    let warmest = dep_oat.unwrap_or(min_oat) + warming_c;
+    Some(Headroom {
+        warming_c,
+        warmest_oat_c: warmest,
+        table_ends,
+        // Past the table's top nothing is known: say nothing rather than guess.
+        survives_expected_high: expected_high_c.and_then(|h| {
+            if warmest >= h {
+                Some(true)
+            } else if table_ends {
+                None
+            } else {
+                Some(false)
+            }
+        }),
+    })
+}
+
+/// Assesses one leg.
+pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
+    let ops = ctx.ops;
+    let model = ctx.model;
+    let leg = ops.legs.get(index)?;
+    let buffers = &ops.operator.policy.buffers;
+    let mut reasons = Vec::new();
+    let mut advice = Vec::new();
+    let ac_pos = ops
+        .aircraft
+        .iter()
+        .position(|a| a.registration == leg.aircraft);
+    let ty = ac_pos
+        .and_then(|i| model.aircraft_type.get(i).copied().flatten())
+        .and_then(|t| model.types.get(t));
+    let mins = ops.minimums(leg.category);
+    let pilot: Option<&Pilot> = ops.pilot(&leg.pilot);
+    let dep_fi = ops.airfield_position(&leg.from);
+    let arr_fi = ops.airfield_position(&leg.to);
+    let (tom, lm) = leg_masses(ops, leg);
+
+    let mut dep = empty_side(&leg.from, leg.departs_utc());
+    let mut arr = empty_side(&leg.to, leg.arrives_utc());
+    let mut worst = Worst::NONE;
+    let mut all_limits: Vec<(bool, LimitCheck)> = Vec::new();
+
+    let (Some(ty), Some(mins), Some(dep_fi), Some(arr_fi), Some(tom), Some(lm)) =
+        (ty, mins, dep_fi, arr_fi, tom, lm)
+    else {
+        let why = if ty.is_none() {
+            format!("aircraft {} or its type is not in the fleet", leg.aircraft)
+        } else if mins.is_none() {
+            format!("the operator has no minimums for {}", leg.category.name())
+        } else if dep_fi.is_none() || arr_fi.is_none() {
+            format!("airfield {} or {} is unknown", leg.from, leg.to)
+        } else {
+            "no takeoff mass or loads given".to_string()
+        };
+        reasons.push(why.clone());
+        dep.gaps.push(why);
+        dep.state = State::NoData;
+        return Some(LegResult {
+            index,
+            id: leg.id.clone(),
+            category: leg.category,
+            state: State::NoData,
+            limiting: None,
+            headroom: None,
+            takeoff_mass_kg: tom,
+            landing_mass_kg: lm,
+            departure: dep,
+            arrival: arr,
+            reasons,
+            advice,
+        });
+    };
+    let perf = &ops.types[ty.index].performance;
+    let type_id = ops.types[ty.index].file.id.as_str();
+    let who = Who {
+        category: leg.category,
+        minimums: mins,
+        pilot,
+        regime: ops.operator.regime,
+        buffers,
+    };
+    let dist_buf = buffers.distance_percent / 100.0;
+    let climb_buf = buffers.climb_percent / 100.0;
+
+    let mut mass_below = false;
+    if tom > ty.max_takeoff_mass_kg {
+        mass_below = true;
+        worst.add(State::Below, -1.0, What::Limit(usize::MAX));
+        reasons.push(format!(
+            "takeoff mass {tom:.0} kg is above the maximum takeoff mass {:.0} kg",
+            ty.max_takeoff_mass_kg
+        ));
+    } else if tom > 0.95 * ty.max_takeoff_mass_kg {
+        advice.push(format!(
+            "Mass {tom:.0} kg is within 5 % of the maximum takeoff mass ({:.0} kg): check the loading.",
+            ty.max_takeoff_mass_kg
+        ));
+    }
+    if landing_mass_assumed(leg) {
+        advice.push(format!(
+            "No landing mass given: the landing is computed at {lm:.0} kg (the takeoff mass, at most the maximum landing mass)."
+        ));
+    }
+    if lm > ty.max_landing_mass_kg {
+        mass_below = true;
+        worst.add(State::Below, -1.0, What::Limit(usize::MAX));
+        reasons.push(format!(
+            "landing mass {lm:.0} kg is above the maximum landing mass {:.0} kg",
+            ty.max_landing_mass_kg
+        ));
+    }
+
+    let setup = Setup {
+        model,
+        ty,
+        perf,
+        mins,
+        takeoff_mass_kg: tom,
+        landing_mass_kg: lm,
+        distance_buffer: dist_buf,
+        climb_buffer: climb_buf,
+    };
+    let mut plan = Plan {
+        setup,
+        dep: None,
+        arr: None,
+        max_da_dep: f64::INFINITY,
+        max_da_arr: f64::INFINITY,
+    };
+    let mut temperature_independent_below = false;
+
+    for side_in in [
+        SideInput {
+            field_index: dep_fi,
+            field: &ops.airfields[dep_fi],
+            event_at: leg.departs_utc(),
+            departure: true,
+        },
+        SideInput {
+            field_index: arr_fi,
+            field: &ops.airfields[arr_fi],
+            event_at: leg.arrives_utc(),
+            departure: false,
+        },
+    ] {
+        let side = if side_in.departure {
+            &mut dep
+        } else {
+            &mut arr
+        };
+        let role = if side_in.departure {
+            "departure"
+        } else {
+            "arrival"
+        };
+        let Some((report, used)) = observation_for(
+            ctx.store,
+            &side_in.field.id,
+            side_in.event_at,
+            ctx.at,
+            model.stale_after_min,
+        ) else {
+            let why = format!(
+                "{role} {}: no usable report at or before {}",
+                side_in.field.id,
+                side_in.event_at.min(ctx.at).format("%d %H%MZ")
+            );
+            side.gaps.push(why.clone());
+            reasons.push(why);
+            side.state = State::NoData;
+            worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+            continue;
+        };
+        let stale = used.stale;
+        let age = used.age_min;
+        side.observation = Some(used);
+        let Some(wx) = FieldWx::from_report(report, side_in.field.elevation_ft) else {
+            let why = format!(
+                "{role} {}: the report lacks wind, temperature or QNH",
+                side_in.field.id
+            );
+            side.gaps.push(why.clone());
+            reasons.push(why);
+            side.state = State::NoData;
+            worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+            continue;
+        };
+        side.air = Some(wx.air);
+        if stale {
+            let why = format!(
+                "{role} {}: report {} is stale ({age:.0} min old, policy {:.0} min)",
+                side_in.field.id, report.time_text, model.stale_after_min
+            );
+            side.gaps.push(why.clone());
+            reasons.push(why);
+            side.state = State::NoData;
+            worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+        }
+
+        // Every end, then the runway in use.
+        let ends = model.field_ends(side_in.field_index);
+        let mut options: Vec<(EndOption, Option<Evaluated>)> = Vec::with_capacity(ends.len());
+        for (k, end) in ends.iter().enumerate() {
+            let w = wx.on_end(end.heading_true_deg);
+            let ev = end
+                .usable
+                .then(|| evaluate_end(&setup, &who, end, &wx, &w, side_in.departure));
+            let (state, score) = ev
+                .as_ref()
+                .map_or((State::NoData, f64::NAN), |e| (e.state, e.score));
+            options.push((
+                EndOption {
+                    designator: side_in.field.runway_ends[k].designator.clone(),
+                    wind: w,
+                    state,
+                    score,
+                    in_use: false,
+                    usable: end.usable,
+                },
+                ev,
+            ));
+        }
+        let usable: Vec<usize> = (0..options.len())
+            .filter(|&k| options[k].1.is_some())
+            .collect();
+        let set = model.set_in_use[side_in.field_index].filter(|&k| usable.contains(&k));
+        let choice = if let Some(k) = set {
+            Some((k, "set for the day".to_string()))
+        } else if wx.calm() {
+            match model.fields[side_in.field_index]
+                .preferential_end
+                .filter(|k| usable.contains(k))
+            {
+                Some(k) => Some((k, "calm: the preferential end".to_string())),
+                None => usable
+                    .iter()
+                    .copied()
+                    .max_by(|&a, &b| rank(&options[a].0).total_cmp(&rank(&options[b].0)))
+                    .map(|k| (k, "calm: the worse end".to_string())),
+            }
+        } else {
+            usable
+                .iter()
+                .copied()
+                .max_by(|&a, &b| {
+                    options[a]
+                        .0
+                        .wind
+                        .headwind_kt
+                        .total_cmp(&options[b].0.wind.headwind_kt)
+                })
+                .map(|k| (k, "most headwind".to_string()))
+        };
+        let Some((k, why_end)) = choice else {
+            let why = format!("{role} {}: no usable runway end", side_in.field.id);
+            side.gaps.push(why.clone());
+            reasons.push(why);
+            side.state = State::Below;
+            worst.add(State::Below, -1.0, What::Limit(usize::MAX));
+            temperature_independent_below = true;
+            continue;
+        };
+        options[k].0.in_use = true;
+        let end = &ends[k];
+        side.runway = Some(options[k].0.designator.clone());
+        side.runway_reason = why_end;
+        side.wind = Some(options[k].0.wind);
+        let w = options[k].0.wind;
+        if side_in.departure {
+            plan.dep = Some((wx, end, w));
+        } else {
+            plan.arr = Some((wx, end, w));
+        }
+
+        // Field limits and the in-use end's own evaluation.
+        let mut lim = Vec::new();
+        limits::field_limits(
+            &who,
+            report,
+            wx.air.density_altitude_ft,
+            side_in.field,
+            side_in.event_at,
+            side_in.departure,
+            &mut lim,
+        );
+        if side_in.departure {
+            limits::pilot_limits(
+                &who,
+                type_id,
+                side_in.event_at,
+                &leg.from,
+                &leg.to,
+                &mut lim,
+            );
+        }
+        if let Some(da) = lim.iter().find(|l| l.kind == LimitKind::DensityAltitude) {
+            let max = da.limit.unwrap_or(f64::INFINITY);
+            if side_in.departure {
+                plan.max_da_dep = max;
+            } else {
+                plan.max_da_arr = max;
+            }
+        }
+        let ev = options[k].1.take();
+        let mut side_state = side.state;
+        if let Some(ev) = ev {
+            for l in ev.end_limits {
+                lim.push(l);
+            }
+            match ev.perf {
+                Ok(p) => {
+                    if let Some(t) = p.takeoff {
+                        for (ci, c) in t.checks.iter().enumerate() {
+                            worst.add(c.state, c.result.margin / dist_buf, What::Takeoff(ci));
+                        }
+                        side_state = side_state.and(t.state);
+                        side.takeoff = Some(t);
+                    }
+                    if let Some(c) = p.climb {
+                        worst.add(c.state, c.chain.margin() / climb_buf, What::Climb);
+                        side_state = side_state.and(c.state);
+                        side.climb = Some(c);
+                    }
+                    if let Some(l) = p.landing {
+                        for (ci, c) in l.checks.iter().enumerate() {
+                            worst.add(c.state, c.result.margin / dist_buf, What::Landing(ci));
+                        }
+                        side_state = side_state.and(l.state);
+                        side.landing = Some(l);
+                    }
+                }
+                Err(gap) => {
+                    let why = format!(
+                        "{role} {} {}: {gap}",
+                        side_in.field.id, options[k].0.designator
+                    );
+                    side.gaps.push(why.clone());
+                    reasons.push(why);
+                    side_state = side_state.and(State::NoData);
+                    worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+                }
+            }
+        }
+        for l in lim {
+            side_state = side_state.and(l.state);
+            let temperature_dependent = l.kind == LimitKind::DensityAltitude;
+            if l.state == State::Below && !temperature_dependent {
+                temperature_independent_below = true;
+            }
+            all_limits.push((side_in.departure, l));
+        }
+        side.state = side_state;
+        side.ends = options.into_iter().map(|(o, _)| o).collect();
+        advise(&mut advice, side, side_in.field, end, ty, &wx);
+    }
+
+    // Limits into the worst tracker, by their index in `all_limits`.
+    for (i, (_, l)) in all_limits.iter().enumerate() {
+        worst.add(l.state, l.score(), What::Limit(i));
+    }
+    for (departure, l) in all_limits {
+        if departure {
+            dep.limits.push(l);
+        } else {
+            arr.limits.push(l);
+        }
+    }
+    let state = worst.state.and(dep.state).and(arr.state);
+    let limiting = worst
+        .what
+        .and_then(|w| describe_limiting(w, worst.score, &dep, &arr));
+    if state != State::Within {
+        collect_reasons(&mut reasons, &dep, &arr, buffers);
+    }
+    let headroom = if state == State::NoData || temperature_independent_below || mass_below {
+        None
+    } else {
+        headroom(&plan, ops.operator.policy.expected_high_c)
+    };
+    if let (Some(h), Some(high)) = (headroom, ops.operator.policy.expected_high_c)
+        && h.survives_expected_high == Some(false)
+        && state != State::Below
+    {
+        advice.push(format!(
+            "Would turn below at about {:.1} °C, before the expected high of {high:.0} °C.",
+            h.warmest_oat_c
+        ));
+    }
+    Some(LegResult {
+        index,
+        id: leg.id.clone(),
+        category: leg.category,
+        state,
+        limiting,
+        headroom,
+        takeoff_mass_kg: Some(tom),
+        landing_mass_kg: Some(lm),
+        departure: dep,
+        arrival: arr,
+        reasons,
+        advice,
+    })
+}
+
+fn rank(o: &EndOption) -> f64 {
+    // Higher is worse: state first, then a smaller score.
+    (o.state as u8 as f64) * 1e6 - o.score.clamp(-1e5, 1e5)
+}
+
+fn empty_side(airfield: &str, event_at: DateTime<Utc>) -> Side {
+    Side {
+        airfield: airfield.to_string(),
+        event_at,
+        observation: None,
+        air: None,
+        runway: None,
+        runway_reason: String::new(),
+        wind: None,
+        ends: Vec::new(),
+        takeoff: None,
+        climb: None,
+        landing: None,
+        limits: Vec::new(),
+        gaps: Vec::new(),
+        state: State::Within,
+    }
+}
+
+struct PerfResults {
+    takeoff: Option<PhaseResult>,
+    climb: Option<ClimbResult>,
+    landing: Option<PhaseResult>,
+}
+
+struct Evaluated {
+    state: State,
+    score: f64,
+    perf: Result<PerfResults, Gap>,
+    end_limits: Vec<LimitCheck>,
+}
+
+fn named_checks(
+    chain: &DistanceChain,
+    end: &EndModel,
+    checks: &[DistanceCheck],
+    extra: f64,
+    dist_buf: f64,
+) -> (Vec<NamedCheck>, f64, State) {
+    let mut out = Vec::with_capacity(checks.len());
+    let mut margin = f64::INFINITY;
+    let mut state = State::Within;
+    for c in checks {
+        let r = perf::check(chain, end, c, extra);
+        let s = verdict(r.margin, dist_buf);
+        margin = margin.min(r.margin);
+        state = state.and(s);
+        out.push(NamedCheck {
+            rule: rule_text(c, extra),
+            result: r,
+            state: s,
+            source: c.source.clone(),
+        });
+    }
+    (out, margin, state)
+}
+
+fn evaluate_end(
+    s: &Setup<'_>,
+    who: &Who<'_>,
+    end: &EndModel,
+    wx: &FieldWx,
+    w: &EndWind,
+    departure: bool,
+) -> Evaluated {
+    let (ty, mins) = (s.ty, s.mins);
+    let (tom, lm) = (s.takeoff_mass_kg, s.landing_mass_kg);
+    let (dist_buf, climb_buf) = (s.distance_buffer, s.climb_buffer);
+    let mut end_limits = Vec::new();
+    limits::end_limits(
+        who,
+        w.crosswind_kt,
+        w.tailwind_limit_kt,
+        ty.max_demonstrated_crosswind_kt,
+        &mut end_limits,
+    );
+    let mut state = State::Within;
+    let mut score = f64::INFINITY;
+    for l in &end_limits {
+        if l.state > state || (l.state == state && l.score() < score) {
+            state = l.state.max(state);
+            score = l.score();
+        }
+    }
+    let perf_res = if departure {
+        departure_chains(s, end, &wx.air, w.headwind_kt).map(|(chain, climb)| {
+            let (checks, margin, s) =
+                named_checks(&chain, end, &mins.takeoff_checks, 1.0, dist_buf);
+            let cs = verdict(climb.margin(), climb_buf);
+            PerfResults {
+                takeoff: Some(PhaseResult {
+                    mass_kg: tom,
+                    chain,
+                    checks,
+                    margin,
+                    state: s,
+                }),
+                climb: Some(ClimbResult {
+                    chain: climb,
+                    state: cs,
+                }),
+                landing: None,
+            }
+        })
+    } else {
+        landing_chain(s, end, &wx.air, w.headwind_kt).map(|chain| {
+            let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
+            let (checks, margin, s) =
+                named_checks(&chain, end, &mins.landing_checks, extra, dist_buf);
+            PerfResults {
+                takeoff: None,
+                climb: None,
+                landing: Some(PhaseResult {
+                    mass_kg: lm,
+                    chain,
+                    checks,
+                    margin,
+                    state: s,
+                }),
+            }
+        })
+    };
+    let mut bump = |s: State, sc: f64| {
+        if s > state || (s == state && sc < score) {
+            state = s.max(state);
+            score = sc;
+        }
+    };
+    match &perf_res {
+        Ok(p) => {
+            if let Some(t) = &p.takeoff {
+                bump(t.state, t.margin / dist_buf);
+            }
+            if let Some(c) = &p.climb {
+                bump(c.state, c.chain.margin() / climb_buf);
+            }
+            if let Some(l) = &p.landing {
+                bump(l.state, l.margin / dist_buf);
+            }
+        }
+        Err(_) => bump(State::NoData, f64::NAN),
+    }
+    Evaluated {
+        state,
+        score,
+        perf: perf_res,
+        end_limits,
+    }
+}
+
+fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<Limiting> {
+    let at = |s: &Side| format!("{} {}", s.airfield, s.runway.as_deref().unwrap_or(""));
+    let (check, margin) = match what {
+        What::Takeoff(i) => {
+            let c = dep.takeoff.as_ref()?.checks.get(i)?;
+            (
+                format!("{} takeoff {}", at(dep), c.rule),
+                pct(c.result.margin),
+            )
+        }
+        What::Landing(i) => {
+            let c = arr.landing.as_ref()?.checks.get(i)?;
+            (
+                format!("{} landing {}", at(arr), c.rule),
+                pct(c.result.margin),
+            )
+        }
+        What::Climb => {
+            let c = dep.climb.as_ref()?;
+            let name = match c.chain.gradient_margin {
+                Some(g) if g < c.chain.rate_margin => "climb gradient",
+                _ => "climb rate",
+            };
+            (format!("{} {name}", at(dep)), pct(c.chain.margin()))
+        }
+        What::Limit(usize::MAX) => return None,
+        What::Limit(i) => {
+            let l = dep.limits.iter().chain(arr.limits.iter()).nth(i)?;
+            let side = if i < dep.limits.len() { dep } else { arr };
+            let margin = if l.unit.is_empty() || l.margin.is_nan() || l.margin.is_infinite() {
+                l.state.word().to_string()
+            } else {
+                format!("{:+.0} {}", l.margin, l.unit)
+            };
+            (format!("{} {}", side.airfield, l.kind.word()), margin)
+        }
+    };
+    Some(Limiting {
+        check,
+        margin,
+        score,
+    })
+}
+
+fn collect_reasons(
+    reasons: &mut Vec<String>,
+    dep: &Side,
+    arr: &Side,
+    buffers: &crate::ops::operator::Buffers,
+) {
+    for (side, role) in [(dep, "departure"), (arr, "arrival")] {
+        let at = format!(
+            "{} {}",
+            side.airfield,
+            side.runway.as_deref().unwrap_or("?")
+        );
+        for (phase, p) in [("takeoff", &side.takeoff), ("landing", &side.landing)] {
+            let Some(p) = p else { continue };
+            for c in &p.checks {
+                if c.state == State::Within {
+                    continue;
+                }
+                let r = &c.result;
+                let verb = if c.state == State::Below {
+                    "exceeds"
+                } else {
+                    "leaves less than the buffer of"
+                };
+                let what = if c.state == State::Below {
+                    format!(
+                        "{role} {at} {phase}: {} needs {:.0} m, {} m available ({})",
+                        c.rule,
+                        r.required_m,
+                        r.available_m,
+                        pct(r.margin)
+                    )
+                } else {
+                    format!(
+                        "{role} {at} {phase}: {} needs {:.0} m of {:.0} m, {} {:.0} % ({} spare)",
+                        c.rule,
+                        r.required_m,
+                        r.available_m,
+                        verb,
+                        buffers.distance_percent,
+                        pct(r.margin)
+                    )
+                };
+                reasons.push(what);
+            }
+        }
+        if let Some(c) = &side.climb
+            && c.state != State::Within
+        {
+            let ch = &c.chain;
+            let mut s = format!(
+                "{role} {at} climb: {:.0} ft/min (minimum {:.0}), {:.0} ft/NM",
+                ch.rate_fpm, ch.min_rate_fpm, ch.gradient_ft_per_nm
+            );
+            if let Some(g) = ch.required_gradient_ft_per_nm {
+                s.push_str(&format!(" (required {g:.0})"));
+            }
+            s.push_str(&format!(", {} {}", c.state.word(), pct(ch.margin())));
+            reasons.push(s);
+        }
+        for l in &side.limits {
+            if l.state == State::Within {
+                continue;
+            }
+            let mut s = format!(
+                "{role} {}: {} {}",
+                side.airfield,
+                l.kind.word(),
+                l.state.word()
+            );
+            if let (Some(v), Some(lim)) = (l.value, l.limit) {
+                s.push_str(&format!(
+                    " — {v:.0} {} against {lim:.0} {} ({})",
+                    l.unit, l.unit, l.source
+                ));
+            } else if !l.note.is_empty() {
+                s.push_str(&format!(" — {} ({})", l.note, l.source));
+            }
+            reasons.push(s);
+        }
+        for alt in side.ends.iter().filter(|e| !e.in_use && e.usable) {
+            if let Some(in_use) = side.ends.iter().find(|e| e.in_use)
+                && alt.state < in_use.state
+            {
+                reasons.push(format!(
+                    "{role} {}: runway {} would be {} ({})",
+                    side.airfield,
+                    alt.designator,
+                    alt.state.word(),
+                    if alt.wind.headwind_kt < 0.0 {
+                        "with a tailwind"
+                    } else {
+                        "another end"
+                    }
+                ));
+            }
+        }
+    }
+}
+
+fn advise(
+    advice: &mut Vec<String>,
+    side: &Side,
+    field: &Airfield,
+    end: &EndModel,
+    ty: &TypeModel,
+    wx: &FieldWx,
+) {
+    let id = &field.id;
+    let da = wx.air.density_altitude_ft;
+    if let Some(w) = side.wind
+        && w.headwind_kt < 0.0
+    {
+        advice.push(format!(
+            "{id} {}: tailwind component {:.0} kt — distances rise steeply with a tailwind.",
+            side.runway.as_deref().unwrap_or(""),
+            -w.headwind_kt
+        ));
+    }
+    match end.surface {
+        super::model::SurfaceCase::GrassDry => {
+            advice.push(format!("{id}: grass runway — longer takeoff roll."))
+        }
+        super::model::SurfaceCase::GrassWet => advice.push(format!(
+            "{id}: wet grass — much longer takeoff roll, poorer braking."
+        )),
+        super::model::SurfaceCase::PavedWet => {
+            advice.push(format!("{id}: wet runway — longer landing roll."))
+        }
+        super::model::SurfaceCase::PavedDry => {}
+    }
+    if end.slope_percent.abs() >= 0.5 {
+        advice.push(format!(
+            "{id} {}: runway slope {:+.1} % in the direction of travel.",
+            side.runway.as_deref().unwrap_or(""),
+            end.slope_percent
+        ));
+    }
+    if da > 5_000.0 && side.takeoff.is_some() {
+        advice.push(format!(
+            "{id}: density altitude {:.0} ft — lean the mixture for takeoff as the manual says.",
+            da
+        ));
+    }
+    if da > 3_000.0 {
+        advice.push(format!(
+            "{id}: at {:.0} ft density altitude the same indicated speeds mean a {:.0} % higher true airspeed and ground speed; the ground will look faster — fly the normal indicated speeds.",
+            da,
+            (wx.air.true_airspeed_factor - 1.0) * 100.0
+        ));
+    }
+    if let Some(t) = &side.takeoff {
+        advice.push(format!(
+            "{id}: abort point (common practice) — if not at about {:.0} KIAS (70 % of rotation speed) by {:.0} m, half the expected ground roll, abandon the takeoff.",
+            0.7 * ty.rotation_kias,
+            t.chain.ground_roll_m / 2.0
+        ));
+    }
+}

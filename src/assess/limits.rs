@@ -1,0 +1,585 @@
+//! The limits of the pilot category, tightened by the pilot's own written limitations
+//! and by regulation: ceiling, visibility, wind, gust, gust spread, crosswind,
+//! tailwind, density altitude, weather hazards, daylight and endorsements.
+
+use chrono::{DateTime, Duration, Utc};
+use serde::Serialize;
+
+use super::state::{State, verdict};
+use crate::daylight::{self, Event};
+use crate::observation::{Ceiling, Report};
+use crate::ops::operator::{Buffers, Hazard, Minimums, Regime};
+use crate::ops::{Airfield, Category, Pilot};
+use crate::units::M_PER_SM;
+
+/// What a limit is about.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum LimitKind {
+    /// Lowest BKN/OVC/VV layer.
+    Ceiling,
+    /// Prevailing visibility.
+    Visibility,
+    /// Mean wind speed.
+    Wind,
+    /// Gust.
+    Gust,
+    /// Gust minus mean.
+    GustSpread,
+    /// Crosswind component on the runway in use (gust where reported).
+    Crosswind,
+    /// Tailwind component on the runway in use (gust where reported).
+    Tailwind,
+    /// Density altitude.
+    DensityAltitude,
+    /// A weather hazard the category refuses.
+    Hazard,
+    /// Daylight window.
+    Daylight,
+    /// A required endorsement.
+    Endorsement,
+    /// The pilot is limited to named airfields.
+    NamedAirfields,
+}
+
+impl LimitKind {
+    /// Words for the limit.
+    pub const fn word(self) -> &'static str {
+        match self {
+            LimitKind::Ceiling => "ceiling",
+            LimitKind::Visibility => "visibility",
+            LimitKind::Wind => "wind",
+            LimitKind::Gust => "gust",
+            LimitKind::GustSpread => "gust spread",
+            LimitKind::Crosswind => "crosswind",
+            LimitKind::Tailwind => "tailwind",
+            LimitKind::DensityAltitude => "density altitude",
+            LimitKind::Hazard => "weather hazard",
+            LimitKind::Daylight => "daylight",
+            LimitKind::Endorsement => "endorsement",
+            LimitKind::NamedAirfields => "named airfields",
+        }
+    }
+}
+
+/// One limit, evaluated.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LimitCheck {
+    /// What it is about.
+    pub kind: LimitKind,
+    /// The observed value, in `unit`.
+    pub value: Option<f64>,
+    /// The limit, in `unit` (a minimum for ceiling and visibility, else a maximum).
+    pub limit: Option<f64>,
+    /// Unit of value, limit and margin.
+    pub unit: &'static str,
+    /// Room to spare in `unit` (negative: missed; NaN: cannot be assessed).
+    pub margin: f64,
+    /// The thin band, in `unit`.
+    pub band: f64,
+    /// Verdict.
+    pub state: State,
+    /// Where the limit comes from (category, pilot, regulation, type).
+    pub source: String,
+    /// A plain sentence.
+    pub note: String,
+    /// The value is only a bound that already passes (`9999`, `P6SM`, CAVOK): the
+    /// limit is not in play and never names itself as the limiting check.
+    pub open_ended: bool,
+}
+
+impl LimitCheck {
+    /// Margin divided by the band: below 0 missed, below 1 thin.
+    pub fn score(&self) -> f64 {
+        // No tailwind, crosswind or gust spread at all: the limit is not in play, so it
+        // never names itself as the limiting check.
+        let not_in_play = matches!(
+            self.kind,
+            LimitKind::Tailwind | LimitKind::Crosswind | LimitKind::GustSpread
+        ) && self.value.is_some_and(|v| v <= 0.0)
+            || self.open_ended;
+        if self.margin.is_nan() {
+            f64::NAN
+        } else if not_in_play && self.margin >= 0.0 {
+            f64::INFINITY
+        } else if self.margin.is_nan() {
+            f64::NAN
+        } else if self.band > 0.0 {
+            self.margin / self.band
+        } else if self.margin < 0.0 {
+            -1.0
+        } else {
+            f64::INFINITY
+        }
+    }
+}
+
+fn max_check(
+    kind: LimitKind,
+    value: f64,
+    limit: f64,
+    unit: &'static str,
+    band: f64,
+    source: String,
+) -> LimitCheck {
+    let margin = limit - value;
+    LimitCheck {
+        kind,
+        value: Some(value),
+        limit: Some(limit),
+        unit,
+        margin,
+        band,
+        state: verdict(margin, band),
+        source,
+        note: String::new(),
+        open_ended: false,
+    }
+}
+
+fn min_check(
+    kind: LimitKind,
+    value: f64,
+    limit: f64,
+    unit: &'static str,
+    band: f64,
+    source: String,
+) -> LimitCheck {
+    let margin = value - limit;
+    LimitCheck {
+        kind,
+        value: Some(value),
+        limit: Some(limit),
+        unit,
+        margin,
+        band,
+        state: verdict(margin, band),
+        source,
+        note: String::new(),
+        open_ended: false,
+    }
+}
+
+fn flag(kind: LimitKind, ok: bool, source: String, note: String) -> LimitCheck {
+    LimitCheck {
+        kind,
+        value: None,
+        limit: None,
+        unit: "",
+        margin: if ok { f64::INFINITY } else { -1.0 },
+        band: 0.0,
+        state: if ok { State::Within } else { State::Below },
+        source,
+        note,
+        open_ended: false,
+    }
+}
+
+fn no_data(
+    kind: LimitKind,
+    unit: &'static str,
+    limit: f64,
+    source: String,
+    note: String,
+) -> LimitCheck {
+    LimitCheck {
+        kind,
+        value: None,
+        limit: Some(limit),
+        unit,
+        margin: f64::NAN,
+        band: 0.0,
+        state: State::NoData,
+        source,
+        note,
+        open_ended: false,
+    }
+}
+
+/// The tighter of the category's limit and the pilot's own, with its source.
+fn tighter(
+    category_value: f64,
+    category_source: String,
+    pilot_value: Option<f64>,
+    maximum: bool,
+) -> (f64, String) {
+    match pilot_value {
+        Some(p) if (maximum && p < category_value) || (!maximum && p > category_value) => {
+            (p, "pilot's written limitation".to_string())
+        }
+        _ => (category_value, category_source),
+    }
+}
+
+/// Who the limits are for.
+#[derive(Debug, Clone, Copy)]
+pub struct Who<'a> {
+    /// The category flown.
+    pub category: Category,
+    /// Its minimums.
+    pub minimums: &'a Minimums,
+    /// The pilot, when known.
+    pub pilot: Option<&'a Pilot>,
+    /// The operator's regime.
+    pub regime: Regime,
+    /// The thin bands.
+    pub buffers: &'a Buffers,
+}
+
+fn source_of(who: &Who<'_>, field: &str) -> String {
+    let cat = who.category.name();
+    match who.minimums.sources.get(field) {
+        Some(s) => format!("{cat} minimums ({s})"),
+        None => format!("{cat} minimums"),
+    }
+}
+
+/// Is `at` in daylight at the airfield (between sunrise and sunset)? `None` in polar
+/// conditions is decided by the polar state.
+pub fn is_day(field: &Airfield, at: DateTime<Utc>) -> bool {
+    let d = daylight::daylight(at.date_naive(), field.latitude_deg, field.longitude_deg);
+    match (d.sunrise, d.sunset) {
+        (Event::At(rise), Event::At(set)) => at >= rise && at <= set,
+        (Event::AlwaysAbove, _) | (_, Event::AlwaysAbove) => true,
+        _ => false,
+    }
+}
+
+/// The field-level limits at one end of a leg (everything but the runway components).
+pub fn field_limits(
+    who: &Who<'_>,
+    report: &Report,
+    density_altitude_ft: f64,
+    field: &Airfield,
+    event_at: DateTime<Utc>,
+    departure: bool,
+    out: &mut Vec<LimitCheck>,
+) {
+    let m = who.minimums;
+    let b = who.buffers;
+    let lim = who.pilot.map(|p| &p.limitations);
+    // Ceiling.
+    let (min_ceiling, src) = tighter(
+        m.min_ceiling_ft,
+        source_of(who, "min_ceiling_ft"),
+        lim.and_then(|l| l.min_ceiling_ft),
+        false,
+    );
+    out.push(match report.ceiling {
+        Ceiling::Known(ft) => {
+            min_check(LimitKind::Ceiling, ft, min_ceiling, "ft", b.ceiling_ft, src)
+        }
+        Ceiling::None => LimitCheck {
+            note: "no ceiling reported".to_string(),
+            open_ended: true,
+            ..flag(LimitKind::Ceiling, true, src, String::new())
+        },
+        Ceiling::Unknown => no_data(
+            LimitKind::Ceiling,
+            "ft",
+            min_ceiling,
+            src,
+            "ceiling unknown (a layer of unknown height or amount)".to_string(),
+        ),
+    });
+    // Visibility, with the regulatory floor under the operator's value.
+    let day = is_day(field, event_at);
+    let (mut min_vis, mut src) = tighter(
+        m.min_visibility_m,
+        source_of(who, "min_visibility_m"),
+        lim.and_then(|l| l.min_visibility_m),
+        false,
+    );
+    if who.category == Category::StudentSolo && who.regime == Regime::Faa {
+        let (floor_sm, rule) = if day {
+            (3.0, "14 CFR 61.89(a)(6): 3 SM by day for a student solo")
+        } else {
+            (5.0, "14 CFR 61.89(a)(6): 5 SM at night for a student solo")
+        };
+        let floor_m = floor_sm * M_PER_SM;
+        if floor_m > min_vis {
+            min_vis = floor_m;
+            src = rule.to_string();
+        }
+    }
+    match report.visibility {
+        Some(v) => {
+            let mut c = min_check(
+                LimitKind::Visibility,
+                v.prevailing_m,
+                min_vis,
+                "m",
+                b.visibility_m,
+                src,
+            );
+            c.open_ended = v.bound == crate::observation::Bound::AtLeast && c.margin >= 0.0;
+            out.push(c);
+        }
+        None if report.cavok => out.push(LimitCheck {
+            note: "CAVOK".to_string(),
+            open_ended: true,
+            ..min_check(
+                LimitKind::Visibility,
+                10_000.0,
+                min_vis,
+                "m",
+                b.visibility_m,
+                src,
+            )
+        }),
+        None => out.push(no_data(
+            LimitKind::Visibility,
+            "m",
+            min_vis,
+            src,
+            "no visibility in the report".to_string(),
+        )),
+    }
+    // Wind, gust, spread.
+    if let Some(w) = report.wind {
+        let (max_wind, src) = tighter(
+            m.max_wind_kt,
+            source_of(who, "max_wind_kt"),
+            lim.and_then(|l| l.max_wind_kt),
+            true,
+        );
+        out.push(max_check(
+            LimitKind::Wind,
+            w.speed_kt,
+            max_wind,
+            "kt",
+            b.wind_kt,
+            src,
+        ));
+        let (max_gust, src) = tighter(
+            m.max_gust_kt,
+            source_of(who, "max_gust_kt"),
+            lim.and_then(|l| l.max_gust_kt),
+            true,
+        );
+        let gust = w.gust_kt.unwrap_or(w.speed_kt);
+        out.push(max_check(
+            LimitKind::Gust,
+            gust,
+            max_gust,
+            "kt",
+            b.wind_kt,
+            src,
+        ));
+        out.push(max_check(
+            LimitKind::GustSpread,
+            gust - w.speed_kt,
+            m.max_gust_spread_kt,
+            "kt",
+            b.wind_kt,
+            source_of(who, "max_gust_spread_kt"),
+        ));
+    }
+    // Density altitude.
+    let (max_da, src) = tighter(
+        m.max_density_altitude_ft,
+        source_of(who, "max_density_altitude_ft"),
+        lim.and_then(|l| l.max_density_altitude_ft),
+        true,
+    );
+    out.push(max_check(
+        LimitKind::DensityAltitude,
+        density_altitude_ft,
+        max_da,
+        "ft",
+        b.density_altitude_ft,
+        src,
+    ));
+    // Hazards.
+    let h = report.hazards;
+    for hazard in &m.refuse_hazards {
+        let (present, what) = match hazard {
+            Hazard::Thunderstorm => (h.thunderstorm || h.cumulonimbus, "thunderstorm or CB/TCU"),
+            Hazard::FreezingPrecipitation => (h.freezing_precipitation, "freezing precipitation"),
+            Hazard::Fog => (h.fog, "fog"),
+            Hazard::WindShear => (h.wind_shear, "wind shear"),
+        };
+        if present {
+            out.push(flag(
+                LimitKind::Hazard,
+                false,
+                source_of(who, "refuse_hazards"),
+                format!("{what} reported; refused for {}", who.category.name()),
+            ));
+        }
+    }
+    // Daylight.
+    if m.daylight_only {
+        let d = daylight::daylight(
+            event_at.date_naive(),
+            field.latitude_deg,
+            field.longitude_deg,
+        );
+        let (edge, ok, what) = if departure {
+            match d.sunrise {
+                Event::At(t) => (Some(t), event_at >= t, "departs before sunrise"),
+                Event::AlwaysAbove => (None, true, ""),
+                Event::AlwaysBelow => (None, false, "no daylight today (polar night)"),
+            }
+        } else {
+            match d.sunset {
+                Event::At(t) => (Some(t), event_at <= t, "arrives after sunset"),
+                Event::AlwaysAbove => (None, true, ""),
+                Event::AlwaysBelow => (None, false, "no daylight today (polar night)"),
+            }
+        };
+        let margin_min = edge.map(|t| {
+            let d = if departure {
+                event_at - t
+            } else {
+                t - event_at
+            };
+            d.num_seconds() as f64 / 60.0
+        });
+        let mut c = flag(
+            LimitKind::Daylight,
+            ok,
+            source_of(who, "daylight_only"),
+            match edge {
+                Some(t) if ok => format!(
+                    "{} {} (NOAA solar method)",
+                    if departure { "sunrise" } else { "sunset" },
+                    t.format("%H%MZ")
+                ),
+                Some(t) => format!("{what} ({})", t.format("%H%MZ")),
+                None => what.to_string(),
+            },
+        );
+        if let Some(mm) = margin_min {
+            c.value = Some(mm);
+            c.unit = "min";
+            c.margin = mm;
+            c.state = if mm < 0.0 {
+                State::Below
+            } else {
+                State::Within
+            };
+        }
+        out.push(c);
+    }
+}
+
+/// The per-runway-end limits: crosswind and tailwind against the category, the pilot
+/// and the type's demonstrated crosswind.
+pub fn end_limits(
+    who: &Who<'_>,
+    crosswind_kt: f64,
+    tailwind_kt: f64,
+    demonstrated_crosswind_kt: f64,
+    out: &mut Vec<LimitCheck>,
+) {
+    let m = who.minimums;
+    let (mut max_x, mut src) = tighter(
+        m.max_crosswind_kt,
+        source_of(who, "max_crosswind_kt"),
+        who.pilot.and_then(|p| p.limitations.max_crosswind_kt),
+        true,
+    );
+    if demonstrated_crosswind_kt < max_x {
+        max_x = demonstrated_crosswind_kt;
+        src = "aircraft type: maximum demonstrated crosswind".to_string();
+    }
+    out.push(max_check(
+        LimitKind::Crosswind,
+        crosswind_kt,
+        max_x,
+        "kt",
+        who.buffers.wind_kt,
+        src,
+    ));
+    out.push(max_check(
+        LimitKind::Tailwind,
+        tailwind_kt,
+        m.max_tailwind_kt,
+        "kt",
+        who.buffers.wind_kt,
+        source_of(who, "max_tailwind_kt"),
+    ));
+}
+
+/// The pilot's endorsements and airfield limitations for a leg.
+pub fn pilot_limits(
+    who: &Who<'_>,
+    type_id: &str,
+    departs_at: DateTime<Utc>,
+    from: &str,
+    to: &str,
+    out: &mut Vec<LimitCheck>,
+) {
+    let Some(pilot) = who.pilot else {
+        return;
+    };
+    if let Some(days) = who.minimums.solo_endorsement_valid_days {
+        let day = departs_at.date_naive();
+        let valid = pilot
+            .endorsements
+            .solo
+            .iter()
+            .filter(|e| e.type_id == type_id)
+            .find(|e| e.date <= day && day - e.date < Duration::days(i64::from(days)));
+        let src = source_of(who, "solo_endorsement_valid_days");
+        out.push(match valid {
+            Some(e) => {
+                let left = i64::from(days) - (day - e.date).num_days();
+                let mut c = flag(
+                    LimitKind::Endorsement,
+                    true,
+                    src,
+                    format!(
+                        "solo endorsement for {type_id} of {} ({left} days left)",
+                        e.date
+                    ),
+                );
+                c.value = Some(left as f64);
+                c.unit = "days";
+                c
+            }
+            None => {
+                let last = pilot
+                    .endorsements
+                    .solo
+                    .iter()
+                    .filter(|e| e.type_id == type_id)
+                    .map(|e| e.date)
+                    .max();
+                flag(
+                    LimitKind::Endorsement,
+                    false,
+                    src,
+                    match last {
+                        Some(d) => format!(
+                            "solo endorsement for {type_id} of {d} has lapsed ({days}-day validity)"
+                        ),
+                        None => format!("no solo endorsement for {type_id}"),
+                    },
+                )
+            }
+        });
+    }
+    let named = &pilot.limitations.airfields;
+    if !named.is_empty() {
+        let missing: Vec<&str> = [from, to]
+            .into_iter()
+            .filter(|a| !named.iter().any(|n| n == a))
+            .collect();
+        out.push(flag(
+            LimitKind::NamedAirfields,
+            missing.is_empty(),
+            "pilot's written limitation".to_string(),
+            if missing.is_empty() {
+                format!("limited to {}", named.join(", "))
+            } else {
+                format!(
+                    "not cleared for {} (limited to {})",
+                    missing.join(", "),
+                    named.join(", ")
+                )
+            },
+        ));
+    }
+}

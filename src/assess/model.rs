@@ -1,0 +1,326 @@
+//! The operator's data compiled for assessment: every rule resolved once (manual first,
+//! the policy's fallback where the manual is silent), runway ends laid out contiguously
+//! by airfield, so the per-end work is a few multiplications.
+
+use crate::ops::actype::{PhaseCorrections, SurfaceRule};
+use crate::ops::airfield::{Condition, Surface};
+use crate::ops::operator::{FallbackPhase, Policy};
+use crate::ops::{Category, Ops};
+
+/// Where a correction or factor comes from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Origin {
+    /// The aircraft type's flight manual (the type file).
+    Manual,
+    /// The operator's policy fallback, used where the manual is silent.
+    Policy,
+}
+
+impl Origin {
+    /// Words for the chain.
+    pub const fn word(self) -> &'static str {
+        match self {
+            Origin::Manual => "flight manual",
+            Origin::Policy => "operator policy (manual silent)",
+        }
+    }
+}
+
+/// Which surface correction applies to a runway end today.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum SurfaceCase {
+    /// Dry paved: no correction.
+    PavedDry,
+    /// Wet paved.
+    PavedWet,
+    /// Dry grass.
+    GrassDry,
+    /// Wet grass.
+    GrassWet,
+}
+
+impl SurfaceCase {
+    /// From the end's surface and condition.
+    pub const fn of(surface: Surface, condition: Condition) -> SurfaceCase {
+        match (surface, condition) {
+            (Surface::Paved, Condition::Dry) => SurfaceCase::PavedDry,
+            (Surface::Paved, Condition::Wet) => SurfaceCase::PavedWet,
+            (Surface::Grass, Condition::Dry) => SurfaceCase::GrassDry,
+            (Surface::Grass, Condition::Wet) => SurfaceCase::GrassWet,
+        }
+    }
+
+    /// Words for the chain.
+    pub const fn word(self) -> &'static str {
+        match self {
+            SurfaceCase::PavedDry => "dry paved",
+            SurfaceCase::PavedWet => "wet paved",
+            SurfaceCase::GrassDry => "dry grass",
+            SurfaceCase::GrassWet => "wet grass",
+        }
+    }
+}
+
+/// A surface rule with its origin.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Rule {
+    /// The rule.
+    pub rule: SurfaceRule,
+    /// Where it comes from.
+    pub origin: Origin,
+}
+
+/// One phase's (takeoff or landing) corrections, resolved.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PhaseRules {
+    /// Decrease per knot of (factored) headwind, percent; `None`: no headwind credit.
+    pub headwind_percent_per_kt: Option<f64>,
+    /// Increase per knot of (factored) tailwind, percent; `None`: the manual gives none.
+    pub tailwind_percent_per_kt: Option<f64>,
+    /// The manual's wind figures already include the 50 %/150 % factoring.
+    pub wind_factoring_included: bool,
+    /// Surface rules by [`SurfaceCase`] index (paved dry has none).
+    pub surface: [Option<Rule>; 4],
+    /// Increase per 1 % of adverse slope, percent, with its origin.
+    pub slope_percent_per_percent: (f64, Origin),
+}
+
+impl PhaseRules {
+    fn resolve(manual: &PhaseCorrections, fallback: &FallbackPhase) -> PhaseRules {
+        let pick = |m: Option<SurfaceRule>, f: SurfaceRule| match m {
+            Some(rule) => Rule {
+                rule,
+                origin: Origin::Manual,
+            },
+            None => Rule {
+                rule: f,
+                origin: Origin::Policy,
+            },
+        };
+        // A wet paved landing with no manual figure takes the category's own wet factor
+        // where it has one (`Minimums::wet_paved_landing_factor`) instead of this
+        // fallback, never both: see `perf::landing_extra_factor`.
+        let paved_wet = Some(pick(manual.paved_wet, fallback.paved_wet.rule));
+        PhaseRules {
+            headwind_percent_per_kt: manual.headwind_decrease_percent_per_kt,
+            tailwind_percent_per_kt: manual.tailwind_increase_percent_per_kt,
+            wind_factoring_included: manual.wind_factoring_included,
+            surface: [
+                None,
+                paved_wet,
+                Some(pick(manual.grass_dry, fallback.grass_dry.rule)),
+                Some(pick(manual.grass_wet, fallback.grass_wet.rule)),
+            ],
+            slope_percent_per_percent: match manual.adverse_slope_increase_percent_per_percent {
+                Some(k) => (k, Origin::Manual),
+                None => (
+                    fallback.adverse_slope.increase_percent_per_percent,
+                    Origin::Policy,
+                ),
+            },
+        }
+    }
+
+    /// The surface rule for a case, if any.
+    pub fn surface_rule(&self, case: SurfaceCase) -> Option<Rule> {
+        self.surface[case as usize]
+    }
+}
+
+/// An aircraft type, compiled.
+#[derive(Debug, Clone, PartialEq)]
+pub struct TypeModel {
+    /// Index in `Ops::types`.
+    pub index: usize,
+    /// Takeoff corrections.
+    pub takeoff: PhaseRules,
+    /// Landing corrections.
+    pub landing: PhaseRules,
+    /// Indicated climb speed of the climb table, kt.
+    pub climb_speed_kias: f64,
+    /// Maximum takeoff mass, kg.
+    pub max_takeoff_mass_kg: f64,
+    /// Maximum landing mass, kg.
+    pub max_landing_mass_kg: f64,
+    /// Maximum demonstrated crosswind, kt.
+    pub max_demonstrated_crosswind_kt: f64,
+    /// Rotation speed, kt indicated (for the abort-point advice).
+    pub rotation_kias: f64,
+    /// Whether a value below an axis may be held at the axis (all tables regular).
+    pub conservative_below: bool,
+    /// The warmest OAT in the tables, °C.
+    pub oat_top_c: f64,
+    /// The coldest OAT in the tables, °C.
+    pub oat_bottom_c: f64,
+}
+
+/// One runway end, compiled.
+#[derive(Debug, Clone, PartialEq)]
+pub struct EndModel {
+    /// Index of the airfield in `Ops::airfields`.
+    pub field: usize,
+    /// Index of the end in the airfield's `runway_ends`.
+    pub index: usize,
+    /// True heading, degrees.
+    pub heading_true_deg: f64,
+    /// Take-off run available, m.
+    pub tora_m: f64,
+    /// Take-off distance available, counting clearway for at most half of TORA, m.
+    pub toda_m: f64,
+    /// Accelerate-stop distance available, m.
+    pub asda_m: f64,
+    /// Landing distance available, m.
+    pub lda_m: f64,
+    /// Surface and condition today.
+    pub surface: SurfaceCase,
+    /// Slope, percent, positive uphill in the direction of travel.
+    pub slope_percent: f64,
+    /// Required climb gradient for the departure, ft/NM.
+    pub required_gradient_ft_per_nm: Option<f64>,
+    /// Usable today.
+    pub usable: bool,
+}
+
+/// An airfield, compiled.
+#[derive(Debug, Clone, PartialEq)]
+pub struct FieldModel {
+    /// Field elevation, ft.
+    pub elevation_ft: f64,
+    /// Its ends: `ends[first..first + count]`.
+    pub first_end: usize,
+    /// Number of ends.
+    pub end_count: usize,
+    /// The calm-wind end, index into the field's ends.
+    pub preferential_end: Option<usize>,
+}
+
+/// The runway set in use for a field today (board or command).
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct DaySettings {
+    /// Airfield id → designator of the end in use.
+    pub runway_in_use: std::collections::HashMap<String, String>,
+    /// Airfield id → designators closed today.
+    pub closed: std::collections::HashMap<String, Vec<String>>,
+}
+
+/// The whole operator, compiled.
+#[derive(Debug, Clone)]
+pub struct Model {
+    /// Per `Ops::types`.
+    pub types: Vec<TypeModel>,
+    /// Per `Ops::airfields`.
+    pub fields: Vec<FieldModel>,
+    /// All runway ends, grouped by airfield.
+    pub ends: Vec<EndModel>,
+    /// Per `Ops::aircraft`: index into `types`, when the type exists.
+    pub aircraft_type: Vec<Option<usize>>,
+    /// Per `Ops::airfields`: the end set in use today, index into the field's ends.
+    pub set_in_use: Vec<Option<usize>>,
+    /// Headwind credit, fraction (0.5).
+    pub headwind_credit: f64,
+    /// Tailwind penalty, fraction (1.5).
+    pub tailwind_factor: f64,
+    /// Stale age, minutes.
+    pub stale_after_min: f64,
+    /// The strictest category the operator flies (pairings with no leg use it).
+    pub strictest: Option<Category>,
+}
+
+impl Model {
+    /// Compiles the operator's data with today's runway settings.
+    pub fn new(ops: &Ops, day: &DaySettings) -> Model {
+        let policy: &Policy = &ops.operator.policy;
+        let types = ops
+            .types
+            .iter()
+            .enumerate()
+            .map(|(index, t)| {
+                let f = &t.file;
+                let grid = &t.performance.grid;
+                let oat = grid.oat_c();
+                TypeModel {
+                    index,
+                    takeoff: PhaseRules::resolve(
+                        &f.corrections.takeoff,
+                        &policy.fallback_corrections.takeoff,
+                    ),
+                    landing: PhaseRules::resolve(
+                        &f.corrections.landing,
+                        &policy.fallback_corrections.landing,
+                    ),
+                    climb_speed_kias: f.performance.climb.climb_speed_kias,
+                    max_takeoff_mass_kg: f.limits.max_takeoff_mass_kg,
+                    max_landing_mass_kg: f.limits.max_landing_mass_kg,
+                    max_demonstrated_crosswind_kt: f.limits.max_demonstrated_crosswind_kt,
+                    rotation_kias: f.speeds.rotation_kias,
+                    conservative_below: f.performance.takeoff.irregular_ok.is_none()
+                        && f.performance.landing.irregular_ok.is_none()
+                        && f.performance.climb.irregular_ok.is_none(),
+                    oat_top_c: oat.last().copied().unwrap_or(f64::NAN),
+                    oat_bottom_c: oat.first().copied().unwrap_or(f64::NAN),
+                }
+            })
+            .collect();
+        let mut fields = Vec::with_capacity(ops.airfields.len());
+        let mut ends = Vec::new();
+        let mut set_in_use = Vec::with_capacity(ops.airfields.len());
+        for (fi, a) in ops.airfields.iter().enumerate() {
+            let closed = day.closed.get(&a.id);
+            let first_end = ends.len();
+            for (ei, e) in a.runway_ends.iter().enumerate() {
+                let usable = closed.is_none_or(|c| !c.contains(&e.designator));
+                ends.push(EndModel {
+                    field: fi,
+                    index: ei,
+                    heading_true_deg: e.true_heading_deg,
+                    tora_m: e.tora_m,
+                    toda_m: e.toda_m.min(e.tora_m * 1.5),
+                    asda_m: e.asda_m,
+                    lda_m: e.lda_m,
+                    surface: SurfaceCase::of(e.surface, e.condition),
+                    slope_percent: e.slope_percent,
+                    required_gradient_ft_per_nm: e
+                        .required_climb_gradient
+                        .as_ref()
+                        .map(|g| g.ft_per_nm),
+                    usable,
+                });
+            }
+            let find = |d: &str| a.runway_ends.iter().position(|e| e.designator == d);
+            set_in_use.push(day.runway_in_use.get(&a.id).and_then(|d| find(d)));
+            fields.push(FieldModel {
+                elevation_ft: a.elevation_ft,
+                first_end,
+                end_count: a.runway_ends.len(),
+                preferential_end: a.preferential_end.as_deref().and_then(find),
+            });
+        }
+        let aircraft_type = ops
+            .aircraft
+            .iter()
+            .map(|a| ops.type_position(&a.type_id))
+            .collect();
+        let strictest = Category::ALL
+            .into_iter()
+            .find(|c| ops.operator.categories.contains_key(c));
+        Model {
+            types,
+            fields,
+            ends,
+            aircraft_type,
+            set_in_use,
+            headwind_credit: policy.wind.headwind_credit_percent / 100.0,
+            tailwind_factor: policy.wind.tailwind_penalty_percent / 100.0,
+            stale_after_min: policy.stale_after_min,
+            strictest,
+        }
+    }
+
+    /// The runway ends of field `fi`.
+    pub fn field_ends(&self, fi: usize) -> &[EndModel] {
+        let f = &self.fields[fi];
+        &self.ends[f.first_end..f.first_end + f.end_count]
+    }
+}

@@ -1,0 +1,530 @@
+//! Every available aircraft at every airfield: takeoff, climb and landing on the
+//! runway in use (and the best other end), the runway limits and the field's weather
+//! limits for the aircraft's strictest category, and the headroom in degrees.
+//!
+//! This is the hot path. Each airfield's air and per-end winds are computed once per
+//! report; each pairing locates its table cell once and shares it across the takeoff,
+//! climb and (at equal mass) landing tables and every runway end. Nothing here
+//! allocates per pairing.
+
+use serde_json::{Value, json};
+
+use super::leg::{
+    Context, EndWind, FieldWx, Setup, departure_chains, landing_chain, observation_for,
+};
+use super::limits::{self, Who};
+use super::model::{EndModel, TypeModel};
+use super::perf;
+use super::state::{State, verdict};
+use crate::ops::operator::Buffers;
+use crate::ops::{Category, Ops, Status};
+
+/// What decided a pairing's state.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum PairLimit {
+    /// Nothing limits (no checks).
+    None,
+    /// A takeoff distance check.
+    Takeoff,
+    /// Rate or gradient of climb.
+    Climb,
+    /// A landing distance check.
+    Landing,
+    /// Crosswind.
+    Crosswind,
+    /// Tailwind.
+    Tailwind,
+    /// Density altitude.
+    DensityAltitude,
+    /// The field's weather (ceiling, visibility, wind, hazards, daylight).
+    Weather,
+    /// No usable report.
+    Observation,
+    /// Outside the flight-manual tables, or a correction the manual lacks.
+    Table,
+}
+
+/// One cell of the matrix.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct PairCell {
+    /// State on the runway in use.
+    pub state: State,
+    /// Margin ÷ buffer of the limiting check.
+    pub score: f64,
+    /// The limiting check's margin in percent (distance and climb) or its unit.
+    pub margin_percent: f64,
+    /// What limits.
+    pub limiting: PairLimit,
+    /// The best state over every usable end.
+    pub best_end_state: State,
+    /// Index (in the field's ends) of the runway in use.
+    pub end_in_use: Option<u8>,
+    /// Degrees of warming left; `None` for no-data.
+    pub headroom_c: Option<f64>,
+}
+
+impl PairCell {
+    const NO_DATA: PairCell = PairCell {
+        state: State::NoData,
+        score: f64::NAN,
+        margin_percent: f64::NAN,
+        limiting: PairLimit::Observation,
+        best_end_state: State::NoData,
+        end_in_use: None,
+        headroom_c: None,
+    };
+}
+
+/// The matrix: available aircraft × airfields, aircraft-major.
+#[derive(Debug, Clone)]
+pub struct Matrix {
+    /// Indices into `Ops::aircraft` of the rows.
+    pub aircraft: Vec<usize>,
+    /// Number of columns (airfields).
+    pub fields: usize,
+    /// Cells, `aircraft × fields`.
+    pub cells: Vec<PairCell>,
+}
+
+impl Matrix {
+    /// The cell of row `ai` (index into `aircraft`) and airfield `fi`.
+    pub fn cell(&self, ai: usize, fi: usize) -> &PairCell {
+        &self.cells[ai * self.fields + fi]
+    }
+
+    /// JSON: one object per pairing.
+    pub fn to_json(&self, ops: &Ops) -> Value {
+        let mut rows = Vec::with_capacity(self.cells.len());
+        for (ai, &a) in self.aircraft.iter().enumerate() {
+            for fi in 0..self.fields {
+                let c = self.cell(ai, fi);
+                let field = &ops.airfields[fi];
+                rows.push(json!({
+                    "aircraft": ops.aircraft[a].registration,
+                    "airfield": field.id,
+                    "runway": c.end_in_use.and_then(|k| field.runway_ends.get(k as usize)).map(|e| e.designator.clone()),
+                    "state": c.state,
+                    "limiting": c.limiting,
+                    "margin_percent": c.margin_percent.is_finite().then_some(c.margin_percent),
+                    "best_end_state": c.best_end_state,
+                    "headroom_c": c.headroom_c,
+                }));
+            }
+        }
+        Value::Array(rows)
+    }
+
+    /// Recomputes one airfield's column (after a new report for it).
+    pub fn update_field(&mut self, ctx: &Context<'_>, fi: usize) {
+        let prep = Prepared::new(ctx);
+        let field = FieldPrep::new(ctx, fi);
+        for (ai, &a) in self.aircraft.iter().enumerate() {
+            self.cells[ai * self.fields + fi] = prep.pair(ctx, &field, a);
+        }
+    }
+}
+
+/// Per airfield, computed once per report.
+struct FieldPrep<'a> {
+    index: usize,
+    wx: Option<FieldWx>,
+    winds: Vec<EndWind>,
+    ends: &'a [EndModel],
+    in_use: Option<usize>,
+    /// Field-level weather state per category (ceiling, visibility, wind, hazards).
+    weather: [(State, f64); 4],
+    stale: bool,
+}
+
+fn cat_index(c: Category) -> usize {
+    match c {
+        Category::StudentSolo => 0,
+        Category::Solo => 1,
+        Category::Dual => 2,
+        Category::Charter => 3,
+    }
+}
+
+impl<'a> FieldPrep<'a> {
+    fn new(ctx: &Context<'a>, fi: usize) -> FieldPrep<'a> {
+        let ops = ctx.ops;
+        let model = ctx.model;
+        let field = &ops.airfields[fi];
+        let ends = model.field_ends(fi);
+        let found = observation_for(ctx.store, &field.id, ctx.at, ctx.at, model.stale_after_min);
+        let wx = found
+            .as_ref()
+            .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
+        let stale = found.as_ref().is_some_and(|(_, u)| u.stale);
+        let winds: Vec<EndWind> = match &wx {
+            Some(wx) => ends.iter().map(|e| wx.on_end(e.heading_true_deg)).collect(),
+            None => Vec::new(),
+        };
+        let usable = |k: &usize| ends.get(*k).is_some_and(|e| e.usable);
+        let in_use = model.set_in_use[fi].filter(usable).or_else(|| {
+            let wx = wx.as_ref()?;
+            if wx.calm() {
+                model.fields[fi]
+                    .preferential_end
+                    .filter(usable)
+                    .or_else(|| (0..ends.len()).find(usable))
+            } else {
+                (0..ends.len())
+                    .filter(usable)
+                    .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
+            }
+        });
+        let mut weather = [(State::NoData, f64::NAN); 4];
+        if let (Some((report, _)), Some(wx)) = (&found, &wx) {
+            for c in Category::ALL {
+                let Some(mins) = ops.minimums(c) else {
+                    continue;
+                };
+                let who = Who {
+                    category: c,
+                    minimums: mins,
+                    pilot: None,
+                    regime: ops.operator.regime,
+                    buffers: &ops.operator.policy.buffers,
+                };
+                let mut lim = Vec::new();
+                limits::field_limits(
+                    &who,
+                    report,
+                    wx.air.density_altitude_ft,
+                    field,
+                    ctx.at,
+                    true,
+                    &mut lim,
+                );
+                let mut st = (State::Within, f64::INFINITY);
+                for l in lim
+                    .iter()
+                    .filter(|l| l.kind != limits::LimitKind::DensityAltitude)
+                {
+                    let s = l.score();
+                    if l.state > st.0 || (l.state == st.0 && s < st.1) {
+                        st = (l.state, s);
+                    }
+                }
+                weather[cat_index(c)] = st;
+            }
+        }
+        FieldPrep {
+            index: fi,
+            wx,
+            winds,
+            ends,
+            in_use,
+            weather,
+            stale,
+        }
+    }
+}
+
+/// Per aircraft, computed once per matrix.
+struct AircraftPrep {
+    ty: Option<usize>,
+    category: Category,
+    /// Takeoff mass per departure airfield of its legs (else MTOW).
+    legs_from: Vec<(usize, f64)>,
+    /// Landing mass per arrival airfield of its legs.
+    legs_to: Vec<(usize, f64)>,
+}
+
+struct Prepared {
+    aircraft: Vec<AircraftPrep>,
+    dist_buf: f64,
+    climb_buf: f64,
+}
+
+impl Prepared {
+    fn new(ctx: &Context<'_>) -> Prepared {
+        let ops = ctx.ops;
+        let model = ctx.model;
+        let day = ctx.at.date_naive();
+        let aircraft =
+            ops.aircraft
+                .iter()
+                .enumerate()
+                .map(|(i, a)| {
+                    let mut cats: Vec<Category> = Vec::new();
+                    let mut legs_from = Vec::new();
+                    let mut legs_to = Vec::new();
+                    for leg in ops.legs.iter().filter(|l| {
+                        l.aircraft == a.registration && l.departs_utc().date_naive() == day
+                    }) {
+                        cats.push(leg.category);
+                        let (tom, lm) = super::leg::leg_masses(ops, leg);
+                        if let (Some(fi), Some(m)) = (ops.airfield_position(&leg.from), tom) {
+                            legs_from.push((fi, m));
+                        }
+                        if let (Some(fi), Some(m)) = (ops.airfield_position(&leg.to), lm) {
+                            legs_to.push((fi, m));
+                        }
+                    }
+                    let category = Category::ALL
+                        .into_iter()
+                        .find(|c| cats.contains(c))
+                        .or(model.strictest)
+                        .unwrap_or(Category::StudentSolo);
+                    AircraftPrep {
+                        ty: model.aircraft_type.get(i).copied().flatten(),
+                        category,
+                        legs_from,
+                        legs_to,
+                    }
+                })
+                .collect();
+        let b: &Buffers = &ops.operator.policy.buffers;
+        Prepared {
+            aircraft,
+            dist_buf: b.distance_percent / 100.0,
+            climb_buf: b.climb_percent / 100.0,
+        }
+    }
+
+    fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, a: usize) -> PairCell {
+        let ops = ctx.ops;
+        let model = ctx.model;
+        let ap = &self.aircraft[a];
+        let (Some(t), Some(wx), Some(in_use)) = (ap.ty, field.wx.as_ref(), field.in_use) else {
+            return PairCell::NO_DATA;
+        };
+        if field.stale {
+            return PairCell::NO_DATA;
+        }
+        let Some(mins) = ops.minimums(ap.category) else {
+            return PairCell::NO_DATA;
+        };
+        let ty = &model.types[t];
+        let perf = &ops.types[t].performance;
+        let fi = field.index;
+        let tom = ap
+            .legs_from
+            .iter()
+            .find(|(f, _)| *f == fi)
+            .map_or(ty.max_takeoff_mass_kg, |&(_, m)| m);
+        let lm = ap
+            .legs_to
+            .iter()
+            .find(|(f, _)| *f == fi)
+            .map_or(tom.min(ty.max_landing_mass_kg), |&(_, m)| m);
+        let b = &ops.operator.policy.buffers;
+        let setup = Setup {
+            model,
+            ty,
+            perf,
+            mins,
+            takeoff_mass_kg: tom,
+            landing_mass_kg: lm,
+            distance_buffer: self.dist_buf,
+            climb_buffer: self.climb_buf,
+        };
+        let eval = |k: usize, dt: f64| -> Outcome {
+            evaluate(&setup, b, &field.ends[k], wx, &field.winds[k], dt)
+        };
+        let weather = field.weather[cat_index(ap.category)];
+        let now = eval(in_use, 0.0);
+        let mut best = now.state;
+        for k in 0..field.ends.len() {
+            if k != in_use && field.ends[k].usable {
+                best = best.min(eval(k, 0.0).state);
+            }
+        }
+        let (mut state, mut score, mut limiting, mut margin) =
+            (now.state, now.score, now.limiting, now.margin_percent);
+        if weather.0 > state || (weather.0 == state && weather.1 < score) {
+            state = weather.0;
+            score = weather.1;
+            limiting = PairLimit::Weather;
+            margin = f64::NAN;
+        }
+        let headroom_c = match now.state {
+            State::NoData => None,
+            _ => Some(headroom(
+                &eval,
+                in_use,
+                now.temperature_fine,
+                wx.air.oat_c,
+                ty,
+            )),
+        };
+        PairCell {
+            state,
+            score,
+            margin_percent: margin,
+            limiting,
+            best_end_state: best.and(weather.0),
+            end_in_use: u8::try_from(in_use).ok(),
+            headroom_c,
+        }
+    }
+}
+
+#[derive(Debug, Clone, Copy)]
+struct Outcome {
+    state: State,
+    score: f64,
+    margin_percent: f64,
+    limiting: PairLimit,
+    /// Every temperature-dependent check (distances, climb, density altitude) passes
+    /// and the tables cover the point.
+    temperature_fine: bool,
+}
+
+impl Outcome {
+    fn add(&mut self, state: State, score: f64, margin_percent: f64, what: PairLimit) {
+        if state > self.state || (state == self.state && score < self.score) {
+            *self = Outcome {
+                state,
+                score,
+                margin_percent,
+                limiting: what,
+                temperature_fine: self.temperature_fine,
+            };
+        }
+        if matches!(state, State::Below | State::NoData)
+            && !matches!(what, PairLimit::Crosswind | PairLimit::Tailwind)
+        {
+            self.temperature_fine = false;
+        }
+    }
+}
+
+#[inline]
+fn evaluate(
+    s: &Setup<'_>,
+    b: &Buffers,
+    end: &EndModel,
+    wx: &FieldWx,
+    w: &EndWind,
+    dt_c: f64,
+) -> Outcome {
+    let (ty, mins) = (s.ty, s.mins);
+    let (dist_buf, climb_buf) = (s.distance_buffer, s.climb_buffer);
+    let mut o = Outcome {
+        state: State::Within,
+        score: f64::INFINITY,
+        margin_percent: f64::INFINITY,
+        limiting: PairLimit::None,
+        temperature_fine: true,
+    };
+    let air = if dt_c == 0.0 {
+        wx.air
+    } else {
+        wx.air.with_oat(wx.air.oat_c + dt_c)
+    };
+    match departure_chains(s, end, &air, w.headwind_kt) {
+        Ok((chain, climb)) => {
+            let m = perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0);
+            o.add(
+                verdict(m, dist_buf),
+                m / dist_buf,
+                m * 100.0,
+                PairLimit::Takeoff,
+            );
+            let c = climb.margin();
+            o.add(
+                verdict(c, climb_buf),
+                c / climb_buf,
+                c * 100.0,
+                PairLimit::Climb,
+            );
+        }
+        Err(_) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+    }
+    match landing_chain(s, end, &air, w.headwind_kt) {
+        Ok(chain) => {
+            let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
+            let m = perf::min_margin(&chain, end, &mins.landing_checks, extra);
+            o.add(
+                verdict(m, dist_buf),
+                m / dist_buf,
+                m * 100.0,
+                PairLimit::Landing,
+            );
+        }
+        Err(_) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+    }
+    let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
+    let xm = max_x - w.crosswind_kt;
+    o.add(
+        verdict(xm, b.wind_kt),
+        xm / b.wind_kt,
+        xm,
+        PairLimit::Crosswind,
+    );
+    let tm = mins.max_tailwind_kt - w.tailwind_limit_kt;
+    o.add(
+        verdict(tm, b.wind_kt),
+        tm / b.wind_kt,
+        tm,
+        PairLimit::Tailwind,
+    );
+    let dm = mins.max_density_altitude_ft - air.density_altitude_ft;
+    o.add(
+        verdict(dm, b.density_altitude_ft),
+        dm / b.density_altitude_ft,
+        dm,
+        PairLimit::DensityAltitude,
+    );
+    o
+}
+
+/// Bisection to 0.1 °C on the temperature-dependent checks of the in-use end.
+fn headroom(
+    eval: &impl Fn(usize, f64) -> Outcome,
+    k: usize,
+    fine_now: bool,
+    oat_c: f64,
+    ty: &TypeModel,
+) -> f64 {
+    // Wind limits do not change with temperature: judge only the rest.
+    let fine = |dt: f64| eval(k, dt).temperature_fine;
+    let up = ty.oat_top_c - oat_c;
+    let down = ty.oat_bottom_c - oat_c;
+    let (mut lo, mut hi) = if fine_now {
+        if up <= 0.0 || fine(up) {
+            return up.max(0.0);
+        }
+        (0.0, up)
+    } else {
+        if down >= 0.0 || !fine(down) {
+            return down.min(0.0);
+        }
+        (down, 0.0)
+    };
+    while hi - lo > 0.05 {
+        let mid = 0.5 * (lo + hi);
+        if fine(mid) {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    (lo * 10.0).floor() / 10.0
+}
+
+/// The whole matrix.
+pub fn matrix(ctx: &Context<'_>) -> Matrix {
+    let ops = ctx.ops;
+    let prep = Prepared::new(ctx);
+    let aircraft: Vec<usize> = (0..ops.aircraft.len())
+        .filter(|&i| ops.aircraft[i].status == Status::Available)
+        .collect();
+    let fields = ops.airfields.len();
+    let mut cells = vec![PairCell::NO_DATA; aircraft.len() * fields];
+    for fi in 0..fields {
+        let field = FieldPrep::new(ctx, fi);
+        for (ai, &a) in aircraft.iter().enumerate() {
+            cells[ai * fields + fi] = prep.pair(ctx, &field, a);
+        }
+    }
+    Matrix {
+        aircraft,
+        fields,
+        cells,
+    }
+}

@@ -1,0 +1,378 @@
+//! `rhoboard check`: assesses every leg of the day (and with `--pairings` every
+//! aircraft × airfield pairing) non-interactively.
+
+use std::io::Write;
+use std::path::PathBuf;
+
+use anyhow::Context as _;
+use chrono::{DateTime, NaiveDate, Utc};
+use serde_json::{Value, json};
+
+use crate::assess::leg::{LegResult, PhaseResult, Side};
+use crate::assess::pairing::{self, Matrix};
+use crate::assess::{Context, DaySettings, Model, State, assess_leg};
+use crate::commands::Outcome;
+use crate::observation::{Insert, Store, decode_all};
+use crate::ops::config::{self, Choice};
+use crate::ops::{Ops, demo};
+
+/// Arguments of `rhoboard check`.
+#[derive(Debug, Clone, clap::Args)]
+pub struct Args {
+    /// The operator folder (default: the configured one, else the built-in demo).
+    #[arg(long, value_name = "DIR")]
+    pub ops: Option<PathBuf>,
+    /// Observation files to read besides the folder's `observations/` (METAR lines).
+    #[arg(long = "obs", value_name = "FILE")]
+    pub obs: Vec<PathBuf>,
+    /// Reference time, RFC 3339 (e.g. 2026-06-14T15:00:00Z): reports after it are
+    /// unknown. Default: now; for the built-in demo, 08:00Z on its demo day.
+    #[arg(long, value_name = "TIME")]
+    pub at: Option<String>,
+    /// Only this leg.
+    #[arg(long, value_name = "ID")]
+    pub leg: Option<String>,
+    /// Also assess every available aircraft at every airfield.
+    #[arg(long)]
+    pub pairings: bool,
+    /// Print JSON.
+    #[arg(long)]
+    pub json: bool,
+}
+
+/// The operator, the observations and the reference time, ready to assess.
+pub struct Loaded {
+    /// The operator's data.
+    pub ops: Ops,
+    /// The observation store.
+    pub store: Store,
+    /// The reference time.
+    pub at: DateTime<Utc>,
+    /// Warnings for stderr (rejected reports, a fallen-back default folder).
+    pub warnings: Vec<String>,
+    /// Whether this is the built-in demo.
+    pub demo: bool,
+}
+
+/// Parses `--at`.
+pub fn parse_at(text: &str) -> anyhow::Result<DateTime<Utc>> {
+    DateTime::parse_from_rfc3339(text)
+        .map(|t| t.with_timezone(&Utc))
+        .map_err(|e| {
+            anyhow::anyhow!(
+                "--at '{text}': {e}; expected an RFC 3339 time such as 2026-06-14T15:00:00Z"
+            )
+        })
+}
+
+/// The demo's own morning: 08:00Z on its day.
+pub fn demo_morning() -> DateTime<Utc> {
+    NaiveDate::parse_from_str(demo::DATE, "%Y-%m-%d")
+        .ok()
+        .and_then(|d| d.and_hms_opt(8, 0, 0))
+        .map(|t| t.and_utc())
+        .unwrap_or_default()
+}
+
+/// Loads the operator, reads every observation text into a store, and fixes T.
+pub fn load(
+    ops_dir: Option<&std::path::Path>,
+    obs_files: &[PathBuf],
+    at: Option<&str>,
+    now: DateTime<Utc>,
+) -> anyhow::Result<Loaded> {
+    let choice = config::choose(ops_dir, config::config_file().as_deref());
+    let demo = choice == Choice::Demo;
+    let (ops, warning) = config::load_for_use(&choice)?;
+    let mut warnings: Vec<String> = warning.into_iter().collect();
+    let at = match at {
+        Some(t) => parse_at(t)?,
+        None if demo => demo_morning(),
+        None => now,
+    };
+    let stale = chrono::TimeDelta::seconds((ops.operator.policy.stale_after_min * 60.0) as i64);
+    let mut store = Store::new(stale);
+    let mut texts: Vec<(String, String)> = ops.observations.clone();
+    for f in obs_files {
+        let text = std::fs::read_to_string(f)
+            .with_context(|| format!("reading observation file {}", f.display()))?;
+        texts.push((f.display().to_string(), text));
+    }
+    for (file, text) in &texts {
+        for r in decode_all(text, at) {
+            if let Insert::Rejected(why) = store.insert(r.report) {
+                warnings.push(format!("{file}:{}: {why}", r.line));
+            }
+        }
+    }
+    Ok(Loaded {
+        ops,
+        store,
+        at,
+        warnings,
+        demo,
+    })
+}
+
+/// The legs assessed by default: those departing on T's UTC date.
+pub fn legs_of_day(ops: &Ops, at: DateTime<Utc>) -> Vec<usize> {
+    let day = at.date_naive();
+    (0..ops.legs.len())
+        .filter(|&i| ops.legs[i].departs_utc().date_naive() == day)
+        .collect()
+}
+
+fn phase_json(p: &Option<PhaseResult>) -> Value {
+    match p {
+        None => Value::Null,
+        Some(p) => json!({
+            "mass_kg": p.mass_kg,
+            "table_ground_roll_m": p.chain.table_ground_roll_m,
+            "table_distance_50ft_m": p.chain.table_distance_50ft_m,
+            "wind_factor": p.chain.wind_factor,
+            "surface": p.chain.surface,
+            "surface_rule": p.chain.surface_rule.map(|r| json!({
+                "rule": r.rule, "from": r.origin,
+            })),
+            "slope_factor": p.chain.slope_factor,
+            "ground_roll_m": p.chain.ground_roll_m,
+            "distance_50ft_m": p.chain.distance_50ft_m,
+            "state": p.state,
+            "checks": p.checks.iter().map(|c| json!({
+                "rule": c.rule,
+                "factor": c.result.factor,
+                "required_m": c.result.required_m,
+                "available_m": c.result.available_m,
+                "margin_percent": c.result.margin * 100.0,
+                "state": c.state,
+                "source": c.source,
+            })).collect::<Vec<_>>(),
+        }),
+    }
+}
+
+fn side_json(s: &Side) -> Value {
+    json!({
+        "airfield": s.airfield,
+        "time": s.event_at,
+        "runway": s.runway,
+        "runway_reason": s.runway_reason,
+        "observation": s.observation.as_ref().map(|o| o.text.clone()),
+        "observation_age_min": s.observation.as_ref().map(|o| o.age_min),
+        "observation_as_of": s.observation.as_ref().map(|o| o.as_of),
+        "observation_stale": s.observation.as_ref().map(|o| o.stale),
+        "pressure_altitude_ft": s.air.map(|a| a.pressure_altitude_ft),
+        "density_altitude_ft": s.air.map(|a| a.density_altitude_ft),
+        "oat_c": s.air.map(|a| a.oat_c),
+        "isa_deviation_c": s.air.map(|a| a.isa_deviation_c),
+        "headwind_kt": s.wind.map(|w| w.headwind_kt),
+        "crosswind_kt": s.wind.map(|w| w.crosswind_kt),
+        "crosswind_from": s.wind.map(|w| w.crosswind_from),
+        "takeoff": phase_json(&s.takeoff),
+        "climb": s.climb.as_ref().map(|c| json!({
+            "rate_fpm": c.chain.rate_fpm,
+            "true_airspeed_kt": c.chain.true_airspeed_kt,
+            "ground_speed_kt": c.chain.ground_speed_kt,
+            "gradient_ft_per_nm": c.chain.gradient_ft_per_nm,
+            "min_rate_fpm": c.chain.min_rate_fpm,
+            "required_gradient_ft_per_nm": c.chain.required_gradient_ft_per_nm,
+            "margin_percent": c.chain.margin() * 100.0,
+            "state": c.state,
+        })),
+        "landing": phase_json(&s.landing),
+        "limits": s.limits.iter().map(|l| json!({
+            "kind": l.kind,
+            "value": l.value,
+            "limit": l.limit,
+            "unit": l.unit,
+            "margin": if l.margin.is_finite() { Some(l.margin) } else { None },
+            "state": l.state,
+            "source": l.source,
+            "note": l.note,
+        })).collect::<Vec<_>>(),
+        "alternatives": s.ends.iter().filter(|e| !e.in_use).map(|e| json!({
+            "runway": e.designator,
+            "usable": e.usable,
+            "state": e.state,
+            "headwind_kt": e.wind.headwind_kt,
+            "crosswind_kt": e.wind.crosswind_kt,
+        })).collect::<Vec<_>>(),
+        "state": s.state,
+    })
+}
+
+/// The JSON form of one leg (README documents the keys).
+pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
+    let leg = &ops.legs[r.index];
+    json!({
+        "id": r.id,
+        "departs_at": leg.departs_utc(),
+        "arrives_at": leg.arrives_utc(),
+        "aircraft": leg.aircraft,
+        "pilot": leg.pilot,
+        "category": r.category,
+        "from": leg.from,
+        "to": leg.to,
+        "state": r.state,
+        "limiting_check": r.limiting.as_ref().map(|l| l.check.clone()),
+        "limiting_margin": r.limiting.as_ref().map(|l| l.margin.clone()),
+        "headroom_c": r.headroom.map(|h| h.warming_c),
+        "headroom_table_ends": r.headroom.map(|h| h.table_ends),
+        "survives_expected_high": r.headroom.and_then(|h| h.survives_expected_high),
+        "takeoff_mass_kg": r.takeoff_mass_kg,
+        "landing_mass_kg": r.landing_mass_kg,
+        "departure": side_json(&r.departure),
+        "arrival": side_json(&r.arrival),
+        "reasons": r.reasons,
+        "advice": r.advice,
+    })
+}
+
+/// Headroom in words: `+4.2 °C`, `≥ +8.0 °C (table ends)`, `—`.
+pub fn headroom_text(r: &LegResult) -> String {
+    match r.headroom {
+        None => "—".to_string(),
+        Some(h) if h.table_ends && h.warming_c >= 0.0 => format!("≥{:+.1}°C", h.warming_c),
+        Some(h) => format!("{:+.1}°C", h.warming_c),
+    }
+}
+
+fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io::Result<()> {
+    writeln!(
+        out,
+        "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  limiting check",
+        "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
+    )?;
+    for r in results {
+        let leg = &ops.legs[r.index];
+        writeln!(
+            out,
+            "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  {}",
+            leg.departs_utc().format("%H%MZ"),
+            r.id,
+            leg.aircraft,
+            format!("{}-{}", leg.from, leg.to),
+            r.category.name().replace('_', " "),
+            r.state.to_string(),
+            r.limiting
+                .as_ref()
+                .map_or("—".to_string(), |l| l.margin.clone()),
+            headroom_text(r),
+            r.limiting.as_ref().map_or("—", |l| l.check.as_str()),
+        )?;
+    }
+    let not_within: Vec<&LegResult> = results
+        .iter()
+        .filter(|r| r.state != State::Within)
+        .collect();
+    if !not_within.is_empty() {
+        writeln!(out)?;
+        writeln!(out, "Why:")?;
+        for r in not_within {
+            writeln!(out, "  {} {}:", r.id, r.state)?;
+            for why in &r.reasons {
+                writeln!(out, "    - {why}")?;
+            }
+        }
+    }
+    Ok(())
+}
+
+fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<()> {
+    writeln!(out)?;
+    writeln!(
+        out,
+        "Pairings (runway in use; margin of the limiting check, headroom):"
+    )?;
+    write!(out, "{:<9}", "")?;
+    for a in &ops.airfields {
+        write!(out, " {:<15}", a.id)?;
+    }
+    writeln!(out)?;
+    for (ai, reg) in m.aircraft.iter().enumerate() {
+        write!(out, "{:<9}", ops.aircraft[*reg].registration)?;
+        for fi in 0..ops.airfields.len() {
+            let c = m.cell(ai, fi);
+            let h = c
+                .headroom_c
+                .map_or("—".to_string(), |h| format!("{h:+.0}°"));
+            let margin = if c.score.is_finite() {
+                format!("{:+.0}%", c.margin_percent)
+            } else {
+                String::new()
+            };
+            write!(out, " {} {:<6} {:<6}", c.state.glyph(), margin, h)?;
+        }
+        writeln!(out)?;
+    }
+    Ok(())
+}
+
+/// Runs `rhoboard check`.
+pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
+    let loaded = load(
+        args.ops.as_deref(),
+        &args.obs,
+        args.at.as_deref(),
+        Utc::now(),
+    )?;
+    for w in &loaded.warnings {
+        eprintln!("rhoboard: warning: {w}");
+    }
+    let ops = &loaded.ops;
+    let model = Model::new(ops, &DaySettings::default());
+    let ctx = Context {
+        ops,
+        model: &model,
+        store: &loaded.store,
+        at: loaded.at,
+    };
+    let indices: Vec<usize> = match &args.leg {
+        Some(id) => {
+            let i = ops.legs.iter().position(|l| &l.id == id).ok_or_else(|| {
+                anyhow::anyhow!("--leg '{id}': no such leg in the operator's legs")
+            })?;
+            vec![i]
+        }
+        None => legs_of_day(ops, loaded.at),
+    };
+    let results: Vec<LegResult> = indices
+        .iter()
+        .filter_map(|&i| assess_leg(&ctx, i))
+        .collect();
+    let matrix = args.pairings.then(|| pairing::matrix(&ctx));
+    if args.json {
+        let v = json!({
+            "operator": ops.operator.name,
+            "at": loaded.at,
+            "caution": crate::CAUTION,
+            "legs": results.iter().map(|r| leg_json(ops, r)).collect::<Vec<_>>(),
+            "pairings": matrix.as_ref().map(|m| m.to_json(ops)),
+        });
+        serde_json::to_writer_pretty(&mut *out, &v)?;
+        writeln!(out)?;
+    } else {
+        writeln!(
+            out,
+            "{} — legs of {} assessed as of {} (reports known up to then)",
+            ops.operator.name,
+            loaded.at.format("%Y-%m-%d"),
+            loaded.at.format("%H%MZ")
+        )?;
+        writeln!(out, "{}", crate::CAUTION)?;
+        writeln!(out)?;
+        if results.is_empty() {
+            writeln!(out, "No legs depart on {}.", loaded.at.format("%Y-%m-%d"))?;
+        }
+        write_table(ops, &results, out)?;
+        if let Some(m) = &matrix {
+            write_matrix(ops, m, out)?;
+        }
+    }
+    let all_ok = results.iter().all(|r| r.state.meets_minimums());
+    Ok(if all_ok {
+        Outcome::Success
+    } else {
+        Outcome::Findings
+    })
+}
