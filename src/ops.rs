@@ -24,13 +24,13 @@ pub mod validate;
 use std::collections::HashMap;
 use std::path::Path;
 
-pub use actype::{AircraftType, Performance, PerformanceAt};
+pub use actype::{AircraftType, AircraftTypeFile, Performance, PerformanceAt};
 pub use airfield::{Airfield, RunwayEnd, Surface};
-pub use fleet::{Aircraft, Status};
-pub use legs::Leg;
+pub use fleet::{Aircraft, AircraftFile, Status};
+pub use legs::{Leg, LegsFile};
 pub use load::{Diagnostic, Loaded, OpsFiles, Report, Severity, load_files};
 pub use operator::{Minimums, OperatorFile};
-pub use pilots::{Category, Pilot};
+pub use pilots::{Category, Pilot, PilotsFile};
 pub use tables::{Axis, Cell, Clamped, Grid, OutsideTable, Table};
 
 /// A loaded, checked operator. Lists keep file order; lookups by id are hashed.
@@ -63,7 +63,10 @@ pub struct Ops {
 }
 
 impl Ops {
-    fn new(
+    /// Assembles an operator from already-parsed files, without validation (for
+    /// generated operators, e.g. benchmarks; folders go through [`load_files`]). Each
+    /// type, airfield and legs file comes with the relative path it is named by.
+    pub fn new(
         operator: OperatorFile,
         pilots: pilots::PilotsFile,
         aircraft: fleet::AircraftFile,

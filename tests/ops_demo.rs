@@ -209,3 +209,38 @@ fn every_demo_metar_decodes_cleanly() {
         );
     }
 }
+
+#[test]
+fn a_generated_operator_can_be_assembled_without_files() {
+    // For benchmarks: parse the demo's pieces, multiply the airfields, assemble.
+    use rhoboard::ops::{
+        AircraftFile, AircraftType, Airfield, LegsFile, OperatorFile, Ops, PilotsFile,
+    };
+    let f = demo::files().files;
+    let parse = |p: &str| f[p].clone();
+    let operator: OperatorFile = serde_json::from_str(&parse("operator.json")).unwrap();
+    let pilots: PilotsFile = serde_json::from_str(&parse("pilots.json")).unwrap();
+    let aircraft: AircraftFile = serde_json::from_str(&parse("fleet/aircraft.json")).unwrap();
+    let ty =
+        AircraftType::new(serde_json::from_str(&parse("fleet/types/ft4.json")).unwrap()).unwrap();
+    let field: Airfield = serde_json::from_str(&parse("airfields/XMES.json")).unwrap();
+    let airfields: Vec<(String, Airfield)> = (0..2000)
+        .map(|i| {
+            let mut a = field.clone();
+            a.id = format!("XB{i:04}");
+            (format!("airfields/{}.json", a.id), a)
+        })
+        .collect();
+    let legs: LegsFile = serde_json::from_str(&parse("legs/2026-06-14.json")).unwrap();
+    let ops = Ops::new(
+        operator,
+        pilots,
+        aircraft,
+        vec![("fleet/types/ft4.json".into(), ty)],
+        airfields,
+        vec![("legs/2026-06-14.json".into(), legs)],
+        Vec::new(),
+    );
+    assert_eq!(ops.airfield_position("XB1999"), Some(1999));
+    assert!(ops.aircraft_type("ft4").is_some());
+}
