@@ -129,6 +129,7 @@ const CASES: &[&str] = &[
     "non-positive-distance",
     "observation-rejected",
     "operator-two-categories",
+    "schema-errors-top-and-list",
     "schema-version",
     "slope-signs",
     "table-shape",
@@ -345,6 +346,17 @@ fn operator_two_categories() {
     2 error(s):
       operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
       operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn schema_errors_top_and_list() {
+    insta::assert_snapshot!(validate_case("schema-errors-top-and-list"), @r#"
+    2 error(s):
+      airfields/XBBB.json:5:25: elevation_ft: invalid type: string "1200", expected a number (the unit is in the field name)
+      airfields/XBBB.json:10:127: runway_ends[0].surface: unknown variant `gras`, expected `paved` or `grass`
     Fix the errors above and run `rhoboard validate` again.
     exit 2
     "#);

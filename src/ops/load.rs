@@ -380,18 +380,22 @@ impl<'a> Collector<'a> {
         match serde_json::from_str::<T>(text) {
             Ok(v) => Some(v),
             Err(e) => {
-                let before = self.report.errors.len();
+                // Whole-file error: report it unless it lies inside a list element that
+                // is reported on its own below.
+                let whole_at = line_col_to_offset_in(text, e.line(), e.column());
+                let mut covered = false;
                 if e.classify() == serde_json::error::Category::Data {
                     for (array, parse) in lists {
                         let elems = self.spans(file).elements(array);
                         for (_, start, end) in elems {
                             if let Err(ee) = parse(&text[start..end]) {
+                                covered |= (start..=end).contains(&whole_at);
                                 self.serde_error(file, &ee, start);
                             }
                         }
                     }
                 }
-                if self.report.errors.len() == before {
+                if !covered {
                     self.serde_error(file, &e, 0);
                 }
                 None
