@@ -10,6 +10,9 @@
 #[derive(Debug, Clone, Default)]
 pub struct Spans {
     line_starts: Vec<usize>,
+    /// The text, kept only when it is not all ASCII (columns are then counted in
+    /// characters, which needs it).
+    text: Option<String>,
     nodes: Vec<Node>,
     by_path: std::collections::HashMap<String, usize>,
 }
@@ -171,18 +174,33 @@ impl Spans {
         }
         Spans {
             line_starts,
+            text: (!text.is_ascii()).then(|| text.to_string()),
             nodes: s.nodes,
             by_path,
         }
     }
 
-    /// 1-based line and column (in bytes; the files are expected to be mostly ASCII) of a byte offset.
+    /// 1-based line and column (in characters) of a byte offset.
     pub fn line_col(&self, offset: usize) -> (usize, usize) {
         let line = self.line_starts.partition_point(|&s| s <= offset).max(1);
-        (line, offset - self.line_starts[line - 1] + 1)
+        let start = self.line_starts[line - 1];
+        let column = match &self.text {
+            // Count characters, not bytes, up to the offset (or the nearest boundary before it).
+            Some(t) => {
+                let mut end = offset.min(t.len());
+                while !t.is_char_boundary(end) {
+                    end -= 1;
+                }
+                t.get(start..end)
+                    .map_or(offset - start, |s| s.chars().count())
+                    + 1
+            }
+            None => offset - start + 1,
+        };
+        (line, column)
     }
 
-    /// Byte offset of a 1-based line and column.
+    /// Byte offset of a 1-based line and byte column (as serde_json reports them).
     pub fn offset(&self, line: usize, column: usize) -> usize {
         let start = self
             .line_starts
@@ -267,6 +285,14 @@ mod tests {
         let off = s.offset(4, 17);
         assert_eq!(s.path_at(off), "ends[0].tora_m");
         assert_eq!(s.elements("ends").len(), 2);
+    }
+
+    #[test]
+    fn columns_count_characters() {
+        let text = "{\"name\": \"Fictional — demo\", \"x\": 1}";
+        let s = Spans::new(text);
+        // `1` is the 35th character but the 37th byte (the dash is 3 bytes): column 35.
+        assert_eq!(s.position("x"), (1, 35));
     }
 
     #[test]
