@@ -153,11 +153,13 @@ impl Ops {
 pub fn load_dir(dir: &Path) -> anyhow::Result<Loaded> {
     let (files, problems) = OpsFiles::read_dir(dir)?;
     let mut loaded = load_files(&files);
-    if !problems.is_empty() {
-        let mut errors = problems;
-        errors.append(&mut loaded.report.errors);
-        loaded.report.errors = errors;
+    let (errors, warnings): (Vec<_>, Vec<_>) = problems
+        .into_iter()
+        .partition(|d| d.severity == Severity::Error);
+    if !errors.is_empty() {
         loaded.ops = None;
     }
+    loaded.report.errors.splice(0..0, errors);
+    loaded.report.warnings.splice(0..0, warnings);
     Ok(loaded)
 }

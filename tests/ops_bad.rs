@@ -126,6 +126,7 @@ const CASES: &[&str] = &[
     "maintenance-without-note",
     "missing-field",
     "missing-file",
+    "misspelt-folder",
     "non-positive-distance",
     "observation-rejected",
     "operator-two-categories",
@@ -316,6 +317,16 @@ fn missing_file() {
       pilots.json:1:1: file is missing; every operator folder needs one (`rhoboard init DIR` writes a template)
     Fix the errors above and run `rhoboard validate` again.
     exit 2
+    "#);
+}
+
+#[test]
+fn misspelt_folder() {
+    insta::assert_snapshot!(validate_case("misspelt-folder"), @r#"
+    1 warning(s):
+      airfield:1:1: not part of the operator-folder layout, so not read (expected in the folder: operator.json, pilots.json, fleet, airfields, legs, runway-state, observations, forecasts, signoffs)
+    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    exit 0
     "#);
 }
 

@@ -88,6 +88,54 @@ impl OpsFiles {
         anyhow::ensure!(meta.is_dir(), "{} is not a folder", dir.display());
         let mut files = BTreeMap::new();
         let mut problems = Vec::new();
+        // Anything else at the top level or in fleet/ is not read: say so, since a
+        // misspelt folder (`airfield/`) would otherwise be silently ignored.
+        for (sub, known) in [
+            (
+                "",
+                &[
+                    "operator.json",
+                    "pilots.json",
+                    "fleet",
+                    "airfields",
+                    "legs",
+                    "runway-state",
+                    "observations",
+                    "forecasts",
+                    "signoffs",
+                ][..],
+            ),
+            ("fleet", &["aircraft.json", "types"][..]),
+        ] {
+            let Ok(entries) = std::fs::read_dir(dir.join(sub)) else {
+                continue;
+            };
+            let mut names: Vec<String> = entries
+                .filter_map(|e| e.ok())
+                .map(|e| e.file_name().to_string_lossy().into_owned())
+                .filter(|n| !n.starts_with('.') && !known.contains(&n.as_str()))
+                .collect();
+            names.sort();
+            for n in names {
+                let rel = if sub.is_empty() {
+                    n.clone()
+                } else {
+                    format!("{sub}/{n}")
+                };
+                problems.push(Diagnostic {
+                    severity: Severity::Warning,
+                    file: rel,
+                    path: String::new(),
+                    line: 1,
+                    column: 1,
+                    message: format!(
+                        "not part of the operator-folder layout, so not read (expected in {}: {})",
+                        if sub.is_empty() { "the folder" } else { sub },
+                        known.join(", ")
+                    ),
+                });
+            }
+        }
         let mut read = |rel: String, path: &Path| {
             let problem = |message: String| Diagnostic {
                 severity: Severity::Error,
