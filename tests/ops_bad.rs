@@ -323,9 +323,10 @@ fn missing_file() {
 #[test]
 fn misspelt_folder() {
     insta::assert_snapshot!(validate_case("misspelt-folder"), @r#"
-    1 warning(s):
+    2 warning(s):
       airfield:1:1: not part of the operator-folder layout, so not read (expected in the folder: operator.json, pilots.json, fleet, airfields, legs, runway-state, observations, forecasts, signoffs)
-    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+      airfields/XDDD.JSON:1:1: not read: only .json files are read in this folder
+    No errors (2 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
     exit 0
     "#);
 }

@@ -88,6 +88,7 @@ impl OpsFiles {
         anyhow::ensure!(meta.is_dir(), "{} is not a folder", dir.display());
         let mut files = BTreeMap::new();
         let mut problems = Vec::new();
+        let mut ignored: Vec<(String, &str)> = Vec::new();
         // Anything else at the top level or in fleet/ is not read: say so, since a
         // misspelt folder (`airfield/`) would otherwise be silently ignored.
         for (sub, known) in [
@@ -184,15 +185,27 @@ impl OpsFiles {
             let Ok(entries) = std::fs::read_dir(&d) else {
                 continue;
             };
-            let mut names: Vec<_> = entries
+            let (mut names, other): (Vec<_>, Vec<_>) = entries
                 .filter_map(|e| e.ok())
                 .map(|e| e.file_name().to_string_lossy().into_owned())
-                .filter(|n| n.ends_with(&format!(".{ext}")))
-                .collect();
+                .filter(|n| !n.starts_with('.'))
+                .partition(|n| n.ends_with(&format!(".{ext}")));
             names.sort();
             for n in names {
                 read(format!("{sub}/{n}"), &d.join(&n));
             }
+            ignored.extend(other.into_iter().map(|n| (format!("{sub}/{n}"), ext)));
+        }
+        ignored.sort();
+        for (rel, ext) in ignored {
+            problems.push(Diagnostic {
+                severity: Severity::Warning,
+                file: rel,
+                path: String::new(),
+                line: 1,
+                column: 1,
+                message: format!("not read: only .{ext} files are read in this folder"),
+            });
         }
         Ok((OpsFiles { files }, problems))
     }
