@@ -225,6 +225,9 @@ impl<'a> FieldPrep<'a> {
     }
 }
 
+/// Type, takeoff and landing mass (bits) and category: what a cell depends on.
+type CellKey = (Option<usize>, u64, u64, Category);
+
 /// Per aircraft, computed once per matrix.
 #[derive(Debug, Clone)]
 struct AircraftPrep {
@@ -313,7 +316,7 @@ impl Prepared {
     }
 
     /// What a cell depends on besides the field: equal keys give equal cells.
-    fn key(&self, model: &Model, a: usize, fi: usize) -> (Option<usize>, u64, u64, Category) {
+    fn key(&self, model: &Model, a: usize, fi: usize) -> CellKey {
         let ap = &self.aircraft[a];
         let (tom, lm) = self.masses(model, a, fi).unwrap_or((f64::NAN, f64::NAN));
         (ap.ty, tom.to_bits(), lm.to_bits(), ap.category)
@@ -330,7 +333,7 @@ impl Prepared {
         cells: &mut [PairCell],
     ) {
         let field = FieldPrep::new(ctx, fi);
-        let mut seen: Vec<((Option<usize>, u64, u64, Category), PairCell)> = Vec::new();
+        let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
         for (ai, &a) in aircraft.iter().enumerate() {
             let key = self.key(ctx.model, a, fi);
             let cell = match seen.iter().find(|(k, _)| *k == key) {

@@ -75,7 +75,7 @@ fn designator(heading_mag_deg: f64) -> String {
 pub fn operator(size: Size) -> OpsFiles {
     let demo = super::demo::files();
     let mut files = BTreeMap::new();
-    let mut rng = Rng(0x5EED_0F_0BEE);
+    let mut rng = Rng(0x005E_ED0F_0BEE);
     for name in ["operator.json", "pilots.json"] {
         if let Some(text) = demo.files.get(name) {
             files.insert(name.to_string(), text.clone());
