@@ -43,7 +43,7 @@ fn round(v: &mut Value) {
 fn check_json(at: &str) -> Value {
     let (code, stdout, stderr) = rhoboard(&["check", "--json", "--at", at]);
     assert!(code == 0 || code == 1, "{stderr}");
-    let mut v: Value = serde_json::from_str(&stdout).expect("JSON");
+    let v: Value = serde_json::from_str(&stdout).expect("JSON");
     // Exit status 1 exactly when some leg is below or no-data.
     let bad = v["legs"]
         .as_array()
