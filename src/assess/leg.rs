@@ -598,9 +598,15 @@ fn headroom(plan: &Plan<'_>, expected_high_c: Option<f64>) -> Option<Headroom> {
 
 /// Assesses one leg.
 pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
+    let leg = ctx.ops.legs.get(index)?;
+    Some(assess(ctx, leg, index))
+}
+
+/// Assesses a leg that need not be in the operator's files (a pairing opened to its
+/// chain, a what-if); `index` is carried into the result.
+pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
     let ops = ctx.ops;
     let model = ctx.model;
-    let leg = ops.legs.get(index)?;
     let buffers = &ops.operator.policy.buffers;
     let mut reasons = Vec::new();
     let mut advice = Vec::new();
@@ -637,7 +643,7 @@ pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
         reasons.push(why.clone());
         dep.gaps.push(why);
         dep.state = State::NoData;
-        return Some(LegResult {
+        return LegResult {
             index,
             id: leg.id.clone(),
             category: leg.category,
@@ -650,7 +656,7 @@ pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
             arrival: arr,
             reasons,
             advice,
-        });
+        };
     };
     let perf = &ops.types[ty.index].performance;
     let type_id = ops.types[ty.index].file.id.as_str();
@@ -969,7 +975,7 @@ pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
             h.warmest_oat_c
         ));
     }
-    Some(LegResult {
+    LegResult {
         index,
         id: leg.id.clone(),
         category: leg.category,
@@ -982,7 +988,7 @@ pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
         arrival: arr,
         reasons,
         advice,
-    })
+    }
 }
 
 fn rank(o: &EndOption) -> f64 {

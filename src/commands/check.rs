@@ -203,16 +203,17 @@ fn side_json(s: &Side) -> Value {
 
 /// The JSON form of one leg (README documents the keys).
 pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
-    let leg = &ops.legs[r.index];
+    // A pairing opened to its chain is not one of the operator's legs.
+    let leg = ops.legs.get(r.index);
     json!({
         "id": r.id,
-        "departs_at": leg.departs_utc(),
-        "arrives_at": leg.arrives_utc(),
-        "aircraft": leg.aircraft,
-        "pilot": leg.pilot,
+        "departs_at": r.departure.event_at,
+        "arrives_at": r.arrival.event_at,
+        "aircraft": leg.map(|l| l.aircraft.clone()),
+        "pilot": leg.map(|l| l.pilot.clone()),
         "category": r.category,
-        "from": leg.from,
-        "to": leg.to,
+        "from": r.departure.airfield,
+        "to": r.arrival.airfield,
         "state": r.state,
         "limiting_check": r.limiting.as_ref().map(|l| l.check.clone()),
         "limiting_margin": r.limiting.as_ref().map(|l| l.margin.clone()),
@@ -244,7 +245,9 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
         "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
     )?;
     for r in results {
-        let leg = &ops.legs[r.index];
+        let Some(leg) = ops.legs.get(r.index) else {
+            continue;
+        };
         writeln!(
             out,
             "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  {}",
