@@ -114,15 +114,16 @@ impl LimitCheck {
     }
 }
 
-fn max_check(
+/// A limit on a value with `margin` to spare (in the value's unit).
+fn bounded(
     kind: LimitKind,
     value: f64,
     limit: f64,
+    margin: f64,
     unit: &'static str,
     band: f64,
     source: String,
 ) -> LimitCheck {
-    let margin = limit - value;
     LimitCheck {
         kind,
         value: Some(value),
@@ -137,6 +138,19 @@ fn max_check(
     }
 }
 
+/// A maximum: `value ≤ limit`.
+fn max_check(
+    kind: LimitKind,
+    value: f64,
+    limit: f64,
+    unit: &'static str,
+    band: f64,
+    source: String,
+) -> LimitCheck {
+    bounded(kind, value, limit, limit - value, unit, band, source)
+}
+
+/// A minimum: `value ≥ limit`.
 fn min_check(
     kind: LimitKind,
     value: f64,
@@ -145,19 +159,7 @@ fn min_check(
     band: f64,
     source: String,
 ) -> LimitCheck {
-    let margin = value - limit;
-    LimitCheck {
-        kind,
-        value: Some(value),
-        limit: Some(limit),
-        unit,
-        margin,
-        band,
-        state: verdict(margin, band),
-        source,
-        note: String::new(),
-        open_ended: false,
-    }
+    bounded(kind, value, limit, value - limit, unit, band, source)
 }
 
 fn flag(kind: LimitKind, ok: bool, source: String, note: String) -> LimitCheck {

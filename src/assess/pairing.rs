@@ -457,6 +457,11 @@ struct Outcome {
 }
 
 impl Outcome {
+    /// A limit with `margin` to spare in its unit and a thin `band` in the same unit.
+    fn limit(&mut self, margin: f64, band: f64, what: PairLimit) {
+        self.add(verdict(margin, band), margin / band, margin, what);
+    }
+
     fn add(&mut self, state: State, score: f64, margin_percent: f64, what: PairLimit) {
         if state > self.state || (state == self.state && score < self.score) {
             *self = Outcome {
@@ -532,25 +537,15 @@ fn evaluate(
         Err(_) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
     }
     let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
-    let xm = max_x - w.crosswind_kt;
-    o.add(
-        verdict(xm, b.wind_kt),
-        xm / b.wind_kt,
-        xm,
-        PairLimit::Crosswind,
-    );
-    let tm = mins.max_tailwind_kt - w.tailwind_limit_kt;
-    o.add(
-        verdict(tm, b.wind_kt),
-        tm / b.wind_kt,
-        tm,
+    o.limit(max_x - w.crosswind_kt, b.wind_kt, PairLimit::Crosswind);
+    o.limit(
+        mins.max_tailwind_kt - w.tailwind_limit_kt,
+        b.wind_kt,
         PairLimit::Tailwind,
     );
-    let dm = mins.max_density_altitude_ft - air.density_altitude_ft;
-    o.add(
-        verdict(dm, b.density_altitude_ft),
-        dm / b.density_altitude_ft,
-        dm,
+    o.limit(
+        mins.max_density_altitude_ft - air.density_altitude_ft,
+        b.density_altitude_ft,
         PairLimit::DensityAltitude,
     );
     o
