@@ -40,6 +40,18 @@ pub enum LimitKind {
     Endorsement,
     /// The pilot is limited to named airfields.
     NamedAirfields,
+    /// A loading station's limit.
+    Loading,
+    /// Maximum takeoff mass.
+    TakeoffMass,
+    /// Maximum landing mass.
+    LandingMass,
+    /// Usable fuel capacity.
+    Fuel,
+    /// Fuel reserve at landing.
+    FuelReserve,
+    /// The CG envelope, takeoff to landing.
+    Envelope,
 }
 
 impl LimitKind {
@@ -58,6 +70,12 @@ impl LimitKind {
             LimitKind::Daylight => "daylight",
             LimitKind::Endorsement => "endorsement",
             LimitKind::NamedAirfields => "named airfields",
+            LimitKind::Loading => "station load",
+            LimitKind::TakeoffMass => "takeoff mass",
+            LimitKind::LandingMass => "landing mass",
+            LimitKind::Fuel => "fuel capacity",
+            LimitKind::FuelReserve => "fuel reserve",
+            LimitKind::Envelope => "CG envelope",
         }
     }
 }
