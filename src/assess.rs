@@ -6,6 +6,7 @@
 //! runway in use, state ([`state`]), headroom and advice ([`leg`]).
 
 pub mod day;
+pub mod headroom;
 pub mod leg;
 pub mod limits;
 pub mod model;

@@ -18,19 +18,20 @@ pub mod load;
 pub mod operator;
 pub mod pilots;
 pub mod spans;
+pub mod synthetic;
 pub mod tables;
 pub mod validate;
 
 use std::collections::HashMap;
 use std::path::Path;
 
-pub use actype::{AircraftType, Performance, PerformanceAt};
+pub use actype::{AircraftType, AircraftTypeFile, Performance, PerformanceAt};
 pub use airfield::{Airfield, RunwayEnd, Surface};
-pub use fleet::{Aircraft, Status};
-pub use legs::Leg;
+pub use fleet::{Aircraft, AircraftFile, Status};
+pub use legs::{Leg, LegsFile};
 pub use load::{Diagnostic, Loaded, OpsFiles, Report, Severity, load_files};
 pub use operator::{Minimums, OperatorFile};
-pub use pilots::{Category, Pilot};
+pub use pilots::{Category, Pilot, PilotsFile};
 pub use tables::{Axis, Cell, Clamped, Grid, OutsideTable, Table};
 
 /// A loaded, checked operator. Lists keep file order; lookups by id are hashed.
@@ -63,7 +64,10 @@ pub struct Ops {
 }
 
 impl Ops {
-    fn new(
+    /// Assembles an operator from already-parsed files, without validation (for
+    /// generated operators, e.g. benchmarks; folders go through [`load_files`]). Each
+    /// type, airfield and legs file comes with the relative path it is named by.
+    pub fn new(
         operator: OperatorFile,
         pilots: pilots::PilotsFile,
         aircraft: fleet::AircraftFile,
@@ -150,11 +154,13 @@ impl Ops {
 pub fn load_dir(dir: &Path) -> anyhow::Result<Loaded> {
     let (files, problems) = OpsFiles::read_dir(dir)?;
     let mut loaded = load_files(&files);
-    if !problems.is_empty() {
-        let mut errors = problems;
-        errors.append(&mut loaded.report.errors);
-        loaded.report.errors = errors;
+    let (errors, warnings): (Vec<_>, Vec<_>) = problems
+        .into_iter()
+        .partition(|d| d.severity == Severity::Error);
+    if !errors.is_empty() {
         loaded.ops = None;
     }
+    loaded.report.errors.splice(0..0, errors);
+    loaded.report.warnings.splice(0..0, warnings);
     Ok(loaded)
 }

@@ -42,6 +42,7 @@ fn validate_case(name: &str) -> String {
     let outcome = run(
         &Args {
             ops: Some(dir.clone()),
+            json: false,
         },
         &mut out,
     )
@@ -74,6 +75,39 @@ fn every_case_folder_has_a_test() {
     cases.sort();
     assert_eq!(cases, CASES);
 }
+#[test]
+fn json_report_for_scripts() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/bad-ops");
+    let dir = std::env::temp_dir().join(format!("rhoboard-bad-json-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    copy_tree(&root.join("_base"), &dir);
+    copy_tree(&root.join("tora-toda-asda"), &dir);
+    let mut out = Vec::new();
+    let outcome = run(
+        &Args {
+            ops: Some(dir.clone()),
+            json: true,
+        },
+        &mut out,
+    )
+    .unwrap();
+    std::fs::remove_dir_all(&dir).unwrap();
+    assert_eq!(outcome.code(), 2);
+    let v: serde_json::Value = serde_json::from_slice(&out).unwrap();
+    assert_eq!(v["ok"], false);
+    insta::assert_snapshot!(serde_json::to_string_pretty(&v["errors"][0]).unwrap(), @r#"
+    {
+      "column": 75,
+      "file": "airfields/XAAA.json",
+      "line": 10,
+      "message": "TODA 850 m is shorter than TORA 900 m; TODA is TORA plus any clearway",
+      "path": "runway_ends[0].toda_m",
+      "severity": "error"
+    }
+    "#);
+}
+
 const CASES: &[&str] = &[
     "axes-not-increasing",
     "climb-increases",
@@ -84,6 +118,7 @@ const CASES: &[&str] = &[
     "irregular-ok",
     "json-syntax",
     "leg-arrives-first",
+    "leg-loads",
     "leg-maintenance",
     "leg-overlap-and-position",
     "leg-unknown-refs",
@@ -91,7 +126,11 @@ const CASES: &[&str] = &[
     "maintenance-without-note",
     "missing-field",
     "missing-file",
+    "misspelt-folder",
     "non-positive-distance",
+    "observation-rejected",
+    "operator-two-categories",
+    "schema-errors-top-and-list",
     "schema-version",
     "slope-signs",
     "table-shape",
@@ -197,6 +236,17 @@ fn leg_arrives_first() {
 }
 
 #[test]
+fn leg_loads() {
+    insta::assert_snapshot!(validate_case("leg-loads"), @r#"
+    2 error(s):
+      legs/2026-06-14.json:7:41: legs[0].loads.stations[0].station: type tiny has no loading station 'front_seats' (it has: seats, baggage)
+      legs/2026-06-14.json:7:92: legs[0].loads.fuel_at_start_l: 100 L of fuel is more than the usable capacity 90 L
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
 fn leg_maintenance() {
     insta::assert_snapshot!(validate_case("leg-maintenance"), @r#"
     1 error(s):
@@ -271,11 +321,54 @@ fn missing_file() {
 }
 
 #[test]
+fn misspelt_folder() {
+    insta::assert_snapshot!(validate_case("misspelt-folder"), @r#"
+    2 warning(s):
+      airfield:1:1: not part of the operator-folder layout, so not read (expected in the folder: operator.json, pilots.json, fleet, airfields, legs, runway-state, observations, forecasts, signoffs)
+      airfields/XDDD.JSON:1:1: not read: only .json files are read in this folder
+    No errors (2 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    exit 0
+    "#);
+}
+
+#[test]
 fn non_positive_distance() {
     insta::assert_snapshot!(validate_case("non-positive-distance"), @r#"
     2 error(s):
       fleet/types/tiny.json:17:29: performance.landing.distance_50ft_m[0][0][0]: distance 0 m must be positive
       fleet/types/tiny.json:18:27: performance.landing.ground_roll_m[0][0][0]: ground roll 140 m is longer than the 50 ft distance 0 m at the same point; one of them is mistyped
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn observation_rejected() {
+    insta::assert_snapshot!(validate_case("observation-rejected"), @r#"
+    1 warning(s):
+      observations/2026-06-14.txt:3:1: report not usable: observation XAAA 140900Z: temperature/dew point group missing (expected e.g. 15/08)
+    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    exit 0
+    "#);
+}
+
+#[test]
+fn operator_two_categories() {
+    insta::assert_snapshot!(validate_case("operator-two-categories"), @r#"
+    2 error(s):
+      operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
+      operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    "#);
+}
+
+#[test]
+fn schema_errors_top_and_list() {
+    insta::assert_snapshot!(validate_case("schema-errors-top-and-list"), @r#"
+    2 error(s):
+      airfields/XBBB.json:5:25: elevation_ft: invalid type: string "1200", expected a number (the unit is in the field name)
+      airfields/XBBB.json:10:127: runway_ends[0].surface: unknown variant `gras`, expected `paved` or `grass`
     Fix the errors above and run `rhoboard validate` again.
     exit 2
     "#);
@@ -348,7 +441,7 @@ fn tora_toda_asda() {
 fn unknown_fields() {
     insta::assert_snapshot!(validate_case("unknown-fields"), @r#"
     2 error(s):
-      airfields/XAAA.json:10:56: runway_ends[0]: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
+      airfields/XAAA.json:10:50: runway_ends[0].tora: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
       airfields/XAAA.json:11:130: runway_ends[1].surface: unknown variant `asphalt`, expected `paved` or `grass`
     Fix the errors above and run `rhoboard validate` again.
     exit 2

@@ -135,9 +135,11 @@ fn init_template_validates_with_only_replace_warnings() {
     insta::assert_snapshot!(loaded.report.warnings[0].to_string(), @"airfields/XBRK.json:3:25: replace_before_use: this file is still the fictional template from `rhoboard init`: replace its values with your own, then delete `replace_before_use`");
     // A second init into the same, now non-empty, folder refuses.
     let mut out = Vec::new();
-    assert_eq!(
-        rhoboard::commands::init::run(&args, &mut out).unwrap(),
-        rhoboard::commands::Outcome::BadInput
+    let err = rhoboard::commands::init::run(&args, &mut out).unwrap_err();
+    assert!(
+        err.to_string()
+            .ends_with("exists and is not empty; choose a new folder (nothing was written)"),
+        "{err}"
     );
     std::fs::remove_dir_all(&dir).unwrap();
 }
@@ -150,6 +152,7 @@ fn validate_command_on_the_demo_says_all_is_well() {
     let mut out = Vec::new();
     let args = rhoboard::commands::validate::Args {
         ops: Some(dir.clone()),
+        json: false,
     };
     let outcome = rhoboard::commands::validate::run(&args, &mut out).unwrap();
     assert_eq!(outcome, rhoboard::commands::Outcome::Success);
@@ -176,4 +179,68 @@ fn observations_cover_every_demo_airfield_hourly() {
     }
     assert!(text.lines().any(|l| l.contains("G28KT")), "one gusty hour");
     let _ = OpsFiles::default();
+}
+
+#[test]
+fn every_demo_metar_decodes_cleanly() {
+    use chrono::{TimeZone, Utc};
+    let ops = demo::load().ops.unwrap();
+    let reference = Utc.with_ymd_and_hms(2026, 6, 14, 18, 0, 0).unwrap();
+    let reports = rhoboard::observation::file::decode_all(&ops.observations[0].1, reference);
+    assert_eq!(reports.len(), 103);
+    for r in &reports {
+        let rep = &r.report;
+        assert!(
+            rep.usable_for_performance(),
+            "line {}: {:?}",
+            r.line,
+            rep.error_lines()
+        );
+        assert!(
+            rep.not_understood.is_empty(),
+            "line {}: {:?}",
+            r.line,
+            rep.not_understood
+        );
+        assert!(ops.airfield(&rep.station).is_some(), "{}", rep.station);
+        assert_eq!(
+            rep.observed_at.unwrap().date_naive().to_string(),
+            demo::DATE
+        );
+    }
+}
+
+#[test]
+fn a_generated_operator_can_be_assembled_without_files() {
+    // For benchmarks: parse the demo's pieces, multiply the airfields, assemble.
+    use rhoboard::ops::{
+        AircraftFile, AircraftType, Airfield, LegsFile, OperatorFile, Ops, PilotsFile,
+    };
+    let f = demo::files().files;
+    let parse = |p: &str| f[p].clone();
+    let operator: OperatorFile = serde_json::from_str(&parse("operator.json")).unwrap();
+    let pilots: PilotsFile = serde_json::from_str(&parse("pilots.json")).unwrap();
+    let aircraft: AircraftFile = serde_json::from_str(&parse("fleet/aircraft.json")).unwrap();
+    let ty =
+        AircraftType::new(serde_json::from_str(&parse("fleet/types/ft4.json")).unwrap()).unwrap();
+    let field: Airfield = serde_json::from_str(&parse("airfields/XMES.json")).unwrap();
+    let airfields: Vec<(String, Airfield)> = (0..2000)
+        .map(|i| {
+            let mut a = field.clone();
+            a.id = format!("XB{i:04}");
+            (format!("airfields/{}.json", a.id), a)
+        })
+        .collect();
+    let legs: LegsFile = serde_json::from_str(&parse("legs/2026-06-14.json")).unwrap();
+    let ops = Ops::new(
+        operator,
+        pilots,
+        aircraft,
+        vec![("fleet/types/ft4.json".into(), ty)],
+        airfields,
+        vec![("legs/2026-06-14.json".into(), legs)],
+        Vec::new(),
+    );
+    assert_eq!(ops.airfield_position("XB1999"), Some(1999));
+    assert!(ops.aircraft_type("ft4").is_some());
 }

@@ -140,12 +140,13 @@ fn distance_grows_roughly_10_to_15_percent_per_1000_ft_of_density_altitude() {
 }
 
 #[test]
-fn ten_percent_more_mass_adds_about_a_fifth_to_the_takeoff_ground_roll() {
-    // PHAK (FAA-H-8083-25), ch. 11: a 10 % increase in takeoff weight gives about a 5 %
-    // higher lift-off speed and at least a 9 % slower acceleration — about 21 % more
-    // takeoff distance (the W² of the textbook formula). The model's thrust falls a
-    // little with the higher lift-off speed, so it gives somewhat more (about 25–26 %);
-    // tolerance 16–27 % on the ground roll at sea level, ISA.
+fn ten_percent_more_mass_adds_at_least_a_fifth_to_the_takeoff_ground_roll() {
+    // PHAK (FAA-H-8083-25), ch. 11 (from memory): a 10 % increase in takeoff weight gives
+    // a 5 % higher lift-off speed, at least a 9 % slower acceleration and at least a 21 %
+    // longer takeoff distance (the W² of the textbook formula is the lower bound; the
+    // model's thrust also falls with the higher lift-off speed, so it gives about 25 %).
+    // Checked on the ground roll at sea level, ISA: 20–30 % (1 point below 21 for the
+    // 5 m rounding of the printed tables).
     for id in ["ft2", "ft4", "ft6"] {
         let p = performance(id);
         let g = &p.grid;
@@ -158,7 +159,7 @@ fn ten_percent_more_mass_adds_about_a_fifth_to_the_takeoff_ground_roll() {
         let exponent = r.ln() / (m2 / m1).ln();
         let ten = 1.1f64.powf(exponent) - 1.0;
         assert!(
-            (0.16..=0.27).contains(&ten),
+            (0.20..=0.30).contains(&ten),
             "{id}: +10 % mass → +{:.1} %",
             ten * 100.0
         );

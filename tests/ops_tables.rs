@@ -173,3 +173,40 @@ fn single_point_axis_accepts_only_its_value() {
     assert!((t.at(&g.locate(750.0, 500.0, 5.0).unwrap()) - 2.5).abs() < 1e-12);
     assert!(g.locate(700.0, 500.0, 5.0).is_err());
 }
+
+mod properties {
+    use proptest::prelude::*;
+    use rhoboard::ops::demo;
+
+    proptest! {
+        #![proptest_config(ProptestConfig { cases: 256, .. ProptestConfig::default() })]
+
+        /// On the demo's (validated, monotonic) tables: hotter, higher or heavier never
+        /// shortens a distance or improves the climb, and every value lies between the
+        /// table's extremes.
+        #[test]
+        fn interpolation_keeps_the_tables_order(
+            ty in 0usize..3, m in 0.0f64..1.0, pa in 0.0f64..1.0, t in 0.0f64..1.0, d in 0.0f64..0.2, axis in 0usize..3,
+        ) {
+            let ops = demo::load().ops.unwrap();
+            let p = &ops.types[ty].performance;
+            let g = &p.grid;
+            let span = |v: &[f64], f: f64| v[0] + f * (v[v.len() - 1] - v[0]);
+            let (m0, pa0, t0) = (span(g.mass_kg(), m), span(g.pressure_altitude_ft(), pa), span(g.oat_c(), t));
+            let mut x = [m, pa, t];
+            x[axis] = (x[axis] + d).min(1.0);
+            let (m1, pa1, t1) = (span(g.mass_kg(), x[0]), span(g.pressure_altitude_ft(), x[1]), span(g.oat_c(), x[2]));
+            let a = p.at(&p.locate(m0, pa0, t0).unwrap());
+            let b = p.at(&p.locate(m1, pa1, t1).unwrap());
+            let eps = 1e-9;
+            prop_assert!(b.takeoff_ground_roll_m >= a.takeoff_ground_roll_m - eps);
+            prop_assert!(b.takeoff_distance_50ft_m >= a.takeoff_distance_50ft_m - eps);
+            prop_assert!(b.landing_distance_50ft_m >= a.landing_distance_50ft_m - eps);
+            prop_assert!(b.landing_ground_roll_m >= a.landing_ground_roll_m - eps);
+            prop_assert!(b.climb_rate_fpm <= a.climb_rate_fpm + eps);
+            let v = p.takeoff_distance_50ft_m.values();
+            let (lo, hi) = v.iter().fold((f64::MAX, f64::MIN), |(l, h), &x| (l.min(x), h.max(x)));
+            prop_assert!(a.takeoff_distance_50ft_m >= lo - eps && a.takeoff_distance_50ft_m <= hi + eps);
+        }
+    }
+}

@@ -527,53 +527,40 @@ struct Plan<'a> {
     arr: Option<(FieldWx, &'a EndModel, EndWind)>,
     max_da_dep: f64,
     max_da_arr: f64,
-}
-
-/// The temperature-dependent part of a leg at a uniform warming `dt_c`.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-enum TempOutcome {
-    Fine,
-    Below,
-    Outside,
+    da_band: f64,
 }
 
 impl Plan<'_> {
-    fn at_warming(&self, dt_c: f64) -> TempOutcome {
-        let mins = self.setup.mins;
+    /// The smallest margin ÷ buffer of the temperature-dependent checks at a uniform
+    /// warming of `dt_c` (see [`super::headroom`]); `None` outside the tables.
+    fn score_at(&self, dt_c: f64) -> Option<f64> {
+        let s = &self.setup;
+        let mut score = f64::INFINITY;
         if let Some((wx, end, w)) = &self.dep {
             let air = wx.air.with_oat(wx.air.oat_c + dt_c);
-            match departure_chains(&self.setup, end, &air, w.headwind_kt) {
-                Err(_) => return TempOutcome::Outside,
-                Ok((chain, climb)) => {
-                    if perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0) < 0.0
-                        || climb.margin() < 0.0
-                        || air.density_altitude_ft > self.max_da_dep
-                    {
-                        return TempOutcome::Below;
-                    }
-                }
-            }
+            let (chain, climb) = departure_chains(s, end, &air, w.headwind_kt).ok()?;
+            score = score
+                .min(perf::min_margin(&chain, end, &s.mins.takeoff_checks, 1.0) / s.distance_buffer)
+                .min(climb.margin() / s.climb_buffer)
+                .min((self.max_da_dep - air.density_altitude_ft) / self.da_band);
         }
         if let Some((wx, end, w)) = &self.arr {
             let air = wx.air.with_oat(wx.air.oat_c + dt_c);
-            match landing_chain(&self.setup, end, &air, w.headwind_kt) {
-                Err(_) => return TempOutcome::Outside,
-                Ok(chain) => {
-                    let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
-                    if perf::min_margin(&chain, end, &mins.landing_checks, extra) < 0.0
-                        || air.density_altitude_ft > self.max_da_arr
-                    {
-                        return TempOutcome::Below;
-                    }
-                }
-            }
+            let chain = landing_chain(s, end, &air, w.headwind_kt).ok()?;
+            let extra = perf::landing_extra_factor(&chain, s.mins.wet_paved_landing_factor);
+            score = score
+                .min(
+                    perf::min_margin(&chain, end, &s.mins.landing_checks, extra)
+                        / s.distance_buffer,
+                )
+                .min((self.max_da_arr - air.density_altitude_ft) / self.da_band);
         }
-        TempOutcome::Fine
+        Some(score)
     }
 }
 
-/// Headroom by bisection to 0.1 °C on a uniform warming of both ends, station pressure
-/// held and dew points capped at the new temperature.
+/// Headroom to 0.1 °C on a uniform warming of both ends, station pressure held and dew
+/// points capped at the new temperature.
 fn headroom(plan: &Plan<'_>, expected_high_c: Option<f64>) -> Option<Headroom> {
     let dep_oat = plan.dep.as_ref().map(|(wx, ..)| wx.air.oat_c);
     let oats = [dep_oat, plan.arr.as_ref().map(|(wx, ..)| wx.air.oat_c)];
@@ -589,45 +576,8 @@ fn headroom(plan: &Plan<'_>, expected_high_c: Option<f64>) -> Option<Headroom> {
     // How far the tables reach from here.
     let up = plan.setup.ty.oat_top_c - max_oat;
     let down = plan.setup.ty.oat_bottom_c - min_oat;
-    let now = plan.at_warming(0.0);
-    let (warming, table_ends) = match now {
-        TempOutcome::Outside => return None,
-        TempOutcome::Fine => {
-            if up <= 0.0 || plan.at_warming(up) == TempOutcome::Fine {
-                (up.max(0.0), true)
-            } else {
-                // fine at lo, not fine at hi
-                let (mut lo, mut hi) = (0.0, up);
-                while hi - lo > 0.05 {
-                    let mid = 0.5 * (lo + hi);
-                    if plan.at_warming(mid) == TempOutcome::Fine {
-                        lo = mid;
-                    } else {
-                        hi = mid;
-                    }
-                }
-                (lo, false)
-            }
-        }
-        TempOutcome::Below => {
-            // Cooling needed: not fine at 0, find the warmest fine point below.
-            if down >= 0.0 || plan.at_warming(down) != TempOutcome::Fine {
-                (down.min(0.0), true)
-            } else {
-                let (mut lo, mut hi) = (down, 0.0);
-                while hi - lo > 0.05 {
-                    let mid = 0.5 * (lo + hi);
-                    if plan.at_warming(mid) == TempOutcome::Fine {
-                        lo = mid;
-                    } else {
-                        hi = mid;
-                    }
-                }
-                (lo, false)
-            }
-        }
-    };
-    let warming_c = (warming * 10.0).floor() / 10.0;
+    let found = super::headroom::search(|dt| plan.score_at(dt), up, down)?;
+    let (warming_c, table_ends) = (found.warming_c, found.table_ends);
     let warmest = dep_oat.unwrap_or(min_oat) + warming_c;
     Some(Headroom {
         warming_c,
@@ -758,6 +708,7 @@ pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
         arr: None,
         max_da_dep: f64::INFINITY,
         max_da_arr: f64::INFINITY,
+        da_band: buffers.density_altitude_ft.max(1.0),
     };
     let mut temperature_independent_below = false;
 
@@ -910,7 +861,7 @@ pub fn assess_leg(ctx: &Context<'_>, index: usize) -> Option<LegResult> {
             &who,
             report,
             wx.air.density_altitude_ft,
-            side_in.field,
+            &limits::sun(side_in.field, side_in.event_at),
             side_in.event_at,
             side_in.departure,
             &mut lim,

@@ -6,7 +6,7 @@ use chrono::{DateTime, Duration, Utc};
 use serde::Serialize;
 
 use super::state::{State, verdict};
-use crate::daylight::{self, Event};
+use crate::daylight::{self, Daylight, Event};
 use crate::observation::{Ceiling, Report};
 use crate::ops::operator::{Buffers, Hazard, Minimums, Regime};
 use crate::ops::{Airfield, Category, Pilot};
@@ -234,10 +234,13 @@ fn source_of(who: &Who<'_>, field: &str) -> String {
     }
 }
 
-/// Is `at` in daylight at the airfield (between sunrise and sunset)? `None` in polar
-/// conditions is decided by the polar state.
-pub fn is_day(field: &Airfield, at: DateTime<Utc>) -> bool {
-    let d = daylight::daylight(at.date_naive(), field.latitude_deg, field.longitude_deg);
+/// The day's light at an airfield on the date of `at`.
+pub fn sun(field: &Airfield, at: DateTime<Utc>) -> Daylight {
+    daylight::daylight(at.date_naive(), field.latitude_deg, field.longitude_deg)
+}
+
+/// Is `at` between sunrise and sunset? Polar day counts as day, polar night as night.
+pub fn is_day(d: &Daylight, at: DateTime<Utc>) -> bool {
     match (d.sunrise, d.sunset) {
         (Event::At(rise), Event::At(set)) => at >= rise && at <= set,
         (Event::AlwaysAbove, _) | (_, Event::AlwaysAbove) => true,
@@ -246,11 +249,12 @@ pub fn is_day(field: &Airfield, at: DateTime<Utc>) -> bool {
 }
 
 /// The field-level limits at one end of a leg (everything but the runway components).
+/// `sun` is the field's daylight on the event's date ([`sun`]).
 pub fn field_limits(
     who: &Who<'_>,
     report: &Report,
     density_altitude_ft: f64,
-    field: &Airfield,
+    sun: &Daylight,
     event_at: DateTime<Utc>,
     departure: bool,
     out: &mut Vec<LimitCheck>,
@@ -283,7 +287,7 @@ pub fn field_limits(
         ),
     });
     // Visibility, with the regulatory floor under the operator's value.
-    let day = is_day(field, event_at);
+    let day = is_day(sun, event_at);
     let (mut min_vis, mut src) = tighter(
         m.min_visibility_m,
         source_of(who, "min_visibility_m"),
@@ -410,11 +414,7 @@ pub fn field_limits(
     }
     // Daylight.
     if m.daylight_only {
-        let d = daylight::daylight(
-            event_at.date_naive(),
-            field.latitude_deg,
-            field.longitude_deg,
-        );
+        let d = sun;
         let (edge, ok, what) = if departure {
             match d.sunrise {
                 Event::At(t) => (Some(t), event_at >= t, "departs before sunrise"),

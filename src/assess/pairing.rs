@@ -13,7 +13,7 @@ use super::leg::{
     Context, EndWind, FieldWx, Setup, departure_chains, landing_chain, observation_for,
 };
 use super::limits::{self, Who};
-use super::model::{EndModel, TypeModel};
+use super::model::{EndModel, Model};
 use super::perf;
 use super::state::{State, verdict};
 use crate::ops::operator::Buffers;
@@ -85,6 +85,8 @@ pub struct Matrix {
     pub fields: usize,
     /// Cells, `aircraft × fields`.
     pub cells: Vec<PairCell>,
+    /// Per-aircraft data kept for column updates.
+    prep: Prepared,
 }
 
 impl Matrix {
@@ -117,10 +119,9 @@ impl Matrix {
 
     /// Recomputes one airfield's column (after a new report for it).
     pub fn update_field(&mut self, ctx: &Context<'_>, fi: usize) {
-        let prep = Prepared::new(ctx);
-        let field = FieldPrep::new(ctx, fi);
-        for (ai, &a) in self.aircraft.iter().enumerate() {
-            self.cells[ai * self.fields + fi] = prep.pair(ctx, &field, a);
+        if fi < self.fields {
+            self.prep
+                .fill_column(ctx, &self.aircraft, self.fields, fi, &mut self.cells);
         }
     }
 }
@@ -177,6 +178,7 @@ impl<'a> FieldPrep<'a> {
         });
         let mut weather = [(State::NoData, f64::NAN); 4];
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
+            let sun = limits::sun(field, ctx.at);
             for c in Category::ALL {
                 let Some(mins) = ops.minimums(c) else {
                     continue;
@@ -193,7 +195,7 @@ impl<'a> FieldPrep<'a> {
                     &who,
                     report,
                     wx.air.density_altitude_ft,
-                    field,
+                    &sun,
                     ctx.at,
                     true,
                     &mut lim,
@@ -223,7 +225,11 @@ impl<'a> FieldPrep<'a> {
     }
 }
 
+/// Type, takeoff and landing mass (bits) and category: what a cell depends on.
+type CellKey = (Option<usize>, u64, u64, Category);
+
 /// Per aircraft, computed once per matrix.
+#[derive(Debug, Clone)]
 struct AircraftPrep {
     ty: Option<usize>,
     category: Category,
@@ -233,6 +239,7 @@ struct AircraftPrep {
     legs_to: Vec<(usize, f64)>,
 }
 
+#[derive(Debug, Clone)]
 struct Prepared {
     aircraft: Vec<AircraftPrep>,
     dist_buf: f64,
@@ -244,44 +251,100 @@ impl Prepared {
         let ops = ctx.ops;
         let model = ctx.model;
         let day = ctx.at.date_naive();
-        let aircraft =
-            ops.aircraft
-                .iter()
-                .enumerate()
-                .map(|(i, a)| {
-                    let mut cats: Vec<Category> = Vec::new();
-                    let mut legs_from = Vec::new();
-                    let mut legs_to = Vec::new();
-                    for leg in ops.legs.iter().filter(|l| {
-                        l.aircraft == a.registration && l.departs_utc().date_naive() == day
-                    }) {
-                        cats.push(leg.category);
-                        let (tom, lm) = super::leg::leg_masses(ops, leg);
-                        if let (Some(fi), Some(m)) = (ops.airfield_position(&leg.from), tom) {
-                            legs_from.push((fi, m));
-                        }
-                        if let (Some(fi), Some(m)) = (ops.airfield_position(&leg.to), lm) {
-                            legs_to.push((fi, m));
-                        }
-                    }
-                    let category = Category::ALL
-                        .into_iter()
-                        .find(|c| cats.contains(c))
-                        .or(model.strictest)
-                        .unwrap_or(Category::StudentSolo);
-                    AircraftPrep {
-                        ty: model.aircraft_type.get(i).copied().flatten(),
-                        category,
-                        legs_from,
-                        legs_to,
-                    }
-                })
-                .collect();
+        let mut aircraft: Vec<AircraftPrep> = (0..ops.aircraft.len())
+            .map(|i| AircraftPrep {
+                ty: model.aircraft_type.get(i).copied().flatten(),
+                category: model.strictest.unwrap_or(Category::StudentSolo),
+                legs_from: Vec::new(),
+                legs_to: Vec::new(),
+            })
+            .collect();
+        let position: std::collections::HashMap<&str, usize> = ops
+            .aircraft
+            .iter()
+            .enumerate()
+            .map(|(i, a)| (a.registration.as_str(), i))
+            .collect();
+        let mut cats: Vec<Vec<Category>> = vec![Vec::new(); ops.aircraft.len()];
+        for leg in ops
+            .legs
+            .iter()
+            .filter(|l| l.departs_utc().date_naive() == day)
+        {
+            let Some(&i) = position.get(leg.aircraft.as_str()) else {
+                continue;
+            };
+            cats[i].push(leg.category);
+            let (tom, lm) = super::leg::leg_masses(ops, leg);
+            if let (Some(fi), Some(m)) = (ops.airfield_position(&leg.from), tom) {
+                aircraft[i].legs_from.push((fi, m));
+            }
+            if let (Some(fi), Some(m)) = (ops.airfield_position(&leg.to), lm) {
+                aircraft[i].legs_to.push((fi, m));
+            }
+        }
+        for (ap, cats) in aircraft.iter_mut().zip(cats) {
+            // The strictest category the aircraft flies today, else the operator's.
+            if let Some(c) = Category::ALL.into_iter().find(|c| cats.contains(c)) {
+                ap.category = c;
+            }
+        }
         let b: &Buffers = &ops.operator.policy.buffers;
         Prepared {
             aircraft,
             dist_buf: b.distance_percent / 100.0,
             climb_buf: b.climb_percent / 100.0,
+        }
+    }
+
+    /// Takeoff and landing mass of aircraft `a` at field `fi`: its leg's where it has
+    /// one there, else the maximum takeoff mass (landing: held to the maximum landing mass).
+    fn masses(&self, model: &Model, a: usize, fi: usize) -> Option<(f64, f64)> {
+        let ap = &self.aircraft[a];
+        let ty = model.types.get(ap.ty?)?;
+        let tom = ap
+            .legs_from
+            .iter()
+            .find(|(f, _)| *f == fi)
+            .map_or(ty.max_takeoff_mass_kg, |&(_, m)| m);
+        let lm = ap
+            .legs_to
+            .iter()
+            .find(|(f, _)| *f == fi)
+            .map_or(tom.min(ty.max_landing_mass_kg), |&(_, m)| m);
+        Some((tom, lm))
+    }
+
+    /// What a cell depends on besides the field: equal keys give equal cells.
+    fn key(&self, model: &Model, a: usize, fi: usize) -> CellKey {
+        let ap = &self.aircraft[a];
+        let (tom, lm) = self.masses(model, a, fi).unwrap_or((f64::NAN, f64::NAN));
+        (ap.ty, tom.to_bits(), lm.to_bits(), ap.category)
+    }
+
+    /// Fills field `fi`'s column; aircraft alike in type, masses and category share
+    /// one computation.
+    fn fill_column(
+        &self,
+        ctx: &Context<'_>,
+        aircraft: &[usize],
+        fields: usize,
+        fi: usize,
+        cells: &mut [PairCell],
+    ) {
+        let field = FieldPrep::new(ctx, fi);
+        let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
+        for (ai, &a) in aircraft.iter().enumerate() {
+            let key = self.key(ctx.model, a, fi);
+            let cell = match seen.iter().find(|(k, _)| *k == key) {
+                Some((_, c)) => *c,
+                None => {
+                    let c = self.pair(ctx, &field, a);
+                    seen.push((key, c));
+                    c
+                }
+            };
+            cells[ai * fields + fi] = cell;
         }
     }
 
@@ -300,17 +363,9 @@ impl Prepared {
         };
         let ty = &model.types[t];
         let perf = &ops.types[t].performance;
-        let fi = field.index;
-        let tom = ap
-            .legs_from
-            .iter()
-            .find(|(f, _)| *f == fi)
-            .map_or(ty.max_takeoff_mass_kg, |&(_, m)| m);
-        let lm = ap
-            .legs_to
-            .iter()
-            .find(|(f, _)| *f == fi)
-            .map_or(tom.min(ty.max_landing_mass_kg), |&(_, m)| m);
+        let Some((tom, lm)) = self.masses(model, a, field.index) else {
+            return PairCell::NO_DATA;
+        };
         let b = &ops.operator.policy.buffers;
         let setup = Setup {
             model,
@@ -341,15 +396,15 @@ impl Prepared {
             limiting = PairLimit::Weather;
             margin = f64::NAN;
         }
+        // Wind limits do not change with temperature: the search judges only the rest.
         let headroom_c = match now.state {
             State::NoData => None,
-            _ => Some(headroom(
-                &eval,
-                in_use,
-                now.temperature_fine,
-                wx.air.oat_c,
-                ty,
-            )),
+            _ => super::headroom::search(
+                |dt| eval(in_use, dt).temperature_score,
+                ty.oat_top_c - wx.air.oat_c,
+                ty.oat_bottom_c - wx.air.oat_c,
+            )
+            .map(|f| f.warming_c),
         };
         PairCell {
             state,
@@ -369,9 +424,9 @@ struct Outcome {
     score: f64,
     margin_percent: f64,
     limiting: PairLimit,
-    /// Every temperature-dependent check (distances, climb, density altitude) passes
-    /// and the tables cover the point.
-    temperature_fine: bool,
+    /// The smallest margin ÷ buffer of the temperature-dependent checks (distances,
+    /// climb, density altitude); `None` when the tables do not cover the point.
+    temperature_score: Option<f64>,
 }
 
 impl Outcome {
@@ -382,13 +437,14 @@ impl Outcome {
                 score,
                 margin_percent,
                 limiting: what,
-                temperature_fine: self.temperature_fine,
+                temperature_score: self.temperature_score,
             };
         }
-        if matches!(state, State::Below | State::NoData)
-            && !matches!(what, PairLimit::Crosswind | PairLimit::Tailwind)
-        {
-            self.temperature_fine = false;
+        if !matches!(what, PairLimit::Crosswind | PairLimit::Tailwind) {
+            self.temperature_score = match (self.temperature_score, state) {
+                (_, State::NoData) | (None, _) => None,
+                (Some(t), _) => Some(t.min(score)),
+            };
         }
     }
 }
@@ -409,7 +465,7 @@ fn evaluate(
         score: f64::INFINITY,
         margin_percent: f64::INFINITY,
         limiting: PairLimit::None,
-        temperature_fine: true,
+        temperature_score: Some(f64::INFINITY),
     };
     let air = if dt_c == 0.0 {
         wx.air
@@ -473,40 +529,6 @@ fn evaluate(
     o
 }
 
-/// Bisection to 0.1 °C on the temperature-dependent checks of the in-use end.
-fn headroom(
-    eval: &impl Fn(usize, f64) -> Outcome,
-    k: usize,
-    fine_now: bool,
-    oat_c: f64,
-    ty: &TypeModel,
-) -> f64 {
-    // Wind limits do not change with temperature: judge only the rest.
-    let fine = |dt: f64| eval(k, dt).temperature_fine;
-    let up = ty.oat_top_c - oat_c;
-    let down = ty.oat_bottom_c - oat_c;
-    let (mut lo, mut hi) = if fine_now {
-        if up <= 0.0 || fine(up) {
-            return up.max(0.0);
-        }
-        (0.0, up)
-    } else {
-        if down >= 0.0 || !fine(down) {
-            return down.min(0.0);
-        }
-        (down, 0.0)
-    };
-    while hi - lo > 0.05 {
-        let mid = 0.5 * (lo + hi);
-        if fine(mid) {
-            lo = mid;
-        } else {
-            hi = mid;
-        }
-    }
-    (lo * 10.0).floor() / 10.0
-}
-
 /// The whole matrix.
 pub fn matrix(ctx: &Context<'_>) -> Matrix {
     let ops = ctx.ops;
@@ -517,14 +539,12 @@ pub fn matrix(ctx: &Context<'_>) -> Matrix {
     let fields = ops.airfields.len();
     let mut cells = vec![PairCell::NO_DATA; aircraft.len() * fields];
     for fi in 0..fields {
-        let field = FieldPrep::new(ctx, fi);
-        for (ai, &a) in aircraft.iter().enumerate() {
-            cells[ai * fields + fi] = prep.pair(ctx, &field, a);
-        }
+        prep.fill_column(ctx, &aircraft, fields, fi, &mut cells);
     }
     Matrix {
         aircraft,
         fields,
         cells,
+        prep,
     }
 }

@@ -258,7 +258,11 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
                 .as_ref()
                 .map_or("—".to_string(), |l| l.margin.clone()),
             headroom_text(r),
-            r.limiting.as_ref().map_or("—", |l| l.check.as_str()),
+            match (&r.limiting, r.reasons.first()) {
+                (Some(l), _) => l.check.as_str(),
+                (None, Some(why)) => why.as_str(),
+                (None, None) => "—",
+            },
         )?;
     }
     let not_within: Vec<&LegResult> = results

@@ -27,14 +27,11 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             .with_context(|| format!("reading {}", dir.display()))?
             .next()
             .is_some();
-        if non_empty {
-            writeln!(
-                out,
-                "rhoboard init: {} exists and is not empty; choose a new folder (nothing was written)",
-                dir.display()
-            )?;
-            return Ok(Outcome::BadInput);
-        }
+        anyhow::ensure!(
+            !non_empty,
+            "{} exists and is not empty; choose a new folder (nothing was written)",
+            dir.display()
+        );
     }
     let files = demo::template();
     files

@@ -45,7 +45,11 @@ pub fn run(out: &mut dyn Write) -> anyhow::Result<Outcome> {
     writeln!(
         out,
         "Commands in this version (rhoboard help COMMAND for each):\n  \
-         calc       the air at a field from elevation, altimeter setting and temperature\n\n\
+         check      every leg of the day against the operator's minimums (try: rhoboard check)\n  \
+         calc       the air at a field from elevation, altimeter setting and temperature\n  \
+         metar      decodes METAR reports\n  \
+         validate   checks an operator folder and lists every problem\n  \
+         init       writes a new operator folder from the fictional demo\n\n\
          Values carry their unit: 5900ft 1800m 30.12inHg 1019hPa 31C 88F 15kt."
     )?;
     Ok(Outcome::Success)

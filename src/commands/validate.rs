@@ -15,6 +15,10 @@ pub struct Args {
     /// The operator folder (default: the configured one, else the built-in demo).
     #[arg(long, value_name = "DIR")]
     pub ops: Option<PathBuf>,
+    /// Print the report as JSON: `{"source", "ok", "errors": […], "warnings": […]}`,
+    /// each problem with `severity`, `file`, `path`, `line`, `column`, `message`.
+    #[arg(long)]
+    pub json: bool,
 }
 
 /// Writes a report: errors, then warnings, each one a line.
@@ -53,6 +57,20 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         Choice::Explicit(d) | Choice::Configured(d) => (d.display().to_string(), load_dir(d)?),
         Choice::Demo => ("the built-in demo operator".to_string(), demo::load()),
     };
+    if args.json {
+        let v = serde_json::json!({
+            "source": what,
+            "ok": loaded.ops.is_some(),
+            "errors": loaded.report.errors,
+            "warnings": loaded.report.warnings,
+        });
+        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
+        return Ok(if loaded.ops.is_some() {
+            Outcome::Success
+        } else {
+            Outcome::BadInput
+        });
+    }
     writeln!(out, "Checking {what}")?;
     write_report(&loaded.report, out)?;
     match &loaded.ops {

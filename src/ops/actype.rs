@@ -382,3 +382,11 @@ pub struct AircraftType {
     /// Built tables for lookups.
     pub performance: Performance,
 }
+
+impl AircraftType {
+    /// Builds the tables of a type file; the error is (field path, message).
+    pub fn new(file: AircraftTypeFile) -> Result<AircraftType, (String, String)> {
+        let performance = Performance::from_file(&file.performance)?;
+        Ok(AircraftType { file, performance })
+    }
+}

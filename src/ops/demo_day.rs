@@ -99,8 +99,8 @@ const STATIONS: [Station; 9] = [
     },
     Station {
         id: "XHIG",
-        t_min_c: 7.0,
-        t_max_c: 28.0,
+        t_min_c: 8.0,
+        t_max_c: 30.0,
         dew_morning_c: 3.0,
         dew_evening_c: 1.0,
         dir_offset_deg: 0,

@@ -19,11 +19,15 @@ use super::spans::Spans;
 /// The file format version this build reads.
 pub const SCHEMA_VERSION: u32 = 1;
 
+/// Problems listed per file; past this a file gets one "… and N more" line.
+pub const MAX_PER_FILE: usize = 200;
+
 /// Largest file read, bytes; anything bigger is refused with a message.
 pub const MAX_FILE_BYTES: u64 = 256 * 1024 * 1024;
 
 /// Error or warning.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, serde::Serialize)]
+#[serde(rename_all = "snake_case")]
 pub enum Severity {
     /// The data cannot be used as it is.
     Error,
@@ -32,7 +36,7 @@ pub enum Severity {
 }
 
 /// One problem found in the operator's data.
-#[derive(Debug, Clone, PartialEq, Eq)]
+#[derive(Debug, Clone, PartialEq, Eq, Hash, serde::Serialize)]
 pub struct Diagnostic {
     /// Error or warning.
     pub severity: Severity,
@@ -59,7 +63,7 @@ impl fmt::Display for Diagnostic {
 }
 
 /// Every problem found, errors and warnings apart.
-#[derive(Debug, Clone, Default, PartialEq, Eq)]
+#[derive(Debug, Clone, Default, PartialEq, Eq, serde::Serialize)]
 pub struct Report {
     /// Errors, in file order.
     pub errors: Vec<Diagnostic>,
@@ -84,6 +88,55 @@ impl OpsFiles {
         anyhow::ensure!(meta.is_dir(), "{} is not a folder", dir.display());
         let mut files = BTreeMap::new();
         let mut problems = Vec::new();
+        let mut ignored: Vec<(String, &str)> = Vec::new();
+        // Anything else at the top level or in fleet/ is not read: say so, since a
+        // misspelt folder (`airfield/`) would otherwise be silently ignored.
+        for (sub, known) in [
+            (
+                "",
+                &[
+                    "operator.json",
+                    "pilots.json",
+                    "fleet",
+                    "airfields",
+                    "legs",
+                    "runway-state",
+                    "observations",
+                    "forecasts",
+                    "signoffs",
+                ][..],
+            ),
+            ("fleet", &["aircraft.json", "types"][..]),
+        ] {
+            let Ok(entries) = std::fs::read_dir(dir.join(sub)) else {
+                continue;
+            };
+            let mut names: Vec<String> = entries
+                .filter_map(|e| e.ok())
+                .map(|e| e.file_name().to_string_lossy().into_owned())
+                .filter(|n| !n.starts_with('.') && !known.contains(&n.as_str()))
+                .collect();
+            names.sort();
+            for n in names {
+                let rel = if sub.is_empty() {
+                    n.clone()
+                } else {
+                    format!("{sub}/{n}")
+                };
+                problems.push(Diagnostic {
+                    severity: Severity::Warning,
+                    file: rel,
+                    path: String::new(),
+                    line: 1,
+                    column: 1,
+                    message: format!(
+                        "not part of the operator-folder layout, so not read (expected in {}: {})",
+                        if sub.is_empty() { "the folder" } else { sub },
+                        known.join(", ")
+                    ),
+                });
+            }
+        }
         let mut read = |rel: String, path: &Path| {
             let problem = |message: String| Diagnostic {
                 severity: Severity::Error,
@@ -132,15 +185,27 @@ impl OpsFiles {
             let Ok(entries) = std::fs::read_dir(&d) else {
                 continue;
             };
-            let mut names: Vec<_> = entries
+            let (mut names, other): (Vec<_>, Vec<_>) = entries
                 .filter_map(|e| e.ok())
                 .map(|e| e.file_name().to_string_lossy().into_owned())
-                .filter(|n| n.ends_with(&format!(".{ext}")))
-                .collect();
+                .filter(|n| !n.starts_with('.'))
+                .partition(|n| n.ends_with(&format!(".{ext}")));
             names.sort();
             for n in names {
                 read(format!("{sub}/{n}"), &d.join(&n));
             }
+            ignored.extend(other.into_iter().map(|n| (format!("{sub}/{n}"), ext)));
+        }
+        ignored.sort();
+        for (rel, ext) in ignored {
+            problems.push(Diagnostic {
+                severity: Severity::Warning,
+                file: rel,
+                path: String::new(),
+                line: 1,
+                column: 1,
+                message: format!("not read: only .{ext} files are read in this folder"),
+            });
         }
         Ok((OpsFiles { files }, problems))
     }
@@ -174,6 +239,8 @@ impl OpsFiles {
 pub struct Collector<'a> {
     files: &'a OpsFiles,
     spans: HashMap<String, Spans>,
+    seen: std::collections::HashSet<Diagnostic>,
+    per_file: HashMap<String, usize>,
     /// What was found so far.
     pub report: Report,
 }
@@ -184,6 +251,8 @@ impl<'a> Collector<'a> {
         Collector {
             files,
             spans: HashMap::new(),
+            seen: Default::default(),
+            per_file: HashMap::new(),
             report: Report::default(),
         }
     }
@@ -198,6 +267,13 @@ impl<'a> Collector<'a> {
     /// Records a problem at a field path (positioned at the value, or its nearest
     /// existing parent).
     pub fn at(&mut self, severity: Severity, file: &str, path: &str, message: impl Into<String>) {
+        // Past the per-file cap only the count matters (and finding positions would cost).
+        if let Some(n) = self.per_file.get_mut(file)
+            && *n >= MAX_PER_FILE
+        {
+            *n += 1;
+            return;
+        }
         let (line, column) = self.spans(file).position(path);
         self.push(
             severity,
@@ -219,6 +295,18 @@ impl<'a> Collector<'a> {
         self.at(Severity::Warning, file, path, message);
     }
 
+    /// Records a problem at a line and column (for text files such as observations).
+    pub fn at_line(
+        &mut self,
+        severity: Severity,
+        file: &str,
+        line: usize,
+        column: usize,
+        message: impl Into<String>,
+    ) {
+        self.push(severity, file, String::new(), line, column, message.into());
+    }
+
     fn push(
         &mut self,
         severity: Severity,
@@ -236,12 +324,49 @@ impl<'a> Collector<'a> {
             column,
             message,
         };
+        let count = self.per_file.entry(d.file.clone()).or_insert(0);
+        if *count >= MAX_PER_FILE {
+            if self.seen.insert(d) {
+                *count += 1;
+            }
+            return;
+        }
         let list = match severity {
             Severity::Error => &mut self.report.errors,
             Severity::Warning => &mut self.report.warnings,
         };
-        if !list.contains(&d) {
+        if self.seen.insert(d.clone()) {
+            *count += 1;
             list.push(d);
+        }
+    }
+
+    /// Adds, for every file with more than [`MAX_PER_FILE`] problems, one line saying
+    /// how many more there are.
+    fn finish(&mut self) {
+        let mut over: Vec<(String, usize)> = self
+            .per_file
+            .iter()
+            .filter(|&(_, &n)| n > MAX_PER_FILE)
+            .map(|(f, &n)| (f.clone(), n - MAX_PER_FILE))
+            .collect();
+        over.sort();
+        for (file, more) in over {
+            let last_line = self
+                .files
+                .files
+                .get(&file)
+                .map_or(1, |t| t.lines().count().max(1));
+            self.report.errors.push(Diagnostic {
+                severity: Severity::Error,
+                file,
+                path: String::new(),
+                line: last_line,
+                column: 1,
+                message: format!(
+                    "… and {more} more problem(s) in this file; fix the ones above and run again"
+                ),
+            });
         }
     }
 
@@ -262,6 +387,18 @@ impl<'a> Collector<'a> {
             let p = spans.path_at(offset).to_string();
             let pos = spans.position(&p);
             (p, pos)
+        } else if let Some(field) = msg
+            .strip_prefix("unknown field `")
+            .and_then(|r| r.split('`').next())
+        {
+            // Reported just after the key, which is not a value: name the key itself.
+            let parent = spans.path_at(offset.saturating_sub(1));
+            let p = if parent.is_empty() {
+                field.to_string()
+            } else {
+                format!("{parent}.{field}")
+            };
+            (p, spans.line_col(offset.saturating_sub(field.len() + 2)))
         } else {
             (
                 spans.path_at(offset.saturating_sub(1)).to_string(),
@@ -304,18 +441,22 @@ impl<'a> Collector<'a> {
         match serde_json::from_str::<T>(text) {
             Ok(v) => Some(v),
             Err(e) => {
-                let before = self.report.errors.len();
+                // Whole-file error: report it unless it lies inside a list element that
+                // is reported on its own below.
+                let whole_at = line_col_to_offset_in(text, e.line(), e.column());
+                let mut covered = false;
                 if e.classify() == serde_json::error::Category::Data {
                     for (array, parse) in lists {
                         let elems = self.spans(file).elements(array);
                         for (_, start, end) in elems {
                             if let Err(ee) = parse(&text[start..end]) {
+                                covered |= (start..=end).contains(&whole_at);
                                 self.serde_error(file, &ee, start);
                             }
                         }
                     }
                 }
-                if self.report.errors.len() == before {
+                if !covered {
                     self.serde_error(file, &e, 0);
                 }
                 None
@@ -368,6 +509,7 @@ pub fn load_files(files: &OpsFiles) -> Loaded {
     if let Some(ops) = &ops {
         super::validate::check_cross(ops, &mut c);
     }
+    c.finish();
     let ok = c.report.errors.is_empty();
     let key = |d: &Diagnostic| (d.file.clone(), d.line, d.column);
     c.report.errors.sort_by_key(key);
@@ -398,7 +540,10 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
 
     let mut complete = true;
     let operator = if files.files.contains_key("operator.json") {
-        c.parse::<OperatorFile>("operator.json", &[])
+        c.parse::<OperatorFile>(
+            "operator.json",
+            &[("categories", element::<super::operator::Minimums>)],
+        )
     } else {
         missing(c, "operator.json");
         None

@@ -10,7 +10,11 @@
 #[derive(Debug, Clone, Default)]
 pub struct Spans {
     line_starts: Vec<usize>,
+    /// The text, kept only when it is not all ASCII (columns are then counted in
+    /// characters, which needs it).
+    text: Option<String>,
     nodes: Vec<Node>,
+    by_path: std::collections::HashMap<String, usize>,
 }
 
 #[derive(Debug, Clone)]
@@ -164,19 +168,39 @@ impl Spans {
             nodes: Vec::new(),
         };
         let _ = s.value("", 0);
+        let mut by_path = std::collections::HashMap::with_capacity(s.nodes.len());
+        for (i, n) in s.nodes.iter().enumerate() {
+            by_path.entry(n.path.clone()).or_insert(i);
+        }
         Spans {
             line_starts,
+            text: (!text.is_ascii()).then(|| text.to_string()),
             nodes: s.nodes,
+            by_path,
         }
     }
 
-    /// 1-based line and column (in bytes; the files are expected to be mostly ASCII) of a byte offset.
+    /// 1-based line and column (in characters) of a byte offset.
     pub fn line_col(&self, offset: usize) -> (usize, usize) {
         let line = self.line_starts.partition_point(|&s| s <= offset).max(1);
-        (line, offset - self.line_starts[line - 1] + 1)
+        let start = self.line_starts[line - 1];
+        let column = match &self.text {
+            // Count characters, not bytes, up to the offset (or the nearest boundary before it).
+            Some(t) => {
+                let mut end = offset.min(t.len());
+                while !t.is_char_boundary(end) {
+                    end -= 1;
+                }
+                t.get(start..end)
+                    .map_or(offset - start, |s| s.chars().count())
+                    + 1
+            }
+            None => offset - start + 1,
+        };
+        (line, column)
     }
 
-    /// Byte offset of a 1-based line and column.
+    /// Byte offset of a 1-based line and byte column (as serde_json reports them).
     pub fn offset(&self, line: usize, column: usize) -> usize {
         let start = self
             .line_starts
@@ -188,10 +212,9 @@ impl Spans {
 
     /// Byte span of the value at a path, if the path exists.
     pub fn span(&self, path: &str) -> Option<(usize, usize)> {
-        self.nodes
-            .iter()
-            .find(|n| n.path == path)
-            .map(|n| (n.start, n.end))
+        self.by_path
+            .get(path)
+            .map(|&i| (self.nodes[i].start, self.nodes[i].end))
     }
 
     /// Position of the value at a path, or of its nearest existing ancestor.
@@ -210,25 +233,37 @@ impl Spans {
 
     /// The deepest path whose value contains a byte offset (`""` for the top level).
     pub fn path_at(&self, offset: usize) -> &str {
-        let mut best: Option<&Node> = None;
-        for n in &self.nodes {
-            let inside = n.start <= offset && offset <= n.end;
-            if inside && best.is_none_or(|b| n.end - n.start <= b.end - b.start) {
-                best = Some(n);
-            }
-        }
-        best.map_or("", |n| n.path.as_str())
+        // Nodes are in document order (pre-order, starts increasing): the deepest node
+        // containing the offset is the last-starting one that still reaches it.
+        let last = self.nodes.partition_point(|n| n.start <= offset);
+        self.nodes[..last]
+            .iter()
+            .rev()
+            .find(|n| offset <= n.end)
+            .map_or("", |n| n.path.as_str())
     }
 
-    /// The direct element paths and spans of the array at `path`.
+    /// The direct children (array elements or object members) of the value at `path`:
+    /// their paths and byte spans.
     pub fn elements(&self, path: &str) -> Vec<(String, usize, usize)> {
-        let prefix = format!("{path}[");
+        let index = format!("{path}[");
+        let member = if path.is_empty() {
+            String::new()
+        } else {
+            format!("{path}.")
+        };
         self.nodes
             .iter()
             .filter(|n| {
-                n.path
-                    .strip_prefix(&prefix)
-                    .is_some_and(|rest| rest.find(']').is_some_and(|j| j + 1 == rest.len()))
+                let elem = n
+                    .path
+                    .strip_prefix(&index)
+                    .is_some_and(|rest| rest.find(']').is_some_and(|j| j + 1 == rest.len()));
+                let memb = n
+                    .path
+                    .strip_prefix(&member)
+                    .is_some_and(|rest| !rest.is_empty() && !rest.contains(['.', '[']));
+                elem || (memb && n.path != path)
             })
             .map(|n| (n.path.clone(), n.start, n.end))
             .collect()
@@ -250,6 +285,14 @@ mod tests {
         let off = s.offset(4, 17);
         assert_eq!(s.path_at(off), "ends[0].tora_m");
         assert_eq!(s.elements("ends").len(), 2);
+    }
+
+    #[test]
+    fn columns_count_characters() {
+        let text = "{\"name\": \"Fictional — demo\", \"x\": 1}";
+        let s = Spans::new(text);
+        // `1` is the 35th character but the 37th byte (the dash is 3 bytes): column 35.
+        assert_eq!(s.position("x"), (1, 35));
     }
 
     #[test]

@@ -130,6 +130,8 @@ pub struct Grid {
 pub struct Cell {
     offsets: [u32; 8],
     weights: [f64; 8],
+    /// Number of points of the grid it came from: a cheap check that a table shares it.
+    grid_len: u32,
 }
 
 impl Cell {
@@ -271,7 +273,11 @@ impl Grid {
                 }
             }
         }
-        Ok(Cell { offsets, weights })
+        Ok(Cell {
+            offsets,
+            weights,
+            grid_len: self.len() as u32,
+        })
     }
 }
 

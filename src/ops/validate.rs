@@ -920,6 +920,17 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
             }
         }
     }
+    for (i, p) in ops.pilots.iter().enumerate() {
+        for (k, id) in p.limitations.airfields.iter().enumerate() {
+            if ops.airfield(id).is_none() {
+                c.error(
+                    "pilots.json",
+                    &format!("pilots[{i}].limitations.airfields[{k}]"),
+                    format!("unknown airfield '{id}' in the pilot's written limitations"),
+                );
+            }
+        }
+    }
     let mut leg_ids: HashMap<&str, usize> = HashMap::new();
     for (i, leg) in ops.legs.iter().enumerate() {
         let (file, k) = &ops.leg_files[i];
@@ -967,6 +978,51 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                             t.file.limits.max_takeoff_mass_kg
                         ),
                     );
+                }
+            }
+        }
+        if let (Some(loads), Some(t)) = (
+            &leg.loads,
+            ops.aircraft(&leg.aircraft)
+                .and_then(|a| ops.aircraft_type(&a.type_id)),
+        ) {
+            match &t.file.mass_balance {
+                None => c.error(
+                    file,
+                    &format!("{p}.loads"),
+                    format!(
+                        "type {} has no mass_balance data; give takeoff_mass_kg instead of loads",
+                        t.file.id
+                    ),
+                ),
+                Some(mb) => {
+                    for (k, sl) in loads.stations.iter().enumerate() {
+                        if !mb.stations.iter().any(|s| s.id == sl.station) {
+                            let known: Vec<&str> =
+                                mb.stations.iter().map(|s| s.id.as_str()).collect();
+                            c.error(
+                                file,
+                                &format!("{p}.loads.stations[{k}].station"),
+                                format!(
+                                    "type {} has no loading station '{}' (it has: {})",
+                                    t.file.id,
+                                    sl.station,
+                                    known.join(", ")
+                                ),
+                            );
+                        }
+                    }
+                    let capacity: f64 = mb.fuel_tanks.iter().map(|t| t.usable_capacity_l).sum();
+                    if loads.fuel_at_start_l > capacity {
+                        c.error(
+                            file,
+                            &format!("{p}.loads.fuel_at_start_l"),
+                            format!(
+                                "{} L of fuel is more than the usable capacity {capacity} L",
+                                loads.fuel_at_start_l
+                            ),
+                        );
+                    }
                 }
             }
         }
@@ -1051,12 +1107,48 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
             }
         }
     }
+    // Observation files: rejected reports are warnings; decoded temperatures feed the
+    // coverage check below.
+    let latest_day = ops.legs.iter().map(|l| l.departs_utc().date_naive()).max();
+    let mut hottest: Option<f64> = None;
+    for (file, text) in &ops.observations {
+        if !file.starts_with("observations/") {
+            continue;
+        }
+        let stem = file
+            .rsplit('/')
+            .next()
+            .unwrap_or(file)
+            .trim_end_matches(".txt");
+        let day = chrono::NaiveDate::parse_from_str(stem, "%Y-%m-%d")
+            .ok()
+            .or(latest_day);
+        let Some(reference) = day
+            .and_then(|d| d.and_hms_opt(23, 59, 59))
+            .map(|t| t.and_utc())
+        else {
+            hottest = hottest
+                .into_iter()
+                .chain(max_reported_temperature(text))
+                .reduce(f64::max);
+            continue;
+        };
+        for r in crate::observation::file::decode_all(text, reference) {
+            if let Some(why) = r.report.rejection() {
+                c.at_line(
+                    super::load::Severity::Warning,
+                    file,
+                    r.line,
+                    1,
+                    format!("report not usable: {why}"),
+                );
+            }
+            if let Some(t) = r.report.temperature_c {
+                hottest = Some(hottest.map_or(t, |h: f64| h.max(t)));
+            }
+        }
+    }
     // Coverage: tables against the folder's observations and airfields.
-    let hottest = ops
-        .observations
-        .iter()
-        .filter_map(|(_, t)| max_reported_temperature(t))
-        .reduce(f64::max);
     let highest = ops
         .airfields
         .iter()

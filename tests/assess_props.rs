@@ -1,0 +1,347 @@
+//! Properties of the assessment on the demo operator's types and airfields: worse
+//! conditions never improve a margin; `no-data` for an exceeded table or a stale report;
+//! the runway in use is the end set for the day or else the one with the most headwind.
+
+use chrono::{DateTime, TimeZone, Utc};
+use proptest::prelude::*;
+use rhoboard::assess::leg::{self, Context, Setup};
+use rhoboard::assess::model::{DaySettings, Model};
+use rhoboard::assess::{State, assess_leg, perf};
+use rhoboard::observation::{Store, decode};
+use rhoboard::ops::{Category, Ops, demo};
+
+fn demo_ops() -> Ops {
+    demo::load().ops.expect("the demo loads")
+}
+
+fn at(h: u32, m: u32) -> DateTime<Utc> {
+    Utc.with_ymd_and_hms(2026, 6, 14, h, m, 0).unwrap()
+}
+
+fn store_with(reports: &[&str], reference: DateTime<Utc>) -> Store {
+    let mut s = Store::default();
+    for r in reports {
+        let rep = decode(r, reference);
+        assert!(rep.usable_for_performance(), "{r}: {:?}", rep.errors);
+        s.insert(rep);
+    }
+    s
+}
+
+fn leg_index(ops: &Ops, id: &str) -> usize {
+    ops.legs.iter().position(|l| l.id == id).expect("leg")
+}
+
+/// Conditions for one evaluation.
+#[derive(Clone, Copy)]
+struct Case {
+    mass_kg: f64,
+    qnh_hpa: f64,
+    oat_c: f64,
+    headwind_kt: f64,
+    tora_scale: f64,
+}
+
+/// The margins of takeoff (smallest check), climb and landing of the demo trainer at
+/// one field, first end, for the given conditions.
+fn margins(ops: &Ops, model: &Model, field: &str, c: Case) -> Option<(f64, f64, f64)> {
+    let Case {
+        mass_kg,
+        qnh_hpa,
+        oat_c,
+        headwind_kt,
+        tora_scale,
+    } = c;
+    let end_k = 0;
+    let fi = ops.airfield_position(field)?;
+    let ty = &model.types[0];
+    let mins = ops.minimums(Category::Solo)?;
+    let mut end = model.field_ends(fi)[end_k].clone();
+    end.tora_m *= tora_scale;
+    end.toda_m *= tora_scale;
+    end.lda_m *= tora_scale;
+    let air = rhoboard::atmosphere::AirData::from_observation(
+        ops.airfields[fi].elevation_ft,
+        qnh_hpa,
+        oat_c,
+        Some(oat_c - 10.0),
+    );
+    let s = Setup {
+        model,
+        ty,
+        perf: &ops.types[ty.index].performance,
+        mins,
+        takeoff_mass_kg: mass_kg,
+        landing_mass_kg: mass_kg,
+        distance_buffer: 0.1,
+        climb_buffer: 0.1,
+    };
+    let (t, c) = leg::departure_chains(&s, &end, &air, headwind_kt).ok()?;
+    let l = leg::landing_chain(&s, &end, &air, headwind_kt).ok()?;
+    Some((
+        perf::min_margin(&t, &end, &mins.takeoff_checks, 1.0),
+        c.margin(),
+        perf::min_margin(&l, &end, &mins.landing_checks, 1.0),
+    ))
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(400))]
+
+    #[test]
+    fn worse_conditions_never_improve_a_margin(
+        field_k in 0usize..9,
+        mass_frac in 0.0f64..1.0,
+        qnh in 990.0f64..1_035.0,
+        oat in -5.0f64..35.0,
+        wind in -8.0f64..25.0,
+        hotter in 0.0f64..5.0,
+        heavier in 0.0f64..30.0,
+        less_wind in 0.0f64..6.0,
+        shorter in 0.7f64..1.0,
+    ) {
+        let ops = demo_ops();
+        let model = Model::new(&ops, &DaySettings::default());
+        let field = ops.airfields[field_k].id.clone();
+        let ty = &ops.types[0].file;
+        let masses = &ops.types[0].file.performance.axes.mass_kg;
+        let mass = masses[0] + mass_frac * (ty.limits.max_takeoff_mass_kg - masses[0] - 30.0).max(0.0);
+        let c = Case { mass_kg: mass, qnh_hpa: qnh, oat_c: oat, headwind_kt: wind, tora_scale: 1.0 };
+        let base = margins(&ops, &model, &field, c);
+        prop_assume!(base.is_some());
+        let (t0, c0, l0) = base.unwrap();
+        let worse = [
+            margins(&ops, &model, &field, Case { oat_c: oat + hotter, ..c }),
+            // Lower QNH: a higher pressure altitude.
+            margins(&ops, &model, &field, Case { qnh_hpa: qnh - hotter, ..c }),
+            margins(&ops, &model, &field, Case { mass_kg: mass + heavier, ..c }),
+            margins(&ops, &model, &field, Case { headwind_kt: wind - less_wind, ..c }),
+            margins(&ops, &model, &field, Case { tora_scale: shorter, ..c }),
+        ];
+        for (k, w) in worse.into_iter().enumerate() {
+            // Outside the table is no-data, never a better answer.
+            if let Some((t, c, l)) = w {
+                prop_assert!(t <= t0 + 1e-9, "case {k}: takeoff {t} > {t0}");
+                prop_assert!(c <= c0 + 1e-9, "case {k}: climb {c} > {c0}");
+                prop_assert!(l <= l0 + 1e-9, "case {k}: landing {l} > {l0}");
+            }
+        }
+    }
+}
+
+#[test]
+fn a_report_hotter_than_the_tables_is_no_data_never_within() {
+    let ops = demo_ops();
+    let model = Model::new(&ops, &DaySettings::default());
+    let i = leg_index(&ops, "L01");
+    let leg = &ops.legs[i];
+    let top = ops.types[0]
+        .file
+        .performance
+        .axes
+        .oat_c
+        .last()
+        .copied()
+        .unwrap();
+    let hot = format!(
+        "METAR {} 140600Z 23004KT 9999 FEW030 {:02}/05 Q1019",
+        leg.from,
+        top as i32 + 3
+    );
+    let store = store_with(&[&hot], at(6, 30));
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(6, 30),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    assert_eq!(r.state, State::NoData, "{:?}", r.reasons);
+    assert!(r.headroom.is_none());
+    assert!(
+        r.reasons
+            .iter()
+            .any(|w| w.contains("outside the flight-manual table")),
+        "{:?}",
+        r.reasons
+    );
+}
+
+#[test]
+fn a_stale_report_is_no_data() {
+    let ops = demo_ops();
+    let model = Model::new(&ops, &DaySettings::default());
+    let i = leg_index(&ops, "L01");
+    let leg = &ops.legs[i];
+    let old = format!("METAR {} 140500Z 23004KT 9999 FEW030 12/05 Q1019", leg.from);
+    // L01 departs 0700Z: the 0500Z report is 120 minutes old then (policy 75).
+    let store = store_with(&[&old], at(9, 0));
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(9, 0),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    assert_eq!(r.state, State::NoData);
+    assert!(
+        r.reasons.iter().any(|w| w.contains("stale")),
+        "{:?}",
+        r.reasons
+    );
+    // No report at all: no-data too.
+    let empty = Store::default();
+    let ctx = Context {
+        store: &empty,
+        ..ctx
+    };
+    assert_eq!(assess_leg(&ctx, i).unwrap().state, State::NoData);
+}
+
+#[test]
+fn reports_after_the_reference_time_do_not_exist() {
+    let ops = demo_ops();
+    let model = Model::new(&ops, &DaySettings::default());
+    let i = leg_index(&ops, "L01");
+    let from = ops.legs[i].from.clone();
+    let early = format!("METAR {from} 140600Z 23004KT 9999 FEW030 12/05 Q1019");
+    let late = format!("METAR {from} 140650Z 23004KT 9999 FEW030 40/05 Q1019");
+    let store = store_with(&[&early, &late], at(7, 30));
+    // At 0630Z the 0650Z report is unknown: the leg (0700Z) uses 0600Z "as of".
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(6, 30),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    let o = r.departure.observation.as_ref().unwrap();
+    assert!(o.text.contains("140600Z") && o.as_of, "{}", o.text);
+    // At 0730Z the departure time is past: the latest report at or before 0700Z.
+    let ctx = Context {
+        at: at(7, 30),
+        ..ctx
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    let o = r.departure.observation.as_ref().unwrap();
+    assert!(o.text.contains("140650Z") && !o.as_of, "{}", o.text);
+    assert!((o.age_min - 10.0).abs() < 1e-9);
+}
+
+#[test]
+fn runway_in_use_is_the_set_end_else_the_most_headwind() {
+    let ops = demo_ops();
+    let i = leg_index(&ops, "L01");
+    let from = ops.legs[i].from.clone();
+    let field = ops.airfield(&from).unwrap();
+    let ends = &field.runway_ends;
+    // Wind straight down the first end: it has the most headwind.
+    let wdir = ends[0].true_heading_deg.round() as i32;
+    let wdir = if wdir == 0 { 360 } else { wdir };
+    let rep = format!("METAR {from} 140600Z {wdir:03}10KT 9999 FEW030 12/05 Q1019");
+    let store = store_with(&[&rep], at(6, 30));
+    let model = Model::new(&ops, &DaySettings::default());
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(6, 30),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    assert_eq!(
+        r.departure.runway.as_deref(),
+        Some(ends[0].designator.as_str())
+    );
+    assert_eq!(r.departure.runway_reason, "most headwind");
+    let best = r.departure.ends.iter().find(|e| e.in_use).unwrap();
+    for e in &r.departure.ends {
+        assert!(e.wind.headwind_kt <= best.wind.headwind_kt + 1e-9);
+    }
+    // Set for the day: the other end, even with a tailwind; the first end is then an
+    // alternative that does better, and the reasons say so when the state differs.
+    let mut day = DaySettings::default();
+    day.runway_in_use
+        .insert(from.clone(), ends[1].designator.clone());
+    let model = Model::new(&ops, &day);
+    let ctx = Context {
+        model: &model,
+        ..ctx
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    assert_eq!(
+        r.departure.runway.as_deref(),
+        Some(ends[1].designator.as_str())
+    );
+    assert_eq!(r.departure.runway_reason, "set for the day");
+    let alt = r.departure.ends.iter().find(|e| !e.in_use).unwrap();
+    let in_use = r.departure.ends.iter().find(|e| e.in_use).unwrap();
+    assert!(alt.state <= in_use.state);
+    if alt.state < in_use.state {
+        assert!(
+            r.reasons
+                .iter()
+                .any(|w| w.contains(&format!("runway {} would be", alt.designator)))
+        );
+    }
+    // Closed for the day: not usable, never chosen.
+    let mut day = DaySettings::default();
+    day.closed
+        .insert(from.clone(), vec![ends[0].designator.clone()]);
+    let model = Model::new(&ops, &day);
+    let ctx = Context {
+        model: &model,
+        ..ctx
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    assert_eq!(
+        r.departure.runway.as_deref(),
+        Some(ends[1].designator.as_str())
+    );
+}
+
+#[test]
+fn warming_never_improves_the_state_and_headroom_only_shrinks() {
+    let ops = demo_ops();
+    let model = Model::new(&ops, &DaySettings::default());
+    for id in ["L03", "L09", "L14"] {
+        let i = leg_index(&ops, id);
+        let leg = &ops.legs[i];
+        let mut last: Option<(State, f64)> = None;
+        for t in [10, 15, 20, 25, 30, 35] {
+            let mk = |st: &str| format!("METAR {st} 140600Z 27008KT 9999 FEW050 {t:02}/05 Q1015");
+            let (a, b) = (mk(&leg.from), mk(&leg.to));
+            let store = store_with(&[&a, &b], at(6, 10));
+            let ctx = Context {
+                ops: &ops,
+                model: &model,
+                store: &store,
+                at: at(6, 10),
+            };
+            let r = assess_leg(&ctx, i).unwrap();
+            if let Some((s0, h0)) = last {
+                assert!(
+                    r.state >= s0 || r.state == State::NoData,
+                    "{id} at {t} C: {:?} after {s0:?}",
+                    r.state
+                );
+                if let Some(h) = r.headroom {
+                    assert!(
+                        h.warming_c <= h0 + 0.11,
+                        "{id} at {t} C: headroom {} after {h0}",
+                        h.warming_c
+                    );
+                }
+            }
+            if let Some(h) = r.headroom {
+                // A leg with headroom left is not below; a negative headroom is below.
+                assert_eq!(
+                    h.warming_c < 0.0,
+                    r.state == State::Below,
+                    "{id} at {t} C: {h:?} {:?}",
+                    r.state
+                );
+                last = Some((r.state, h.warming_c));
+            }
+        }
+    }
+}

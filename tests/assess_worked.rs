@@ -1,0 +1,296 @@
+//! Worked examples of the assessment chains, every step shown, each against its source.
+
+use rhoboard::assess::model::{EndModel, Origin, PhaseRules, Rule, SurfaceCase};
+use rhoboard::assess::perf::{self, WindInput};
+use rhoboard::assess::state::{State, verdict};
+use rhoboard::assess::wind;
+use rhoboard::ops::actype::SurfaceRule;
+use rhoboard::ops::operator::{Available, DistanceCheck, Required};
+
+fn close(what: &str, got: f64, want: f64, tol: f64) {
+    assert!(
+        (got - want).abs() <= tol,
+        "{what}: got {got}, want {want} ± {tol}"
+    );
+}
+
+fn end(tora_m: f64, toda_m: f64, lda_m: f64, surface: SurfaceCase, slope_percent: f64) -> EndModel {
+    EndModel {
+        field: 0,
+        index: 0,
+        heading_true_deg: 270.0,
+        tora_m,
+        toda_m: toda_m.min(tora_m * 1.5),
+        asda_m: tora_m,
+        lda_m,
+        surface,
+        slope_percent,
+        required_gradient_ft_per_nm: None,
+        usable: true,
+    }
+}
+
+fn check(required: Required, factor: f64, available: Available) -> DistanceCheck {
+    DistanceCheck {
+        required,
+        factor,
+        available,
+        source: "test".to_string(),
+    }
+}
+
+/// A manual that says: distances −1 % per kt of headwind, +5 % per kt of tailwind, and
+/// nothing about surfaces or slope — so the policy's fallbacks apply: grass ×1.2 and
+/// +5 % per 1 % of upslope.
+fn rules_easa_fallbacks() -> PhaseRules {
+    PhaseRules {
+        headwind_percent_per_kt: Some(1.0),
+        tailwind_percent_per_kt: Some(5.0),
+        wind_factoring_included: false,
+        surface: [
+            None,
+            Some(Rule {
+                rule: SurfaceRule::MultiplyBy(1.0),
+                origin: Origin::Policy,
+            }),
+            Some(Rule {
+                rule: SurfaceRule::MultiplyBy(1.2),
+                origin: Origin::Policy,
+            }),
+            Some(Rule {
+                rule: SurfaceRule::MultiplyBy(1.3),
+                origin: Origin::Policy,
+            }),
+        ],
+        slope_percent_per_percent: (5.0, Origin::Policy),
+    }
+}
+
+/// EASA Air Operations, CAT.POL.A.305 and AMC1 CAT.POL.A.305 (performance class B
+/// take-off; from memory): not more than 50 % of the reported headwind, dry grass
+/// ×1.2, +5 % per 1 % upslope (2 % upslope: ×1.10), and with no stopway or clearway the
+/// take-off distance × 1.25 must not exceed TORA.
+///
+/// By hand: table distance to 50 ft 500 m, ground roll 300 m, reported headwind 10 kt.
+///   headwind counted: 10 × 0.5 = 5 kt; wind factor 1 − 5 × 1 % = 0.95 → 475 m
+///   dry grass × 1.2 → 570 m;   2 % upslope × (1 + 2 × 5 %) = 1.10 → 627 m
+///   required 627 × 1.25 = 783.75 m against TORA 800 m: margin 800 / 783.75 − 1 = 2.07 %
+///   (inside the 10 % buffer: thin).
+#[test]
+fn easa_class_b_takeoff_worked_example() {
+    let rules = rules_easa_fallbacks();
+    let wind = WindInput {
+        headwind_kt: 10.0,
+        headwind_credit: 0.5,
+        tailwind_factor: 1.5,
+    };
+    let c = perf::distances(&rules, 300.0, 500.0, wind, SurfaceCase::GrassDry, 2.0).unwrap();
+    close("headwind counted", c.headwind_used_kt, 5.0, 1e-12);
+    close("wind factor", c.wind_factor, 0.95, 1e-12);
+    close("after grass", c.after_surface_distance_50ft_m, 570.0, 1e-9);
+    close("slope factor", c.slope_factor, 1.10, 1e-12);
+    close("distance to 50 ft", c.distance_50ft_m, 627.0, 1e-9);
+    let rwy = end(800.0, 800.0, 800.0, SurfaceCase::GrassDry, 2.0);
+    let r = perf::check(
+        &c,
+        &rwy,
+        &check(Required::Distance50ft, 1.25, Available::Tora),
+        1.0,
+    );
+    close("required", r.required_m, 783.75, 1e-9);
+    close("margin", r.margin, 800.0 / 783.75 - 1.0, 1e-12);
+    assert_eq!(verdict(r.margin, 0.10), State::Thin);
+
+    // The same with a 4 kt tailwind: counted at 150 % = 6 kt, +5 % per kt → ×1.30:
+    // 500 × 1.30 × 1.2 × 1.10 = 858 m, × 1.25 = 1,072.5 m > 800 m: below.
+    let tail = WindInput {
+        headwind_kt: -4.0,
+        ..wind
+    };
+    let c = perf::distances(&rules, 300.0, 500.0, tail, SurfaceCase::GrassDry, 2.0).unwrap();
+    close("tailwind counted", c.headwind_used_kt, -6.0, 1e-12);
+    close("tailwind factor", c.wind_factor, 1.30, 1e-12);
+    let r = perf::check(
+        &c,
+        &rwy,
+        &check(Required::Distance50ft, 1.25, Available::Tora),
+        1.0,
+    );
+    close("required with tailwind", r.required_m, 1_072.5, 1e-9);
+    assert_eq!(verdict(r.margin, 0.10), State::Below);
+
+    // A favourable (downhill) slope earns no credit.
+    let c = perf::distances(&rules, 300.0, 500.0, wind, SurfaceCase::PavedDry, -2.0).unwrap();
+    close("downhill takeoff", c.slope_factor, 1.0, 0.0);
+}
+
+/// Landing at 70 % of LDA (distance from 50 ft × 1/0.7 ≈ × 1.43; EASA CAT.POL.A.330,
+/// UK CAA SSL 7) on a wet paved runway, a further × 1.15 (EASA CAT.POL.A.335; from
+/// memory), the manual silent on wet runways.
+///
+/// By hand: table landing distance 400 m, calm, paved, level.
+///   required 400 × 1.43 × 1.15 = 657.8 m against LDA 700 m: margin 700/657.8 − 1 = 6.4 %.
+/// The policy's own wet paved fallback (×1.15) gives way to the category's factor: it
+/// is never applied twice (400 × 1.15 × 1.43 × 1.15 would be 756.5 m).
+#[test]
+fn landing_at_seventy_percent_of_lda_wet_paved() {
+    let base = rules_easa_fallbacks();
+    let mut rules = base;
+    rules.surface[SurfaceCase::PavedWet as usize] = Some(Rule {
+        rule: SurfaceRule::MultiplyBy(1.15),
+        origin: Origin::Policy,
+    });
+    let rules = perf::landing_rules(&rules, Some(1.15));
+    let calm = WindInput {
+        headwind_kt: 0.0,
+        headwind_credit: 0.5,
+        tailwind_factor: 1.5,
+    };
+    let c = perf::distances(&rules, 250.0, 400.0, calm, SurfaceCase::PavedWet, 0.0).unwrap();
+    close("no surface rule applied", c.distance_50ft_m, 400.0, 1e-12);
+    let extra = perf::landing_extra_factor(&c, Some(1.15));
+    close("wet factor", extra, 1.15, 0.0);
+    let rwy = end(700.0, 700.0, 700.0, SurfaceCase::PavedWet, 0.0);
+    let r = perf::check(
+        &c,
+        &rwy,
+        &check(Required::Distance50ft, 1.43, Available::Lda),
+        extra,
+    );
+    close("required", r.required_m, 657.8, 1e-9);
+    close("margin", r.margin, 700.0 / 657.8 - 1.0, 1e-12);
+    assert_eq!(verdict(r.margin, 0.10), State::Thin);
+
+    // A manual that gives its own wet figure (+10 % of the ground roll to both) keeps
+    // it, and the category factor is then not added.
+    let mut manual = base;
+    manual.surface[SurfaceCase::PavedWet as usize] = Some(Rule {
+        rule: SurfaceRule::AddPercentOfGroundRoll(10.0),
+        origin: Origin::Manual,
+    });
+    let rules = perf::landing_rules(&manual, Some(1.15));
+    let c = perf::distances(&rules, 250.0, 400.0, calm, SurfaceCase::PavedWet, 0.0).unwrap();
+    close(
+        "manual wet: 400 + 10 % of 250",
+        c.distance_50ft_m,
+        425.0,
+        1e-12,
+    );
+    close(
+        "no extra",
+        perf::landing_extra_factor(&c, Some(1.15)),
+        1.0,
+        0.0,
+    );
+}
+
+/// UK CAA Safety Sense Leaflet 7, Aeroplane Performance (from memory): take-off on dry
+/// grass ×1.2 and a 2 % uphill slope ×1.1, then the safety factor ×1.33 against TODA;
+/// landing on dry grass ×1.15 with ×1.43.
+///
+/// By hand, take-off: 450 m × 1.2 × 1.1 = 594 m; × 1.33 = 790.02 m against 800 m → 1.26 %.
+/// Ground roll 270 m × 1.2 × 1.1 = 356.4 m; × 1.33 = 474.01 m against TORA 800 m → 68.8 %.
+/// Landing: 380 m × 1.15 = 437 m; × 1.43 = 624.91 m against LDA 700 m → 12.0 %.
+#[test]
+fn ssl7_style_combination() {
+    let mut rules = rules_easa_fallbacks();
+    rules.slope_percent_per_percent = (5.0, Origin::Policy);
+    let calm = WindInput {
+        headwind_kt: 0.0,
+        headwind_credit: 0.5,
+        tailwind_factor: 1.5,
+    };
+    let c = perf::distances(&rules, 270.0, 450.0, calm, SurfaceCase::GrassDry, 2.0).unwrap();
+    let rwy = end(800.0, 800.0, 700.0, SurfaceCase::GrassDry, 2.0);
+    let d = perf::check(
+        &c,
+        &rwy,
+        &check(Required::Distance50ft, 1.33, Available::Toda),
+        1.0,
+    );
+    close("TODR", d.required_m, 790.02, 1e-9);
+    close("TODA margin", d.margin, 800.0 / 790.02 - 1.0, 1e-12);
+    let g = perf::check(
+        &c,
+        &rwy,
+        &check(Required::GroundRoll, 1.33, Available::Tora),
+        1.0,
+    );
+    close("TORR", g.required_m, 474.012, 1e-9);
+    let checks = [
+        check(Required::Distance50ft, 1.33, Available::Toda),
+        check(Required::GroundRoll, 1.33, Available::Tora),
+    ];
+    close(
+        "takeoff margin is the smallest",
+        perf::min_margin(&c, &rwy, &checks, 1.0),
+        d.margin,
+        0.0,
+    );
+
+    let mut landing = rules_easa_fallbacks();
+    landing.surface[SurfaceCase::GrassDry as usize] = Some(Rule {
+        rule: SurfaceRule::MultiplyBy(1.15),
+        origin: Origin::Policy,
+    });
+    // Landing uphill on this end (slope +2 %) is favourable: no factor.
+    let c = perf::distances(&landing, 230.0, 380.0, calm, SurfaceCase::GrassDry, -2.0).unwrap();
+    close("landing slope", c.slope_factor, 1.0, 0.0);
+    let l = perf::check(
+        &c,
+        &rwy,
+        &check(Required::Distance50ft, 1.43, Available::Lda),
+        1.0,
+    );
+    close("LDR", l.required_m, 624.91, 1e-9);
+    close("LDA margin", l.margin, 700.0 / 624.91 - 1.0, 1e-12);
+}
+
+/// "Add N % of the ground roll to both figures": a manual grass rule of +20 % of the
+/// ground roll on a 300 m roll adds 60 m to both (from the design's manual-rule forms).
+#[test]
+fn add_percent_of_ground_roll_rule() {
+    let (gr, d) = SurfaceRule::AddPercentOfGroundRoll(20.0).apply(300.0, 500.0);
+    close("ground roll", gr, 360.0, 1e-12);
+    close("50 ft", d, 560.0, 1e-12);
+}
+
+/// FAA Terminal Procedures Publication, climb/descent table (from memory): 200 ft/NM at
+/// 90 kt ground speed needs 300 ft/min; at 120 kt, 400 ft/min.
+#[test]
+fn climb_gradient_conversion() {
+    close(
+        "200 ft/NM at 90 kt",
+        perf::gradient_ft_per_nm(300.0, 90.0),
+        200.0,
+        1e-12,
+    );
+    close(
+        "200 ft/NM at 120 kt",
+        perf::gradient_ft_per_nm(400.0, 120.0),
+        200.0,
+        1e-12,
+    );
+    // The chain: 75 KIAS at a TAS factor of 1.2 is 90 kt TAS; a 6 kt tailwind makes
+    // 96 kt over the ground and 600 ft/min gives 375 ft/NM against 200 required: +87.5 %.
+    // A headwind earns no credit: the ground speed stays at the TAS.
+    let c = perf::climb(600.0, 75.0, 1.2, -6.0, 400.0, Some(200.0));
+    close("TAS", c.true_airspeed_kt, 90.0, 1e-12);
+    close("GS", c.ground_speed_kt, 96.0, 1e-12);
+    close("gradient", c.gradient_ft_per_nm, 375.0, 1e-12);
+    close("gradient margin", c.gradient_margin.unwrap(), 0.875, 1e-12);
+    close("rate margin", c.rate_margin, 0.5, 1e-12);
+    close("smaller margin", c.margin(), 0.5, 1e-12);
+    let h = perf::climb(600.0, 75.0, 1.2, 15.0, 400.0, Some(200.0));
+    close("no headwind credit", h.ground_speed_kt, 90.0, 1e-12);
+}
+
+/// Crosswind on runway 27 (270° true) from 300° at 20 kt: 20 sin 30° = 10 kt from the
+/// right, 20 cos 30° = 17.3 kt headwind (trigonometry; FAA PHAK crosswind chart).
+#[test]
+fn crosswind_component_check() {
+    let c = wind::components(300.0, 20.0, 270.0);
+    close("crosswind", c.crosswind_kt, 10.0, 1e-9);
+    assert_eq!(c.crosswind_from, wind::Side::Right);
+    close("headwind", c.headwind_kt, 17.320_508, 1e-6);
+}

@@ -1,0 +1,250 @@
+//! `rhoboard check` on the built-in demo day, through the binary: the states a chief
+//! instructor would expect over the day, exit codes, and snapshots of `--json` at three
+//! times (numbers rounded to 4 decimals so the snapshots do not hang on the last float
+//! digit).
+
+use std::process::Command;
+
+use serde_json::Value;
+
+/// Runs the binary with an empty config dir, so the built-in demo is used.
+fn rhoboard(args: &[&str]) -> (i32, String, String) {
+    let config = std::env::temp_dir().join(format!("rhoboard-test-config-{}", std::process::id()));
+    let out = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(args)
+        .env("XDG_CONFIG_HOME", &config)
+        .env("HOME", &config)
+        .output()
+        .expect("runs");
+    (
+        out.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&out.stdout).into_owned(),
+        String::from_utf8_lossy(&out.stderr).into_owned(),
+    )
+}
+
+fn round(v: &mut Value) {
+    match v {
+        Value::Number(n) => {
+            if let Some(f) = n.as_f64()
+                && !n.is_i64()
+                && !n.is_u64()
+            {
+                let r = (f * 1e4).round() / 1e4;
+                *v = serde_json::json!(r);
+            }
+        }
+        Value::Array(a) => a.iter_mut().for_each(round),
+        Value::Object(o) => o.values_mut().for_each(round),
+        _ => {}
+    }
+}
+
+fn check_json(at: &str) -> Value {
+    let (code, stdout, stderr) = rhoboard(&["check", "--json", "--at", at]);
+    assert!(code == 0 || code == 1, "{stderr}");
+    let v: Value = serde_json::from_str(&stdout).expect("JSON");
+    // Exit status 1 exactly when some leg is below or no-data.
+    let bad = v["legs"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|l| l["state"] == "below" || l["state"] == "no-data");
+    assert_eq!(code == 1, bad);
+    v
+}
+
+fn states(v: &Value) -> Vec<(String, String)> {
+    v["legs"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|l| {
+            (
+                l["id"].as_str().unwrap().to_string(),
+                l["state"].as_str().unwrap().to_string(),
+            )
+        })
+        .collect()
+}
+
+#[test]
+fn demo_day_morning_midday_afternoon() {
+    let morning = check_json("2026-06-14T08:00:00Z");
+    let midday = check_json("2026-06-14T11:00:00Z");
+    let afternoon = check_json("2026-06-14T14:00:00Z");
+    for (name, v) in [
+        ("morning", &morning),
+        ("midday", &midday),
+        ("afternoon", &afternoon),
+    ] {
+        let mut v = v.clone();
+        round(&mut v);
+        insta::assert_snapshot!(
+            format!("check_demo_{name}"),
+            serde_json::to_string_pretty(&v).unwrap()
+        );
+    }
+    // Every state appears over the day, and legs turn below as it warms.
+    let all: Vec<(String, String)> = [&morning, &midday, &afternoon]
+        .iter()
+        .flat_map(|v| states(v))
+        .collect();
+    for s in ["within", "thin", "below", "no-data"] {
+        assert!(
+            all.iter().any(|(_, st)| st == s),
+            "no leg is {s} at any of the three times"
+        );
+    }
+    let m = states(&morning);
+    let a = states(&afternoon);
+    let turned: Vec<&String> = m
+        .iter()
+        .zip(&a)
+        .filter(|((_, s0), (_, s1))| (s0 == "within" || s0 == "thin") && s1 == "below")
+        .map(|((id, _), _)| id)
+        .collect();
+    assert!(!turned.is_empty(), "no leg turns below in the afternoon");
+    // The density-altitude charter to the plateau: within in the morning, below by 14Z.
+    let l11 = |v: &Value| {
+        v["legs"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|l| l["id"] == "L11")
+            .cloned()
+            .unwrap()
+    };
+    assert_eq!(l11(&morning)["state"], "within");
+    assert_eq!(l11(&afternoon)["state"], "below");
+    assert!(
+        l11(&afternoon)["limiting_check"]
+            .as_str()
+            .unwrap()
+            .contains("density altitude")
+    );
+}
+
+#[test]
+fn json_has_the_documented_keys() {
+    let v = check_json("2026-06-14T08:00:00Z");
+    assert!(v["caution"].as_str().unwrap().contains("Planning aid"));
+    for leg in v["legs"].as_array().unwrap() {
+        for key in [
+            "id",
+            "state",
+            "limiting_check",
+            "headroom_c",
+            "departure",
+            "arrival",
+            "reasons",
+        ] {
+            assert!(leg.get(key).is_some(), "{key}");
+        }
+        let dep = &leg["departure"];
+        for key in [
+            "airfield",
+            "runway",
+            "observation",
+            "pressure_altitude_ft",
+            "density_altitude_ft",
+            "headwind_kt",
+            "crosswind_kt",
+            "crosswind_from",
+            "takeoff",
+            "climb",
+        ] {
+            assert!(dep.get(key).is_some(), "departure.{key}");
+        }
+        if leg["state"] != "no-data" {
+            let t = &dep["takeoff"];
+            assert!(t["ground_roll_m"].is_number() && t["distance_50ft_m"].is_number());
+            for c in t["checks"].as_array().unwrap() {
+                for key in ["rule", "required_m", "available_m", "margin_percent"] {
+                    assert!(c.get(key).is_some(), "check.{key}");
+                }
+            }
+            for key in [
+                "rate_fpm",
+                "gradient_ft_per_nm",
+                "required_gradient_ft_per_nm",
+                "margin_percent",
+            ] {
+                assert!(dep["climb"].get(key).is_some(), "climb.{key}");
+            }
+            assert!(leg["arrival"]["landing"]["checks"].is_array());
+        }
+    }
+}
+
+#[test]
+fn the_chain_rebuilds_required_distance_from_its_own_values() {
+    let v = check_json("2026-06-14T08:00:00Z");
+    for leg in v["legs"].as_array().unwrap() {
+        let t = &leg["departure"]["takeoff"];
+        if !t.is_object() {
+            continue;
+        }
+        let d50 = t["table_distance_50ft_m"].as_f64().unwrap()
+            * t["wind_factor"].as_f64().unwrap()
+            * t["slope_factor"].as_f64().unwrap();
+        let surface = match t["surface_rule"]["rule"].get("multiply_by") {
+            Some(f) => f.as_f64().unwrap(),
+            None => 1.0,
+        };
+        if t["surface_rule"]["rule"]
+            .get("add_percent_of_ground_roll")
+            .is_some()
+        {
+            continue;
+        }
+        let rebuilt = d50 * surface;
+        let got = t["distance_50ft_m"].as_f64().unwrap();
+        assert!(
+            (rebuilt - got).abs() < 1e-6,
+            "{}: {rebuilt} vs {got}",
+            leg["id"]
+        );
+        for c in t["checks"].as_array().unwrap() {
+            if c["rule"].as_str().unwrap().starts_with("distance_50ft") {
+                let req = got * c["factor"].as_f64().unwrap();
+                assert!((req - c["required_m"].as_f64().unwrap()).abs() < 1e-6);
+                let m = (c["available_m"].as_f64().unwrap() / c["required_m"].as_f64().unwrap()
+                    - 1.0)
+                    * 100.0;
+                assert!((m - c["margin_percent"].as_f64().unwrap()).abs() < 1e-6);
+            }
+        }
+    }
+}
+
+#[test]
+fn bad_input_exits_2() {
+    let (code, _, stderr) = rhoboard(&["check", "--at", "yesterday"]);
+    assert_eq!(code, 2);
+    assert!(stderr.contains("--at 'yesterday'"), "{stderr}");
+    let (code, _, stderr) = rhoboard(&["check", "--leg", "L99", "--at", "2026-06-14T08:00:00Z"]);
+    assert_eq!(code, 2);
+    assert!(stderr.contains("L99"), "{stderr}");
+    let (code, _, stderr) = rhoboard(&["check", "--ops", "/nonexistent/rhoboard-ops"]);
+    assert_eq!(code, 2);
+    assert!(stderr.contains("/nonexistent/rhoboard-ops"), "{stderr}");
+}
+
+#[test]
+fn pairings_cover_every_available_aircraft_at_every_airfield() {
+    let (_, stdout, _) = rhoboard(&[
+        "check",
+        "--json",
+        "--pairings",
+        "--at",
+        "2026-06-14T14:00:00Z",
+    ]);
+    let v: Value = serde_json::from_str(&stdout).unwrap();
+    let p = v["pairings"].as_array().unwrap();
+    // Seven aircraft, one in maintenance; nine airfields.
+    assert_eq!(p.len(), 6 * 9);
+    assert!(p.iter().all(|c| c["state"].is_string()));
+    assert!(p.iter().any(|c| c["state"] == "below"));
+    assert!(p.iter().any(|c| c["state"] == "within"));
+}
