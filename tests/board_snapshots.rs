@@ -57,7 +57,7 @@ fn afternoon_200x60() {
 #[test]
 fn detail_of_a_below_leg_120x40() {
     let mut app = demo_stepped_to(15);
-    select_leg(&mut app, "L10");
+    select_leg(&mut app, "L15");
     assert_eq!(app.selected_leg().unwrap().state.word(), "below");
     app.update(key(KeyCode::Enter));
     insta::assert_snapshot!(render(&mut app, 120, 40).backend());
@@ -74,7 +74,7 @@ fn detail_of_a_below_leg_beside_legs_200x60() {
 #[test]
 fn detail_of_a_below_leg_80x24_scrolled_to_the_takeoff() {
     let mut app = demo_stepped_to(15);
-    select_leg(&mut app, "L10");
+    select_leg(&mut app, "L15");
     app.update(key(KeyCode::Enter));
     for _ in 0..14 {
         app.update(key(KeyCode::Down));

@@ -139,10 +139,10 @@ fn the_demo_steps_opens_a_detail_quits_and_restores_the_terminal() {
     }
     let screen = s.wait_for("15:00", |t| t.contains("15:00Z"));
     assert!(screen.contains("✗ below"), "{screen}");
-    // Open L10's detail through the filter.
-    s.keys(&["/", "L10", "Enter", "Enter"]);
-    let screen = s.wait_for("the detail", |t| t.contains("── Departure XMRS"));
-    assert!(screen.contains("L10"), "{screen}");
+    // Open L15 detail through the filter.
+    s.keys(&["/", "L15", "Enter", "Enter"]);
+    let screen = s.wait_for("the detail", |t| t.contains("── Departure XPIN"));
+    assert!(screen.contains("L15"), "{screen}");
     assert!(screen.contains("Takeoff at"), "{screen}");
     s.keys(&["Escape", "?"]);
     s.wait_for("the help", |t| t.contains("Keys"));

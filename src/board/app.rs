@@ -268,6 +268,8 @@ pub struct Settings {
     pub bell: bool,
     /// Whether this is the built-in demo.
     pub demo: bool,
+    /// Live board with `--at`: the clock runs from that time (wall clock + this).
+    pub live_offset: Option<TimeDelta>,
 }
 
 impl Default for Settings {
@@ -276,6 +278,7 @@ impl Default for Settings {
             color: true,
             bell: false,
             demo: false,
+            live_offset: None,
         }
     }
 }
@@ -555,6 +558,9 @@ impl App {
                 Insert::Duplicate | Insert::KeptCorrection => {}
                 Insert::Rejected(why) => {
                     self.dirty = true;
+                    if source != "on load" {
+                        self.note(NoteKind::Error, format!("{source}: rejected {why}"));
+                    }
                     self.log_received(source, &copy, Some(why));
                 }
             }
@@ -647,7 +653,7 @@ impl App {
                 self.clock += TimeDelta::milliseconds(whole as i64);
             }
             Some(_) => {}
-            None => self.clock = now,
+            None => self.clock = now + self.settings.live_offset.unwrap_or_default(),
         }
         if self.clock.format("%H%M").to_string() != old.format("%H%M").to_string() {
             self.dirty = true;

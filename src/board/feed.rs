@@ -9,7 +9,7 @@ use std::sync::mpsc::Sender;
 use std::thread;
 use std::time::{Duration, Instant};
 
-use chrono::Utc;
+use chrono::{DateTime, TimeDelta, Utc};
 
 use super::app::Msg;
 use crate::observation::{ObservationFile, decode_all};
@@ -19,13 +19,14 @@ pub const FEED_COMMAND_TIMEOUT: Duration = Duration::from_secs(60);
 
 /// Watches `dir` by polling every `every`: new `*.txt` files and lines appended to
 /// known ones are read with [`ObservationFile::read_new`] and sent as reports.
-pub fn spawn_folder_watch(dir: PathBuf, every: Duration, tx: Sender<Msg>) {
+/// `offset` shifts the wall clock used to date the reports (a live board run `--at`).
+pub fn spawn_folder_watch(dir: PathBuf, every: Duration, offset: TimeDelta, tx: Sender<Msg>) {
     thread::Builder::new()
         .name("rhoboard-folder-feed".into())
         .spawn(move || {
             let mut files: BTreeMap<PathBuf, ObservationFile> = BTreeMap::new();
             loop {
-                if !poll_folder(&dir, &mut files, &tx) {
+                if !poll_folder(&dir, &mut files, Utc::now() + offset, &tx) {
                     return;
                 }
                 thread::sleep(every);
@@ -34,10 +35,12 @@ pub fn spawn_folder_watch(dir: PathBuf, every: Duration, tx: Sender<Msg>) {
         .ok();
 }
 
-/// One pass over the folder; false when the board has gone.
+/// One pass over the folder, dating reports against `reference`; false when the
+/// board has gone.
 pub fn poll_folder(
     dir: &Path,
     files: &mut BTreeMap<PathBuf, ObservationFile>,
+    reference: DateTime<Utc>,
     tx: &Sender<Msg>,
 ) -> bool {
     let source = format!("folder {}", dir.display());
@@ -66,7 +69,7 @@ pub fn poll_folder(
             || p.display().to_string(),
             |n| n.to_string_lossy().into_owned(),
         );
-        let msg = match f.read_new(Utc::now()) {
+        let msg = match f.read_new(reference) {
             Ok(reports) if reports.is_empty() => continue,
             Ok(reports) => Msg::Observations {
                 source: name,
@@ -86,7 +89,7 @@ pub fn poll_folder(
 
 /// Runs `command` through `sh -c` now and then every `every`, reading its standard
 /// output as METAR lines.
-pub fn spawn_feed_command(command: String, every: Duration, tx: Sender<Msg>) {
+pub fn spawn_feed_command(command: String, every: Duration, offset: TimeDelta, tx: Sender<Msg>) {
     thread::Builder::new()
         .name("rhoboard-command-feed".into())
         .spawn(move || {
@@ -94,7 +97,7 @@ pub fn spawn_feed_command(command: String, every: Duration, tx: Sender<Msg>) {
                 let msg = match run_feed_command(&command, FEED_COMMAND_TIMEOUT) {
                     Ok(text) => Msg::Observations {
                         source: "feed command".into(),
-                        reports: decode_all(&text, Utc::now()),
+                        reports: decode_all(&text, Utc::now() + offset),
                     },
                     Err(error) => Msg::FeedError {
                         source: format!("feed command '{command}'"),

@@ -27,6 +27,8 @@ pub struct Feeds {
     pub folder: Option<(PathBuf, Duration)>,
     /// A command whose output is read as reports, and how often to run it.
     pub command: Option<(String, Duration)>,
+    /// Added to the wall clock when dating reports (a live board run `--at`).
+    pub clock_offset: chrono::TimeDelta,
 }
 
 /// How often the folder is polled.
@@ -101,10 +103,10 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<()> {
         let stop = Arc::new(AtomicBool::new(false));
         spawn_input(tx.clone(), stop.clone());
         if let Some((dir, every)) = feeds.folder {
-            feed::spawn_folder_watch(dir, every, tx.clone());
+            feed::spawn_folder_watch(dir, every, feeds.clock_offset, tx.clone());
         }
         if let Some((cmd, every)) = feeds.command {
-            feed::spawn_feed_command(cmd, every, tx.clone());
+            feed::spawn_feed_command(cmd, every, feeds.clock_offset, tx.clone());
         }
         drop(tx);
         let mut last = Instant::now();

@@ -59,10 +59,16 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         color: std::env::var_os("NO_COLOR").is_none_or(|v| v.is_empty()),
         bell: args.bell,
         demo: loaded.demo,
+        live_offset: None,
     };
     let replaying = args.replay.is_some() || loaded.demo;
     let at = args.at.as_deref().map(parse_at).transpose()?;
     let mut feeds = Feeds::default();
+    let mut settings = settings;
+    if !replaying && let Some(t) = at {
+        settings.live_offset = Some(t - now);
+        feeds.clock_offset = t - now;
+    }
     let mut app = if replaying {
         if args.feed_cmd.is_some() {
             anyhow::bail!(
