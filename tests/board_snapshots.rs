@@ -193,3 +193,33 @@ fn the_first_frame_lists_the_days_legs_with_their_states() {
     assert!(s.contains("✓ within") && s.contains("below"), "{s}");
     assert!(s.contains("Planning aid only"), "{s}");
 }
+
+#[test]
+fn states_are_coloured_and_no_color_keeps_glyph_word_and_bold() {
+    use ratatui::style::{Color, Modifier};
+    for color in [true, false] {
+        let mut app = App::demo(
+            board_common::demo_time(15, 0),
+            rhoboard::board::Settings {
+                color,
+                ..Default::default()
+            },
+        )
+        .unwrap();
+        let t = render(&mut app, 120, 40);
+        let buf = t.backend().buffer();
+        // Find "✗ below" in the legs' state column and check its style.
+        let (x, y) = (0..40u16)
+            .flat_map(|y| (0..120u16).map(move |x| (x, y)))
+            .find(|&(x, y)| buf[(x, y)].symbol() == "✗" && x > 30 && y > 2)
+            .expect("a below leg");
+        let cell = &buf[(x, y)];
+        assert_eq!(buf[(x + 2, y)].symbol(), "b", "glyph then word");
+        assert!(cell.modifier.contains(Modifier::BOLD), "below is bold");
+        if color {
+            assert_eq!(cell.fg, Color::Red);
+        } else {
+            assert_eq!(cell.fg, Color::Reset, "NO_COLOR: no colour");
+        }
+    }
+}

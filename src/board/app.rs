@@ -533,60 +533,75 @@ impl App {
 
     /// Inserts reports, recomputes what they touch and lists the changes.
     fn take_reports(&mut self, source: &str, reports: Vec<Report>) {
-        let mut touched: Vec<(String, String)> = Vec::new();
+        // Station by station, so a change is put down to the report that made it.
+        let mut groups: Vec<(String, Vec<Report>)> = Vec::new();
         for r in reports {
-            // The note carries the board's time; name the report's own only if it differs.
-            let label = match r.observed_at {
-                Some(t)
-                    if t.format("%H%M").to_string() != self.clock.format("%H%M").to_string() =>
-                {
-                    format!("{} {}", r.station, t.format("%H%MZ"))
-                }
-                _ => r.station.clone(),
-            };
-            let station = r.station.clone();
-            let copy = r.clone();
-            match self.store.insert(r) {
-                Insert::Added { .. } | Insert::Replaced => {
-                    self.log_received(source, &copy, None);
-                    if !touched.iter().any(|(s, _)| *s == station) {
-                        touched.push((station, label));
-                    } else if let Some(t) = touched.iter_mut().find(|(s, _)| *s == station) {
-                        t.1 = label;
-                    }
-                }
-                Insert::Duplicate | Insert::KeptCorrection => {}
-                Insert::Rejected(why) => {
-                    self.dirty = true;
-                    if source != "on load" {
-                        self.note(NoteKind::Error, format!("{source}: rejected {why}"));
-                    }
-                    self.log_received(source, &copy, Some(why));
-                }
+            match groups.iter_mut().find(|(s, _)| *s == r.station) {
+                Some((_, g)) => g.push(r),
+                None => groups.push((r.station.clone(), vec![r])),
             }
         }
-        if touched.is_empty() {
+        // Many stations at once (a folder read at start): one full pass instead.
+        let one_pass = groups.len() > 32;
+        let mut any = false;
+        for (station, group) in groups {
+            let mut label = None;
+            for r in group {
+                // The note carries the board's time; name the report's own only if it differs.
+                let this = match r.observed_at {
+                    Some(t)
+                        if t.format("%H%M").to_string()
+                            != self.clock.format("%H%M").to_string() =>
+                    {
+                        format!("{} {}", r.station, t.format("%H%MZ"))
+                    }
+                    _ => r.station.clone(),
+                };
+                let copy = r.clone();
+                match self.store.insert(r) {
+                    Insert::Added { .. } | Insert::Replaced => {
+                        self.log_received(source, &copy, None);
+                        label = Some(this);
+                    }
+                    Insert::Duplicate | Insert::KeptCorrection => {}
+                    Insert::Rejected(why) => {
+                        self.dirty = true;
+                        if source != "on load" {
+                            self.note(NoteKind::Error, format!("{source}: rejected {why}"));
+                        }
+                        self.log_received(source, &copy, Some(why));
+                    }
+                }
+            }
+            let Some(label) = label else {
+                continue;
+            };
+            any = true;
+            if !one_pass {
+                let ctx = Context {
+                    ops: &self.ops,
+                    model: &self.model,
+                    store: &self.store,
+                    at: self.clock,
+                };
+                let changes = self.assessment.on_report(&ctx, &station);
+                self.note_changes(&label, changes);
+            }
+        }
+        if !any {
             return;
         }
         self.dirty = true;
-        let ctx = Context {
-            ops: &self.ops,
-            model: &self.model,
-            store: &self.store,
-            at: self.clock,
-        };
-        let mut all: Vec<(String, Vec<Change>)> = Vec::new();
-        if touched.len() > 32 {
-            // Many stations at once (a folder read at start): one full pass.
-            all.push((String::new(), self.assessment.refresh(&ctx)));
+        if one_pass {
+            let ctx = Context {
+                ops: &self.ops,
+                model: &self.model,
+                store: &self.store,
+                at: self.clock,
+            };
+            let changes = self.assessment.refresh(&ctx);
             self.last_refresh = self.clock;
-        } else {
-            for (station, label) in &touched {
-                all.push((label.clone(), self.assessment.on_report(&ctx, station)));
-            }
-        }
-        for (label, changes) in all {
-            self.note_changes(&label, changes);
+            self.note_changes("", changes);
         }
         self.rebuild_rows();
     }

@@ -236,7 +236,7 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
             } else {
                 "—".to_string()
             };
-            let mut spans = vec![
+            out.push(Line::from(vec![
                 Span::raw(format!(
                     "  {:<16} {:>10} limit {:>10}  margin {:>9}  ",
                     l.kind.word(),
@@ -245,13 +245,12 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
                     margin
                 )),
                 state_span(t, l.state),
-            ];
-            if !l.source.is_empty() {
-                spans.push(Span::styled(format!("  {}", l.source), t.dim()));
-            }
-            out.push(Line::from(spans));
+            ]));
             if !l.note.is_empty() && l.state != State::Within {
-                out.push(indented(2, l.note.clone()));
+                out.push(indented(3, l.note.clone()));
+            }
+            if !l.source.is_empty() {
+                out.push(Line::styled(format!("      from {}", l.source), t.dim()));
             }
         }
     }
@@ -336,7 +335,7 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, t: Theme) {
     ));
     for ch in &p.checks {
         let r = &ch.result;
-        let mut spans = vec![
+        out.push(Line::from(vec![
             Span::raw(format!(
                 "  check {}: {:.0} m × {} = {:.0} m needed of {:.0} m → {}  ",
                 ch.rule,
@@ -347,11 +346,10 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, t: Theme) {
                 pct(r.margin)
             )),
             state_span(t, ch.state),
-        ];
+        ]));
         if !ch.source.is_empty() {
-            spans.push(Span::styled(format!("  {}", ch.source), t.dim()));
+            out.push(Line::styled(format!("      from {}", ch.source), t.dim()));
         }
-        out.push(Line::from(spans));
     }
 }
 

@@ -710,7 +710,7 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             } else {
                 ""
             };
-            let narrow = area.width < 110;
+            let narrow = area.width < 130;
             if narrow {
                 let replay = if app.replay.is_some() {
                     " space:pause n/p:hour"
