@@ -105,18 +105,24 @@ impl Session {
     }
 }
 
-fn assert_restored(s: &Session, screen: &str) {
+fn assert_restored(s: &Session) {
+    // Wait for stty's report after the exit line, then read its flags as words.
+    let screen = s.wait_for("stty's report", |t| {
+        t.contains("rhoboard exited") && t.split_whitespace().any(|w| w.ends_with("icanon"))
+    });
     assert!(!s.alternate_on(), "left the alternate screen");
     assert!(
         !screen.contains("Planning aid only"),
         "board gone:\n{screen}"
     );
-    assert!(screen.contains(" icanon"), "canonical mode back:\n{screen}");
+    let words: Vec<&str> = screen.split_whitespace().collect();
+    assert!(words.contains(&"icanon"), "canonical mode back:\n{screen}");
     assert!(
-        !screen.contains("-icanon"),
+        !words.contains(&"-icanon"),
         "canonical mode back:\n{screen}"
     );
-    assert!(!screen.contains("-echo "), "echo back:\n{screen}");
+    assert!(words.contains(&"echo"), "echo back:\n{screen}");
+    assert!(!words.contains(&"-echo"), "echo back:\n{screen}");
 }
 
 #[test]
@@ -149,7 +155,7 @@ fn the_demo_steps_opens_a_detail_quits_and_restores_the_terminal() {
     s.keys(&["Escape", "q"]);
     let screen = s.wait_for("exit", |t| t.contains("rhoboard exited"));
     assert!(screen.contains("rhoboard exited 0"), "{screen}");
-    assert_restored(&s, &screen);
+    assert_restored(&s);
 }
 
 #[test]
@@ -171,6 +177,6 @@ fn sigterm_restores_the_terminal() {
         .status()
         .expect("kill");
     assert!(status.success());
-    let screen = s.wait_for("exit", |t| t.contains("rhoboard exited"));
-    assert_restored(&s, &screen);
+    s.wait_for("exit", |t| t.contains("rhoboard exited"));
+    assert_restored(&s);
 }
