@@ -150,8 +150,12 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
             if o.manual {
                 tags.push("entered by hand");
             }
+            let as_of = format!(
+                "as of now: no report for {} yet",
+                s.event_at.format("%H%MZ")
+            );
             if o.as_of {
-                tags.push("as of the board's time: the report for this time is not in yet");
+                tags.push(&as_of);
             }
             if o.stale {
                 tags.push("STALE");
@@ -159,10 +163,10 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
             let tags = if tags.is_empty() {
                 String::new()
             } else {
-                format!(" [{}]", tags.join("; "))
+                format!("; {}", tags.join("; "))
             };
             out.push(plain(format!(
-                "Observation ({:.0} min old{tags}):",
+                "Observation, {:.0} min old{tags}:",
                 o.age_min
             )));
             out.push(indented(1, o.text.clone()));
@@ -170,19 +174,29 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
     }
     if let Some(a) = s.air {
         out.push(plain(format!(
-            "Air: OAT {:.1} °C{}, QNH {:.1} hPa, station pressure {:.1} hPa",
+            "Air: OAT {:.1} °C{}, QNH {:.1} hPa",
             a.oat_c,
             a.dewpoint_c
                 .map_or(String::new(), |d| format!(", dew point {d:.1} °C")),
             a.qnh_hpa,
-            a.station_pressure_hpa
+        )));
+        out.push(plain(format!(
+            "     station pressure {:.1} hPa, pressure altitude {:.0} ft, ISA {:+.1} °C",
+            a.station_pressure_hpa, a.pressure_altitude_ft, a.isa_deviation_c
         )));
         let thumb =
             crate::atmosphere::density_altitude_rule_of_thumb_ft(a.pressure_altitude_ft, a.oat_c);
-        out.push(plain(format!(
-            "     pressure altitude {:.0} ft, ISA {:+.1} °C, density altitude {:.0} ft (cross-check, 120 ft/°C rule: {:.0} ft)",
-            a.pressure_altitude_ft, a.isa_deviation_c, a.density_altitude_ft, thumb
-        )));
+        out.push(Line::from(vec![
+            Span::raw("     "),
+            Span::styled(
+                format!("density altitude {:.0} ft", a.density_altitude_ft),
+                t.heading(),
+            ),
+            Span::styled(
+                format!(" (cross-check, 120 ft/°C rule: {thumb:.0} ft)"),
+                t.dim(),
+            ),
+        ]));
     }
     if !s.ends.is_empty() {
         out.push(plain("Wind per runway end (steady; limits use the gust):"));

@@ -51,12 +51,12 @@ pub const FIELDS: [FieldSpec; 11] = [
     },
     FieldSpec {
         label: "visibility",
-        hint: "8km, 5sm, 1500m, optional",
+        hint: "8km, 5sm, 1500m (empty: unknown)",
         error_name: "visibility",
     },
     FieldSpec {
         label: "ceiling",
-        hint: "2500ft or none, optional",
+        hint: "2500ft, or none (empty: unknown)",
         error_name: "ceiling",
     },
     FieldSpec {

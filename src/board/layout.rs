@@ -83,7 +83,7 @@ impl BoardLayout {
         let (main, detail) = if s.detail_open && (s.pairing || !wide) {
             (body, Some(body))
         } else if wide && s.pane == Pane::Legs {
-            let detail_w = (area.width * 9 / 20).max(60);
+            let detail_w = (area.width * 2 / 5).max(60);
             let [legs, detail] = body.layout(&Layout::horizontal([
                 Constraint::Min(70),
                 Constraint::Length(detail_w),
@@ -160,7 +160,7 @@ mod tests {
         let d = l.detail.expect("detail beside legs");
         assert_eq!(d.y, l.main.y);
         assert_eq!(l.main.right(), d.x);
-        assert_eq!(d.width, 90);
+        assert_eq!(d.width, 80);
         assert!(!l.detail_replaces_main());
         // Other panes get the full width.
         let p = BoardLayout::build(

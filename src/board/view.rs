@@ -717,8 +717,9 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 } else {
                     ""
                 };
+                let esc = if area.width < 100 { "" } else { " Esc:close" };
                 let text = format!(
-                    "?:help Tab:pane Enter:open Esc:close /:filter s:sort o:report{replay} q:quit"
+                    "?:help Tab:pane Enter:open{esc} /:filter s:sort o:report{replay} q:quit"
                 );
                 Line::styled(text, t.dim()).render(area, buf);
                 return;

@@ -121,7 +121,7 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
     if app.settings.demo {
         app.notice(
             NoteKind::Info,
-            "The built-in demo (fictional): its day replays, one hour every ten seconds. ? shows every key."
+            "Demo (fictional): the day replays, an hour every 10 s. Enter opens a leg; ? shows every key."
                 .into(),
         );
     }
@@ -130,12 +130,13 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
 
 /// Runs `rhoboard board`.
 pub fn run(args: &Args) -> anyhow::Result<Outcome> {
+    // Bad arguments and operator folders are reported first, terminal or not.
+    let (app, feeds) = prepare(args, Utc::now())?;
     if !std::io::stdout().is_terminal() {
         anyhow::bail!(
             "the board needs a terminal; for text or JSON use `rhoboard check` (with --json)"
         );
     }
-    let (app, feeds) = prepare(args, Utc::now())?;
     crate::board::run(app, feeds)?;
     Ok(Outcome::Success)
 }
