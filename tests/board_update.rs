@@ -387,3 +387,26 @@ fn staleness_is_rechecked_as_the_clock_moves_without_reports() {
     let l05 = app.assessment.legs.iter().find(|r| r.id == "L05").unwrap();
     assert_eq!(l05.state, State::NoData, "the 08Z report is stale by 0930Z");
 }
+
+#[test]
+fn past_midnight_the_new_days_legs_replace_the_old() {
+    let mut app = demo(23, 0);
+    assert_eq!(app.assessment.legs.len(), 15);
+    app.update(key(KeyCode::Char('n')));
+    assert_eq!(app.clock, demo_time(23, 0) + chrono::TimeDelta::hours(1));
+    assert!(
+        app.assessment.legs.is_empty(),
+        "the demo has no legs on the 15th"
+    );
+    assert!(app.notes.iter().any(|n| n.text.contains("new UTC day")));
+}
+
+#[test]
+fn stepping_back_over_midnight_brings_the_day_back() {
+    let mut app = demo(23, 30);
+    app.update(key(KeyCode::Char('n')));
+    assert!(app.assessment.legs.is_empty());
+    app.update(key(KeyCode::Char('p')));
+    assert_eq!(app.clock, demo_time(23, 0));
+    assert_eq!(app.assessment.legs.len(), 15);
+}

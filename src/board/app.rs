@@ -317,6 +317,8 @@ pub struct App {
     /// Visible legs: indices into `assessment.legs`, filtered and sorted.
     rows: Vec<usize>,
     last_refresh: DateTime<Utc>,
+    /// The UTC date whose legs are on the board.
+    day: chrono::NaiveDate,
     bell_pending: bool,
     /// Set when something visible changed since the last draw.
     dirty: bool,
@@ -387,6 +389,7 @@ impl App {
             manual: Vec::new(),
             rows: Vec::new(),
             last_refresh: clock,
+            day: clock.date_naive(),
             bell_pending: false,
             dirty: true,
         };
@@ -694,11 +697,31 @@ impl App {
                 self.take_reports("replay", batch);
             }
         }
-        if self.clock - self.last_refresh >= REFRESH_EVERY
-            || self.clock.date_naive() != self.last_refresh.date_naive()
-        {
+        if self.clock.date_naive() != self.day {
+            self.new_day();
+        } else if self.clock - self.last_refresh >= REFRESH_EVERY {
             self.refresh();
         }
+    }
+
+    /// The clock passed midnight UTC: the new date's legs replace the old.
+    fn new_day(&mut self) {
+        self.day = self.clock.date_naive();
+        let legs = crate::commands::check::legs_of_day(&self.ops, self.clock);
+        let n = legs.len();
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        self.assessment = Assessment::new(&ctx, legs);
+        self.last_refresh = self.clock;
+        self.flash.clear();
+        self.ui.leg_row = 0;
+        self.rebuild_rows();
+        let text = format!("a new UTC day: the {n} legs of {}", self.day);
+        self.note(NoteKind::Info, text);
     }
 
     /// Replay: empties the store and refills it with the reports up to the clock.
@@ -733,7 +756,8 @@ impl App {
             store: &self.store,
             at: self.clock,
         };
-        let legs = std::mem::take(&mut self.assessment.leg_indices);
+        self.day = self.clock.date_naive();
+        let legs = crate::commands::check::legs_of_day(&self.ops, self.clock);
         self.assessment = Assessment::new(&ctx, legs);
         self.last_refresh = self.clock;
         self.dirty = true;
