@@ -345,3 +345,155 @@ fn warming_never_improves_the_state_and_headroom_only_shrinks() {
         }
     }
 }
+
+/// A METAR for `station` at 0600Z with the temperature in tenths (remark T group).
+fn metar_tenths(station: &str, t_c: f64, wind: &str) -> String {
+    let tenths = (t_c * 10.0).round() as i64;
+    let sign = if tenths < 0 { 1 } else { 0 };
+    let whole = (t_c.round() as i64).max(0);
+    format!(
+        "METAR {station} 140600Z {wind} 9999 FEW050 {whole:02}/02 Q1013 RMK T{sign}{:03}0020",
+        tenths.abs()
+    )
+}
+
+/// Headroom, then the state just past it: below, limited by the check named.
+fn binding_check(ops: &Ops, model: &Model, id: &str, wind: &str) -> String {
+    let i = leg_index(ops, id);
+    let leg = &ops.legs[i];
+    let base = 10.0;
+    let mk = |t: f64| {
+        let a = metar_tenths(&leg.from, t, wind);
+        let b = metar_tenths(&leg.to, t, wind);
+        store_with(&[&a, &b], at(6, 10))
+    };
+    let store = mk(base);
+    let ctx = Context {
+        ops,
+        model,
+        store: &store,
+        at: at(6, 10),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    let h = r.headroom.expect("headroom");
+    assert!(!h.table_ends && h.warming_c > 0.0, "{id}: {h:?}");
+    // Just inside: not below. Just past: below, and the limiting check says why.
+    let inside = mk(base + h.warming_c - 0.1);
+    let r_in = assess_leg(
+        &Context {
+            store: &inside,
+            ..ctx
+        },
+        i,
+    )
+    .unwrap();
+    assert_ne!(r_in.state, State::Below, "{id} at +{} C", h.warming_c - 0.1);
+    let past = mk(base + h.warming_c + 0.3);
+    let r_past = assess_leg(
+        &Context {
+            store: &past,
+            ..ctx
+        },
+        i,
+    )
+    .unwrap();
+    assert_eq!(
+        r_past.state,
+        State::Below,
+        "{id} at +{} C",
+        h.warming_c + 0.3
+    );
+    r_past.limiting.expect("limiting").check
+}
+
+#[test]
+fn headroom_where_the_climb_limits_first() {
+    let ops = demo_ops();
+    let mut model = Model::new(&ops, &DaySettings::default());
+    let i = leg_index(&ops, "L04");
+    let fi = ops.airfield_position(&ops.legs[i].from).unwrap();
+    // Give every end of the departure field a steep obstacle gradient.
+    let first = model.fields[fi].first_end;
+    for k in 0..model.fields[fi].end_count {
+        model.ends[first + k].required_gradient_ft_per_nm = Some(640.0);
+    }
+    let check = binding_check(&ops, &model, "L04", "00000KT");
+    assert!(check.contains("climb gradient"), "{check}");
+}
+
+#[test]
+fn headroom_where_the_landing_limits_first() {
+    let ops = demo_ops();
+    let i = leg_index(&ops, "L04");
+    let leg = &ops.legs[i];
+    // What the landing needs at 10 °C, calm; then a destination with 3 % more than that.
+    let model = Model::new(&ops, &DaySettings::default());
+    let a = metar_tenths(&leg.from, 10.0, "00000KT");
+    let b = metar_tenths(&leg.to, 10.0, "00000KT");
+    let store = store_with(&[&a, &b], at(6, 10));
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(6, 10),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    let need = r.arrival.landing.as_ref().unwrap().checks[0]
+        .result
+        .required_m;
+    let mut model = Model::new(&ops, &DaySettings::default());
+    let fi = ops.airfield_position(&leg.to).unwrap();
+    let first = model.fields[fi].first_end;
+    for k in 0..model.fields[fi].end_count {
+        model.ends[first + k].lda_m = need * 1.03;
+    }
+    let check = binding_check(&ops, &model, "L04", "00000KT");
+    assert!(check.contains("landing"), "{check}");
+}
+
+#[test]
+fn a_pairing_opens_to_its_chain_with_the_same_state() {
+    let ops = demo_ops();
+    let model = Model::new(&ops, &DaySettings::default());
+    let texts: Vec<String> = ops.observations.iter().map(|(_, t)| t.clone()).collect();
+    let mut store = Store::default();
+    for t in &texts {
+        for r in rhoboard::observation::decode_all(t, at(14, 0)) {
+            store.insert(r.report);
+        }
+    }
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(14, 0),
+    };
+    let m = rhoboard::assess::pairing::matrix(&ctx);
+    let mut compared = 0;
+    let mut mismatches = Vec::new();
+    for ai in 0..m.aircraft.len() {
+        for fi in 0..m.fields {
+            let cell = m.cell(ai, fi);
+            let r = m.open(&ctx, ai, fi).unwrap();
+            // The chain shows the numbers behind the cell: same runway in use, and its
+            // takeoff and landing checks are present whenever the cell has data.
+            if cell.state != State::NoData {
+                assert!(r.departure.takeoff.is_some() || !r.departure.gaps.is_empty());
+                let k = cell.end_in_use.unwrap() as usize;
+                assert_eq!(
+                    r.departure.runway.as_deref(),
+                    Some(ops.airfields[fi].runway_ends[k].designator.as_str())
+                );
+                if r.state != cell.state {
+                    mismatches.push(format!(
+                        "{} {}: cell {:?} chain {:?} {:?}",
+                        ai, ops.airfields[fi].id, cell.state, r.state, r.limiting
+                    ));
+                }
+                compared += 1;
+            }
+        }
+    }
+    assert!(compared > 20);
+    assert!(mismatches.is_empty(), "{mismatches:#?}");
+}

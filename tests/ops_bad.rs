@@ -114,6 +114,7 @@ const CASES: &[&str] = &[
     "designator-heading",
     "distance-decreases",
     "duplicate-ids",
+    "envelope-crossing",
     "ground-roll-above-50ft",
     "irregular-ok",
     "json-syntax",
@@ -123,6 +124,7 @@ const CASES: &[&str] = &[
     "leg-overlap-and-position",
     "leg-unknown-refs",
     "leg-wrong-day-file",
+    "loads-fuel-units",
     "maintenance-without-note",
     "missing-field",
     "missing-file",
@@ -467,4 +469,26 @@ fn wrong_type() {
     Fix the errors above and run `rhoboard validate` again.
     exit 2
     "#);
+}
+
+#[test]
+fn loads_fuel_units() {
+    insta::assert_snapshot!(validate_case("loads-fuel-units"), @r"
+    3 error(s):
+      legs/2026-06-14.json:7:15: legs[0].loads: give exactly one of fuel_at_start_l, fuel_at_start_usgal or fuel_at_start_kg
+      legs/2026-06-14.json:7:29: legs[0].loads.stations[0]: standard masses are used but operator.json has no policy.standard_masses
+      legs/2026-06-14.json:7:73: legs[0].loads.stations[1]: give mass_kg, standard_adults or standard_children
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    ");
+}
+
+#[test]
+fn envelope_crossing() {
+    insta::assert_snapshot!(validate_case("envelope-crossing"), @r"
+    1 error(s):
+      fleet/types/tiny.json:31:17: mass_balance.envelope: the CG envelope crosses itself; list its corners in order around the outline
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    ");
 }

@@ -40,6 +40,18 @@ pub enum LimitKind {
     Endorsement,
     /// The pilot is limited to named airfields.
     NamedAirfields,
+    /// A loading station's limit.
+    Loading,
+    /// Maximum takeoff mass.
+    TakeoffMass,
+    /// Maximum landing mass.
+    LandingMass,
+    /// Usable fuel capacity.
+    Fuel,
+    /// Fuel reserve at landing.
+    FuelReserve,
+    /// The CG envelope, takeoff to landing.
+    Envelope,
 }
 
 impl LimitKind {
@@ -58,6 +70,12 @@ impl LimitKind {
             LimitKind::Daylight => "daylight",
             LimitKind::Endorsement => "endorsement",
             LimitKind::NamedAirfields => "named airfields",
+            LimitKind::Loading => "station load",
+            LimitKind::TakeoffMass => "takeoff mass",
+            LimitKind::LandingMass => "landing mass",
+            LimitKind::Fuel => "fuel capacity",
+            LimitKind::FuelReserve => "fuel reserve",
+            LimitKind::Envelope => "CG envelope",
         }
     }
 }
@@ -114,15 +132,16 @@ impl LimitCheck {
     }
 }
 
-fn max_check(
+/// A limit on a value with `margin` to spare (in the value's unit).
+fn bounded(
     kind: LimitKind,
     value: f64,
     limit: f64,
+    margin: f64,
     unit: &'static str,
     band: f64,
     source: String,
 ) -> LimitCheck {
-    let margin = limit - value;
     LimitCheck {
         kind,
         value: Some(value),
@@ -137,6 +156,19 @@ fn max_check(
     }
 }
 
+/// A maximum: `value ≤ limit`.
+fn max_check(
+    kind: LimitKind,
+    value: f64,
+    limit: f64,
+    unit: &'static str,
+    band: f64,
+    source: String,
+) -> LimitCheck {
+    bounded(kind, value, limit, limit - value, unit, band, source)
+}
+
+/// A minimum: `value ≥ limit`.
 fn min_check(
     kind: LimitKind,
     value: f64,
@@ -145,19 +177,7 @@ fn min_check(
     band: f64,
     source: String,
 ) -> LimitCheck {
-    let margin = value - limit;
-    LimitCheck {
-        kind,
-        value: Some(value),
-        limit: Some(limit),
-        unit,
-        margin,
-        band,
-        state: verdict(margin, band),
-        source,
-        note: String::new(),
-        open_ended: false,
-    }
+    bounded(kind, value, limit, value - limit, unit, band, source)
 }
 
 fn flag(kind: LimitKind, ok: bool, source: String, note: String) -> LimitCheck {

@@ -9,6 +9,7 @@
 
 use serde_json::{Value, json};
 
+use super::leg::LegResult;
 use super::leg::{
     Context, EndWind, FieldWx, Setup, departure_chains, landing_chain, observation_for,
 };
@@ -17,7 +18,7 @@ use super::model::{EndModel, Model};
 use super::perf;
 use super::state::{State, verdict};
 use crate::ops::operator::Buffers;
-use crate::ops::{Category, Ops, Status};
+use crate::ops::{Category, Leg, Ops, Status};
 
 /// What decided a pairing's state.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -115,6 +116,32 @@ impl Matrix {
             }
         }
         Value::Array(rows)
+    }
+
+    /// The full chain behind a cell, on demand: the pairing assessed as a leg from and
+    /// to the airfield at the reference time, with the cell's masses and category and no
+    /// pilot (so no pilot's own limits). `ai` indexes `aircraft`, `fi` the airfields.
+    pub fn open(&self, ctx: &Context<'_>, ai: usize, fi: usize) -> Option<LegResult> {
+        let a = *self.aircraft.get(ai)?;
+        let ops = ctx.ops;
+        let field = ops.airfields.get(fi)?;
+        let (tom, lm) = self.prep.masses(ctx.model, a, fi)?;
+        let at = ctx.at.fixed_offset();
+        let leg = Leg {
+            id: format!("{} at {}", ops.aircraft[a].registration, field.id),
+            departs_at: at,
+            arrives_at: at,
+            aircraft: ops.aircraft[a].registration.clone(),
+            pilot: String::new(),
+            category: self.prep.aircraft[a].category,
+            from: field.id.clone(),
+            to: field.id.clone(),
+            takeoff_mass_kg: Some(tom),
+            landing_mass_kg: Some(lm),
+            loads: None,
+            remarks: "pairing".to_string(),
+        };
+        Some(super::leg::assess(ctx, &leg, usize::MAX))
     }
 
     /// Recomputes one airfield's column (after a new report for it).
@@ -430,6 +457,11 @@ struct Outcome {
 }
 
 impl Outcome {
+    /// A limit with `margin` to spare in its unit and a thin `band` in the same unit.
+    fn limit(&mut self, margin: f64, band: f64, what: PairLimit) {
+        self.add(verdict(margin, band), margin / band, margin, what);
+    }
+
     fn add(&mut self, state: State, score: f64, margin_percent: f64, what: PairLimit) {
         if state > self.state || (state == self.state && score < self.score) {
             *self = Outcome {
@@ -505,25 +537,15 @@ fn evaluate(
         Err(_) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
     }
     let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
-    let xm = max_x - w.crosswind_kt;
-    o.add(
-        verdict(xm, b.wind_kt),
-        xm / b.wind_kt,
-        xm,
-        PairLimit::Crosswind,
-    );
-    let tm = mins.max_tailwind_kt - w.tailwind_limit_kt;
-    o.add(
-        verdict(tm, b.wind_kt),
-        tm / b.wind_kt,
-        tm,
+    o.limit(max_x - w.crosswind_kt, b.wind_kt, PairLimit::Crosswind);
+    o.limit(
+        mins.max_tailwind_kt - w.tailwind_limit_kt,
+        b.wind_kt,
         PairLimit::Tailwind,
     );
-    let dm = mins.max_density_altitude_ft - air.density_altitude_ft;
-    o.add(
-        verdict(dm, b.density_altitude_ft),
-        dm / b.density_altitude_ft,
-        dm,
+    o.limit(
+        mins.max_density_altitude_ft - air.density_altitude_ft,
+        b.density_altitude_ft,
         PairLimit::DensityAltitude,
     );
     o

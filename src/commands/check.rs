@@ -203,16 +203,17 @@ fn side_json(s: &Side) -> Value {
 
 /// The JSON form of one leg (README documents the keys).
 pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
-    let leg = &ops.legs[r.index];
+    // A pairing opened to its chain is not one of the operator's legs.
+    let leg = ops.legs.get(r.index);
     json!({
         "id": r.id,
-        "departs_at": leg.departs_utc(),
-        "arrives_at": leg.arrives_utc(),
-        "aircraft": leg.aircraft,
-        "pilot": leg.pilot,
+        "departs_at": r.departure.event_at,
+        "arrives_at": r.arrival.event_at,
+        "aircraft": leg.map(|l| l.aircraft.clone()),
+        "pilot": leg.map(|l| l.pilot.clone()),
         "category": r.category,
-        "from": leg.from,
-        "to": leg.to,
+        "from": r.departure.airfield,
+        "to": r.arrival.airfield,
         "state": r.state,
         "limiting_check": r.limiting.as_ref().map(|l| l.check.clone()),
         "limiting_margin": r.limiting.as_ref().map(|l| l.margin.clone()),
@@ -221,6 +222,30 @@ pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
         "survives_expected_high": r.headroom.and_then(|h| h.survives_expected_high),
         "takeoff_mass_kg": r.takeoff_mass_kg,
         "landing_mass_kg": r.landing_mass_kg,
+        "mass_balance": r.mass_balance.as_ref().map(|m| {
+            let finite = |v: f64| v.is_finite().then_some(v);
+            json!({
+                "takeoff_mass_kg": m.takeoff.mass_kg,
+                "landing_mass_kg": m.landing.mass_kg,
+                "ramp_mass_kg": m.ramp.mass_kg,
+                "takeoff_cg_mm": finite(m.takeoff.cg_mm),
+                "landing_cg_mm": finite(m.landing.cg_mm),
+                "within_envelope": m.within_envelope,
+                "fuel_start_l": finite(m.fuel_start_l),
+                "fuel_landing_l": finite(m.fuel_landing_l),
+                "fuel_reserve_l": finite(m.fuel_reserve_l),
+                "payload_headroom_kg": r.payload_headroom.as_ref().map(|p| p.kg),
+                "payload_headroom_station": r.payload_headroom.as_ref().map(|p| p.station.clone()),
+                "loading": m.rows.iter().map(|row| json!({
+                    "station": row.station,
+                    "name": row.name,
+                    "mass_kg": row.mass_kg,
+                    "arm_mm": row.arm_mm,
+                    "moment_kg_mm": row.moment_kg_mm,
+                    "max_mass_kg": row.max_mass_kg,
+                })).collect::<Vec<_>>(),
+            })
+        }),
         "departure": side_json(&r.departure),
         "arrival": side_json(&r.arrival),
         "reasons": r.reasons,
@@ -244,7 +269,9 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
         "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
     )?;
     for r in results {
-        let leg = &ops.legs[r.index];
+        let Some(leg) = ops.legs.get(r.index) else {
+            continue;
+        };
         writeln!(
             out,
             "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  {}",

@@ -206,7 +206,39 @@ pub struct Policy {
     /// Expected high temperature of the day at the home base, °C, if the operator gives one.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub expected_high_c: Option<f64>,
+    /// Standard masses for people loaded without a stated mass.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub standard_masses: Option<StandardMasses>,
+    /// Fuel that must remain at landing.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fuel_reserve: Option<FuelReserve>,
 }
+
+/// Standard masses per person, including hand baggage.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct StandardMasses {
+    /// An adult, kg.
+    pub adult_kg: f64,
+    /// A child, kg.
+    pub child_kg: f64,
+    /// Where the figures come from.
+    pub source: String,
+}
+
+/// The fuel reserve at landing.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct FuelReserve {
+    /// Minutes of flight at the planned burn.
+    pub minutes: f64,
+    /// Where it comes from.
+    pub source: String,
+}
+
+/// The reserve used when the operator gives none, minutes (conservative: the night
+/// figure of 14 CFR 91.151(a)(2); by day the rule asks 30 minutes).
+pub const DEFAULT_FUEL_RESERVE_MIN: f64 = 45.0;
 
 /// Which performance figure a check uses.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
