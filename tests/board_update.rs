@@ -78,7 +78,7 @@ fn filter_narrows_the_legs_and_esc_clears_it() {
     app.update(key(KeyCode::Char('j')));
     assert_eq!(selected_id(&app), "L07");
     app.update(key(KeyCode::Esc));
-    assert_eq!(app.rows().len(), 15);
+    assert_eq!(app.rows().len(), app.assessment.legs.len());
     assert!(app.ui.filter.is_empty());
 }
 
@@ -391,7 +391,7 @@ fn staleness_is_rechecked_as_the_clock_moves_without_reports() {
 #[test]
 fn past_midnight_the_new_days_legs_replace_the_old() {
     let mut app = demo(23, 0);
-    assert_eq!(app.assessment.legs.len(), 15);
+    assert!(app.assessment.legs.len() >= 15);
     app.update(key(KeyCode::Char('n')));
     assert_eq!(app.clock, demo_time(23, 0) + chrono::TimeDelta::hours(1));
     assert!(
@@ -404,9 +404,10 @@ fn past_midnight_the_new_days_legs_replace_the_old() {
 #[test]
 fn stepping_back_over_midnight_brings_the_day_back() {
     let mut app = demo(23, 30);
+    let day = app.assessment.legs.len();
     app.update(key(KeyCode::Char('n')));
     assert!(app.assessment.legs.is_empty());
     app.update(key(KeyCode::Char('p')));
     assert_eq!(app.clock, demo_time(23, 0));
-    assert_eq!(app.assessment.legs.len(), 15);
+    assert_eq!(app.assessment.legs.len(), day);
 }

@@ -9,9 +9,7 @@ use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
 use super::form::{FIELDS, Form};
 use super::keys::{Action, action_for, is_ctrl_c};
-use crate::assess::{
-    Assessment, Change, Context, DaySettings, LegResult, Model, State, assess_leg,
-};
+use crate::assess::{Assessment, Change, Context, DaySettings, LegResult, Model, State};
 use crate::observation::{FileReport, Insert, Report, Store};
 use crate::ops::{Category, Leg, Ops};
 
@@ -1064,58 +1062,19 @@ impl App {
         }
     }
 
-    /// Assesses a pairing as a local flight (departing and landing at the airfield
-    /// now), with the aircraft's mass and strictest category from its legs today.
+    /// A pairing's full chain (`Matrix::open`): the aircraft assessed as a local flight
+    /// at the airfield at the board's time, with the cell's masses and category.
     pub fn pairing_detail(&self, ai: usize, fi: usize) -> Option<PairingDetail> {
         let a = *self.assessment.matrix.aircraft.get(ai)?;
         let aircraft = self.ops.aircraft.get(a)?;
         let field = self.ops.airfields.get(fi)?;
-        let day = self.clock.date_naive();
-        let legs: Vec<&Leg> = self
-            .ops
-            .legs
-            .iter()
-            .filter(|l| l.aircraft == aircraft.registration && l.departs_utc().date_naive() == day)
-            .collect();
-        let category = Category::ALL
-            .into_iter()
-            .find(|c| legs.iter().any(|l| l.category == *c))
-            .or(self.model.strictest)
-            .unwrap_or(Category::StudentSolo);
-        let mass = legs
-            .iter()
-            .find(|l| l.from == field.id)
-            .or(legs.first())
-            .and_then(|l| crate::assess::leg::leg_masses(&self.ops, l).0)
-            .or_else(|| {
-                self.ops
-                    .aircraft_type(&aircraft.type_id)
-                    .map(|t| t.file.limits.max_takeoff_mass_kg)
-            });
-        let when = self.clock.fixed_offset();
-        let synthetic = Leg {
-            id: format!("{}@{}", aircraft.registration, field.id),
-            departs_at: when,
-            arrives_at: when,
-            aircraft: aircraft.registration.clone(),
-            pilot: String::new(),
-            category,
-            from: field.id.clone(),
-            to: field.id.clone(),
-            takeoff_mass_kg: mass,
-            landing_mass_kg: None,
-            loads: None,
-            remarks: String::new(),
-        };
-        let mut ops = self.ops.clone();
-        ops.legs.push(synthetic);
         let ctx = Context {
-            ops: &ops,
+            ops: &self.ops,
             model: &self.model,
             store: &self.store,
             at: self.clock,
         };
-        let result = assess_leg(&ctx, ops.legs.len() - 1)?;
+        let result = self.assessment.matrix.open(&ctx, ai, fi)?;
         Some(PairingDetail {
             title: format!(
                 "Pairing {} ({}) at {} — a local flight at {}, {} minimums, {}",
@@ -1123,8 +1082,10 @@ impl App {
                 aircraft.type_id,
                 field.id,
                 self.clock.format("%H%MZ"),
-                category.name().replace('_', " "),
-                mass.map_or("no mass".to_string(), |m| format!("{m:.0} kg"))
+                result.category.name().replace('_', " "),
+                result
+                    .takeoff_mass_kg
+                    .map_or("no mass".to_string(), |m| format!("{m:.0} kg"))
             ),
             result,
         })
