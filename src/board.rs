@@ -13,6 +13,7 @@ pub mod form;
 pub mod keys;
 pub mod layout;
 pub mod run;
+pub mod screenshot;
 pub mod theme;
 pub mod view;
 

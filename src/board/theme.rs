@@ -68,6 +68,6 @@ impl Theme {
 
     /// A leg that just changed state.
     pub fn changed(self) -> Style {
-        Style::new().add_modifier(Modifier::BOLD | Modifier::UNDERLINED)
+        Style::new().add_modifier(Modifier::BOLD)
     }
 }
