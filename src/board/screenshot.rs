@@ -120,7 +120,7 @@ mod tests {
         );
         let s = svg(&buf);
         assert!(s.starts_with("<svg"), "{s}");
-        assert!(s.contains(">a&lt;b</text>"), "{s}");
+        assert!(s.contains(">a&lt;b </text>"), "{s}");
         assert!(
             s.contains(r##"fill="#f26d6d" font-weight="bold">✗ below</text>"##),
             "{s}"
