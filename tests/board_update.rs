@@ -411,3 +411,25 @@ fn stepping_back_over_midnight_brings_the_day_back() {
     assert_eq!(app.clock, demo_time(23, 0));
     assert_eq!(app.assessment.legs.len(), day);
 }
+
+#[test]
+fn the_bell_rings_once_for_a_new_below_when_asked_for() {
+    let mut app = rhoboard::board::App::demo(
+        demo_time(8, 0),
+        rhoboard::board::Settings {
+            bell: true,
+            color: false,
+            ..Default::default()
+        },
+    )
+    .unwrap();
+    app.update(Msg::Observations {
+        source: "test".into(),
+        reports: decode_all(
+            "METAR XBRK 140800Z 30004KT 9999 FEW040 38/05 Q1008",
+            demo_time(23, 0),
+        ),
+    });
+    assert!(app.take_bell());
+    assert!(!app.take_bell(), "rung once");
+}
