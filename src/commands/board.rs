@@ -27,7 +27,7 @@ pub struct Args {
     #[arg(long, value_name = "N")]
     pub speed: Option<f64>,
     /// Replay: where to start (RFC 3339, e.g. 2026-06-14T06:30:00Z). Live: the
-    /// reference time instead of the clock.
+    /// clock runs on from it instead of from now.
     #[arg(long, value_name = "TIME")]
     pub at: Option<String>,
     /// A command run on a schedule (through `sh -c`); its output is read as METAR lines.
@@ -53,6 +53,13 @@ fn date_in_name(p: &std::path::Path) -> Option<NaiveDate> {
 /// Builds the board's state and its feeds from the arguments (everything but the
 /// terminal), with `now` as the wall clock.
 pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> {
+    if let Some(speed) = args.speed
+        && !(speed.is_finite() && (0.1..=1000.0).contains(&speed))
+    {
+        anyhow::bail!(
+            "--speed {speed}: expected a pace between 0.1 and 1000 (1 = an hour every ten seconds)"
+        );
+    }
     let choice = config::choose(args.ops.as_deref(), config::config_file().as_deref());
     let loaded = check::load(args.ops.as_deref(), &[], args.at.as_deref(), now)?;
     let settings = Settings {
