@@ -6,6 +6,7 @@ pub mod calc;
 pub mod check;
 pub mod metar;
 pub mod overview;
+pub mod runway;
 
 use std::process::ExitCode;
 

@@ -353,8 +353,10 @@ pub struct EndOption {
     pub score: f64,
     /// The runway in use.
     pub in_use: bool,
-    /// Usable today.
+    /// Usable at the event's time.
     pub usable: bool,
+    /// Today's runway state of this end, in words, when one is set.
+    pub today: Option<String>,
 }
 
 /// Departure or arrival.
@@ -815,9 +817,8 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         let mut options: Vec<(EndOption, Option<Evaluated>)> = Vec::with_capacity(ends.len());
         for (k, end) in ends.iter().enumerate() {
             let w = wx.on_end(end.heading_true_deg);
-            let ev = end
-                .usable
-                .then(|| evaluate_end(&setup, &who, end, &wx, &w, side_in.departure));
+            let usable = end.usable_at(side_in.event_at);
+            let ev = usable.then(|| evaluate_end(&setup, &who, end, &wx, &w, side_in.departure));
             let (state, score) = ev
                 .as_ref()
                 .map_or((State::NoData, f64::NAN), |e| (e.state, e.score));
@@ -828,7 +829,8 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
                     state,
                     score,
                     in_use: false,
-                    usable: end.usable,
+                    usable,
+                    today: end.day_note.clone(),
                 },
                 ev,
             ));
@@ -1447,6 +1449,15 @@ fn advise(
         super::model::SurfaceCase::PavedWet => {
             advice.push(format!("{id}: wet runway — longer landing roll."))
         }
+        super::model::SurfaceCase::GrassSoft => advice.push(format!(
+            "{id}: soft ground — the roll can lengthen far beyond any factor; walk the strip."
+        )),
+        super::model::SurfaceCase::GrassLong => {
+            advice.push(format!("{id}: long grass — longer takeoff roll."))
+        }
+        super::model::SurfaceCase::Contaminated => advice.push(format!(
+            "{id}: standing water reported — no performance data for a contaminated runway."
+        )),
         super::model::SurfaceCase::PavedDry => {}
     }
     if end.slope_percent.abs() >= 0.5 {

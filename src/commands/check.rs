@@ -190,9 +190,11 @@ fn side_json(s: &Side) -> Value {
             "source": l.source,
             "note": l.note,
         })).collect::<Vec<_>>(),
+        "runway_today": s.ends.iter().find(|e| e.in_use).and_then(|e| e.today.clone()),
         "alternatives": s.ends.iter().filter(|e| !e.in_use).map(|e| json!({
             "runway": e.designator,
             "usable": e.usable,
+            "today": e.today,
             "state": e.state,
             "headwind_kt": e.wind.headwind_kt,
             "crosswind_kt": e.wind.crosswind_kt,
@@ -351,7 +353,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         eprintln!("rhoboard: warning: {w}");
     }
     let ops = &loaded.ops;
-    let model = Model::new(ops, &DaySettings::default());
+    let model = Model::new(ops, &DaySettings::for_date(ops, loaded.at.date_naive()));
     let ctx = Context {
         ops,
         model: &model,

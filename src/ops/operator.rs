@@ -145,6 +145,12 @@ pub struct FallbackPhase {
     pub grass_wet: SourcedRule,
     /// Wet paved.
     pub paved_wet: SourcedRule,
+    /// Soft ground (grass), when the day's runway state says so.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grass_soft: Option<SourcedRule>,
+    /// Long grass, when the day's runway state says so.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grass_long: Option<SourcedRule>,
     /// Adverse slope (uphill takeoff, downhill landing).
     pub adverse_slope: SourcedSlope,
 }
@@ -330,6 +336,12 @@ pub struct Minimums {
     /// Student solos: a solo endorsement for the type, valid this many days, is required.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub solo_endorsement_valid_days: Option<u32>,
+    /// Daylight categories: land at least this many minutes before sunset.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub land_before_sunset_min: Option<f64>,
+    /// Daylight categories: depart no earlier than this many minutes after sunrise.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub depart_after_sunrise_min: Option<f64>,
     /// Source of each value, keyed by field name.
     pub sources: BTreeMap<String, String>,
 }

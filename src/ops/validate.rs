@@ -1278,3 +1278,75 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
         }
     }
 }
+
+/// `runway-state/<date>.json`: the date matches the file name, and every entry names a
+/// known airfield and one of its runway ends, with plausible distances.
+pub fn check_runway_states(
+    ops: &Ops,
+    states: &[(String, super::runway_state::RunwayStateFile)],
+    c: &mut Collector<'_>,
+) {
+    for (file, st) in states {
+        if st.date.to_string() != file_stem(file) {
+            c.error(
+                file,
+                "date",
+                format!(
+                    "date {} differs from the file name; name the file {}.json",
+                    st.date, st.date
+                ),
+            );
+        }
+        for (i, e) in st.entries.iter().enumerate() {
+            let p = format!("entries[{i}]");
+            let Some(a) = ops.airfield(&e.airfield) else {
+                c.error(
+                    file,
+                    &format!("{p}.airfield"),
+                    format!("unknown airfield '{}'", e.airfield),
+                );
+                continue;
+            };
+            let Some(end) = a.runway_ends.iter().find(|r| r.designator == e.end) else {
+                let known: Vec<&str> = a
+                    .runway_ends
+                    .iter()
+                    .map(|r| r.designator.as_str())
+                    .collect();
+                c.error(
+                    file,
+                    &format!("{p}.end"),
+                    format!(
+                        "{} has no runway end '{}' (it has: {})",
+                        a.id,
+                        e.end,
+                        known.join(", ")
+                    ),
+                );
+                continue;
+            };
+            for (name, v, declared) in [
+                ("tora_m", e.tora_m, end.tora_m),
+                ("toda_m", e.toda_m, end.toda_m),
+                ("asda_m", e.asda_m, end.asda_m),
+                ("lda_m", e.lda_m, end.lda_m),
+            ] {
+                if let Some(v) = v {
+                    if !(v > 0.0 && v.is_finite()) {
+                        c.error(
+                            file,
+                            &format!("{p}.{name}"),
+                            format!("{v} must be positive"),
+                        );
+                    } else if v > declared {
+                        c.warn(
+                            file,
+                            &format!("{p}.{name}"),
+                            format!("{v} m is more than the declared {declared} m; a day's state only reduces distances"),
+                        );
+                    }
+                }
+            }
+        }
+    }
+}
