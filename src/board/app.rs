@@ -346,7 +346,7 @@ impl App {
         replay: Option<Replay>,
         settings: Settings,
     ) -> App {
-        let model = Model::new(&ops, &DaySettings::default());
+        let model = Model::new(&ops, &DaySettings::for_date(&ops, clock.date_naive()));
         let legs = crate::commands::check::legs_of_day(&ops, clock);
         let ctx = Context {
             ops: &ops,
