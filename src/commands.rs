@@ -11,6 +11,7 @@ pub mod runway;
 use std::process::ExitCode;
 
 pub mod init;
+pub mod leg;
 pub mod validate;
 
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").

@@ -15,6 +15,7 @@ pub mod commands;
 pub mod daylight;
 pub mod observation;
 pub mod ops;
+pub mod replan;
 pub mod units;
 
 /// The caution shown on every screen and in every report.

@@ -27,6 +27,8 @@ enum Command {
     Check(commands::check::Args),
     /// Today's runway state: closures, reduced distances, surface condition, end in use.
     Runway(commands::runway::Args),
+    /// Re-plans a leg: see the re-assessment, then save safely.
+    Leg(commands::leg::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
     /// Checks an operator folder and reports every problem (file, line, column, field).
@@ -59,12 +61,22 @@ fn main() -> ExitCode {
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
         Some(Command::Check(args)) => commands::check::run(&args, &mut out),
         Some(Command::Runway(args)) => commands::runway::run(&args, &mut out),
+        Some(Command::Leg(args)) => commands::leg::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),
+        // A reader that stopped early (`| head`) is not an error of ours.
+        Err(err)
+            if err.chain().any(|c| {
+                c.downcast_ref::<std::io::Error>()
+                    .is_some_and(|e| e.kind() == std::io::ErrorKind::BrokenPipe)
+            }) =>
+        {
+            ExitCode::SUCCESS
+        }
         Err(err) => {
             drop(out);
             eprintln!("rhoboard: {err:#}");
