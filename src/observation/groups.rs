@@ -585,3 +585,10 @@ pub(super) fn describe_sky_clear(c: SkyClear) -> &'static str {
         SkyClear::Clr => "no cloud below 12,000 ft (automatic)",
     }
 }
+
+impl<T> GroupParse<T> {
+    /// Whether the token was read cleanly.
+    pub(super) fn is_ok(&self) -> bool {
+        matches!(self, GroupParse::Ok(..))
+    }
+}
