@@ -7,6 +7,7 @@ pub mod check;
 pub mod metar;
 pub mod overview;
 pub mod runway;
+pub mod taf;
 
 use std::process::ExitCode;
 

@@ -31,6 +31,8 @@ enum Command {
     Leg(commands::leg::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
+    /// Decodes TAFs and shows the forecast hour by hour (TEXT, or `-` for standard input).
+    Taf(commands::taf::Args),
     /// Checks an operator folder and reports every problem (file, line, column, field).
     Validate(commands::validate::Args),
     /// Writes a new operator folder from the fictional demo, every value marked to replace.
@@ -63,6 +65,7 @@ fn main() -> ExitCode {
         Some(Command::Runway(args)) => commands::runway::run(&args, &mut out),
         Some(Command::Leg(args)) => commands::leg::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
+        Some(Command::Taf(args)) => commands::taf::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),
     };
