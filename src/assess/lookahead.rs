@@ -218,6 +218,58 @@ fn first_failure(
     None
 }
 
+/// Forecasts from the operator's TAFs: for a station and time, the latest usable TAF
+/// issued at or before the reference time that covers it; TEMPO/PROB worst cases are
+/// used where they apply (conservative), flagged as such. Where a TAF has no TX/TN, the
+/// operator's expected high (assumed at 15:00 local time) is the temperature curve's top.
+pub struct TafSource<'a> {
+    /// The decoded TAFs.
+    pub tafs: &'a [crate::observation::taf::Taf],
+    /// Forecasts issued after this are not known.
+    pub as_of: DateTime<Utc>,
+    /// The operator's expected high, °C.
+    pub expected_high_c: Option<f64>,
+    /// The operator's UTC offset, minutes (for the expected high's time).
+    pub utc_offset_min: i32,
+    /// The observation store (the expected-high curve starts at the latest report).
+    pub store: &'a Store,
+}
+
+impl ForecastSource for TafSource<'_> {
+    fn at(&self, station: &str, t: DateTime<Utc>) -> Option<ForecastAt> {
+        use crate::observation::forecast;
+        let taf = crate::observation::taf::select(self.tafs, station, t, self.as_of)?;
+        let expected = self.expected_high_c.and_then(|high_c| {
+            let v = self.store.valid_at(station, self.as_of)?;
+            let observed_at = v.report.observed_at?;
+            let local_15 = t.date_naive().and_hms_opt(15, 0, 0)?.and_utc()
+                - Duration::minutes(i64::from(self.utc_offset_min));
+            Some(forecast::ExpectedHigh {
+                high_c,
+                high_at: local_15,
+                observed_c: v.report.temperature_c?,
+                observed_at,
+            })
+        });
+        let outlook = forecast::at(taf, t, expected.as_ref())?;
+        let c = outlook.worst_or_prevailing();
+        Some(ForecastAt {
+            wind: c.wind,
+            visibility: Some(c.visibility),
+            cavok: c.cavok,
+            ceiling: c.ceiling,
+            weather: c.weather.clone(),
+            hazards: c.hazards,
+            temperature_c: c.temperature_c.or(outlook.prevailing.temperature_c),
+            worst_case: c.worst_case,
+            basis: format!(
+                "{}; temperature: {}",
+                c.basis, outlook.prevailing.temperature_basis
+            ),
+        })
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -286,57 +338,5 @@ mod tests {
         let la = look_ahead(&ctx, i, State::Below, &warming(0.0), at(20, 0)).unwrap();
         assert_eq!(la.state, State::Below);
         assert!(la.fails_from.is_none());
-    }
-}
-
-/// Forecasts from the operator's TAFs: for a station and time, the latest usable TAF
-/// issued at or before the reference time that covers it; TEMPO/PROB worst cases are
-/// used where they apply (conservative), flagged as such. Where a TAF has no TX/TN, the
-/// operator's expected high (assumed at 15:00 local time) is the temperature curve's top.
-pub struct TafSource<'a> {
-    /// The decoded TAFs.
-    pub tafs: &'a [crate::observation::taf::Taf],
-    /// Forecasts issued after this are not known.
-    pub as_of: DateTime<Utc>,
-    /// The operator's expected high, °C.
-    pub expected_high_c: Option<f64>,
-    /// The operator's UTC offset, minutes (for the expected high's time).
-    pub utc_offset_min: i32,
-    /// The observation store (the expected-high curve starts at the latest report).
-    pub store: &'a Store,
-}
-
-impl ForecastSource for TafSource<'_> {
-    fn at(&self, station: &str, t: DateTime<Utc>) -> Option<ForecastAt> {
-        use crate::observation::forecast;
-        let taf = crate::observation::taf::select(self.tafs, station, t, self.as_of)?;
-        let expected = self.expected_high_c.and_then(|high_c| {
-            let v = self.store.valid_at(station, self.as_of)?;
-            let observed_at = v.report.observed_at?;
-            let local_15 = t.date_naive().and_hms_opt(15, 0, 0)?.and_utc()
-                - Duration::minutes(i64::from(self.utc_offset_min));
-            Some(forecast::ExpectedHigh {
-                high_c,
-                high_at: local_15,
-                observed_c: v.report.temperature_c?,
-                observed_at,
-            })
-        });
-        let outlook = forecast::at(taf, t, expected.as_ref())?;
-        let c = outlook.worst_or_prevailing();
-        Some(ForecastAt {
-            wind: c.wind,
-            visibility: Some(c.visibility),
-            cavok: c.cavok,
-            ceiling: c.ceiling,
-            weather: c.weather.clone(),
-            hazards: c.hazards,
-            temperature_c: c.temperature_c.or(outlook.prevailing.temperature_c),
-            worst_case: c.worst_case,
-            basis: format!(
-                "{}; temperature: {}",
-                c.basis, outlook.prevailing.temperature_basis
-            ),
-        })
     }
 }
