@@ -9,6 +9,9 @@ pub mod overview;
 use std::process::ExitCode;
 
 pub mod init;
+pub mod log;
+pub mod report;
+pub mod signoff;
 pub mod validate;
 
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").
