@@ -218,11 +218,14 @@ impl Chain {
                 line,
                 message: match last {
                     Some(e) if e.record.seq < given.seq => format!(
-                        "the log ends at record {}, but the given head is record {}: records {}–{} are missing from the end",
+                        "the log ends at record {}, but the given head is record {}: {} from the end",
                         e.record.seq,
                         given.seq,
-                        e.record.seq + 1,
-                        given.seq
+                        if e.record.seq + 1 == given.seq {
+                            format!("record {} is missing", given.seq)
+                        } else {
+                            format!("records {}–{} are missing", e.record.seq + 1, given.seq)
+                        }
                     ),
                     Some(_) => format!("no record {} in the log", given.seq),
                     None => format!(
