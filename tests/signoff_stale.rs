@@ -1,0 +1,130 @@
+//! Stale sign-offs on the demo day: a leg signed on the morning's reports needs a
+//! re-check once the afternoon's reports undermine it — the state got worse, the
+//! density altitude rose by more than the policy's step, or the headroom fell below
+//! the policy's floor.
+
+use chrono::{DateTime, Utc};
+use rhoboard::assess::{Context, DaySettings, LegResult, Model, State, assess_leg};
+use rhoboard::commands::check;
+use rhoboard::ops::operator::SignOffPolicy;
+use rhoboard::signoff::{DataHashes, Freshness, Record, Request, draft, recheck};
+
+fn utc(s: &str) -> DateTime<Utc> {
+    DateTime::parse_from_rfc3339(s)
+        .expect("time")
+        .with_timezone(&Utc)
+}
+
+fn assessed(leg: &str, at: &str) -> (rhoboard::ops::Ops, LegResult) {
+    let loaded = check::load(None, &[], Some(at), utc(at)).expect("demo");
+    let ops = loaded.ops.clone();
+    let model = Model::new(&ops, &DaySettings::default());
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &loaded.store,
+        at: loaded.at,
+    };
+    let i = ops.legs.iter().position(|l| l.id == leg).expect("leg");
+    let r = assess_leg(&ctx, i).expect("assessed");
+    (ops, r)
+}
+
+fn signed(leg: &str, at: &str) -> (Record, SignOffPolicy) {
+    let (ops, r) = assessed(leg, at);
+    let data = DataHashes::of(&rhoboard::ops::demo::files());
+    let req = Request {
+        instructor: "Mara Greyling",
+        note: "",
+        override_reason: None,
+        signed_at: utc(at),
+        basis_at: utc(at),
+        data: &data,
+    };
+    (
+        draft(&ops, &r, &req).expect("signable"),
+        ops.operator.policy.sign_off.clone(),
+    )
+}
+
+#[test]
+fn the_solo_signed_at_0800_is_re_check_after_the_1300_report() {
+    let (record, policy) = signed("L09", "2026-06-14T08:00:00Z");
+    assert_eq!(
+        record.figures.as_ref().map(|f| f.state.as_str()),
+        Some("within")
+    );
+    // On the morning's own reports it stands.
+    let (_, morning) = assessed("L09", "2026-06-14T08:00:00Z");
+    assert_eq!(recheck(&record, &morning, &policy), Freshness::Current);
+    // The 13:00 report: L09 (solo, XKNL→XPIN) is below.
+    let (_, afternoon) = assessed("L09", "2026-06-14T13:00:00Z");
+    assert_eq!(afternoon.state, State::Below);
+    let Freshness::Recheck(why) = recheck(&record, &afternoon, &policy) else {
+        panic!("expected re-check");
+    };
+    let all = why.join("\n");
+    assert!(all.contains("state went from ✓ within to ✗ below"), "{all}");
+    assert!(all.contains("arrival XPIN density altitude rose"), "{all}");
+    assert!(all.contains("under the floor of +3.0 °C"), "{all}");
+}
+
+#[test]
+fn a_student_solo_that_thins_is_re_check() {
+    // L12 (student solo, XSEA circuits at 14Z): within at 08Z, thin on the crosswind at 13Z.
+    let (record, policy) = signed("L12", "2026-06-14T08:00:00Z");
+    let (_, afternoon) = assessed("L12", "2026-06-14T13:00:00Z");
+    assert_eq!(afternoon.state, State::Thin);
+    let f = recheck(&record, &afternoon, &policy);
+    assert!(f.is_recheck(), "{f}");
+    assert!(f.to_string().contains("from ✓ within to ~ thin"), "{f}");
+}
+
+#[test]
+fn a_density_altitude_rise_alone_is_re_check() {
+    let (mut record, policy) = signed("L01", "2026-06-14T08:00:00Z");
+    let (_, now) = assessed("L01", "2026-06-14T08:00:00Z");
+    assert_eq!(recheck(&record, &now, &policy), Freshness::Current);
+    let fig = record.figures.as_mut().expect("figures");
+    let da = fig.departure.density_altitude_ft.expect("da");
+    // Signed 301 ft lower than now: over the 300 ft step.
+    fig.departure.density_altitude_ft = Some(da - 301.0);
+    let f = recheck(&record, &now, &policy);
+    assert!(
+        f.to_string()
+            .contains("departure XSEA density altitude rose 301 ft"),
+        "{f}"
+    );
+    // 299 ft: inside the step.
+    let fig = record.figures.as_mut().expect("figures");
+    fig.departure.density_altitude_ft = Some(da - 299.0);
+    fig.arrival.density_altitude_ft = Some(da - 299.0);
+    assert_eq!(recheck(&record, &now, &policy), Freshness::Current);
+}
+
+#[test]
+fn a_headroom_under_the_floor_is_re_check() {
+    let (record, _) = signed("L01", "2026-06-14T08:00:00Z");
+    let (_, now) = assessed("L01", "2026-06-14T08:00:00Z");
+    let h = now.headroom.expect("headroom").warming_c;
+    let policy = SignOffPolicy {
+        recheck_headroom_floor_c: h + 1.0,
+        ..SignOffPolicy::default()
+    };
+    // Signed with the same headroom: it did not fall, so no re-check…
+    assert_eq!(recheck(&record, &now, &policy), Freshness::Current);
+    // …but one that was signed with more, now under the floor, is.
+    let mut more = record.clone();
+    if let Some(f) = more.figures.as_mut() {
+        f.headroom_c = Some(h + 5.0);
+    }
+    let f = recheck(&more, &now, &policy);
+    assert!(f.to_string().contains("under the floor"), "{f}");
+}
+
+#[test]
+fn the_policy_defaults_are_300_ft_and_no_overrides() {
+    let p = SignOffPolicy::default();
+    assert_eq!(p.recheck_density_altitude_rise_ft, 300.0);
+    assert!(p.override_categories.is_empty());
+}
