@@ -483,8 +483,13 @@ fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
             .map_or(String::new(), |p| format!(", {}", p.name))
     );
     let mut sections = vec![("Why".to_string(), r.reasons.clone())];
-    sections.push(side_lines("Departure", &r.departure, true));
-    sections.push(side_lines("Arrival", &r.arrival, false));
+    // Only the ends that are not `within`: the chain of what is short, not of all.
+    if r.departure.state != State::Within {
+        sections.push(side_lines("Departure", &r.departure, true));
+    }
+    if r.arrival.state != State::Within {
+        sections.push(side_lines("Arrival", &r.arrival, false));
+    }
     let mut tail = vec![format!(
         "headroom: {}",
         crate::commands::check::headroom_text(r)
@@ -627,6 +632,11 @@ pub fn markdown(s: &Sheet) -> String {
     o
 }
 
+/// Escapes text for HTML (and XML): `&`, `<`, `>`, `"`, `'`.
+pub fn html_escape(s: &str) -> String {
+    esc(s)
+}
+
 fn esc(s: &str) -> String {
     let mut o = String::with_capacity(s.len());
     for c in s.chars() {
@@ -660,7 +670,10 @@ h2 { font-size: 12pt; margin: 5mm 0 2mm 0; border-bottom: 1.5pt solid #000; }
 h3 { font-size: 10.5pt; margin: 4mm 0 1mm 0; }
 p { margin: 1mm 0; }
 .caution { border: 2pt solid #000; padding: 2mm 3mm; font-weight: bold; margin: 3mm 0; }
-table { border-collapse: collapse; width: 100%; page-break-inside: auto; }
+table { border-collapse: collapse; width: 100%; page-break-inside: auto; font-size: 8.5pt; }
+td.nw { white-space: nowrap; }
+.chains { column-count: 2; column-gap: 6mm; }
+h2.chains-title { page-break-before: always; }
 tr { page-break-inside: avoid; }
 th, td { border: 0.6pt solid #555; padding: 1mm 1.5mm; text-align: left; vertical-align: top; }
 th { background: #e6e6e6; }
@@ -674,7 +687,7 @@ tr.below td { font-weight: bold; }
 .legend, .foot { font-size: 8.5pt; }
 .loghead { font-family: 'DejaVu Sans Mono', monospace; font-size: 8.5pt; word-break: break-all; }
 pre { font-family: 'DejaVu Sans Mono', monospace; font-size: 8pt; white-space: pre-wrap; margin: 1mm 0; }
-.chain { page-break-inside: avoid; border-left: 3pt solid #000; padding-left: 3mm; margin: 3mm 0; }
+.chain { break-inside: avoid; page-break-inside: avoid; border-left: 3pt solid #000; padding-left: 3mm; margin: 0 0 3mm 0; font-size: 8.5pt; }
 .chain.thin { border-left-style: dashed; }
 .chain.nodata { border-left-style: dotted; }
 .chain ul { margin: 0.5mm 0 1.5mm 0; padding-left: 5mm; }
@@ -718,7 +731,7 @@ pub fn html(s: &Sheet) -> String {
     for r in &s.legs {
         let _ = writeln!(
             o,
-            "<tr class=\"{}\"><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td class=\"state\">{}</td><td>{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td>{}</td></tr>",
+            "<tr class=\"{}\"><td class=\"nw\">{}</td><td class=\"nw\">{}</td><td class=\"nw\">{}</td><td class=\"nw\">{}</td><td class=\"nw\">{}</td><td class=\"state\">{}</td><td>{}</td><td class=\"num\">{}</td><td class=\"num\">{}</td><td>{}</td></tr>",
             state_class(r.state),
             esc(&r.departs),
             esc(&r.leg),
@@ -796,7 +809,11 @@ pub fn html(s: &Sheet) -> String {
         .collect();
     let _ = writeln!(o, "<pre>{}</pre>", reports.join("\n"));
     if !s.chains.is_empty() {
-        let _ = writeln!(o, "<h2>Legs not within minimums with buffer</h2>");
+        let _ = writeln!(
+            o,
+            "<h2 class=\"chains-title\">Legs not within minimums with buffer</h2>"
+        );
+        let _ = writeln!(o, "<div class=\"chains\">");
         for c in &s.chains {
             let _ = writeln!(o, "<div class=\"chain {}\">", state_class(c.state));
             let _ = writeln!(o, "<h3>{}</h3>", esc(&c.heading));
@@ -813,6 +830,7 @@ pub fn html(s: &Sheet) -> String {
             }
             let _ = writeln!(o, "</div>");
         }
+        let _ = writeln!(o, "</div>");
     }
     let _ = writeln!(
         o,
