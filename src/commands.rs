@@ -5,6 +5,7 @@ pub mod calc;
 pub mod check;
 pub mod metar;
 pub mod overview;
+pub mod runway;
 
 use std::process::ExitCode;
 

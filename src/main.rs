@@ -22,6 +22,8 @@ enum Command {
     Calc(commands::calc::Args),
     /// Assesses every leg of the day against the operator's minimums.
     Check(commands::check::Args),
+    /// Today's runway state: closures, reduced distances, surface condition, end in use.
+    Runway(commands::runway::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
     /// Checks an operator folder and reports every problem (file, line, column, field).
@@ -43,6 +45,7 @@ fn main() -> ExitCode {
         None => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
         Some(Command::Check(args)) => commands::check::run(&args, &mut out),
+        Some(Command::Runway(args)) => commands::runway::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),

@@ -17,6 +17,7 @@ pub mod legs;
 pub mod load;
 pub mod operator;
 pub mod pilots;
+pub mod runway_state;
 pub mod spans;
 pub mod synthetic;
 pub mod tables;
@@ -51,6 +52,8 @@ pub struct Ops {
     pub legs: Vec<Leg>,
     /// Observation and forecast texts: (relative path, text).
     pub observations: Vec<(String, String)>,
+    /// `runway-state/*.json`: the runway state of each day that has one.
+    pub runway_states: Vec<runway_state::RunwayStateFile>,
     /// Where each type came from (relative path), parallel to `types`.
     pub type_files: Vec<String>,
     /// Where each airfield came from, parallel to `airfields`.
@@ -106,6 +109,7 @@ impl Ops {
             airfields,
             legs: all_legs,
             observations,
+            runway_states: Vec::new(),
             type_files,
             airfield_files,
             leg_files,

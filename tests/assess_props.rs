@@ -424,13 +424,28 @@ fn headroom_where_the_climb_limits_first() {
 #[test]
 fn headroom_where_the_landing_limits_first() {
     let ops = demo_ops();
-    let mut model = Model::new(&ops, &DaySettings::default());
     let i = leg_index(&ops, "L04");
-    let fi = ops.airfield_position(&ops.legs[i].to).unwrap();
-    // A short landing distance at the destination only.
+    let leg = &ops.legs[i];
+    // What the landing needs at 10 °C, calm; then a destination with 3 % more than that.
+    let model = Model::new(&ops, &DaySettings::default());
+    let a = metar_tenths(&leg.from, 10.0, "00000KT");
+    let b = metar_tenths(&leg.to, 10.0, "00000KT");
+    let store = store_with(&[&a, &b], at(6, 10));
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(6, 10),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    let need = r.arrival.landing.as_ref().unwrap().checks[0]
+        .result
+        .required_m;
+    let mut model = Model::new(&ops, &DaySettings::default());
+    let fi = ops.airfield_position(&leg.to).unwrap();
     let first = model.fields[fi].first_end;
     for k in 0..model.fields[fi].end_count {
-        model.ends[first + k].lda_m = 560.0;
+        model.ends[first + k].lda_m = need * 1.03;
     }
     let check = binding_check(&ops, &model, "L04", "00000KT");
     assert!(check.contains("landing"), "{check}");

@@ -27,6 +27,8 @@ fn end(tora_m: f64, toda_m: f64, lda_m: f64, surface: SurfaceCase, slope_percent
         slope_percent,
         required_gradient_ft_per_nm: None,
         usable: true,
+        closed_until: None,
+        day_note: None,
     }
 }
 
@@ -61,6 +63,9 @@ fn rules_easa_fallbacks() -> PhaseRules {
                 rule: SurfaceRule::MultiplyBy(1.3),
                 origin: Origin::Policy,
             }),
+            None,
+            None,
+            None,
         ],
         slope_percent_per_percent: (5.0, Origin::Policy),
     }

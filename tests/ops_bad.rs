@@ -114,6 +114,7 @@ const CASES: &[&str] = &[
     "designator-heading",
     "distance-decreases",
     "duplicate-ids",
+    "envelope-crossing",
     "ground-roll-above-50ft",
     "irregular-ok",
     "json-syntax",
@@ -123,6 +124,7 @@ const CASES: &[&str] = &[
     "leg-overlap-and-position",
     "leg-unknown-refs",
     "leg-wrong-day-file",
+    "loads-fuel-units",
     "maintenance-without-note",
     "missing-field",
     "missing-file",
@@ -130,6 +132,7 @@ const CASES: &[&str] = &[
     "non-positive-distance",
     "observation-rejected",
     "operator-two-categories",
+    "runway-state-unknown-end",
     "schema-errors-top-and-list",
     "schema-version",
     "slope-signs",
@@ -356,8 +359,8 @@ fn observation_rejected() {
 fn operator_two_categories() {
     insta::assert_snapshot!(validate_case("operator-two-categories"), @r#"
     2 error(s):
-      operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
-      operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `sources`
+      operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `land_before_sunset_min`, `depart_after_sunrise_min`, `sources`
+      operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `land_before_sunset_min`, `depart_after_sunrise_min`, `sources`
     Fix the errors above and run `rhoboard validate` again.
     exit 2
     "#);
@@ -467,4 +470,38 @@ fn wrong_type() {
     Fix the errors above and run `rhoboard validate` again.
     exit 2
     "#);
+}
+
+#[test]
+fn loads_fuel_units() {
+    insta::assert_snapshot!(validate_case("loads-fuel-units"), @r"
+    3 error(s):
+      legs/2026-06-14.json:7:15: legs[0].loads: give exactly one of fuel_at_start_l, fuel_at_start_usgal or fuel_at_start_kg
+      legs/2026-06-14.json:7:29: legs[0].loads.stations[0]: standard masses are used but operator.json has no policy.standard_masses
+      legs/2026-06-14.json:7:73: legs[0].loads.stations[1]: give mass_kg, standard_adults or standard_children
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    ");
+}
+
+#[test]
+fn envelope_crossing() {
+    insta::assert_snapshot!(validate_case("envelope-crossing"), @r"
+    1 error(s):
+      fleet/types/tiny.json:31:17: mass_balance.envelope: the CG envelope crosses itself; list its corners in order around the outline
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    ");
+}
+
+#[test]
+fn runway_state_unknown_end() {
+    insta::assert_snapshot!(validate_case("runway-state-unknown-end"), @r"
+    3 error(s):
+      runway-state/2026-06-14.json:5:33: entries[0].end: XAAA has no runway end '31' (it has: 09, 27)
+      runway-state/2026-06-14.json:6:18: entries[1].airfield: unknown airfield 'XZZZ'
+      runway-state/2026-06-14.json:7:49: entries[2].tora_m: -5 must be positive
+    Fix the errors above and run `rhoboard validate` again.
+    exit 2
+    ");
 }

@@ -7,6 +7,7 @@ use chrono::{DateTime, Utc};
 use serde::Serialize;
 
 use super::limits::{self, LimitCheck, LimitKind, Who};
+use super::mass::{self, MassBalance};
 use super::model::{EndModel, Model, TypeModel};
 use super::perf::{self, CheckResult, ClimbChain, DistanceChain, PerfGap};
 use super::state::{State, verdict};
@@ -352,8 +353,10 @@ pub struct EndOption {
     pub score: f64,
     /// The runway in use.
     pub in_use: bool,
-    /// Usable today.
+    /// Usable at the event's time.
     pub usable: bool,
+    /// Today's runway state of this end, in words, when one is set.
+    pub today: Option<String>,
 }
 
 /// Departure or arrival.
@@ -433,6 +436,11 @@ pub struct LegResult {
     pub takeoff_mass_kg: Option<f64>,
     /// Landing mass, kg.
     pub landing_mass_kg: Option<f64>,
+    /// Mass and balance (the loading table, CG, envelope and their checks).
+    pub mass_balance: Option<MassBalance>,
+    /// How much more payload the leg can take at the current temperature (negative:
+    /// how much must come off), and at which station; for legs that give loads.
+    pub payload_headroom: Option<PayloadHeadroom>,
     /// Departure.
     pub departure: Side,
     /// Arrival.
@@ -441,6 +449,15 @@ pub struct LegResult {
     pub reasons: Vec<String>,
     /// Advice that goes with the numbers.
     pub advice: Vec<String>,
+}
+
+/// Payload that can be added (or must be removed) keeping the leg not `below`.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PayloadHeadroom {
+    /// Kilograms: positive can be added, negative must come off.
+    pub kg: f64,
+    /// The station it goes to or comes from.
+    pub station: String,
 }
 
 /// What a score belongs to (cheap to carry while comparing).
@@ -477,31 +494,41 @@ impl Worst {
     }
 }
 
-/// The leg's masses: given, or from the loads (empty + stations + fuel). A leg that
-/// gives a takeoff mass but no landing mass lands, for the landing distance, at its
-/// takeoff mass held to the maximum landing mass (see [`landing_mass_assumed`]).
-pub fn leg_masses(ops: &Ops, leg: &Leg) -> (Option<f64>, Option<f64>) {
+/// The leg's mass and balance: from its loads (empty + stations + fuel, with CG), or
+/// the fixed masses it gives. A leg that gives a takeoff mass but no landing mass lands,
+/// for the landing distance, at its takeoff mass held to the maximum landing mass (see
+/// [`landing_mass_assumed`]). `None` when neither is given or the aircraft is unknown.
+pub fn leg_mass_balance(ops: &Ops, leg: &Leg) -> Option<MassBalance> {
+    let ac = ops.aircraft(&leg.aircraft)?;
+    let ty = ops.aircraft_type(&ac.type_id)?;
+    let limits = &ty.file.limits;
     if let Some(tom) = leg.takeoff_mass_kg {
-        let mlm = ops
-            .aircraft(&leg.aircraft)
-            .and_then(|a| ops.aircraft_type(&a.type_id))
-            .map_or(tom, |t| t.file.limits.max_landing_mass_kg);
-        return (Some(tom), Some(leg.landing_mass_kg.unwrap_or(tom.min(mlm))));
+        let lm = leg
+            .landing_mass_kg
+            .unwrap_or(tom.min(limits.max_landing_mass_kg));
+        return Some(mass::fixed(
+            tom,
+            lm,
+            limits.max_takeoff_mass_kg,
+            limits.max_landing_mass_kg,
+        ));
     }
-    let (Some(loads), Some(ac)) = (&leg.loads, ops.aircraft(&leg.aircraft)) else {
-        return (None, None);
-    };
-    let density = ops
-        .aircraft_type(&ac.type_id)
-        .and_then(|t| t.file.mass_balance.as_ref())
-        .and_then(|mb| mb.fuel_tanks.first())
-        .map_or(0.72, |t| t.fuel_density_kg_per_l);
-    let people: f64 = loads.stations.iter().map(|s| s.mass_kg).sum();
-    let takeoff_fuel_l = (loads.fuel_at_start_l - loads.taxi_fuel_l).max(0.0);
-    let tom = ac.empty_mass_kg + people + takeoff_fuel_l * density;
-    let hours = (leg.arrives_utc() - leg.departs_utc()).num_seconds() as f64 / 3_600.0;
-    let burn_l = (loads.burn_l_per_h * hours.max(0.0)).min(takeoff_fuel_l);
-    (Some(tom), Some(tom - burn_l * density))
+    mass::compute(
+        leg,
+        leg.loads.as_ref()?,
+        ac,
+        &ty.file,
+        &ops.operator.policy,
+        None,
+    )
+}
+
+/// The leg's takeoff and landing masses, kg.
+pub fn leg_masses(ops: &Ops, leg: &Leg) -> (Option<f64>, Option<f64>) {
+    match leg_mass_balance(ops, leg) {
+        Some(mb) => (Some(mb.takeoff.mass_kg), Some(mb.landing.mass_kg)),
+        None => (None, None),
+    }
 }
 
 /// Whether the landing mass was assumed rather than given or computed from loads.
@@ -521,6 +548,7 @@ struct SideInput<'a> {
 }
 
 /// Everything about one leg that headroom needs, resolved once.
+#[derive(Clone, Copy)]
 struct Plan<'a> {
     setup: Setup<'a>,
     dep: Option<(FieldWx, &'a EndModel, EndWind)>,
@@ -621,7 +649,11 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
     let pilot: Option<&Pilot> = ops.pilot(&leg.pilot);
     let dep_fi = ops.airfield_position(&leg.from);
     let arr_fi = ops.airfield_position(&leg.to);
-    let (tom, lm) = leg_masses(ops, leg);
+    let mb = leg_mass_balance(ops, leg);
+    let (tom, lm) = (
+        mb.as_ref().map(|m| m.takeoff.mass_kg),
+        mb.as_ref().map(|m| m.landing.mass_kg),
+    );
 
     let mut dep = empty_side(&leg.from, leg.departs_utc());
     let mut arr = empty_side(&leg.to, leg.arrives_utc());
@@ -652,12 +684,15 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             headroom: None,
             takeoff_mass_kg: tom,
             landing_mass_kg: lm,
+            mass_balance: mb,
+            payload_headroom: None,
             departure: dep,
             arrival: arr,
             reasons,
             advice,
         };
     };
+    let mb = mb.unwrap_or_else(|| mass::fixed(tom, lm, f64::INFINITY, f64::INFINITY));
     let perf = &ops.types[ty.index].performance;
     let type_id = ops.types[ty.index].file.id.as_str();
     let who = Who {
@@ -670,15 +705,10 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
     let dist_buf = buffers.distance_percent / 100.0;
     let climb_buf = buffers.climb_percent / 100.0;
 
-    let mut mass_below = false;
-    if tom > ty.max_takeoff_mass_kg {
-        mass_below = true;
-        worst.add(State::Below, -1.0, What::Limit(usize::MAX));
-        reasons.push(format!(
-            "takeoff mass {tom:.0} kg is above the maximum takeoff mass {:.0} kg",
-            ty.max_takeoff_mass_kg
-        ));
-    } else if tom > 0.95 * ty.max_takeoff_mass_kg {
+    // Mass and balance: its checks join the departure's (takeoff side) and the
+    // arrival's (landing side) limits.
+    let mass_below = !mb.passes();
+    if tom > 0.95 * ty.max_takeoff_mass_kg && tom <= ty.max_takeoff_mass_kg {
         advice.push(format!(
             "Mass {tom:.0} kg is within 5 % of the maximum takeoff mass ({:.0} kg): check the loading.",
             ty.max_takeoff_mass_kg
@@ -689,13 +719,9 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             "No landing mass given: the landing is computed at {lm:.0} kg (the takeoff mass, at most the maximum landing mass)."
         ));
     }
-    if lm > ty.max_landing_mass_kg {
-        mass_below = true;
-        worst.add(State::Below, -1.0, What::Limit(usize::MAX));
-        reasons.push(format!(
-            "landing mass {lm:.0} kg is above the maximum landing mass {:.0} kg",
-            ty.max_landing_mass_kg
-        ));
+    for c in &mb.checks {
+        let landing_side = matches!(c.kind, LimitKind::LandingMass | LimitKind::FuelReserve);
+        all_limits.push((!landing_side, c.clone()));
     }
 
     let setup = Setup {
@@ -791,9 +817,8 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         let mut options: Vec<(EndOption, Option<Evaluated>)> = Vec::with_capacity(ends.len());
         for (k, end) in ends.iter().enumerate() {
             let w = wx.on_end(end.heading_true_deg);
-            let ev = end
-                .usable
-                .then(|| evaluate_end(&setup, &who, end, &wx, &w, side_in.departure));
+            let usable = end.usable_at(side_in.event_at);
+            let ev = usable.then(|| evaluate_end(&setup, &who, end, &wx, &w, side_in.departure));
             let (state, score) = ev
                 .as_ref()
                 .map_or((State::NoData, f64::NAN), |e| (e.state, e.score));
@@ -804,7 +829,8 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
                     state,
                     score,
                     in_use: false,
-                    usable: end.usable,
+                    usable,
+                    today: end.day_note.clone(),
                 },
                 ev,
             ));
@@ -943,16 +969,15 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         advise(&mut advice, side, side_in.field, end, ty, &wx);
     }
 
-    // Limits into the worst tracker, by their index in `all_limits`.
+    // Limits into the worst tracker, by their index in `all_limits`: departure's first.
+    all_limits.sort_by_key(|(departure, _)| !*departure);
     for (i, (_, l)) in all_limits.iter().enumerate() {
         worst.add(l.state, l.score(), What::Limit(i));
     }
     for (departure, l) in all_limits {
-        if departure {
-            dep.limits.push(l);
-        } else {
-            arr.limits.push(l);
-        }
+        let side = if departure { &mut dep } else { &mut arr };
+        side.state = side.state.and(l.state);
+        side.limits.push(l);
     }
     let state = worst.state.and(dep.state).and(arr.state);
     let limiting = worst
@@ -961,6 +986,25 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
     if state != State::Within {
         collect_reasons(&mut reasons, &dep, &arr, buffers);
     }
+    // Mass cannot fix a leg below for the weather, the wind or the density altitude.
+    let fixed_by_mass = !dep.limits.iter().chain(&arr.limits).any(|l| {
+        l.state == State::Below
+            && !matches!(
+                l.kind,
+                LimitKind::Loading
+                    | LimitKind::TakeoffMass
+                    | LimitKind::LandingMass
+                    | LimitKind::Fuel
+                    | LimitKind::FuelReserve
+                    | LimitKind::Envelope
+            )
+    }) && !dep.ends.is_empty()
+        && !arr.ends.is_empty();
+    let payload_headroom = if mb.rows.is_empty() || state == State::NoData || !fixed_by_mass {
+        None
+    } else {
+        payload_headroom(ops, leg, &plan)
+    };
     let headroom = if state == State::NoData || temperature_independent_below || mass_below {
         None
     } else {
@@ -984,10 +1028,96 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         headroom,
         takeoff_mass_kg: Some(tom),
         landing_mass_kg: Some(lm),
+        mass_balance: Some(mb),
+        payload_headroom,
         departure: dep,
         arrival: arr,
         reasons,
         advice,
+    }
+}
+
+/// The largest payload one station can take (or the least that must come off one) with
+/// the leg still not `below` at the current temperature, to 0.5 kg.
+fn payload_headroom(ops: &Ops, leg: &Leg, plan: &Plan<'_>) -> Option<PayloadHeadroom> {
+    let ac = ops.aircraft(&leg.aircraft)?;
+    let ty = ops.aircraft_type(&ac.type_id)?;
+    let loads = leg.loads.as_ref()?;
+    let stations = &ty.file.mass_balance.as_ref()?.stations;
+    let policy = &ops.operator.policy;
+    let ok = |station: usize, kg: f64| -> bool {
+        let extra = Some(mass::Extra { station, kg });
+        let Some(m) = mass::compute(leg, loads, ac, &ty.file, policy, extra) else {
+            return false;
+        };
+        let mut p = *plan;
+        p.setup.takeoff_mass_kg = m.takeoff.mass_kg;
+        p.setup.landing_mass_kg = m.landing.mass_kg;
+        m.passes() && p.score_at(0.0).is_some_and(|s| s >= 0.0)
+    };
+    let masses = mass::station_masses(loads, policy);
+    let current: Vec<f64> = stations
+        .iter()
+        .map(|st| {
+            loads
+                .stations
+                .iter()
+                .zip(&masses)
+                .filter(|(l, _)| l.station == st.id)
+                .map(|(_, m)| *m)
+                .sum()
+        })
+        .collect();
+    // The boundary between a passing `lo` and a failing `hi` extra mass, to 0.5 kg.
+    let bisect = |si: usize, mut lo: f64, mut hi: f64, pass_low: bool| {
+        while (hi - lo).abs() > 0.5 {
+            let mid = 0.5 * (lo + hi);
+            if ok(si, mid) == pass_low {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+        }
+        if pass_low { lo } else { hi }
+    };
+    let name = |si: usize| format!("{} ({})", stations[si].name, stations[si].id);
+    if ok(0, 0.0) {
+        let mut best: Option<(f64, usize)> = None;
+        for (si, st) in stations.iter().enumerate() {
+            let spare = st.max_mass_kg - current[si];
+            if spare <= 0.0 {
+                continue;
+            }
+            let add = if ok(si, spare) {
+                spare
+            } else {
+                bisect(si, 0.0, spare, true)
+            };
+            if best.is_none_or(|(b, _)| add > b) {
+                best = Some((add, si));
+            }
+        }
+        let (kg, si) = best.unwrap_or((0.0, 0));
+        Some(PayloadHeadroom {
+            kg: (kg * 2.0).floor() / 2.0,
+            station: name(si),
+        })
+    } else {
+        let mut best: Option<(f64, usize)> = None;
+        for (si, &have) in current.iter().enumerate() {
+            if have <= 0.0 || !ok(si, -have) {
+                continue;
+            }
+            // Removing `have` passes, removing nothing fails.
+            let off = -bisect(si, -have, 0.0, true);
+            if best.is_none_or(|(b, _)| off < b) {
+                best = Some((off, si));
+            }
+        }
+        best.map(|(kg, si)| PayloadHeadroom {
+            kg: -(kg * 2.0).ceil() / 2.0,
+            station: name(si),
+        })
     }
 }
 
@@ -1319,6 +1449,15 @@ fn advise(
         super::model::SurfaceCase::PavedWet => {
             advice.push(format!("{id}: wet runway — longer landing roll."))
         }
+        super::model::SurfaceCase::GrassSoft => advice.push(format!(
+            "{id}: soft ground — the roll can lengthen far beyond any factor; walk the strip."
+        )),
+        super::model::SurfaceCase::GrassLong => {
+            advice.push(format!("{id}: long grass — longer takeoff roll."))
+        }
+        super::model::SurfaceCase::Contaminated => advice.push(format!(
+            "{id}: standing water reported — no performance data for a contaminated runway."
+        )),
         super::model::SurfaceCase::PavedDry => {}
     }
     if end.slope_percent.abs() >= 0.5 {

@@ -40,6 +40,18 @@ pub enum LimitKind {
     Endorsement,
     /// The pilot is limited to named airfields.
     NamedAirfields,
+    /// A loading station's limit.
+    Loading,
+    /// Maximum takeoff mass.
+    TakeoffMass,
+    /// Maximum landing mass.
+    LandingMass,
+    /// Usable fuel capacity.
+    Fuel,
+    /// Fuel reserve at landing.
+    FuelReserve,
+    /// The CG envelope, takeoff to landing.
+    Envelope,
 }
 
 impl LimitKind {
@@ -58,6 +70,12 @@ impl LimitKind {
             LimitKind::Daylight => "daylight",
             LimitKind::Endorsement => "endorsement",
             LimitKind::NamedAirfields => "named airfields",
+            LimitKind::Loading => "station load",
+            LimitKind::TakeoffMass => "takeoff mass",
+            LimitKind::LandingMass => "landing mass",
+            LimitKind::Fuel => "fuel capacity",
+            LimitKind::FuelReserve => "fuel reserve",
+            LimitKind::Envelope => "CG envelope",
         }
     }
 }
@@ -414,54 +432,77 @@ pub fn field_limits(
             ));
         }
     }
-    // Daylight.
+    // Daylight: depart after sunrise (plus the category's margin), land before sunset
+    // (less its margin).
     if m.daylight_only {
-        let d = sun;
-        let (edge, ok, what) = if departure {
-            match d.sunrise {
-                Event::At(t) => (Some(t), event_at >= t, "departs before sunrise"),
-                Event::AlwaysAbove => (None, true, ""),
-                Event::AlwaysBelow => (None, false, "no daylight today (polar night)"),
-            }
+        let (edge, need_min, label) = if departure {
+            (
+                sun.sunrise,
+                m.depart_after_sunrise_min.unwrap_or(0.0),
+                "sunrise",
+            )
         } else {
-            match d.sunset {
-                Event::At(t) => (Some(t), event_at <= t, "arrives after sunset"),
-                Event::AlwaysAbove => (None, true, ""),
-                Event::AlwaysBelow => (None, false, "no daylight today (polar night)"),
-            }
+            (
+                sun.sunset,
+                m.land_before_sunset_min.unwrap_or(0.0),
+                "sunset",
+            )
         };
-        let margin_min = edge.map(|t| {
-            let d = if departure {
-                event_at - t
-            } else {
-                t - event_at
-            };
-            d.num_seconds() as f64 / 60.0
-        });
-        let mut c = flag(
-            LimitKind::Daylight,
-            ok,
-            source_of(who, "daylight_only"),
-            match edge {
-                Some(t) if ok => format!(
-                    "{} {} (NOAA solar method)",
-                    if departure { "sunrise" } else { "sunset" },
-                    t.format("%H%MZ")
-                ),
-                Some(t) => format!("{what} ({})", t.format("%H%MZ")),
-                None => what.to_string(),
-            },
-        );
-        if let Some(mm) = margin_min {
-            c.value = Some(mm);
-            c.unit = "min";
-            c.margin = mm;
-            c.state = if mm < 0.0 {
-                State::Below
-            } else {
-                State::Within
-            };
-        }
+        let source = match (departure, need_min > 0.0) {
+            (true, true) => source_of(who, "depart_after_sunrise_min"),
+            (false, true) => source_of(who, "land_before_sunset_min"),
+            _ => source_of(who, "daylight_only"),
+        };
+        let c = match edge {
+            Event::At(t) => {
+                let gap = if departure {
+                    event_at - t
+                } else {
+                    t - event_at
+                };
+                let margin = gap.num_seconds() as f64 / 60.0 - need_min;
+                let what = if departure { "departs" } else { "lands" };
+                LimitCheck {
+                    kind: LimitKind::Daylight,
+                    value: Some(gap.num_seconds() as f64 / 60.0),
+                    limit: Some(need_min),
+                    unit: "min",
+                    margin,
+                    band: 0.0,
+                    state: if margin < 0.0 {
+                        State::Below
+                    } else {
+                        State::Within
+                    },
+                    source,
+                    note: format!(
+                        "{label} {} (NOAA solar method); {what} {} min {} it{}",
+                        t.format("%H%MZ"),
+                        gap.num_minutes().abs(),
+                        if gap.num_seconds() >= 0 {
+                            if departure { "after" } else { "before" }
+                        } else if departure {
+                            "before"
+                        } else {
+                            "after"
+                        },
+                        if need_min > 0.0 {
+                            format!(", {need_min:.0} min required")
+                        } else {
+                            String::new()
+                        }
+                    ),
+                    open_ended: false,
+                }
+            }
+            Event::AlwaysAbove => flag(LimitKind::Daylight, true, source, "polar day".to_string()),
+            Event::AlwaysBelow => flag(
+                LimitKind::Daylight,
+                false,
+                source,
+                "no daylight today (polar night)".to_string(),
+            ),
+        };
         out.push(c);
     }
 }
@@ -562,6 +603,29 @@ pub fn pilot_limits(
                 )
             }
         });
+    }
+    // A student solo to another airfield needs a solo cross-country endorsement for the
+    // make and model (14 CFR 61.93 under the FAA regime; the operator's rule elsewhere).
+    if who.category == Category::StudentSolo && from != to {
+        let ok = pilot
+            .endorsements
+            .cross_country
+            .iter()
+            .any(|e| e.type_id == type_id && e.date <= departs_at.date_naive());
+        out.push(flag(
+            LimitKind::Endorsement,
+            ok,
+            if who.regime == Regime::Faa {
+                "14 CFR 61.93: solo cross-country endorsement".to_string()
+            } else {
+                "operator: solo cross-country endorsement".to_string()
+            },
+            if ok {
+                format!("cross-country endorsement for {type_id}")
+            } else {
+                format!("{from} to {to} is a cross-country flight and there is no cross-country endorsement for {type_id}")
+            },
+        ));
     }
     let named = &pilot.limitations.airfields;
     if !named.is_empty() {

@@ -5,6 +5,7 @@
 use crate::ops::actype::{PhaseCorrections, SurfaceRule};
 use crate::ops::airfield::{Condition, Surface};
 use crate::ops::operator::{FallbackPhase, Policy};
+use crate::ops::runway_state::{DayCondition, EndState, RunwayStateFile};
 use crate::ops::{Category, Ops};
 
 /// Where a correction or factor comes from.
@@ -39,9 +40,18 @@ pub enum SurfaceCase {
     GrassDry,
     /// Wet grass.
     GrassWet,
+    /// Soft ground (grass).
+    GrassSoft,
+    /// Long grass.
+    GrassLong,
+    /// Standing water: contaminated, outside light-aircraft manual data.
+    Contaminated,
 }
 
 impl SurfaceCase {
+    /// Number of cases.
+    pub const COUNT: usize = 7;
+
     /// From the end's surface and condition.
     pub const fn of(surface: Surface, condition: Condition) -> SurfaceCase {
         match (surface, condition) {
@@ -52,6 +62,19 @@ impl SurfaceCase {
         }
     }
 
+    /// From the end's surface and the day's condition.
+    pub const fn of_day(surface: Surface, condition: DayCondition) -> SurfaceCase {
+        match (surface, condition) {
+            (_, DayCondition::StandingWater) => SurfaceCase::Contaminated,
+            (Surface::Paved, DayCondition::Wet) => SurfaceCase::PavedWet,
+            (Surface::Paved, _) => SurfaceCase::PavedDry,
+            (Surface::Grass, DayCondition::Dry) => SurfaceCase::GrassDry,
+            (Surface::Grass, DayCondition::Wet) => SurfaceCase::GrassWet,
+            (Surface::Grass, DayCondition::SoftGround) => SurfaceCase::GrassSoft,
+            (Surface::Grass, DayCondition::LongGrass) => SurfaceCase::GrassLong,
+        }
+    }
+
     /// Words for the chain.
     pub const fn word(self) -> &'static str {
         match self {
@@ -59,6 +82,9 @@ impl SurfaceCase {
             SurfaceCase::PavedWet => "wet paved",
             SurfaceCase::GrassDry => "dry grass",
             SurfaceCase::GrassWet => "wet grass",
+            SurfaceCase::GrassSoft => "soft ground",
+            SurfaceCase::GrassLong => "long grass",
+            SurfaceCase::Contaminated => "standing water",
         }
     }
 }
@@ -81,8 +107,9 @@ pub struct PhaseRules {
     pub tailwind_percent_per_kt: Option<f64>,
     /// The manual's wind figures already include the 50 %/150 % factoring.
     pub wind_factoring_included: bool,
-    /// Surface rules by [`SurfaceCase`] index (paved dry has none).
-    pub surface: [Option<Rule>; 4],
+    /// Surface rules by [`SurfaceCase`] index (paved dry has none; soft ground and long
+    /// grass only where the manual or the policy gives one; standing water never).
+    pub surface: [Option<Rule>; SurfaceCase::COUNT],
     /// Increase per 1 % of adverse slope, percent, with its origin.
     pub slope_percent_per_percent: (f64, Origin),
 }
@@ -103,6 +130,18 @@ impl PhaseRules {
         // where it has one (`Minimums::wet_paved_landing_factor`) instead of this
         // fallback, never both: see `perf::landing_extra_factor`.
         let paved_wet = Some(pick(manual.paved_wet, fallback.paved_wet.rule));
+        let optional =
+            |m: Option<SurfaceRule>, f: &Option<crate::ops::operator::SourcedRule>| match (m, f) {
+                (Some(rule), _) => Some(Rule {
+                    rule,
+                    origin: Origin::Manual,
+                }),
+                (None, Some(f)) => Some(Rule {
+                    rule: f.rule,
+                    origin: Origin::Policy,
+                }),
+                (None, None) => None,
+            };
         PhaseRules {
             headwind_percent_per_kt: manual.headwind_decrease_percent_per_kt,
             tailwind_percent_per_kt: manual.tailwind_increase_percent_per_kt,
@@ -112,6 +151,9 @@ impl PhaseRules {
                 paved_wet,
                 Some(pick(manual.grass_dry, fallback.grass_dry.rule)),
                 Some(pick(manual.grass_wet, fallback.grass_wet.rule)),
+                optional(manual.grass_soft, &fallback.grass_soft),
+                optional(manual.grass_long, &fallback.grass_long),
+                None,
             ],
             slope_percent_per_percent: match manual.adverse_slope_increase_percent_per_percent {
                 Some(k) => (k, Origin::Manual),
@@ -179,8 +221,19 @@ pub struct EndModel {
     pub slope_percent: f64,
     /// Required climb gradient for the departure, ft/NM.
     pub required_gradient_ft_per_nm: Option<f64>,
-    /// Usable today.
+    /// Usable today (not closed all day).
     pub usable: bool,
+    /// Closed until this time today.
+    pub closed_until: Option<chrono::DateTime<chrono::Utc>>,
+    /// Today's runway state for this end, when one is set (shown and signed).
+    pub day_note: Option<String>,
+}
+
+impl EndModel {
+    /// Whether the end can be used at `t` (a closure with an end time lifts then).
+    pub fn usable_at(&self, t: chrono::DateTime<chrono::Utc>) -> bool {
+        self.usable && self.closed_until.is_none_or(|u| t >= u)
+    }
 }
 
 /// An airfield, compiled.
@@ -196,13 +249,35 @@ pub struct FieldModel {
     pub preferential_end: Option<usize>,
 }
 
-/// The runway set in use for a field today (board or command).
+/// Today's runway state: the end set in use, closures, reduced distances and the
+/// surface condition (board, `rhoboard runway`, or `runway-state/<date>.json`).
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct DaySettings {
     /// Airfield id → designator of the end in use.
     pub runway_in_use: std::collections::HashMap<String, String>,
-    /// Airfield id → designators closed today.
+    /// Airfield id → designators closed all day.
     pub closed: std::collections::HashMap<String, Vec<String>>,
+    /// The day's state file, if any.
+    pub state: Option<RunwayStateFile>,
+}
+
+impl DaySettings {
+    /// The settings of the operator's runway-state file for `date`, if it has one.
+    pub fn for_date(ops: &Ops, date: chrono::NaiveDate) -> DaySettings {
+        let state = ops.runway_states.iter().find(|s| s.date == date).cloned();
+        let mut d = DaySettings {
+            state,
+            ..DaySettings::default()
+        };
+        if let Some(s) = &d.state {
+            for a in &ops.airfields {
+                if let Some(e) = s.in_use(&a.id) {
+                    d.runway_in_use.insert(a.id.clone(), e);
+                }
+            }
+        }
+        d
+    }
 }
 
 /// The whole operator, compiled.
@@ -270,22 +345,47 @@ impl Model {
             let closed = day.closed.get(&a.id);
             let first_end = ends.len();
             for (ei, e) in a.runway_ends.iter().enumerate() {
-                let usable = closed.is_none_or(|c| !c.contains(&e.designator));
+                let mut usable = closed.is_none_or(|c| !c.contains(&e.designator));
+                let today = day.state.as_ref().and_then(|s| s.end(&a.id, &e.designator));
+                let (mut tora, mut toda, mut asda, mut lda) =
+                    (e.tora_m, e.toda_m, e.asda_m, e.lda_m);
+                let mut surface = SurfaceCase::of(e.surface, e.condition);
+                let mut closed_until = None;
+                let mut day_note = None;
+                if let Some(t) = &today {
+                    if t.closed == Some(true) {
+                        match t.until {
+                            Some(u) => closed_until = Some(u),
+                            None => usable = false,
+                        }
+                    }
+                    // Reduced distances only ever reduce.
+                    tora = t.tora_m.map_or(tora, |v| v.min(tora));
+                    toda = t.toda_m.map_or(toda, |v| v.min(toda));
+                    asda = t.asda_m.map_or(asda, |v| v.min(asda));
+                    lda = t.lda_m.map_or(lda, |v| v.min(lda));
+                    if let Some(c) = t.condition {
+                        surface = SurfaceCase::of_day(e.surface, c);
+                    }
+                    day_note = Some(describe(t));
+                }
                 ends.push(EndModel {
                     field: fi,
                     index: ei,
                     heading_true_deg: e.true_heading_deg,
-                    tora_m: e.tora_m,
-                    toda_m: e.toda_m.min(e.tora_m * 1.5),
-                    asda_m: e.asda_m,
-                    lda_m: e.lda_m,
-                    surface: SurfaceCase::of(e.surface, e.condition),
+                    tora_m: tora,
+                    toda_m: toda.min(tora * 1.5),
+                    asda_m: asda,
+                    lda_m: lda,
+                    surface,
                     slope_percent: e.slope_percent,
                     required_gradient_ft_per_nm: e
                         .required_climb_gradient
                         .as_ref()
                         .map(|g| g.ft_per_nm),
                     usable,
+                    closed_until,
+                    day_note,
                 });
             }
             let find = |d: &str| a.runway_ends.iter().position(|e| e.designator == d);
@@ -323,4 +423,32 @@ impl Model {
         let f = &self.fields[fi];
         &self.ends[f.first_end..f.first_end + f.end_count]
     }
+}
+
+/// Today's state of an end in words: "closed until 1800Z (works); TORA 900 m; wet".
+pub fn describe(t: &EndState) -> String {
+    let mut parts = Vec::new();
+    match (t.closed, t.until) {
+        (Some(true), Some(u)) => parts.push(format!("closed until {}", u.format("%H%MZ"))),
+        (Some(true), None) => parts.push("closed".to_string()),
+        _ => {}
+    }
+    for (name, v) in [
+        ("TORA", t.tora_m),
+        ("TODA", t.toda_m),
+        ("ASDA", t.asda_m),
+        ("LDA", t.lda_m),
+    ] {
+        if let Some(v) = v {
+            parts.push(format!("{name} {v:.0} m"));
+        }
+    }
+    if let Some(c) = t.condition {
+        parts.push(c.word().to_string());
+    }
+    let mut s = parts.join("; ");
+    if !t.note.is_empty() {
+        s.push_str(&format!(" ({})", t.note));
+    }
+    s
 }

@@ -189,7 +189,7 @@ impl<'a> FieldPrep<'a> {
             Some(wx) => ends.iter().map(|e| wx.on_end(e.heading_true_deg)).collect(),
             None => Vec::new(),
         };
-        let usable = |k: &usize| ends.get(*k).is_some_and(|e| e.usable);
+        let usable = |k: &usize| ends.get(*k).is_some_and(|e| e.usable_at(ctx.at));
         let in_use = model.set_in_use[fi].filter(usable).or_else(|| {
             let wx = wx.as_ref()?;
             if wx.calm() {
@@ -411,7 +411,7 @@ impl Prepared {
         let now = eval(in_use, 0.0);
         let mut best = now.state;
         for k in 0..field.ends.len() {
-            if k != in_use && field.ends[k].usable {
+            if k != in_use && field.ends[k].usable_at(ctx.at) {
                 best = best.min(eval(k, 0.0).state);
             }
         }

@@ -13,6 +13,10 @@ use crate::ops::operator::{Available, DistanceCheck, Required};
 pub enum PerfGap {
     /// There is a tailwind and the manual gives no tailwind correction.
     NoTailwindRule,
+    /// Neither the manual nor the policy gives a factor for the day's surface.
+    NoSurfaceRule(SurfaceCase),
+    /// Standing water: a contaminated runway.
+    Contaminated,
 }
 
 impl std::fmt::Display for PerfGap {
@@ -20,6 +24,14 @@ impl std::fmt::Display for PerfGap {
         match self {
             PerfGap::NoTailwindRule => {
                 f.write_str("tailwind, and the flight manual gives no tailwind correction")
+            }
+            PerfGap::NoSurfaceRule(c) => write!(
+                f,
+                "{}: neither the flight manual nor the operator's policy gives a factor",
+                c.word()
+            ),
+            PerfGap::Contaminated => {
+                f.write_str("standing water: a contaminated runway is outside the manual's data")
             }
         }
     }
@@ -83,6 +95,15 @@ pub fn distances(
     adverse_slope_percent: f64,
 ) -> Result<DistanceChain, PerfGap> {
     let headwind_kt = wind.headwind_kt;
+    match surface {
+        SurfaceCase::Contaminated => return Err(PerfGap::Contaminated),
+        SurfaceCase::GrassSoft | SurfaceCase::GrassLong
+            if rules.surface_rule(surface).is_none() =>
+        {
+            return Err(PerfGap::NoSurfaceRule(surface));
+        }
+        _ => {}
+    }
     let used = if rules.wind_factoring_included {
         headwind_kt
     } else {

@@ -190,9 +190,11 @@ fn side_json(s: &Side) -> Value {
             "source": l.source,
             "note": l.note,
         })).collect::<Vec<_>>(),
+        "runway_today": s.ends.iter().find(|e| e.in_use).and_then(|e| e.today.clone()),
         "alternatives": s.ends.iter().filter(|e| !e.in_use).map(|e| json!({
             "runway": e.designator,
             "usable": e.usable,
+            "today": e.today,
             "state": e.state,
             "headwind_kt": e.wind.headwind_kt,
             "crosswind_kt": e.wind.crosswind_kt,
@@ -222,6 +224,30 @@ pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
         "survives_expected_high": r.headroom.and_then(|h| h.survives_expected_high),
         "takeoff_mass_kg": r.takeoff_mass_kg,
         "landing_mass_kg": r.landing_mass_kg,
+        "mass_balance": r.mass_balance.as_ref().map(|m| {
+            let finite = |v: f64| v.is_finite().then_some(v);
+            json!({
+                "takeoff_mass_kg": m.takeoff.mass_kg,
+                "landing_mass_kg": m.landing.mass_kg,
+                "ramp_mass_kg": m.ramp.mass_kg,
+                "takeoff_cg_mm": finite(m.takeoff.cg_mm),
+                "landing_cg_mm": finite(m.landing.cg_mm),
+                "within_envelope": m.within_envelope,
+                "fuel_start_l": finite(m.fuel_start_l),
+                "fuel_landing_l": finite(m.fuel_landing_l),
+                "fuel_reserve_l": finite(m.fuel_reserve_l),
+                "payload_headroom_kg": r.payload_headroom.as_ref().map(|p| p.kg),
+                "payload_headroom_station": r.payload_headroom.as_ref().map(|p| p.station.clone()),
+                "loading": m.rows.iter().map(|row| json!({
+                    "station": row.station,
+                    "name": row.name,
+                    "mass_kg": row.mass_kg,
+                    "arm_mm": row.arm_mm,
+                    "moment_kg_mm": row.moment_kg_mm,
+                    "max_mass_kg": row.max_mass_kg,
+                })).collect::<Vec<_>>(),
+            })
+        }),
         "departure": side_json(&r.departure),
         "arrival": side_json(&r.arrival),
         "reasons": r.reasons,
@@ -327,7 +353,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         eprintln!("rhoboard: warning: {w}");
     }
     let ops = &loaded.ops;
-    let model = Model::new(ops, &DaySettings::default());
+    let model = Model::new(ops, &DaySettings::for_date(ops, loaded.at.date_naive()));
     let ctx = Context {
         ops,
         model: &model,

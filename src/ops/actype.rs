@@ -212,6 +212,12 @@ pub struct PhaseCorrections {
     /// takeoff, downhill for landing).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub adverse_slope_increase_percent_per_percent: Option<f64>,
+    /// Soft ground (grass).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grass_soft: Option<SurfaceRule>,
+    /// Long grass.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grass_long: Option<SurfaceRule>,
 }
 
 /// The manual's correction rules.

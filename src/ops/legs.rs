@@ -66,27 +66,49 @@ impl Leg {
     }
 }
 
-/// A leg's loads (the mass-and-balance work builds on this).
+/// A leg's loads: people and baggage by station, and the fuel.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct Loads {
-    /// People and baggage by station.
+    /// People and baggage by loading station.
     pub stations: Vec<StationLoad>,
-    /// Fuel at engine start, litres.
-    pub fuel_at_start_l: f64,
-    /// Taxi fuel, litres.
+    /// Fuel at engine start, litres (give exactly one of the three fuel fields).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fuel_at_start_l: Option<f64>,
+    /// Fuel at engine start, US gallons.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fuel_at_start_usgal: Option<f64>,
+    /// Fuel at engine start, kg.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fuel_at_start_kg: Option<f64>,
+    /// Taxi and run-up fuel, litres.
     #[serde(default)]
     pub taxi_fuel_l: f64,
-    /// Planned burn, litres per hour.
+    /// Planned burn, litres per hour (times the planned flight time).
     pub burn_l_per_h: f64,
 }
 
-/// A load at one station.
+/// What is loaded at one station: a stated mass, people at the operator's standard
+/// masses, or both (added).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct StationLoad {
     /// Station id from the type's mass-and-balance data.
     pub station: String,
-    /// Mass, kg.
-    pub mass_kg: f64,
+    /// Stated mass, kg (people weighed or declared, baggage weighed).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub mass_kg: Option<f64>,
+    /// Adults at the operator's standard adult mass.
+    #[serde(default, skip_serializing_if = "is_zero")]
+    pub standard_adults: u32,
+    /// Children at the operator's standard child mass.
+    #[serde(default, skip_serializing_if = "is_zero")]
+    pub standard_children: u32,
+    /// Free text (who or what).
+    #[serde(default, skip_serializing_if = "String::is_empty")]
+    pub note: String,
+}
+
+fn is_zero(n: &u32) -> bool {
+    *n == 0
 }

@@ -593,6 +593,13 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
             None => complete = false,
         }
     }
+    let mut runway_states = Vec::new();
+    for (file, _) in files.under("runway-state", ".json") {
+        match c.parse::<super::runway_state::RunwayStateFile>(file, &[]) {
+            Some(r) => runway_states.push((file.to_string(), r)),
+            None => complete = false,
+        }
+    }
     let observations = files
         .under("observations", ".txt")
         .chain(files.under("forecasts", ".txt"))
@@ -627,7 +634,7 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
         // naming an airfield whose file did not parse); fix the files first.
         return None;
     }
-    Some(Ops::new(
+    let mut ops = Ops::new(
         operator,
         pilots,
         aircraft,
@@ -635,5 +642,8 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
         airfields,
         legs,
         observations,
-    ))
+    );
+    super::validate::check_runway_states(&ops, &runway_states, c);
+    ops.runway_states = runway_states.into_iter().map(|(_, r)| r).collect();
+    Some(ops)
 }

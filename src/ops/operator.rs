@@ -145,6 +145,12 @@ pub struct FallbackPhase {
     pub grass_wet: SourcedRule,
     /// Wet paved.
     pub paved_wet: SourcedRule,
+    /// Soft ground (grass), when the day's runway state says so.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grass_soft: Option<SourcedRule>,
+    /// Long grass, when the day's runway state says so.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub grass_long: Option<SourcedRule>,
     /// Adverse slope (uphill takeoff, downhill landing).
     pub adverse_slope: SourcedSlope,
 }
@@ -206,6 +212,12 @@ pub struct Policy {
     /// Expected high temperature of the day at the home base, °C, if the operator gives one.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub expected_high_c: Option<f64>,
+    /// Standard masses for people loaded without a stated mass.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub standard_masses: Option<StandardMasses>,
+    /// Fuel that must remain at landing.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub fuel_reserve: Option<FuelReserve>,
     /// Instructor sign-offs: overrides and when a sign-off needs a re-check.
     #[serde(default)]
     pub sign_off: SignOffPolicy,
@@ -234,6 +246,32 @@ impl Default for SignOffPolicy {
         }
     }
 }
+
+/// Standard masses per person, including hand baggage.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct StandardMasses {
+    /// An adult, kg.
+    pub adult_kg: f64,
+    /// A child, kg.
+    pub child_kg: f64,
+    /// Where the figures come from.
+    pub source: String,
+}
+
+/// The fuel reserve at landing.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct FuelReserve {
+    /// Minutes of flight at the planned burn.
+    pub minutes: f64,
+    /// Where it comes from.
+    pub source: String,
+}
+
+/// The reserve used when the operator gives none, minutes (conservative: the night
+/// figure of 14 CFR 91.151(a)(2); by day the rule asks 30 minutes).
+pub const DEFAULT_FUEL_RESERVE_MIN: f64 = 45.0;
 
 /// Which performance figure a check uses.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -325,6 +363,12 @@ pub struct Minimums {
     /// Student solos: a solo endorsement for the type, valid this many days, is required.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub solo_endorsement_valid_days: Option<u32>,
+    /// Daylight categories: land at least this many minutes before sunset.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub land_before_sunset_min: Option<f64>,
+    /// Daylight categories: depart no earlier than this many minutes after sunrise.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub depart_after_sunrise_min: Option<f64>,
     /// Source of each value, keyed by field name.
     pub sources: BTreeMap<String, String>,
 }

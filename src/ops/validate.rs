@@ -541,6 +541,28 @@ pub fn check_type(file: &str, t: &AircraftType, c: &mut Collector<'_>) {
                 "mass_balance.envelope",
                 "the CG envelope needs at least 3 points",
             );
+        } else if crate::assess::mass::self_intersects(&mb.envelope) {
+            c.error(
+                file,
+                "mass_balance.envelope",
+                "the CG envelope crosses itself; list its corners in order around the outline",
+            );
+        }
+        for (i, p) in mb.envelope.iter().enumerate() {
+            positive(
+                c,
+                file,
+                &format!("mass_balance.envelope[{i}].mass_kg"),
+                p.mass_kg,
+                "envelope mass",
+            );
+            positive(
+                c,
+                file,
+                &format!("mass_balance.envelope[{i}].arm_mm"),
+                p.arm_mm,
+                "envelope arm",
+            );
         }
     }
 }
@@ -906,15 +928,43 @@ fn max_reported_temperature(text: &str) -> Option<f64> {
 pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
     let af = "fleet/aircraft.json";
     for (i, a) in ops.aircraft.iter().enumerate() {
-        if ops.aircraft_type(&a.type_id).is_none() {
-            c.error(
+        match ops.aircraft_type(&a.type_id) {
+            None => c.error(
                 af,
                 &format!("aircraft[{i}].type_id"),
                 format!(
                     "unknown aircraft type '{}'; add fleet/types/{}.json or fix the id",
                     a.type_id, a.type_id
                 ),
-            );
+            ),
+            Some(t) => {
+                // An empty CG far outside the envelope's span is almost always a typo
+                // (an arm in inches, or from another datum).
+                if let Some(mb) = &t.file.mass_balance {
+                    let lo = mb
+                        .envelope
+                        .iter()
+                        .map(|p| p.arm_mm)
+                        .fold(f64::INFINITY, f64::min);
+                    let hi = mb
+                        .envelope
+                        .iter()
+                        .map(|p| p.arm_mm)
+                        .fold(f64::NEG_INFINITY, f64::max);
+                    let span = hi - lo;
+                    if lo.is_finite() && (a.empty_arm_mm < lo - span || a.empty_arm_mm > hi + span)
+                    {
+                        c.warn(
+                            af,
+                            &format!("aircraft[{i}].empty_arm_mm"),
+                            format!(
+                                "empty CG {} mm is far outside the {} envelope's {lo}–{hi} mm; check the unit and the datum",
+                                a.empty_arm_mm, t.file.id
+                            ),
+                        );
+                    }
+                }
+            }
         }
     }
     for (i, p) in ops.pilots.iter().enumerate() {
@@ -1027,15 +1077,73 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                         }
                     }
                     let capacity: f64 = mb.fuel_tanks.iter().map(|t| t.usable_capacity_l).sum();
-                    if loads.fuel_at_start_l > capacity {
+                    let given = [
+                        ("fuel_at_start_l", loads.fuel_at_start_l),
+                        ("fuel_at_start_usgal", loads.fuel_at_start_usgal),
+                        ("fuel_at_start_kg", loads.fuel_at_start_kg),
+                    ];
+                    let n = given.iter().filter(|(_, v)| v.is_some()).count();
+                    if n != 1 {
                         c.error(
                             file,
-                            &format!("{p}.loads.fuel_at_start_l"),
+                            &format!("{p}.loads"),
+                            "give exactly one of fuel_at_start_l, fuel_at_start_usgal or fuel_at_start_kg",
+                        );
+                    }
+                    let density = mb
+                        .fuel_tanks
+                        .first()
+                        .map_or(0.72, |t| t.fuel_density_kg_per_l);
+                    let litres = loads
+                        .fuel_at_start_l
+                        .or(loads
+                            .fuel_at_start_usgal
+                            .map(|g| g * crate::units::L_PER_USGAL))
+                        .or(loads.fuel_at_start_kg.map(|kg| kg / density));
+                    if let Some(l) = litres
+                        && l > capacity
+                    {
+                        let field = given
+                            .iter()
+                            .find(|(_, v)| v.is_some())
+                            .map_or("fuel_at_start_l", |(f, _)| f);
+                        c.error(
+                            file,
+                            &format!("{p}.loads.{field}"),
                             format!(
-                                "{} L of fuel is more than the usable capacity {capacity} L",
-                                loads.fuel_at_start_l
+                                "{l:.0} L of fuel is more than the usable capacity {capacity} L"
                             ),
                         );
+                    }
+                    for (k, sl) in loads.stations.iter().enumerate() {
+                        if sl.mass_kg.is_none()
+                            && sl.standard_adults == 0
+                            && sl.standard_children == 0
+                        {
+                            c.error(
+                                file,
+                                &format!("{p}.loads.stations[{k}]"),
+                                "give mass_kg, standard_adults or standard_children",
+                            );
+                        }
+                        if (sl.standard_adults > 0 || sl.standard_children > 0)
+                            && ops.operator.policy.standard_masses.is_none()
+                        {
+                            c.error(
+                                file,
+                                &format!("{p}.loads.stations[{k}]"),
+                                "standard masses are used but operator.json has no policy.standard_masses",
+                            );
+                        }
+                        if let Some(m) = sl.mass_kg
+                            && !(m >= 0.0 && m.is_finite())
+                        {
+                            c.error(
+                                file,
+                                &format!("{p}.loads.stations[{k}].mass_kg"),
+                                format!("{m} must be zero or positive"),
+                            );
+                        }
                     }
                 }
             }
@@ -1181,6 +1289,78 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
             && e + 1000.0 > top_pa
         {
             c.warn(file, "performance.axes.pressure_altitude_ft", format!("tables stop at {top_pa} ft pressure altitude, within 1,000 ft of the highest airfield ({e} ft); low pressure there will be no-data"));
+        }
+    }
+}
+
+/// `runway-state/<date>.json`: the date matches the file name, and every entry names a
+/// known airfield and one of its runway ends, with plausible distances.
+pub fn check_runway_states(
+    ops: &Ops,
+    states: &[(String, super::runway_state::RunwayStateFile)],
+    c: &mut Collector<'_>,
+) {
+    for (file, st) in states {
+        if st.date.to_string() != file_stem(file) {
+            c.error(
+                file,
+                "date",
+                format!(
+                    "date {} differs from the file name; name the file {}.json",
+                    st.date, st.date
+                ),
+            );
+        }
+        for (i, e) in st.entries.iter().enumerate() {
+            let p = format!("entries[{i}]");
+            let Some(a) = ops.airfield(&e.airfield) else {
+                c.error(
+                    file,
+                    &format!("{p}.airfield"),
+                    format!("unknown airfield '{}'", e.airfield),
+                );
+                continue;
+            };
+            let Some(end) = a.runway_ends.iter().find(|r| r.designator == e.end) else {
+                let known: Vec<&str> = a
+                    .runway_ends
+                    .iter()
+                    .map(|r| r.designator.as_str())
+                    .collect();
+                c.error(
+                    file,
+                    &format!("{p}.end"),
+                    format!(
+                        "{} has no runway end '{}' (it has: {})",
+                        a.id,
+                        e.end,
+                        known.join(", ")
+                    ),
+                );
+                continue;
+            };
+            for (name, v, declared) in [
+                ("tora_m", e.tora_m, end.tora_m),
+                ("toda_m", e.toda_m, end.toda_m),
+                ("asda_m", e.asda_m, end.asda_m),
+                ("lda_m", e.lda_m, end.lda_m),
+            ] {
+                if let Some(v) = v {
+                    if !(v > 0.0 && v.is_finite()) {
+                        c.error(
+                            file,
+                            &format!("{p}.{name}"),
+                            format!("{v} must be positive"),
+                        );
+                    } else if v > declared {
+                        c.warn(
+                            file,
+                            &format!("{p}.{name}"),
+                            format!("{v} m is more than the declared {declared} m; a day's state only reduces distances"),
+                        );
+                    }
+                }
+            }
         }
     }
 }

@@ -1,0 +1,527 @@
+//! Mass and balance of a leg: empty aircraft + people and baggage by station + fuel →
+//! ramp, takeoff and landing mass, moment and centre of gravity; the checks against the
+//! maximum masses, each station's limit, the tanks, the reserve and the CG envelope.
+//!
+//! Moments are kg·mm (arms in mm aft of the manual's datum); CG = Σ moment ÷ Σ mass
+//! (FAA Aircraft Weight and Balance Handbook, FAA-H-8083-1, chapter 2). Fuel is spread
+//! over the tanks in proportion to their usable capacity.
+
+use serde::Serialize;
+
+use super::limits::{LimitCheck, LimitKind};
+use super::state::{State, verdict};
+use crate::ops::actype::{AircraftTypeFile, EnvelopePoint, MassBalance as TypeMassBalance};
+use crate::ops::legs::Loads;
+use crate::ops::operator::{DEFAULT_FUEL_RESERVE_MIN, Policy};
+use crate::ops::{Aircraft, Leg};
+use crate::units::L_PER_USGAL;
+
+/// One row of the loading table.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct LoadRow {
+    /// Station id (`empty`, a station, `fuel`).
+    pub station: String,
+    /// Display name.
+    pub name: String,
+    /// Mass, kg.
+    pub mass_kg: f64,
+    /// Arm, mm.
+    pub arm_mm: f64,
+    /// Moment, kg·mm.
+    pub moment_kg_mm: f64,
+    /// The station's limit, kg.
+    pub max_mass_kg: Option<f64>,
+}
+
+/// Mass and CG at one moment of the leg.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct MassPoint {
+    /// Mass, kg.
+    pub mass_kg: f64,
+    /// Centre of gravity, mm aft of datum.
+    pub cg_mm: f64,
+}
+
+/// A leg's mass and balance.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct MassBalance {
+    /// The loading table at takeoff (empty, stations, takeoff fuel).
+    pub rows: Vec<LoadRow>,
+    /// At engine start.
+    pub ramp: MassPoint,
+    /// At brake release.
+    pub takeoff: MassPoint,
+    /// At touchdown.
+    pub landing: MassPoint,
+    /// Fuel at engine start, litres.
+    pub fuel_start_l: f64,
+    /// Fuel at landing, litres.
+    pub fuel_landing_l: f64,
+    /// Reserve required at landing, litres.
+    pub fuel_reserve_l: f64,
+    /// The takeoff-to-landing CG line stays inside the envelope (`None`: the leg gives
+    /// only a fixed mass, so there is no CG).
+    pub within_envelope: Option<bool>,
+    /// The type's envelope, for drawing.
+    pub envelope: Vec<EnvelopePoint>,
+    /// The checks (maximum masses, stations, fuel, envelope).
+    pub checks: Vec<LimitCheck>,
+}
+
+/// Whether point (arm, mass) is inside the polygon or on its boundary.
+pub fn inside(envelope: &[EnvelopePoint], arm_mm: f64, mass_kg: f64) -> bool {
+    let n = envelope.len();
+    if n < 3 {
+        return false;
+    }
+    let eps = 1e-9;
+    let mut crossings = false;
+    for i in 0..n {
+        let a = envelope[i];
+        let b = envelope[(i + 1) % n];
+        // On the edge counts as inside.
+        let cross = (b.arm_mm - a.arm_mm) * (mass_kg - a.mass_kg)
+            - (b.mass_kg - a.mass_kg) * (arm_mm - a.arm_mm);
+        let within_box = arm_mm >= a.arm_mm.min(b.arm_mm) - eps
+            && arm_mm <= a.arm_mm.max(b.arm_mm) + eps
+            && mass_kg >= a.mass_kg.min(b.mass_kg) - eps
+            && mass_kg <= a.mass_kg.max(b.mass_kg) + eps;
+        let len = (b.arm_mm - a.arm_mm)
+            .hypot(b.mass_kg - a.mass_kg)
+            .max(1e-12);
+        if within_box && (cross / len).abs() <= 1e-7 {
+            return true;
+        }
+        // Ray to +arm: count edges straddling the point's mass.
+        if (a.mass_kg > mass_kg) != (b.mass_kg > mass_kg) {
+            let x =
+                a.arm_mm + (mass_kg - a.mass_kg) * (b.arm_mm - a.arm_mm) / (b.mass_kg - a.mass_kg);
+            if x > arm_mm {
+                crossings = !crossings;
+            }
+        }
+    }
+    crossings
+}
+
+fn orient(p: (f64, f64), q: (f64, f64), r: (f64, f64)) -> f64 {
+    (q.0 - p.0) * (r.1 - p.1) - (q.1 - p.1) * (r.0 - p.0)
+}
+
+/// Whether segments pq and rs cross at a point interior to both.
+fn properly_cross(p: (f64, f64), q: (f64, f64), r: (f64, f64), s: (f64, f64)) -> bool {
+    let (d1, d2) = (orient(r, s, p), orient(r, s, q));
+    let (d3, d4) = (orient(p, q, r), orient(p, q, s));
+    d1 * d2 < 0.0 && d3 * d4 < 0.0
+}
+
+/// Whether the straight line from one (arm, mass) point to another stays inside the
+/// envelope: both ends inside, and no edge crossed (a concave envelope can be left and
+/// re-entered between two inside points).
+pub fn line_inside(envelope: &[EnvelopePoint], from: MassPoint, to: MassPoint) -> bool {
+    if !inside(envelope, from.cg_mm, from.mass_kg) || !inside(envelope, to.cg_mm, to.mass_kg) {
+        return false;
+    }
+    let p = (from.cg_mm, from.mass_kg);
+    let q = (to.cg_mm, to.mass_kg);
+    let n = envelope.len();
+    for i in 0..n {
+        let a = envelope[i];
+        let b = envelope[(i + 1) % n];
+        if properly_cross(p, q, (a.arm_mm, a.mass_kg), (b.arm_mm, b.mass_kg)) {
+            return false;
+        }
+    }
+    // The midpoint too, for a line that runs along a concave notch's vertex.
+    inside(envelope, 0.5 * (p.0 + q.0), 0.5 * (p.1 + q.1))
+}
+
+/// Whether a polygon is simple: no two non-adjacent edges cross.
+pub fn self_intersects(envelope: &[EnvelopePoint]) -> bool {
+    let n = envelope.len();
+    for i in 0..n {
+        for j in i + 1..n {
+            if j == i + 1 || (i == 0 && j == n - 1) {
+                continue;
+            }
+            let (a, b) = (envelope[i], envelope[(i + 1) % n]);
+            let (c, d) = (envelope[j], envelope[(j + 1) % n]);
+            if properly_cross(
+                (a.arm_mm, a.mass_kg),
+                (b.arm_mm, b.mass_kg),
+                (c.arm_mm, c.mass_kg),
+                (d.arm_mm, d.mass_kg),
+            ) {
+                return true;
+            }
+        }
+    }
+    false
+}
+
+/// The people and baggage at each station, kg, in the order of `loads.stations`.
+pub fn station_masses(loads: &Loads, policy: &Policy) -> Vec<f64> {
+    let (adult, child) = policy
+        .standard_masses
+        .as_ref()
+        .map_or((f64::NAN, f64::NAN), |s| (s.adult_kg, s.child_kg));
+    loads
+        .stations
+        .iter()
+        .map(|s| {
+            let mut m = s.mass_kg.unwrap_or(0.0);
+            if s.standard_adults > 0 {
+                m += f64::from(s.standard_adults) * adult;
+            }
+            if s.standard_children > 0 {
+                m += f64::from(s.standard_children) * child;
+            }
+            m
+        })
+        .collect()
+}
+
+/// Fuel at engine start in litres from whichever unit the leg gives.
+pub fn fuel_start_l(loads: &Loads, density_kg_per_l: f64) -> f64 {
+    loads
+        .fuel_at_start_l
+        .or(loads.fuel_at_start_usgal.map(|g| g * L_PER_USGAL))
+        .or(loads.fuel_at_start_kg.map(|kg| kg / density_kg_per_l))
+        .unwrap_or(0.0)
+}
+
+/// The inputs of a mass-and-balance computation, with any extra load at one station.
+#[derive(Debug, Clone, Copy)]
+pub struct Extra {
+    /// Station index in the type's stations.
+    pub station: usize,
+    /// Extra mass there, kg (negative: removed).
+    pub kg: f64,
+}
+
+/// Computes the mass and balance of a leg with loads; `None` when the type has no
+/// mass-and-balance data.
+pub fn compute(
+    leg: &Leg,
+    loads: &Loads,
+    aircraft: &Aircraft,
+    ty: &AircraftTypeFile,
+    policy: &Policy,
+    extra: Option<Extra>,
+) -> Option<MassBalance> {
+    let mb: &TypeMassBalance = ty.mass_balance.as_ref()?;
+    let (max_takeoff_mass_kg, max_landing_mass_kg) =
+        (ty.limits.max_takeoff_mass_kg, ty.limits.max_landing_mass_kg);
+    let masses = station_masses(loads, policy);
+    let density = mb
+        .fuel_tanks
+        .first()
+        .map_or(0.72, |t| t.fuel_density_kg_per_l);
+    let capacity_l: f64 = mb.fuel_tanks.iter().map(|t| t.usable_capacity_l).sum();
+    // Fuel spread by capacity: one mean arm.
+    let fuel_arm = if capacity_l > 0.0 {
+        mb.fuel_tanks
+            .iter()
+            .map(|t| t.arm_mm * t.usable_capacity_l)
+            .sum::<f64>()
+            / capacity_l
+    } else {
+        0.0
+    };
+    let mut rows = vec![LoadRow {
+        station: "empty".to_string(),
+        name: format!("{} empty (weighing record)", aircraft.registration),
+        mass_kg: aircraft.empty_mass_kg,
+        arm_mm: aircraft.empty_arm_mm,
+        moment_kg_mm: aircraft.empty_mass_kg * aircraft.empty_arm_mm,
+        max_mass_kg: None,
+    }];
+    let mut checks = Vec::new();
+    for (si, st) in mb.stations.iter().enumerate() {
+        let mut m: f64 = loads
+            .stations
+            .iter()
+            .zip(&masses)
+            .filter(|(l, _)| l.station == st.id)
+            .map(|(_, m)| *m)
+            .sum();
+        if let Some(e) = extra
+            && e.station == si
+        {
+            m = (m + e.kg).max(0.0);
+        }
+        if m == 0.0 {
+            continue;
+        }
+        rows.push(LoadRow {
+            station: st.id.clone(),
+            name: st.name.clone(),
+            mass_kg: m,
+            arm_mm: st.arm_mm,
+            moment_kg_mm: m * st.arm_mm,
+            max_mass_kg: Some(st.max_mass_kg),
+        });
+        let margin = st.max_mass_kg - m;
+        checks.push(LimitCheck {
+            kind: LimitKind::Loading,
+            value: Some(m),
+            limit: Some(st.max_mass_kg),
+            unit: "kg",
+            margin,
+            band: 0.0,
+            state: if margin < 0.0 {
+                State::Below
+            } else {
+                State::Within
+            },
+            source: "aircraft type: loading station limit".to_string(),
+            note: format!("{} ({})", st.name, st.id),
+            open_ended: false,
+        });
+    }
+    let start_l = fuel_start_l(loads, density);
+    let takeoff_l = (start_l - loads.taxi_fuel_l).max(0.0);
+    let hours = ((leg.arrives_utc() - leg.departs_utc()).num_seconds() as f64 / 3_600.0).max(0.0);
+    let burn_l = loads.burn_l_per_h * hours;
+    let landing_l = takeoff_l - burn_l;
+    let reserve_min = policy
+        .fuel_reserve
+        .as_ref()
+        .map_or(DEFAULT_FUEL_RESERVE_MIN, |r| r.minutes);
+    let reserve_l = loads.burn_l_per_h * reserve_min / 60.0;
+
+    let payload: (f64, f64) = rows.iter().fold((0.0, 0.0), |(m, mo), r| {
+        (m + r.mass_kg, mo + r.moment_kg_mm)
+    });
+    let point = |fuel_l: f64| {
+        let fm = fuel_l.max(0.0) * density;
+        let mass = payload.0 + fm;
+        MassPoint {
+            mass_kg: mass,
+            cg_mm: (payload.1 + fm * fuel_arm) / mass,
+        }
+    };
+    rows.push(LoadRow {
+        station: "fuel".to_string(),
+        name: format!("fuel at takeoff, {takeoff_l:.0} L"),
+        mass_kg: takeoff_l * density,
+        arm_mm: fuel_arm,
+        moment_kg_mm: takeoff_l * density * fuel_arm,
+        max_mass_kg: Some(capacity_l * density),
+    });
+    let (ramp, takeoff, landing) = (point(start_l), point(takeoff_l), point(landing_l));
+
+    let kg_check = |kind, value: f64, limit: f64, source: &str, note: String| {
+        let margin = limit - value;
+        LimitCheck {
+            kind,
+            value: Some(value),
+            limit: Some(limit),
+            unit: "kg",
+            margin,
+            band: 0.0,
+            state: if margin < 0.0 {
+                State::Below
+            } else {
+                State::Within
+            },
+            source: source.to_string(),
+            note,
+            open_ended: false,
+        }
+    };
+    checks.push(kg_check(
+        LimitKind::TakeoffMass,
+        takeoff.mass_kg,
+        max_takeoff_mass_kg,
+        "aircraft type: maximum takeoff mass",
+        "takeoff mass".to_string(),
+    ));
+    checks.push(kg_check(
+        LimitKind::LandingMass,
+        landing.mass_kg,
+        max_landing_mass_kg,
+        "aircraft type: maximum landing mass",
+        "landing mass".to_string(),
+    ));
+    checks.push(LimitCheck {
+        unit: "L",
+        ..kg_check(
+            LimitKind::Fuel,
+            start_l,
+            capacity_l,
+            "aircraft type: usable fuel",
+            "fuel at engine start".to_string(),
+        )
+    });
+    let reserve_source = policy.fuel_reserve.as_ref().map_or_else(
+        || "rhoboard default 45 min (14 CFR 91.151: 30 min by day, 45 min at night)".to_string(),
+        |r| r.source.clone(),
+    );
+    checks.push(LimitCheck {
+        unit: "L",
+        margin: landing_l - reserve_l,
+        state: if landing_l < reserve_l {
+            State::Below
+        } else {
+            State::Within
+        },
+        ..kg_check(
+            LimitKind::FuelReserve,
+            landing_l,
+            reserve_l,
+            &reserve_source,
+            format!(
+                "fuel at landing against {reserve_min:.0} min at {:.0} L/h",
+                loads.burn_l_per_h
+            ),
+        )
+    });
+    let within = line_inside(&mb.envelope, takeoff, landing);
+    checks.push(LimitCheck {
+        kind: LimitKind::Envelope,
+        value: Some(takeoff.cg_mm),
+        limit: None,
+        unit: "mm",
+        margin: if within { f64::INFINITY } else { -1.0 },
+        band: 0.0,
+        state: if within { State::Within } else { State::Below },
+        source: "aircraft type: CG envelope".to_string(),
+        note: format!(
+            "CG {:.0} mm at {:.0} kg (takeoff) to {:.0} mm at {:.0} kg (landing){}",
+            takeoff.cg_mm,
+            takeoff.mass_kg,
+            landing.cg_mm,
+            landing.mass_kg,
+            if within {
+                ", inside the envelope"
+            } else {
+                ", outside the envelope"
+            }
+        ),
+        open_ended: false,
+    });
+    Some(MassBalance {
+        rows,
+        ramp,
+        takeoff,
+        landing,
+        fuel_start_l: start_l,
+        fuel_landing_l: landing_l,
+        fuel_reserve_l: reserve_l,
+        within_envelope: Some(within),
+        envelope: mb.envelope.clone(),
+        checks,
+    })
+}
+
+/// The mass checks of a leg that gives only fixed masses (no CG).
+pub fn fixed(takeoff_mass_kg: f64, landing_mass_kg: f64, mtow: f64, mlm: f64) -> MassBalance {
+    let point = |m: f64| MassPoint {
+        mass_kg: m,
+        cg_mm: f64::NAN,
+    };
+    let check = |kind, value: f64, limit: f64, source: &str| {
+        let margin = limit - value;
+        LimitCheck {
+            kind,
+            value: Some(value),
+            limit: Some(limit),
+            unit: "kg",
+            margin,
+            band: 0.0,
+            state: verdict(margin, 0.0),
+            source: source.to_string(),
+            note: String::new(),
+            open_ended: false,
+        }
+    };
+    MassBalance {
+        rows: Vec::new(),
+        ramp: point(takeoff_mass_kg),
+        takeoff: point(takeoff_mass_kg),
+        landing: point(landing_mass_kg),
+        fuel_start_l: f64::NAN,
+        fuel_landing_l: f64::NAN,
+        fuel_reserve_l: f64::NAN,
+        within_envelope: None,
+        envelope: Vec::new(),
+        checks: vec![
+            check(
+                LimitKind::TakeoffMass,
+                takeoff_mass_kg,
+                mtow,
+                "aircraft type: maximum takeoff mass",
+            ),
+            check(
+                LimitKind::LandingMass,
+                landing_mass_kg,
+                mlm,
+                "aircraft type: maximum landing mass",
+            ),
+        ],
+    }
+}
+
+impl MassBalance {
+    /// Whether every mass-and-balance check passes.
+    pub fn passes(&self) -> bool {
+        self.checks.iter().all(|c| c.state != State::Below)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn pt(mass_kg: f64, arm_mm: f64) -> EnvelopePoint {
+        EnvelopePoint { mass_kg, arm_mm }
+    }
+
+    #[test]
+    fn point_in_polygon_edges_vertices_and_concave() {
+        let square = [pt(0.0, 0.0), pt(0.0, 10.0), pt(10.0, 10.0), pt(10.0, 0.0)];
+        assert!(inside(&square, 5.0, 5.0));
+        assert!(inside(&square, 10.0, 5.0), "on an edge");
+        assert!(inside(&square, 0.0, 0.0), "on a vertex");
+        assert!(inside(&square, 10.0, 10.0), "on the far vertex");
+        assert!(!inside(&square, 10.000_1, 5.0));
+        assert!(!inside(&square, -1.0, 5.0));
+        // A concave "C": the notch on the right between masses 4 and 6.
+        let c = [
+            pt(0.0, 0.0),
+            pt(0.0, 10.0),
+            pt(4.0, 10.0),
+            pt(4.0, 4.0),
+            pt(6.0, 4.0),
+            pt(6.0, 10.0),
+            pt(10.0, 10.0),
+            pt(10.0, 0.0),
+        ];
+        assert!(inside(&c, 2.0, 5.0));
+        assert!(!inside(&c, 8.0, 5.0), "in the notch");
+        assert!(inside(&c, 4.0, 5.0), "on the notch's floor");
+        // Both ends inside but the line crosses the notch: not inside.
+        let from = MassPoint {
+            mass_kg: 3.0,
+            cg_mm: 8.0,
+        };
+        let to = MassPoint {
+            mass_kg: 7.0,
+            cg_mm: 8.0,
+        };
+        assert!(inside(&c, from.cg_mm, from.mass_kg) && inside(&c, to.cg_mm, to.mass_kg));
+        assert!(!line_inside(&c, from, to));
+        assert!(line_inside(
+            &c,
+            from,
+            MassPoint {
+                mass_kg: 3.0,
+                cg_mm: 1.0
+            }
+        ));
+        assert!(!self_intersects(&c));
+        let bow = [pt(0.0, 0.0), pt(10.0, 10.0), pt(10.0, 0.0), pt(0.0, 10.0)];
+        assert!(self_intersects(&bow));
+    }
+}

@@ -1,0 +1,189 @@
+//! Today's runway state (`runway-state/<YYYY-MM-DD>.json`): closures, reduced declared
+//! distances, the surface condition of the day and the end set in use — set from the
+//! board or `rhoboard runway`, kept in the operator folder for that date.
+
+use chrono::{DateTime, NaiveDate, Utc};
+use serde::{Deserialize, Serialize};
+
+/// The surface condition of a runway end for the day.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum DayCondition {
+    /// Dry.
+    Dry,
+    /// Wet.
+    Wet,
+    /// Soft ground (grass after rain, thawing).
+    SoftGround,
+    /// Long grass.
+    LongGrass,
+    /// Standing water: a contaminated runway, outside light-aircraft manual data.
+    StandingWater,
+}
+
+impl DayCondition {
+    /// Words.
+    pub const fn word(self) -> &'static str {
+        match self {
+            DayCondition::Dry => "dry",
+            DayCondition::Wet => "wet",
+            DayCondition::SoftGround => "soft ground",
+            DayCondition::LongGrass => "long grass",
+            DayCondition::StandingWater => "standing water",
+        }
+    }
+
+    /// Parses the command-line word (`dry`, `wet`, `soft`, `long-grass`, `water`).
+    pub fn parse(text: &str) -> Option<DayCondition> {
+        match text.to_ascii_lowercase().replace('_', "-").as_str() {
+            "dry" => Some(DayCondition::Dry),
+            "wet" => Some(DayCondition::Wet),
+            "soft" | "soft-ground" => Some(DayCondition::SoftGround),
+            "long" | "long-grass" => Some(DayCondition::LongGrass),
+            "water" | "standing-water" => Some(DayCondition::StandingWater),
+            _ => None,
+        }
+    }
+}
+
+/// One change to one runway end for the day. Later entries for the same end override
+/// earlier ones field by field.
+#[derive(Debug, Clone, Default, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct EndState {
+    /// Airfield id.
+    pub airfield: String,
+    /// Runway end designator.
+    pub end: String,
+    /// Closed (until `until`, else all day).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub closed: Option<bool>,
+    /// The closure ends at this time (UTC).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub until: Option<DateTime<Utc>>,
+    /// Reduced take-off run available, m.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub tora_m: Option<f64>,
+    /// Reduced take-off distance available, m.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub toda_m: Option<f64>,
+    /// Reduced accelerate-stop distance available, m.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub asda_m: Option<f64>,
+    /// Reduced landing distance available, m (a displaced threshold).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub lda_m: Option<f64>,
+    /// Surface condition for the day.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub condition: Option<DayCondition>,
+    /// This end is the one in use for the day.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub in_use: Option<bool>,
+    /// Why (works, rain overnight, …).
+    #[serde(default, skip_serializing_if = "String::is_empty")]
+    pub note: String,
+    /// Who set it and when.
+    #[serde(default, skip_serializing_if = "String::is_empty")]
+    pub set_by: String,
+}
+
+/// `runway-state/<date>.json`.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RunwayStateFile {
+    /// File format version; this build reads 1.
+    pub schema_version: u32,
+    /// The UTC date it is for; equal to the file name.
+    pub date: NaiveDate,
+    /// The changes, in the order they were made.
+    pub entries: Vec<EndState>,
+}
+
+impl RunwayStateFile {
+    /// An empty state for a date.
+    pub fn new(date: NaiveDate) -> RunwayStateFile {
+        RunwayStateFile {
+            schema_version: 1,
+            date,
+            entries: Vec::new(),
+        }
+    }
+
+    /// The combined state of one end: later entries override earlier ones field by field.
+    pub fn end(&self, airfield: &str, end: &str) -> Option<EndState> {
+        let mut out: Option<EndState> = None;
+        for e in self
+            .entries
+            .iter()
+            .filter(|e| e.airfield == airfield && e.end == end)
+        {
+            let o = out.get_or_insert_with(|| EndState {
+                airfield: airfield.to_string(),
+                end: end.to_string(),
+                ..EndState::default()
+            });
+            macro_rules! take {
+                ($($f:ident),*) => {$( if e.$f.is_some() { o.$f = e.$f.clone(); } )*};
+            }
+            take!(
+                closed, until, tora_m, toda_m, asda_m, lda_m, condition, in_use
+            );
+            if !e.note.is_empty() {
+                o.note = e.note.clone();
+            }
+            if !e.set_by.is_empty() {
+                o.set_by = e.set_by.clone();
+            }
+        }
+        out
+    }
+
+    /// The end set in use at an airfield, the latest entry that says so.
+    pub fn in_use(&self, airfield: &str) -> Option<String> {
+        self.entries
+            .iter()
+            .rev()
+            .find(|e| e.airfield == airfield && e.in_use == Some(true))
+            .map(|e| e.end.clone())
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn later_entries_override_field_by_field() {
+        let mut f = RunwayStateFile::new(NaiveDate::from_ymd_opt(2026, 6, 14).unwrap());
+        f.entries.push(EndState {
+            airfield: "XSEA".into(),
+            end: "27".into(),
+            closed: Some(true),
+            note: "works".into(),
+            ..EndState::default()
+        });
+        f.entries.push(EndState {
+            airfield: "XSEA".into(),
+            end: "27".into(),
+            tora_m: Some(900.0),
+            ..EndState::default()
+        });
+        f.entries.push(EndState {
+            airfield: "XSEA".into(),
+            end: "27".into(),
+            closed: Some(false),
+            ..EndState::default()
+        });
+        let e = f.end("XSEA", "27").unwrap();
+        assert_eq!(e.closed, Some(false));
+        assert_eq!(e.tora_m, Some(900.0));
+        assert_eq!(e.note, "works");
+        assert!(f.end("XSEA", "09").is_none());
+        assert_eq!(DayCondition::parse("soft"), Some(DayCondition::SoftGround));
+        assert_eq!(
+            DayCondition::parse("Long_Grass"),
+            Some(DayCondition::LongGrass)
+        );
+        assert_eq!(DayCondition::parse("icy"), None);
+    }
+}
