@@ -20,7 +20,7 @@ use crate::assess::{LegResult, State};
 use crate::ops::operator::SignOffPolicy;
 use crate::ops::{Category, Ops, OpsFiles};
 
-pub use log::{Chain, Entry, Head, Log, LogError, Problem};
+pub use log::{AppendOptions, Appended, Chain, Entry, Head, Log, LogError, Problem};
 
 /// The record format this build writes and reads.
 pub const SCHEMA_VERSION: u32 = 1;
@@ -619,4 +619,43 @@ pub fn recheck(signed: &Record, now: &LegResult, policy: &SignOffPolicy) -> Fres
     } else {
         Freshness::Recheck(why)
     }
+}
+
+/// Signs an assessed leg and appends the record to the log: the board's sign-off key
+/// calls this with the selected leg's result (after showing [`draft`]'s record, or its
+/// refusal, as the confirmation). The sign-off in force for the leg, if any, is
+/// superseded. Returns once the record is on disk.
+pub fn sign(
+    log: &Log,
+    ops: &Ops,
+    result: &LegResult,
+    req: &Request<'_>,
+    opts: &AppendOptions,
+) -> Result<Appended, LogError> {
+    let record = draft(ops, result, req)?;
+    log.append(record, opts, |chain, mut r| {
+        r.supersedes_seq = chain.in_force(&r.leg, r.leg_date).map(|e| e.record.seq);
+        Ok(r)
+    })
+}
+
+/// Revokes the sign-off in force for a leg.
+pub fn revoke(
+    log: &Log,
+    ops: &Ops,
+    leg_index: usize,
+    req: &Request<'_>,
+    opts: &AppendOptions,
+) -> Result<Appended, LogError> {
+    let record = draft_revocation(ops, leg_index, req)?;
+    log.append(record, opts, |chain, mut r: Record| {
+        let current = chain
+            .in_force(&r.leg, r.leg_date)
+            .ok_or(Refusal::NothingToRevoke {
+                leg: r.leg.clone(),
+                date: r.leg_date,
+            })?;
+        r.revokes_seq = Some(current.record.seq);
+        Ok(r)
+    })
 }

@@ -8,13 +8,15 @@ use std::time::Duration;
 
 use chrono::{DateTime, Utc};
 
-use crate::assess::{Context, DaySettings, LegResult, Model, assess_leg};
+use crate::assess::{Context, DaySettings, Model, assess_leg};
 use crate::commands::Outcome;
 use crate::commands::check::{self, Loaded};
 use crate::ops::config::{self, Choice};
 use crate::ops::{Ops, OpsFiles, demo};
-use crate::signoff::log::{AppendOptions, Appended, Log, LogError};
-use crate::signoff::{self, DataHashes, Kind, Record, Refusal, Request};
+use crate::signoff::log::{AppendOptions, Log, LogError};
+use crate::signoff::{DataHashes, Kind, Request};
+
+pub use crate::signoff::{revoke, sign};
 
 /// Arguments of `rhoboard signoff`.
 #[derive(Debug, Clone, clap::Args)]
@@ -106,43 +108,6 @@ pub fn leg_index(ops: &Ops, id: &str, at: DateTime<Utc>) -> anyhow::Result<usize
             at.date_naive()
         ),
     }
-}
-
-/// Signs an assessed leg: the board's sign-off key calls this with the selected leg's
-/// result. `finish` fills in what only the chain knows (the sign-off superseded).
-pub fn sign(
-    log: &Log,
-    ops: &Ops,
-    result: &LegResult,
-    req: &Request<'_>,
-    opts: &AppendOptions,
-) -> Result<Appended, LogError> {
-    let record = signoff::draft(ops, result, req)?;
-    log.append(record, opts, |chain, mut r| {
-        r.supersedes_seq = chain.in_force(&r.leg, r.leg_date).map(|e| e.record.seq);
-        Ok(r)
-    })
-}
-
-/// Revokes the sign-off in force for a leg.
-pub fn revoke(
-    log: &Log,
-    ops: &Ops,
-    leg_index: usize,
-    req: &Request<'_>,
-    opts: &AppendOptions,
-) -> Result<Appended, LogError> {
-    let record = signoff::draft_revocation(ops, leg_index, req)?;
-    log.append(record, opts, |chain, mut r: Record| {
-        let current = chain
-            .in_force(&r.leg, r.leg_date)
-            .ok_or(Refusal::NothingToRevoke {
-                leg: r.leg.clone(),
-                date: r.leg_date,
-            })?;
-        r.revokes_seq = Some(current.record.seq);
-        Ok(r)
-    })
 }
 
 /// The test hook of the crash test: `RHOBOARD_TEST_SPLIT_WRITE_MS=N` writes each line

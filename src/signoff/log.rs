@@ -476,6 +476,10 @@ impl Log {
             .map_err(io("opening", &lock_path))?;
         lock.lock().map_err(io("locking", &lock_path))?;
         let mut chain = self.read_unlocked()?;
+        // A broken chain is left exactly as found (torn tail included) for `log verify`.
+        if let Some(p) = chain.problems.first() {
+            return Err(Refusal::LogBroken(p.to_string()).into());
+        }
         let set_aside = match chain.torn.take() {
             Some(t) => {
                 self.set_aside(&t)?;
@@ -483,9 +487,6 @@ impl Log {
             }
             None => None,
         };
-        if let Some(p) = chain.problems.first() {
-            return Err(Refusal::LogBroken(p.to_string()).into());
-        }
         let mut record = finish(&chain, record)?;
         let last = chain.entries.last();
         record.seq = last.map_or(1, |e| e.record.seq + 1);
@@ -686,4 +687,43 @@ fn link_problems(entries: &[Entry]) -> Vec<Problem> {
         i += 1;
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_line_carries_the_hash_of_its_own_json() {
+        let body = br#"{"seq":1,"leg":"L01"}"#;
+        let mut line = body[..body.len() - 1].to_vec();
+        let hash = sha256_hex(body);
+        line.extend_from_slice(format!(",\"sha256\":\"{hash}\"}}").as_bytes());
+        let (back, h) = split_line(&line).expect("splits");
+        assert_eq!((back.as_slice(), h.as_str()), (&body[..], hash.as_str()));
+        // A line without the trailing hash is not a record line.
+        assert!(split_line(body).is_none());
+        assert!(split_line(&line[..line.len() - 1]).is_none());
+    }
+
+    #[test]
+    fn heads_parse_and_say_what_is_wrong() {
+        let h: Head = "12:3F9A0C11".parse().expect("head");
+        assert_eq!(h.to_string(), "12:3f9a0c11");
+        insta::assert_snapshot!("seven".parse::<Head>().unwrap_err(), @"head 'seven': expected SEQ:HASH, e.g. 12:3f9a0c…");
+        insta::assert_snapshot!("x:3f9a0c11".parse::<Head>().unwrap_err(), @"head 'x:3f9a0c11': sequence 'x' is not a whole number");
+        insta::assert_snapshot!("3:3f9a".parse::<Head>().unwrap_err(), @"head '3:3f9a': hash '3f9a' must be 8 to 64 hex digits (as printed on the sheet)");
+    }
+
+    #[test]
+    fn months_between_names_the_missing_files() {
+        assert_eq!(
+            months_between((2026, 11), (2027, 2)),
+            ["2026-12.jsonl", "2027-01.jsonl"]
+        );
+        assert!(months_between((2026, 6), (2026, 7)).is_empty());
+        assert_eq!(month_of("2026-06.jsonl"), Some((2026, 6)));
+        assert_eq!(month_of("2026-13.jsonl"), None);
+        assert_eq!(month_of("june.jsonl"), None);
+    }
 }
