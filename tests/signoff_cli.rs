@@ -319,3 +319,32 @@ fn the_demo_keeps_its_log_in_the_data_dir() {
     assert_eq!(o.status.code(), Some(0), "{}", text(&o));
     assert!(text(&o).contains("✓ sound"), "{}", text(&o));
 }
+
+#[test]
+fn validate_names_a_bad_sign_off_policy() {
+    let dir = demo_folder();
+    let op = dir.path().join("operator.json");
+    let t = std::fs::read_to_string(&op).expect("read");
+    let bad = t
+        .replace(
+            "\"recheck_density_altitude_rise_ft\": 300",
+            "\"recheck_density_altitude_rise_ft\": -5",
+        )
+        .replace(
+            "\"override_categories\": [\"dual\"]",
+            "\"override_categories\": [\"glider\"]",
+        );
+    std::fs::write(&op, &bad).expect("write");
+    let d = dir.path().to_str().expect("utf-8");
+    let o = rhoboard(&["validate", "--ops", d], dir.path());
+    assert_eq!(o.status.code(), Some(2), "{}", text(&o));
+    assert!(text(&o).contains("operator.json"), "{}", text(&o));
+    assert!(text(&o).contains("glider"), "{}", text(&o));
+    std::fs::write(&op, bad.replace("[\"glider\"]", "[\"dual\"]")).expect("write");
+    let o = rhoboard(&["validate", "--ops", d], dir.path());
+    assert!(
+        text(&o).contains("policy.sign_off.recheck_density_altitude_rise_ft"),
+        "{}",
+        text(&o)
+    );
+}

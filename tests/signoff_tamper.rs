@@ -360,3 +360,35 @@ fn a_broken_log_takes_no_new_record() {
     );
     assert_eq!(lines(dir.path(), "2026-08.jsonl").len(), 2);
 }
+
+#[test]
+fn any_changed_byte_is_caught() {
+    let (dir, _) = log_of_seven();
+    let log = Log::of_operator(dir.path());
+    let names = ["2026-06.jsonl", "2026-07.jsonl", "2026-08.jsonl"];
+    let originals: Vec<Vec<u8>> = names
+        .iter()
+        .map(|n| std::fs::read(file(dir.path(), n)).expect("read"))
+        .collect();
+    let mut x: u64 = 0x2545_f491_4f6c_dd1d;
+    for _ in 0..300 {
+        x ^= x << 13;
+        x ^= x >> 7;
+        x ^= x << 17;
+        let f = (x % 3) as usize;
+        let mut bytes = originals[f].clone();
+        let at = ((x >> 8) as usize) % bytes.len();
+        let new = bytes[at] ^ (1 + ((x >> 40) as u8 % 127));
+        bytes[at] = new;
+        let path = file(dir.path(), names[f]);
+        std::fs::write(&path, &bytes).expect("write");
+        let chain = log.read().expect("read");
+        assert!(
+            !chain.is_sound(),
+            "byte {at} of {} changed to {new:#04x} went unnoticed",
+            names[f]
+        );
+        std::fs::write(&path, &originals[f]).expect("restore");
+    }
+    assert!(log.read().expect("read").is_sound());
+}
