@@ -348,3 +348,24 @@ fn validate_names_a_bad_sign_off_policy() {
         text(&o)
     );
 }
+
+#[test]
+fn json_says_signed_or_refused() {
+    let dir = demo_folder();
+    let o = sign(dir.path(), "L01", MORNING, &["--json"]);
+    assert_eq!(o.status.code(), Some(0), "{}", text(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).expect("json");
+    assert_eq!(v["signed"]["record"]["seq"], 1);
+    assert_eq!(v["signed"]["line"], 1);
+    let head = v["signed"]["head"].as_str().expect("head");
+    assert!(head.starts_with("1:") && head.len() == 66, "{head}");
+    let o = sign(dir.path(), "L08", MORNING, &["--json"]);
+    assert_eq!(o.status.code(), Some(1), "{}", text(&o));
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).expect("json");
+    assert!(
+        v["refused"]
+            .as_str()
+            .is_some_and(|r| r.contains("has lapsed")),
+        "{v}"
+    );
+}

@@ -44,6 +44,9 @@ pub struct Args {
     /// built-in demo, 08:00Z on its demo day.
     #[arg(long, value_name = "TIME")]
     pub at: Option<String>,
+    /// Print JSON: `{"signed": {file, line, sha256, record}}` or `{"refused": REASON}`.
+    #[arg(long)]
+    pub json: bool,
 }
 
 /// The operator folder to use: `--ops`, else the configured one, else `None` (the
@@ -170,6 +173,21 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 eprintln!("rhoboard: warning: {t} — done before this record was written");
             }
             let r = &a.entry.record;
+            if args.json {
+                let v = serde_json::json!({
+                    "signed": {
+                        "file": log.dir().join(&a.entry.file),
+                        "line": a.entry.line,
+                        "sha256": a.entry.sha256,
+                        "head": format!("{}:{}", r.seq, a.entry.sha256),
+                        "set_aside_torn_line": a.set_aside.as_ref().map(|t| t.to_string()),
+                        "record": r,
+                    }
+                });
+                serde_json::to_writer_pretty(&mut *out, &v)?;
+                writeln!(out)?;
+                return Ok(Outcome::Success);
+            }
             let what = match r.kind {
                 Kind::SignOff => {
                     let state = r.figures.as_ref().map_or("", |f| f.state.as_str());
@@ -202,7 +220,15 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             Ok(Outcome::Success)
         }
         Err(LogError::Refused(why)) => {
-            writeln!(out, "refused: {why}")?;
+            if args.json {
+                serde_json::to_writer_pretty(
+                    &mut *out,
+                    &serde_json::json!({ "refused": why.to_string() }),
+                )?;
+                writeln!(out)?;
+            } else {
+                writeln!(out, "refused: {why}")?;
+            }
             Ok(Outcome::Findings)
         }
         Err(e) => Err(anyhow::Error::new(e).context(format!(
