@@ -16,6 +16,21 @@ use rhoboard::report;
 use rhoboard::signoff::log::AppendOptions;
 use rhoboard::signoff::{DataHashes, Log, Request};
 
+/// The demo operator as a folder, so a developer's configured default folder is not used.
+fn demo_dir() -> &'static std::path::Path {
+    static DIR: std::sync::OnceLock<tempfile::TempDir> = std::sync::OnceLock::new();
+    DIR.get_or_init(|| {
+        let dir = tempfile::tempdir().expect("temp dir");
+        for (rel, text) in rhoboard::ops::demo::FILES {
+            let p = dir.path().join(rel);
+            std::fs::create_dir_all(p.parent().expect("parent")).expect("mkdir");
+            std::fs::write(&p, text).expect("write");
+        }
+        dir
+    })
+    .path()
+}
+
 fn utc(s: &str) -> DateTime<Utc> {
     DateTime::parse_from_rfc3339(s)
         .expect("time")
@@ -23,7 +38,7 @@ fn utc(s: &str) -> DateTime<Utc> {
 }
 
 fn assessed(at: &str) -> (check::Loaded, Vec<usize>) {
-    let loaded = check::load(None, &[], Some(at), utc(at)).expect("demo");
+    let loaded = check::load(Some(demo_dir()), &[], Some(at), utc(at)).expect("demo");
     let days = legs_of_day(&loaded.ops, loaded.at);
     (loaded, days)
 }
@@ -180,6 +195,8 @@ fn the_command_writes_both_formats() {
         ])
         .arg(&out)
         .env("RHOBOARD_DATA_DIR", data.path())
+        .env("XDG_CONFIG_HOME", data.path())
+        .env("HOME", data.path())
         .output()
         .expect("run");
     // Legs below at 13Z: exit 1, as for check.
@@ -195,6 +212,8 @@ fn the_command_writes_both_formats() {
     let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
         .args(["report", "--at", "2026-06-14T08:00:00Z"])
         .env("RHOBOARD_DATA_DIR", data.path())
+        .env("XDG_CONFIG_HOME", data.path())
+        .env("HOME", data.path())
         .output()
         .expect("run");
     let md = String::from_utf8_lossy(&o.stdout);

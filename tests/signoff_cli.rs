@@ -22,6 +22,9 @@ fn rhoboard(args: &[&str], data_dir: &Path) -> Output {
     Command::new(env!("CARGO_BIN_EXE_rhoboard"))
         .args(args)
         .env("RHOBOARD_DATA_DIR", data_dir)
+        // No developer's configured default folder: the demo is the demo.
+        .env("XDG_CONFIG_HOME", data_dir)
+        .env("HOME", data_dir)
         .env_remove("RHOBOARD_TEST_SPLIT_WRITE_MS")
         .output()
         .expect("run rhoboard")

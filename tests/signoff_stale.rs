@@ -9,6 +9,21 @@ use rhoboard::commands::check;
 use rhoboard::ops::operator::SignOffPolicy;
 use rhoboard::signoff::{DataHashes, Freshness, Record, Request, draft, recheck};
 
+/// The demo operator as a folder, so a developer's configured default folder is not used.
+fn demo_dir() -> &'static std::path::Path {
+    static DIR: std::sync::OnceLock<tempfile::TempDir> = std::sync::OnceLock::new();
+    DIR.get_or_init(|| {
+        let dir = tempfile::tempdir().expect("temp dir");
+        for (rel, text) in rhoboard::ops::demo::FILES {
+            let p = dir.path().join(rel);
+            std::fs::create_dir_all(p.parent().expect("parent")).expect("mkdir");
+            std::fs::write(&p, text).expect("write");
+        }
+        dir
+    })
+    .path()
+}
+
 fn utc(s: &str) -> DateTime<Utc> {
     DateTime::parse_from_rfc3339(s)
         .expect("time")
@@ -16,7 +31,7 @@ fn utc(s: &str) -> DateTime<Utc> {
 }
 
 fn assessed(leg: &str, at: &str) -> (rhoboard::ops::Ops, LegResult) {
-    let loaded = check::load(None, &[], Some(at), utc(at)).expect("demo");
+    let loaded = check::load(Some(demo_dir()), &[], Some(at), utc(at)).expect("demo");
     let ops = loaded.ops.clone();
     let model = Model::new(&ops, &DaySettings::default());
     let ctx = Context {
