@@ -1,6 +1,7 @@
 //! The subcommands behind the binary: each takes its parsed arguments and a writer,
 //! and returns what the process should exit with.
 
+pub mod board;
 pub mod calc;
 pub mod check;
 pub mod metar;

@@ -10,6 +10,7 @@
 
 pub mod assess;
 pub mod atmosphere;
+pub mod board;
 pub mod commands;
 pub mod daylight;
 pub mod observation;

@@ -1,6 +1,7 @@
 //! The `rhoboard` binary: parses arguments, runs one command, maps the result to an
 //! exit status (0 success, 1 findings, 2 bad usage or input).
 
+use std::io::IsTerminal;
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
@@ -18,6 +19,8 @@ struct Cli {
 
 #[derive(Subcommand, Debug)]
 enum Command {
+    /// The terminal board: live on an operator folder, or replaying a day.
+    Board(commands::board::Args),
     /// Pressure and density altitude, density, ISA deviation and TAS factor at a field.
     Calc(commands::calc::Args),
     /// Assesses every leg of the day against the operator's minimums.
@@ -40,9 +43,25 @@ enum Command {
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
+    // The board owns the terminal; with no subcommand it opens only on a terminal, and
+    // piped output keeps the printed overview.
+    let board = match &cli.command {
+        Some(Command::Board(args)) => Some(args.clone()),
+        None if std::io::stdout().is_terminal() => Some(commands::board::Args::default()),
+        _ => None,
+    };
+    if let Some(args) = board {
+        return match commands::board::run(&args) {
+            Ok(outcome) => outcome.into(),
+            Err(err) => {
+                eprintln!("rhoboard: {err:#}");
+                Outcome::BadInput.into()
+            }
+        };
+    }
     let mut out = std::io::stdout().lock();
     let result: anyhow::Result<Outcome> = match cli.command {
-        None => commands::overview::run(&mut out),
+        None | Some(Command::Board(_)) => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
         Some(Command::Check(args)) => commands::check::run(&args, &mut out),
         Some(Command::Runway(args)) => commands::runway::run(&args, &mut out),
