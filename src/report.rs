@@ -15,7 +15,7 @@ use chrono::{DateTime, Utc};
 use crate::assess::leg::{FieldWx, PhaseResult, Side};
 use crate::assess::{Context, LegResult, State};
 use crate::ops::Ops;
-use crate::signoff::{Chain, Freshness, Head, recheck};
+use crate::signoff::{Chain, Head, Standing, standing};
 
 /// The sign-off column of one leg.
 #[derive(Debug, Clone, PartialEq)]
@@ -222,34 +222,30 @@ fn opt(v: Option<f64>, f: impl Fn(f64) -> String) -> String {
 /// Builds the sheet from the day's assessed legs and the log (if it could be read).
 pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, String>) -> Sheet {
     let ops: &Ops = ctx.ops;
-    let policy = &ops.operator.policy.sign_off;
     let mut rechecks = Vec::new();
     let legs = results
         .iter()
         .map(|r| {
             let leg = ops.legs.get(r.index);
-            let date = leg.map(|l| l.departs_utc().date_naive());
-            let mark = match (&log, date) {
-                (Ok(chain), Some(d)) => match chain.in_force(&r.id, d) {
-                    None => Mark::None,
-                    Some(e) => match recheck(&e.record, r, policy) {
-                        Freshness::Current => Mark::Signed {
+            let mark = match &log {
+                Ok(chain) => match standing(chain, ops, r) {
+                    Standing::Unsigned => Mark::None,
+                    Standing::Signed(e) => Mark::Signed {
+                        seq: e.record.seq,
+                        instructor: e.record.instructor.clone(),
+                        signed_at: e.record.signed_at,
+                        overridden: e.record.override_reason.is_some(),
+                    },
+                    Standing::Recheck(e, reasons) => {
+                        rechecks.push((r.id.clone(), reasons.clone()));
+                        Mark::Recheck {
                             seq: e.record.seq,
                             instructor: e.record.instructor.clone(),
-                            signed_at: e.record.signed_at,
-                            overridden: e.record.override_reason.is_some(),
-                        },
-                        Freshness::Recheck(reasons) => {
-                            rechecks.push((r.id.clone(), reasons.clone()));
-                            Mark::Recheck {
-                                seq: e.record.seq,
-                                instructor: e.record.instructor.clone(),
-                                reasons,
-                            }
+                            reasons,
                         }
-                    },
+                    }
                 },
-                _ => Mark::None,
+                Err(_) => Mark::None,
             };
             LegRow {
                 departs: leg.map_or("—".to_string(), |l| {

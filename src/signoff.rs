@@ -659,3 +659,30 @@ pub fn revoke(
         Ok(r)
     })
 }
+
+/// Where an assessed leg stands with its sign-off.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Standing<'c> {
+    /// No sign-off in force.
+    Unsigned,
+    /// Signed, and nothing the policy names has changed for the worse.
+    Signed(&'c Entry),
+    /// Signed, but the new assessment undermines it: the reasons.
+    Recheck(&'c Entry, Vec<String>),
+}
+
+/// The sign-off standing of an assessed leg on the chain: the sign-off in force for the
+/// leg (by id and departure date) and [`recheck`] against its new result. Pure; the
+/// board calls it for every leg after each new report, the sheet for its sign-off column.
+pub fn standing<'c>(chain: &'c Chain, ops: &Ops, r: &LegResult) -> Standing<'c> {
+    let Some(leg) = ops.legs.get(r.index).filter(|l| l.id == r.id) else {
+        return Standing::Unsigned;
+    };
+    match chain.in_force(&r.id, leg.departs_utc().date_naive()) {
+        None => Standing::Unsigned,
+        Some(e) => match recheck(&e.record, r, &ops.operator.policy.sign_off) {
+            Freshness::Current => Standing::Signed(e),
+            Freshness::Recheck(why) => Standing::Recheck(e, why),
+        },
+    }
+}

@@ -143,3 +143,32 @@ fn the_policy_defaults_are_300_ft_and_no_overrides() {
     assert_eq!(p.recheck_density_altitude_rise_ft, 300.0);
     assert!(p.override_categories.is_empty());
 }
+
+#[test]
+fn standing_on_the_chain_follows_sign_off_revocation_and_the_afternoon() {
+    use rhoboard::signoff::{AppendOptions, Log, Standing, revoke, sign, standing};
+    let dir = tempfile::tempdir().expect("temp dir");
+    let log = Log::of_operator(dir.path());
+    let (ops, morning) = assessed("L09", "2026-06-14T08:00:00Z");
+    let (_, afternoon) = assessed("L09", "2026-06-14T13:00:00Z");
+    let chain = log.read().expect("read");
+    assert_eq!(standing(&chain, &ops, &morning), Standing::Unsigned);
+    let data = DataHashes::of(&rhoboard::ops::demo::files());
+    let req = Request {
+        instructor: "Mara Greyling",
+        note: "",
+        override_reason: None,
+        signed_at: utc("2026-06-14T07:55:00Z"),
+        basis_at: utc("2026-06-14T08:00:00Z"),
+        data: &data,
+    };
+    sign(&log, &ops, &morning, &req, &AppendOptions::default()).expect("signed");
+    let chain = log.read().expect("read");
+    assert!(matches!(standing(&chain, &ops, &morning), Standing::Signed(e) if e.record.seq == 1));
+    assert!(
+        matches!(standing(&chain, &ops, &afternoon), Standing::Recheck(e, _) if e.record.seq == 1)
+    );
+    revoke(&log, &ops, morning.index, &req, &AppendOptions::default()).expect("revoked");
+    let chain = log.read().expect("read");
+    assert_eq!(standing(&chain, &ops, &afternoon), Standing::Unsigned);
+}
