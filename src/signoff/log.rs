@@ -316,8 +316,8 @@ pub struct Appended {
     pub set_aside: Option<Torn>,
 }
 
-/// Makes a new entry in a folder durable (Unix: `fsync` of the folder; elsewhere the
-/// platform offers no such call on a folder and creating the file is already durable).
+/// Makes a new entry in a folder durable: `fsync` of the folder on Unix; other platforms
+/// have no such call on a folder, and this is a no-op there.
 fn sync_dir(dir: &Path) -> Result<(), LogError> {
     #[cfg(unix)]
     {
