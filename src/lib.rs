@@ -15,6 +15,7 @@ pub mod commands;
 pub mod daylight;
 pub mod observation;
 pub mod ops;
+pub mod replan;
 pub mod report;
 pub mod signoff;
 pub mod units;

@@ -92,7 +92,13 @@ pub fn load(
     };
     let stale = chrono::TimeDelta::seconds((ops.operator.policy.stale_after_min * 60.0) as i64);
     let mut store = Store::new(stale);
-    let mut texts: Vec<(String, String)> = ops.observations.clone();
+    // TAFs (under `forecasts/`) are not observations.
+    let mut texts: Vec<(String, String)> = ops
+        .observations
+        .iter()
+        .filter(|(file, _)| !file.starts_with("forecasts/"))
+        .cloned()
+        .collect();
     for f in obs_files {
         let text = std::fs::read_to_string(f)
             .with_context(|| format!("reading observation file {}", f.display()))?;
