@@ -564,8 +564,9 @@ impl fmt::Display for Freshness {
 }
 
 /// Decides whether a signed leg needs a re-check on its new assessment: the state got
-/// worse, the density altitude at either end rose by more than the policy's step, or
-/// the headroom fell below the policy's floor. Pure; the board calls it after every
+/// worse, the density altitude at either end rose by more than the policy's step, the
+/// headroom fell below the policy's floor — or the leg was re-planned (another
+/// airfield at either end, a higher takeoff or landing mass). Pure; the board calls it after every
 /// new report for each leg with a sign-off in force.
 pub fn recheck(signed: &Record, now: &LegResult, policy: &SignOffPolicy) -> Freshness {
     let Some(fig) = &signed.figures else {
@@ -598,6 +599,31 @@ pub fn recheck(signed: &Record, now: &LegResult, policy: &SignOffPolicy) -> Fres
                     side.airfield, policy.recheck_density_altitude_rise_ft
                 ));
             }
+        }
+    }
+    for (end, before, side) in [
+        (
+            "departure",
+            &fig.departure.airfield,
+            &now.departure.airfield,
+        ),
+        ("arrival", &fig.arrival.airfield, &now.arrival.airfield),
+    ] {
+        if before != side {
+            why.push(format!("the {end} is now {side}, signed for {before}"));
+        }
+    }
+    for (what, before, after) in [
+        ("takeoff", fig.takeoff_mass_kg, now.takeoff_mass_kg),
+        ("landing", fig.landing_mass_kg, now.landing_mass_kg),
+    ] {
+        if let (Some(b), Some(n)) = (before, after)
+            && n > b + 0.5
+        {
+            why.push(format!(
+                "{what} mass rose {:.0} kg ({b:.0} → {n:.0} kg)",
+                n - b
+            ));
         }
     }
     let floor = policy.recheck_headroom_floor_c;
@@ -678,11 +704,25 @@ pub fn standing<'c>(chain: &'c Chain, ops: &Ops, r: &LegResult) -> Standing<'c> 
     let Some(leg) = ops.legs.get(r.index).filter(|l| l.id == r.id) else {
         return Standing::Unsigned;
     };
-    match chain.in_force(&r.id, leg.departs_utc().date_naive()) {
-        None => Standing::Unsigned,
-        Some(e) => match recheck(&e.record, r, &ops.operator.policy.sign_off) {
-            Freshness::Current => Standing::Signed(e),
-            Freshness::Recheck(why) => Standing::Recheck(e, why),
-        },
+    let Some(e) = chain.in_force(&r.id, leg.departs_utc().date_naive()) else {
+        return Standing::Unsigned;
+    };
+    // A leg re-planned since (`rhoboard leg set`) is not the leg that was signed.
+    let mut why = Vec::new();
+    for (what, before, now) in [
+        ("aircraft", &e.record.aircraft, &leg.aircraft),
+        ("pilot", &e.record.pilot, &leg.pilot),
+    ] {
+        if before != now {
+            why.push(format!("{what} is now {now}, signed for {before}"));
+        }
+    }
+    if let Freshness::Recheck(more) = recheck(&e.record, r, &ops.operator.policy.sign_off) {
+        why.extend(more);
+    }
+    if why.is_empty() {
+        Standing::Signed(e)
+    } else {
+        Standing::Recheck(e, why)
     }
 }

@@ -172,3 +172,38 @@ fn standing_on_the_chain_follows_sign_off_revocation_and_the_afternoon() {
     let chain = log.read().expect("read");
     assert_eq!(standing(&chain, &ops, &afternoon), Standing::Unsigned);
 }
+
+#[test]
+fn a_leg_re_planned_since_the_sign_off_is_re_check() {
+    use rhoboard::signoff::{AppendOptions, Log, Standing, sign, standing};
+    let dir = tempfile::tempdir().expect("temp dir");
+    let log = Log::of_operator(dir.path());
+    let (ops, morning) = assessed("L09", "2026-06-14T08:00:00Z");
+    let data = DataHashes::of(&rhoboard::ops::demo::files());
+    let req = Request {
+        instructor: "Mara Greyling",
+        note: "",
+        override_reason: None,
+        signed_at: utc("2026-06-14T07:55:00Z"),
+        basis_at: utc("2026-06-14T08:00:00Z"),
+        data: &data,
+    };
+    sign(&log, &ops, &morning, &req, &AppendOptions::default()).expect("signed");
+    let chain = log.read().expect("read");
+    // Another aircraft on the same leg.
+    let mut replanned = ops.clone();
+    replanned.legs[morning.index].aircraft = "X-TOUB".to_string();
+    let Standing::Recheck(_, why) = standing(&chain, &replanned, &morning) else {
+        panic!("expected re-check");
+    };
+    assert_eq!(why, ["aircraft is now X-TOUB, signed for X-TOUA"]);
+    // More mass on board.
+    let mut heavier = morning.clone();
+    heavier.takeoff_mass_kg = heavier.takeoff_mass_kg.map(|m| m + 40.0);
+    let f = recheck(
+        &chain.entries[0].record,
+        &heavier,
+        &ops.operator.policy.sign_off,
+    );
+    assert!(f.to_string().contains("takeoff mass rose 40 kg"), "{f}");
+}
