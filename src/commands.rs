@@ -13,6 +13,9 @@ use std::process::ExitCode;
 
 pub mod init;
 pub mod leg;
+pub mod log;
+pub mod report;
+pub mod signoff;
 pub mod validate;
 
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").

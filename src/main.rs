@@ -37,6 +37,12 @@ enum Command {
     Validate(commands::validate::Args),
     /// Writes a new operator folder from the fictional demo, every value marked to replace.
     Init(commands::init::Args),
+    /// Signs a leg off (or revokes a sign-off) in the operator's tamper-evident log.
+    Signoff(commands::signoff::Args),
+    /// Verifies or lists the sign-off log.
+    Log(commands::log::Args),
+    /// Writes the printable briefing sheet (markdown or HTML).
+    Report(commands::report::Args),
 }
 
 fn main() -> ExitCode {
@@ -68,6 +74,9 @@ fn main() -> ExitCode {
         Some(Command::Taf(args)) => commands::taf::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),
+        Some(Command::Signoff(args)) => commands::signoff::run(&args, &mut out),
+        Some(Command::Log(args)) => commands::log::run(&args, &mut out),
+        Some(Command::Report(args)) => commands::report::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),
