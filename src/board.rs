@@ -8,12 +8,17 @@
 
 pub mod app;
 pub mod detail;
+pub mod effects;
 pub mod feed;
+pub mod forecast;
 pub mod form;
 pub mod keys;
 pub mod layout;
+pub mod overlays;
+pub mod replan;
 pub mod run;
 pub mod screenshot;
+pub mod signoff;
 pub mod theme;
 pub mod view;
 

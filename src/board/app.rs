@@ -56,6 +56,8 @@ pub enum Msg {
     },
     /// Quit (a signal, or the input thread ending).
     Quit,
+    /// The event loop did an [`Effect`](super::effects::Effect): its result.
+    Done(super::effects::Done),
 }
 
 /// The panes, in Tab order.
@@ -134,6 +136,14 @@ pub enum Mode {
     Help,
     /// The manual-observation form.
     Form(Box<Form>),
+    /// The sign-off confirmation (`S`).
+    Sign(Box<super::signoff::SignForm>),
+    /// The what-if panel of a leg (`e`).
+    Replan(Box<super::replan::ReplanUi>),
+    /// A save met a legs file changed on disk: keep theirs or overwrite.
+    Conflict,
+    /// Quit asked with changes pending.
+    ConfirmQuit,
 }
 
 /// What the detail shows.
@@ -320,6 +330,16 @@ pub struct App {
     bell_pending: bool,
     /// Set when something visible changed since the last draw.
     dirty: bool,
+    /// Sign-offs: the log, its chain, each leg's standing.
+    pub signoffs: super::signoff::Signoffs,
+    /// The forecast look-ahead, parallel to `assessment.legs`.
+    pub forecast: Vec<Option<crate::assess::lookahead::LookAhead>>,
+    /// What-if changes pending, and how to save them.
+    pub plan: super::replan::Plan,
+    /// Work for the event loop (`update` does no I/O).
+    effects: Vec<super::effects::Effect>,
+    /// The real clock at the last tick (a sign-off's `signed_at` preview).
+    pub wall: DateTime<Utc>,
 }
 
 fn category_word(c: Category) -> &'static str {
@@ -390,6 +410,11 @@ impl App {
             day: clock.date_naive(),
             bell_pending: false,
             dirty: true,
+            signoffs: Default::default(),
+            forecast: Vec::new(),
+            plan: Default::default(),
+            effects: Vec::new(),
+            wall: clock,
         };
         if app.replay.is_some() {
             app.rebuild_store();
@@ -407,7 +432,48 @@ impl App {
             }
         }
         app.rebuild_rows();
+        app.reassessed();
         app
+    }
+
+    /// The flight-manual model of the day.
+    pub fn model(&self) -> &Model {
+        &self.model
+    }
+
+    /// Queues work for the event loop.
+    pub(super) fn push_effect(&mut self, e: super::effects::Effect) {
+        self.effects.push(e);
+    }
+
+    /// Takes the queued work (the event loop performs it and sends back `Msg::Done`).
+    pub fn take_effects(&mut self) -> Vec<super::effects::Effect> {
+        std::mem::take(&mut self.effects)
+    }
+
+    /// After the assessment changed: the look-ahead, the sign-off standings, the what-if.
+    fn reassessed(&mut self) {
+        self.relook();
+        self.restand(true);
+        if self.plan.pending() {
+            self.replan();
+        }
+    }
+
+    /// Re-assesses every leg of the day from the operator's (changed) legs.
+    pub(super) fn reassess_all(&mut self) {
+        let legs = crate::commands::check::legs_of_day(&self.ops, self.clock);
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        self.assessment = Assessment::new(&ctx, legs);
+        self.flash.clear();
+        self.dirty = true;
+        self.rebuild_rows();
+        self.reassessed();
     }
 
     /// The built-in demo day in replay, starting at `start` (tests and `rhoboard`).
@@ -491,7 +557,10 @@ impl App {
                 self.dirty = true;
                 self.size = (w, h);
             }
-            Msg::Tick { now, elapsed } => self.on_tick(now, elapsed),
+            Msg::Tick { now, elapsed } => {
+                self.wall = now;
+                self.on_tick(now, elapsed)
+            }
             Msg::Observations { source, reports } => {
                 let reports: Vec<Report> = reports.into_iter().map(|r| r.report).collect();
                 self.take_reports(&source, reports);
@@ -504,6 +573,13 @@ impl App {
                 }
             }
             Msg::Quit => self.quit = true,
+            Msg::Done(done) => {
+                self.dirty = true;
+                match done {
+                    super::effects::Done::Signed { outcome, chain } => self.signed(outcome, chain),
+                    super::effects::Done::Saved(o) => self.saved(o),
+                }
+            }
         }
     }
 
@@ -605,6 +681,7 @@ impl App {
             self.note_changes("", changes);
         }
         self.rebuild_rows();
+        self.reassessed();
     }
 
     fn note_changes(&mut self, label: &str, changes: Vec<Change>) {
@@ -648,6 +725,7 @@ impl App {
         if !changes.is_empty() {
             self.dirty = true;
             self.note_changes("", changes);
+            self.reassessed();
         }
         self.rebuild_rows();
     }
@@ -718,6 +796,7 @@ impl App {
         self.flash.clear();
         self.ui.leg_row = 0;
         self.rebuild_rows();
+        self.reassessed();
         let text = format!("a new UTC day: the {n} legs of {}", self.day);
         self.note(NoteKind::Info, text);
     }
@@ -759,6 +838,7 @@ impl App {
         self.assessment = Assessment::new(&ctx, legs);
         self.last_refresh = self.clock;
         self.dirty = true;
+        self.reassessed();
     }
 
     fn rebuild_rows(&mut self) {
@@ -801,10 +881,14 @@ impl App {
 
     fn on_key(&mut self, key: KeyEvent) {
         if is_ctrl_c(&key) {
-            self.quit = true;
+            self.ask_quit();
             return;
         }
         match &mut self.ui.mode {
+            Mode::Sign(_) => return self.sign_key(key),
+            Mode::Replan(_) => return self.replan_key(key),
+            Mode::Conflict => return self.conflict_key(key),
+            Mode::ConfirmQuit => return self.confirm_quit_key(key),
             Mode::Filter => {
                 match key.code {
                     KeyCode::Enter => self.ui.mode = Mode::Normal,
@@ -889,7 +973,11 @@ impl App {
         self.dirty = true;
         let detail = self.ui.detail_open;
         match action {
-            Action::Quit => self.quit = true,
+            Action::Quit => self.ask_quit(),
+            Action::SignOff => self.open_sign(),
+            Action::WhatIf => self.open_replan(),
+            Action::Write => self.plan_write(),
+            Action::Undo => self.plan_undo(),
             Action::Help => {
                 self.ui.help_scroll = 0;
                 self.ui.mode = Mode::Help;

@@ -45,6 +45,14 @@ pub enum Action {
     Faster,
     /// Replay: halve the pace.
     Slower,
+    /// Sign off the selected leg (a confirmation shows the basis first).
+    SignOff,
+    /// What-if: re-plan the selected leg (aircraft, time, destination, loads).
+    WhatIf,
+    /// Write the pending what-if changes to the legs file.
+    Write,
+    /// Undo the last what-if change.
+    Undo,
     /// Show or hide the help.
     Help,
     /// Quit.
@@ -205,6 +213,30 @@ pub const KEYMAP: &[Binding] = &[
         label: "-",
         action: Action::Slower,
         help: "replay: half the pace",
+    },
+    Binding {
+        keys: &[c('S')],
+        label: "S",
+        action: Action::SignOff,
+        help: "sign off the selected leg (shows the basis, asks the instructor)",
+    },
+    Binding {
+        keys: &[c('e')],
+        label: "e",
+        action: Action::WhatIf,
+        help: "what-if: change the leg's aircraft, time, destination or loads",
+    },
+    Binding {
+        keys: &[c('w')],
+        label: "w",
+        action: Action::Write,
+        help: "write the pending what-if changes to the legs file",
+    },
+    Binding {
+        keys: &[c('u')],
+        label: "u",
+        action: Action::Undo,
+        help: "undo the last what-if change",
     },
     Binding {
         keys: &[c('?')],

@@ -127,6 +127,17 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<()> {
             for m in first.into_iter().chain(rx.try_iter()) {
                 app.update(m);
             }
+            // Effects (a sign-off, a save) are done here, never in `update`.
+            loop {
+                let effects = app.take_effects();
+                if effects.is_empty() {
+                    break;
+                }
+                for e in effects {
+                    let done = super::effects::perform(&app, e, Utc::now());
+                    app.update(done);
+                }
+            }
             if app.take_bell() {
                 let mut out = std::io::stdout();
                 let _ = out.write_all(b"\x07");

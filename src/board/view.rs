@@ -72,6 +72,10 @@ impl Widget for &App {
         match &self.ui.mode {
             Mode::Help => help(area, buf, t, self.ui.help_scroll),
             Mode::Form(f) => form(self, f, area, buf, t),
+            Mode::Sign(f) => super::overlays::sign(self, f, area, buf, t),
+            Mode::Replan(r) => super::overlays::replan(self, r, area, buf, t),
+            Mode::Conflict => super::overlays::conflict(self, area, buf, t),
+            Mode::ConfirmQuit => super::overlays::confirm_quit(self, area, buf, t),
             Mode::Normal | Mode::Filter => {}
         }
     }
@@ -248,9 +252,14 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         return;
     }
     let offset = scroll_offset(app.ui.leg_row, height);
+    let cols = super::overlays::LegColumns::for_width(area.width);
     let header = Row::new(
         std::iter::once(Cell::from(" "))
-            .chain(LEG_HEADERS.iter().map(|h| Cell::from(*h)))
+            .chain(std::iter::once(Cell::from(cols.mark_header())))
+            .chain(LEG_HEADERS.iter().enumerate().flat_map(|(i, h)| {
+                std::iter::once(Cell::from(*h))
+                    .chain((i == 7 && cols.forecast).then(|| Cell::from("forecast")))
+            }))
             .collect::<Vec<_>>(),
     )
     .style(t.heading());
@@ -263,6 +272,7 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             let r = app.assessment.legs.get(k)?;
             let flash = app.flashing(r.index);
             let mut cells: Vec<Cell> = vec![Cell::from(if flash { "*" } else { " " })];
+            cells.push(cols.mark_cell(app, k, t));
             for col in 0..9 {
                 let text = leg_cell(app, r, col).into_owned();
                 let cell = if col == 5 {
@@ -271,6 +281,9 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                     Cell::from(text)
                 };
                 cells.push(cell);
+                if col == 7 && cols.forecast {
+                    cells.push(cols.forecast_cell(app, k, r));
+                }
             }
             let mut style = Style::new();
             if flash {
@@ -282,7 +295,11 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             Some(Row::new(cells).style(style))
         });
     let widths: Vec<Constraint> = std::iter::once(Constraint::Length(1))
-        .chain(LEG_WIDTHS.iter().map(|w| Constraint::Length(*w)))
+        .chain(std::iter::once(Constraint::Length(cols.mark_width())))
+        .chain(LEG_WIDTHS.iter().enumerate().flat_map(|(i, w)| {
+            std::iter::once(Constraint::Length(*w))
+                .chain((i == 7 && cols.forecast).then_some(Constraint::Length(12)))
+        }))
         .chain(std::iter::once(Constraint::Min(10)))
         .collect();
     Table::new(body, widths)
@@ -651,7 +668,11 @@ fn detail(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let lines = match app.detail_of() {
         Some(DetailOf::Pairing(p)) => super::detail::lines(&app.ops, &p.result, Some(&p.title), t),
         Some(DetailOf::Leg(k)) => match app.assessment.legs.get(k) {
-            Some(r) => super::detail::lines(&app.ops, r, None, t),
+            Some(r) => {
+                let mut l = super::detail::lines(&app.ops, r, None, t);
+                l.extend(super::overlays::detail_extra(app, k, t));
+                l
+            }
             None => vec![Line::from("No leg selected.")],
         },
         None => vec![Line::from("No leg selected.")],
@@ -666,7 +687,14 @@ fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let block = Block::new()
         .borders(Borders::TOP)
         .border_style(t.frame())
-        .title(" Changes ");
+        .title(" Changes ")
+        .title_top(
+            Line::styled(
+                super::overlays::status(app),
+                super::overlays::status_style(app, t),
+            )
+            .right_aligned(),
+        );
     let inner = block.inner(area);
     block.render(area, buf);
     if app.notes.is_empty() {
@@ -704,6 +732,9 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         Mode::Filter => "type to filter · Enter keeps the filter · Esc clears it".to_string(),
         Mode::Help => "Esc or ? closes the help".to_string(),
         Mode::Form(_) => "Tab/↑↓ field · Enter adds the report · Esc cancels".to_string(),
+        Mode::Sign(_) | Mode::Replan(_) | Mode::Conflict | Mode::ConfirmQuit => {
+            super::overlays::hint(&app.ui.mode)
+        }
         Mode::Normal => {
             let replay = if app.replay.is_some() {
                 " · space pause · n/p next/prev hour"

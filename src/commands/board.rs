@@ -68,6 +68,12 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         demo: loaded.demo,
         live_offset: None,
     };
+    // The sign-off log and the legs files belong to the operator folder (the demo: none).
+    let ops_dir = if loaded.demo {
+        None
+    } else {
+        crate::commands::signoff::operator_dir(args.ops.as_deref())
+    };
     let replaying = args.replay.is_some() || loaded.demo;
     let at = args.at.as_deref().map(parse_at).transpose()?;
     let mut feeds = Feeds::default();
@@ -125,6 +131,11 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
     for w in loaded.warnings {
         app.notice(NoteKind::Error, w);
     }
+    app.attach_signoffs(
+        crate::commands::signoff::log_for(ops_dir.as_deref()),
+        crate::commands::signoff::data_hashes(ops_dir.as_deref()),
+    );
+    app.attach_legs_files(ops_dir.as_deref());
     if app.settings.demo {
         app.notice(
             NoteKind::Info,

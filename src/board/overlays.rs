@@ -1,0 +1,547 @@
+//! Views of the sign-off, forecast and what-if parts of the board: the leg row's extra
+//! columns, the status text, the detail's extra sections, and the overlays (sign-off
+//! confirmation, what-if panel, save conflict, quit with changes pending). Pure.
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+use ratatui::style::Style;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Cell, Clear, Paragraph, Widget, Wrap};
+
+use super::app::{App, Mode};
+use super::replan::{Ask, Figures, ReplanUi, Typed};
+use super::signoff::{Mark, SIGN_FIELDS, SignForm};
+use super::theme::Theme;
+use crate::assess::{LegResult, State};
+
+/// Which extra leg columns fit.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct LegColumns {
+    /// The forecast column ("fails ~1340Z").
+    pub forecast: bool,
+    /// The sign-off column with words (else the glyph alone).
+    pub words: bool,
+}
+
+impl LegColumns {
+    /// For a legs pane `width` columns wide.
+    pub fn for_width(width: u16) -> LegColumns {
+        LegColumns {
+            forecast: width >= 100,
+            words: width >= 130,
+        }
+    }
+
+    /// The sign-off column's heading.
+    pub fn mark_header(&self) -> &'static str {
+        if self.words { "sign-off" } else { "✎" }
+    }
+
+    /// The sign-off column's width.
+    pub fn mark_width(&self) -> u16 {
+        if self.words { 10 } else { 1 }
+    }
+
+    /// The sign-off cell of leg `k`.
+    pub fn mark_cell(&self, app: &App, k: usize, t: Theme) -> Cell<'static> {
+        let m = app.mark(k);
+        let text = if self.words {
+            match m {
+                Mark::Unsigned => "—".to_string(),
+                Mark::Signed { .. } => "✎ signed".to_string(),
+                Mark::Recheck { .. } => "↻ re-check".to_string(),
+            }
+        } else {
+            m.glyph().to_string()
+        };
+        Cell::from(text).style(mark_style(m, t))
+    }
+
+    /// The forecast cell of leg `k`.
+    pub fn forecast_cell(&self, app: &App, k: usize, r: &LegResult) -> Cell<'static> {
+        Cell::from(super::forecast::cell(app.look(k), r.state))
+    }
+}
+
+fn mark_style(m: &Mark, t: Theme) -> Style {
+    match m {
+        Mark::Unsigned => Style::new(),
+        Mark::Signed { .. } => t.state(State::Within),
+        Mark::Recheck { .. } => t.state(State::Thin),
+    }
+}
+
+/// The status text on the change list's frame: re-checks, the log head, pending changes.
+pub fn status(app: &App) -> String {
+    let mut s = format!(" {}", app.signoffs.status());
+    if app.plan.pending() {
+        s.push_str(&format!(
+            " · what-if: {} pending (w writes, u undoes)",
+            app.plan.steps.len()
+        ));
+    }
+    s.push(' ');
+    s
+}
+
+/// Its style: a re-check or a broken log stands out.
+pub fn status_style(app: &App, t: Theme) -> Style {
+    if app.signoffs.rechecks() > 0 || app.plan.pending() {
+        t.state(State::Thin)
+    } else if matches!(
+        app.signoffs.log_line(),
+        crate::report::LogLine::Broken { .. }
+    ) {
+        t.error()
+    } else {
+        t.dim()
+    }
+}
+
+/// The hints line in the new modes.
+pub fn hint(mode: &Mode) -> String {
+    match mode {
+        Mode::Sign(_) => "Tab/↑↓ field · Enter signs · Esc cancels".into(),
+        Mode::Replan(r) => match r.ask {
+            Ask::Menu => "a t d l f c x: change · u undo · w write · Esc close".into(),
+            Ask::Pick { .. } => "↑↓ choose · Enter applies · Esc back".into(),
+            Ask::Type { .. } => "type · Enter applies · Esc back".into(),
+        },
+        Mode::Conflict => "t keep theirs · o overwrite with ours · Esc decide later".into(),
+        Mode::ConfirmQuit => "y quit and drop the changes · w write · any other key stays".into(),
+        _ => String::new(),
+    }
+}
+
+/// The detail's extra sections for leg `k`: sign-off, forecast, what-if.
+pub fn detail_extra(app: &App, k: usize, t: Theme) -> Vec<Line<'static>> {
+    let mut lines = vec![Line::default(), Line::styled("Sign-off", t.heading())];
+    let m = app.mark(k);
+    lines.push(Line::styled(format!("  {}", m.text()), mark_style(m, t)));
+    if let Mark::Recheck { why, .. } = m {
+        for w in why {
+            lines.push(Line::from(format!("    - {w}")));
+        }
+    }
+    if matches!(m, Mark::Unsigned) {
+        lines.push(Line::styled(
+            "  S signs it off (the basis is shown first)",
+            t.dim(),
+        ));
+    }
+    lines.extend(super::forecast::detail_lines(app, k, t));
+    if let Some(r) = app.assessment.legs.get(k)
+        && let Some(c) = app.compared(r.index)
+    {
+        lines.push(Line::default());
+        lines.push(Line::styled("What-if (pending, not written)", t.heading()));
+        lines.extend(comparison(c.old.as_ref(), c.new.as_ref(), &c.what, t));
+    }
+    lines
+}
+
+fn fig_cell(f: Option<&Figures>, row: usize) -> (String, Style) {
+    match f {
+        None => ("—".into(), Style::new()),
+        Some(f) => match row {
+            0 => (
+                format!("{} {}", f.state.glyph(), f.state.word()),
+                Style::new(),
+            ),
+            1 => (f.limiting.clone(), Style::new()),
+            2 => (f.margin.clone(), Style::new()),
+            3 => (f.headroom.clone(), Style::new()),
+            _ => (f.forecast.clone(), Style::new()),
+        },
+    }
+}
+
+/// Old → new, one row per figure.
+fn comparison(
+    old: Option<&Figures>,
+    new: Option<&Figures>,
+    what: &[String],
+    t: Theme,
+) -> Vec<Line<'static>> {
+    let mut lines = vec![Line::from(vec![
+        Span::styled(format!("  {:<10}", ""), t.dim()),
+        Span::styled(format!("{:<38}", "now (as loaded)"), t.heading()),
+        Span::styled("   ", t.dim()),
+        Span::styled("what-if", t.heading()),
+    ])];
+    for (row, name) in ["state", "limiting", "margin", "headroom", "forecast"]
+        .iter()
+        .enumerate()
+    {
+        let (a, _) = fig_cell(old, row);
+        let (b, _) = fig_cell(new, row);
+        let (sa, sb) = if row == 0 {
+            (
+                old.map_or(Style::new(), |f| t.state(f.state)),
+                new.map_or(Style::new(), |f| t.state(f.state)),
+            )
+        } else {
+            (Style::new(), Style::new())
+        };
+        let a = if old.is_none() && row == 0 {
+            "— (new leg)".to_string()
+        } else {
+            a
+        };
+        let b = if new.is_none() && row == 0 {
+            "— cancelled".to_string()
+        } else {
+            b
+        };
+        let a: String = a.chars().take(38).collect();
+        lines.push(Line::from(vec![
+            Span::styled(format!("  {name:<10}"), t.dim()),
+            Span::styled(format!("{a:<38}"), sa),
+            Span::styled(" → ", t.dim()),
+            Span::styled(b, sb),
+        ]));
+    }
+    if !what.is_empty() {
+        lines.push(Line::from(format!("  changed: {}", what.join(", "))));
+    }
+    lines
+}
+
+fn centered(area: Rect, w: u16, h: u16) -> Rect {
+    let w = w.min(area.width);
+    let h = h.min(area.height);
+    Rect::new(
+        area.x + (area.width - w) / 2,
+        area.y + (area.height - h) / 2,
+        w,
+        h,
+    )
+}
+
+fn boxed(lines: Vec<Line<'static>>, title: String, area: Rect, buf: &mut Buffer, t: Theme, w: u16) {
+    let r = centered(area, w, lines.len() as u16 + 2);
+    Clear.render(r, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .block(Block::bordered().border_style(t.frame()).title(title))
+        .render(r, buf);
+}
+
+fn opt(v: Option<f64>, unit: &str) -> String {
+    v.map_or("—".into(), |x| format!("{x:.0}{unit}"))
+}
+
+/// The sign-off confirmation: the basis, the fields, and what Enter will do.
+pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
+    let r = &f.result;
+    let fig = crate::signoff::Figures::of(r);
+    let leg = app.ops.legs.get(r.index);
+    let mut lines: Vec<Line<'static>> = Vec::new();
+    lines.push(Line::from(format!(
+        "{} {} {} {} pilot {} · {}",
+        r.id,
+        leg.map_or("—".into(), |l| l
+            .departs_utc()
+            .format("%H%MZ")
+            .to_string()),
+        leg.map_or("—", |l| l.aircraft.as_str()),
+        leg.map_or("—".into(), |l| format!("{}→{}", l.from, l.to)),
+        leg.map_or("—", |l| l.pilot.as_str()),
+        r.category.name().replace('_', " ")
+    )));
+    lines.push(Line::from(vec![
+        Span::raw("Assessed at "),
+        Span::styled(f.basis_at.format("%H:%MZ").to_string(), t.heading()),
+        Span::raw(" on the reports then known: "),
+        Span::styled(
+            format!("{} {}", r.state.glyph(), r.state.word()),
+            t.state(r.state),
+        ),
+        Span::raw(format!(
+            " · {} {} · headroom {}",
+            fig.limiting_check.clone().unwrap_or_else(|| "—".into()),
+            fig.limiting_margin.clone().unwrap_or_default(),
+            crate::commands::check::headroom_text(r)
+        )),
+    ]));
+    for (name, e) in [("departure", &fig.departure), ("arrival", &fig.arrival)] {
+        lines.push(Line::from(format!(
+            "{name} {} rwy {}: PA {} DA {} OAT {} · headwind {} crosswind {}",
+            e.airfield,
+            e.runway.clone().unwrap_or_else(|| "—".into()),
+            opt(e.pressure_altitude_ft, " ft"),
+            opt(e.density_altitude_ft, " ft"),
+            opt(e.oat_c, " °C"),
+            opt(e.headwind_kt, " kt"),
+            opt(e.crosswind_kt, " kt"),
+        )));
+        match &e.report {
+            Some(rep) => lines.push(Line::styled(
+                format!(
+                    "  report: {} ({:.0} min old{}{})",
+                    rep.text,
+                    rep.age_min,
+                    if rep.stale { ", STALE" } else { "" },
+                    if rep.as_of {
+                        ", as of the basis time"
+                    } else {
+                        ""
+                    }
+                ),
+                t.dim(),
+            )),
+            None => lines.push(Line::styled("  report: none", t.error())),
+        }
+        for c in &e.checks {
+            lines.push(Line::from(format!(
+                "  {} {}: {:.0} m required of {:.0} m ({})",
+                c.phase,
+                c.rule,
+                c.required_m,
+                c.available_m,
+                c.margin_percent
+                    .map_or("—".into(), |m| format!("{m:+.0} %"))
+            )));
+        }
+        if let Some(c) = &e.climb {
+            lines.push(Line::from(format!(
+                "  climb {:.0} fpm (min {:.0}), {:.0} ft/NM{}",
+                c.rate_fpm,
+                c.min_rate_fpm,
+                c.gradient_ft_per_nm,
+                c.required_gradient_ft_per_nm
+                    .map_or(String::new(), |g| format!(" (required {g:.0})"))
+            )));
+        }
+    }
+    for why in r.reasons.iter().take(3) {
+        lines.push(Line::styled(format!("  - {why}"), t.state(r.state)));
+    }
+    lines.push(Line::default());
+    for (i, label) in SIGN_FIELDS.iter().enumerate() {
+        let focus = i == f.focus;
+        let value = if focus {
+            format!("{}▏", f.values[i])
+        } else {
+            f.values[i].clone()
+        };
+        let hint = match i {
+            0 => "who signs",
+            1 => "optional",
+            _ => "only to sign a below / no-data leg, where the policy allows it",
+        };
+        lines.push(Line::from(vec![
+            Span::styled(
+                format!("{label:>16} "),
+                if focus { t.selected() } else { t.heading() },
+            ),
+            Span::raw(format!("{value:<24} ")),
+            Span::styled(hint, t.dim()),
+        ]));
+    }
+    lines.push(Line::default());
+    if f.busy {
+        lines.push(Line::styled("Writing the record…", t.heading()));
+    } else if let Some(e) = &f.error {
+        lines.push(Line::styled(format!("✗ {e}"), t.error()));
+    } else {
+        match &f.preview {
+            Ok(rec) => {
+                lines.push(Line::styled(
+                    format!(
+                        "✓ Enter signs: a {} record by {} goes into the log{}",
+                        if rec.override_reason.is_some() {
+                            "sign-off (override)"
+                        } else {
+                            "sign-off"
+                        },
+                        rec.instructor,
+                        app.signoffs.log.as_ref().map_or(
+                            " (none set up)".to_string(),
+                            |l| format!(" at {}", l.dir().display())
+                        )
+                    ),
+                    t.state(State::Within),
+                ))
+            }
+            Err(crate::signoff::Refusal::NoInstructor) => {
+                lines.push(Line::styled("Type the instructor's name.", t.dim()))
+            }
+            Err(e) => lines.push(Line::styled(format!("✗ would be refused: {e}"), t.error())),
+        }
+    }
+    lines.push(Line::styled(crate::CAUTION, t.caution()));
+    boxed(
+        lines,
+        format!(" Sign off {} — the basis (S) ", r.id),
+        area,
+        buf,
+        t,
+        110,
+    );
+}
+
+/// The what-if panel: the leg as planned, old → new, the pending changes, and the menu.
+pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) {
+    let id = app
+        .plan
+        .slots
+        .get(ui.slot)
+        .map_or("—".to_string(), |s| s.leg.id.clone());
+    let mut lines: Vec<Line<'static>> = vec![Line::from(format!(
+        "as planned: {}",
+        app.slot_words(ui.slot)
+    ))];
+    match app.compared(ui.slot) {
+        Some(c) => lines.extend(comparison(c.old.as_ref(), c.new.as_ref(), &c.what, t)),
+        None => lines.push(Line::styled(
+            "  no change to this leg yet: each change is re-assessed at once and shown old → new",
+            t.dim(),
+        )),
+    }
+    lines.push(Line::default());
+    if app.plan.steps.is_empty() {
+        lines.push(Line::styled("Pending changes: none", t.dim()));
+    } else {
+        lines.push(Line::styled(
+            format!("Pending changes ({}), not written:", app.plan.steps.len()),
+            t.heading(),
+        ));
+        let n = app.plan.steps.len();
+        for (i, p) in app.plan.steps.iter().enumerate().skip(n.saturating_sub(5)) {
+            lines.push(Line::from(format!("  {}. {}", i + 1, p.label)));
+        }
+    }
+    lines.push(Line::default());
+    match &ui.ask {
+        Ask::Menu => {
+            lines.push(Line::from(vec![
+                Span::styled("a", t.heading()),
+                Span::raw(" aircraft · "),
+                Span::styled("t", t.heading()),
+                Span::raw(" departure time · "),
+                Span::styled("d", t.heading()),
+                Span::raw(" destination · "),
+                Span::styled("l", t.heading()),
+                Span::raw(" loads · "),
+                Span::styled("f", t.heading()),
+                Span::raw(" fuel · "),
+                Span::styled("c", t.heading()),
+                Span::raw(" copy · "),
+                Span::styled("x", t.heading()),
+                Span::raw(" cancel the leg"),
+            ]));
+            lines.push(Line::from(vec![
+                Span::styled("u", t.heading()),
+                Span::raw(" undo · "),
+                Span::styled("w", t.heading()),
+                Span::raw(" write · "),
+                Span::styled("Esc", t.heading()),
+                Span::raw(" close (changes stay pending)"),
+            ]));
+        }
+        Ask::Pick {
+            title,
+            options,
+            cursor,
+        } => {
+            lines.push(Line::styled(title.clone(), t.heading()));
+            if options.is_empty() {
+                lines.push(Line::styled("  nothing to choose", t.dim()));
+            }
+            let shown = 8usize;
+            let first = cursor.saturating_sub(shown - 1);
+            for (i, (label, _)) in options.iter().enumerate().skip(first).take(shown) {
+                let style = if i == *cursor {
+                    t.selected()
+                } else {
+                    Style::new()
+                };
+                lines.push(Line::styled(format!("  {label}"), style));
+            }
+            if options.len() > shown {
+                lines.push(Line::styled(
+                    format!("  ({} of {}; ↑↓ scroll)", cursor + 1, options.len()),
+                    t.dim(),
+                ));
+            }
+        }
+        Ask::Type { what, text, error } => {
+            let prompt = match what {
+                Typed::Departs => "New departure time, HHMM UTC (the planned duration is kept):",
+                Typed::Fuel => "Fuel at engine start, litres:",
+            };
+            lines.push(Line::from(vec![
+                Span::styled(prompt, t.heading()),
+                Span::raw(format!(" {text}▏")),
+            ]));
+            if let Some(e) = error {
+                lines.push(Line::styled(format!("✗ {e}"), t.error()));
+            }
+        }
+    }
+    if app.plan.dir.is_none() {
+        lines.push(Line::styled(
+            "Demo: there is no operator folder, so w applies the changes in memory only.",
+            t.dim(),
+        ));
+    }
+    boxed(
+        lines,
+        format!(" What-if {id} — nothing is written until w "),
+        area,
+        buf,
+        t,
+        110,
+    );
+}
+
+/// A save met a changed file: both versions of the affected legs, and the choice.
+pub fn conflict(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let Some(c) = &app.plan.conflict else {
+        return;
+    };
+    let mut lines: Vec<Line<'static>> = vec![
+        Line::styled(
+            format!(
+                "{} changed on disk since it was loaded (another dispatcher, an editor): nothing was written.",
+                c.rel
+            ),
+            t.error(),
+        ),
+        Line::default(),
+    ];
+    for (id, loaded, theirs, ours) in &c.legs {
+        lines.push(Line::styled(id.clone(), t.heading()));
+        lines.push(Line::from(format!("  as loaded:  {loaded}")));
+        lines.push(Line::from(format!("  theirs now: {theirs}")));
+        lines.push(Line::from(format!("  ours:       {ours}")));
+    }
+    lines.push(Line::default());
+    lines.push(Line::from(vec![
+        Span::styled("t", t.heading()),
+        Span::raw(" keep theirs (reload the file, drop our changes) · "),
+        Span::styled("o", t.heading()),
+        Span::raw(" overwrite with ours (theirs kept as the backup) · "),
+        Span::styled("Esc", t.heading()),
+        Span::raw(" decide later"),
+    ]));
+    boxed(lines, " Save conflict ".into(), area, buf, t, 120);
+}
+
+/// Quit asked with changes pending.
+pub fn confirm_quit(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let lines = vec![
+        Line::from(format!(
+            "{} what-if change(s) are pending and not written.",
+            app.plan.steps.len()
+        )),
+        Line::from(vec![
+            Span::styled("y", t.heading()),
+            Span::raw(" quit and drop them · "),
+            Span::styled("w", t.heading()),
+            Span::raw(" write them · any other key stays"),
+        ]),
+    ];
+    boxed(lines, " Quit? ".into(), area, buf, t, 70);
+}

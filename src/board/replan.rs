@@ -1,0 +1,1096 @@
+//! Re-planning on the board: what-if edits of the selected leg (aircraft, departure
+//! time, destination, loads, fuel; cancel or copy), each applied to an in-memory copy
+//! of the legs and re-assessed at once, shown old → new beside the original. Nothing
+//! touches the files until `w`, which queues an [`Effect::SaveLegs`] for the event loop
+//! (a save against the hash of the file as loaded: a file changed on disk meanwhile is
+//! never overwritten — both versions are shown and the dispatcher chooses).
+
+use std::collections::HashMap;
+use std::path::{Path, PathBuf};
+
+use chrono::NaiveTime;
+use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+
+use super::app::{App, Mode, NoteKind};
+use super::effects::{Effect, LegsSave, SaveOutcome};
+use crate::assess::lookahead::LookAhead;
+use crate::assess::{Context, LegResult, State};
+use crate::ops::Leg;
+use crate::ops::legs::LegsFile;
+use crate::replan::{Edit, apply, content_hash};
+
+/// One change of the plan.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Step {
+    /// An edit of the leg in a slot.
+    Edit(Edit),
+    /// Cancel the leg.
+    Cancel,
+    /// Copy the leg into a new slot (a new leg id).
+    Copy,
+}
+
+/// A change, with the slot it applies to and its words.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Planned {
+    /// The slot (an index into `Ops::legs`, or past its end for copies).
+    pub slot: usize,
+    /// The change.
+    pub step: Step,
+    /// In words: "L16: departure 12:30Z → 06:30Z".
+    pub label: String,
+}
+
+/// Where a slot's leg came from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Origin {
+    /// The operator's leg at this index of `Ops::legs`.
+    Original(usize),
+    /// A copy of the operator's leg at this index.
+    CopyOf(usize),
+}
+
+/// A leg as planned.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Slot {
+    /// The leg.
+    pub leg: Leg,
+    /// Where it came from.
+    pub origin: Origin,
+    /// Cancelled.
+    pub cancelled: bool,
+}
+
+/// A day legs file as loaded (the base of a save).
+#[derive(Debug, Clone, PartialEq)]
+pub struct LoadedFile {
+    /// Full path.
+    pub path: PathBuf,
+    /// Its text as loaded.
+    pub text: String,
+    /// The hash of that text.
+    pub hash: String,
+}
+
+/// A leg's figures for the comparison.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Figures {
+    /// State.
+    pub state: State,
+    /// Limiting check.
+    pub limiting: String,
+    /// Its margin.
+    pub margin: String,
+    /// Headroom.
+    pub headroom: String,
+    /// The forecast, in words.
+    pub forecast: String,
+}
+
+impl Figures {
+    fn of(r: &LegResult, look: Option<&LookAhead>) -> Figures {
+        Figures {
+            state: r.state,
+            limiting: r.limiting.as_ref().map_or_else(
+                || r.reasons.first().cloned().unwrap_or_else(|| "—".into()),
+                |l| l.check.clone(),
+            ),
+            margin: r.limiting.as_ref().map_or("—".into(), |l| l.margin.clone()),
+            headroom: crate::commands::check::headroom_text(r),
+            forecast: super::forecast::summary(look, r.state),
+        }
+    }
+}
+
+/// One changed leg, old beside new.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Compared {
+    /// The slot.
+    pub slot: usize,
+    /// Leg id (as planned).
+    pub id: String,
+    /// What changed, in words.
+    pub what: Vec<String>,
+    /// Before (none for a copy).
+    pub old: Option<Figures>,
+    /// After (none when cancelled).
+    pub new: Option<Figures>,
+}
+
+/// A save that met a file changed on disk.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Conflict {
+    /// Relative path of the file.
+    pub rel: String,
+    /// Its text on disk now.
+    pub on_disk: String,
+    /// Per affected leg id: as loaded, theirs (on disk), ours (planned), in words.
+    pub legs: Vec<(String, String, String, String)>,
+}
+
+/// The re-planning side of the board.
+#[derive(Debug, Clone, Default)]
+pub struct Plan {
+    /// The changes, oldest first (`u` undoes the last).
+    pub steps: Vec<Planned>,
+    /// The legs as planned (derived from `Ops::legs` and `steps`).
+    pub slots: Vec<Slot>,
+    /// The changed legs, old beside new (derived).
+    pub compared: Vec<Compared>,
+    /// The operator folder, when there is one (the demo has none: edits stay in memory).
+    pub dir: Option<PathBuf>,
+    /// The day legs files as loaded, by relative path.
+    pub files: HashMap<String, LoadedFile>,
+    /// A save that met a changed file.
+    pub conflict: Option<Conflict>,
+    /// Quitting was asked with changes pending.
+    pub confirm_quit: bool,
+}
+
+impl Plan {
+    /// Whether changes are pending.
+    pub fn pending(&self) -> bool {
+        !self.steps.is_empty()
+    }
+}
+
+/// What the what-if panel is asking.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Ask {
+    /// The menu of edits.
+    Menu,
+    /// Choose one of these (label, edit).
+    Pick {
+        /// Heading.
+        title: String,
+        /// Choices.
+        options: Vec<(String, Step)>,
+        /// Cursor.
+        cursor: usize,
+    },
+    /// Type a value.
+    Type {
+        /// What is typed.
+        what: Typed,
+        /// The text so far.
+        text: String,
+        /// The last error.
+        error: Option<String>,
+    },
+}
+
+/// A typed value.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Typed {
+    /// Departure time, HHMM UTC.
+    Departs,
+    /// Fuel at engine start, litres.
+    Fuel,
+}
+
+/// The what-if panel of one leg.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ReplanUi {
+    /// The slot edited.
+    pub slot: usize,
+    /// What is being asked.
+    pub ask: Ask,
+}
+
+/// Reads the day legs files of an operator folder with their hashes (at load; I/O).
+pub fn load_files(dir: &Path, rels: &[String]) -> (HashMap<String, LoadedFile>, Vec<String>) {
+    let mut files = HashMap::new();
+    let mut errors = Vec::new();
+    for rel in rels {
+        if files.contains_key(rel) {
+            continue;
+        }
+        let path = dir.join(rel);
+        match std::fs::read_to_string(&path) {
+            Ok(text) => {
+                let hash = content_hash(&text);
+                files.insert(rel.clone(), LoadedFile { path, text, hash });
+            }
+            Err(e) => errors.push(format!("reading {}: {e}", path.display())),
+        }
+    }
+    (files, errors)
+}
+
+fn leg_words(l: &Leg) -> String {
+    let loads = l.loads.as_ref().map_or_else(
+        || {
+            l.takeoff_mass_kg
+                .map_or("no mass".into(), |m| format!("{m:.0} kg"))
+        },
+        |lo| {
+            let st: Vec<String> = lo
+                .stations
+                .iter()
+                .map(|s| {
+                    let mut t = s.station.clone();
+                    if s.standard_adults > 0 {
+                        t.push_str(&format!(" {} adult(s)", s.standard_adults));
+                    }
+                    if let Some(m) = s.mass_kg {
+                        t.push_str(&format!(" {m:.0} kg"));
+                    }
+                    t
+                })
+                .collect();
+            format!(
+                "{}; fuel {}",
+                st.join(", "),
+                lo.fuel_at_start_l
+                    .map_or("—".to_string(), |f| format!("{f:.0} L"))
+            )
+        },
+    );
+    format!(
+        "{} {} {}-{} {} · {}",
+        l.departs_utc().format("%H%MZ"),
+        l.aircraft,
+        l.from,
+        l.to,
+        l.pilot,
+        loads
+    )
+}
+
+/// What differs between two versions of a leg, in words.
+pub fn differences(old: &Leg, new: &Leg) -> Vec<String> {
+    let mut out = Vec::new();
+    if old.departs_at != new.departs_at {
+        out.push(format!(
+            "departure {} → {}",
+            old.departs_utc().format("%H%MZ"),
+            new.departs_utc().format("%H%MZ")
+        ));
+    }
+    for (what, a, b) in [
+        ("aircraft", &old.aircraft, &new.aircraft),
+        ("from", &old.from, &new.from),
+        ("to", &old.to, &new.to),
+        ("pilot", &old.pilot, &new.pilot),
+    ] {
+        if a != b {
+            out.push(format!("{what} {a} → {b}"));
+        }
+    }
+    if old.loads != new.loads || old.takeoff_mass_kg != new.takeoff_mass_kg {
+        out.push("loads changed".into());
+    }
+    out
+}
+
+impl App {
+    /// Sets up saving (at load): the operator folder and its day legs files as loaded.
+    pub fn attach_legs_files(&mut self, dir: Option<&Path>) {
+        let Some(dir) = dir else {
+            self.plan.dir = None;
+            return;
+        };
+        let rels: Vec<String> = self.ops.leg_files.iter().map(|(r, _)| r.clone()).collect();
+        let (files, errors) = load_files(dir, &rels);
+        self.plan.dir = Some(dir.to_path_buf());
+        self.plan.files = files;
+        for e in errors {
+            self.notice(NoteKind::Error, format!("re-planning: {e}"));
+        }
+    }
+
+    /// Re-derives the planned legs and the comparison (after a change, undo or report).
+    pub(super) fn replan(&mut self) {
+        let mut slots: Vec<Slot> = self
+            .ops
+            .legs
+            .iter()
+            .enumerate()
+            .map(|(i, l)| Slot {
+                leg: l.clone(),
+                origin: Origin::Original(i),
+                cancelled: false,
+            })
+            .collect();
+        for p in &self.plan.steps {
+            let Some(s) = slots.get_mut(p.slot) else {
+                continue;
+            };
+            match &p.step {
+                Step::Edit(e) => {
+                    let _ = apply(&mut s.leg, e);
+                }
+                Step::Cancel => s.cancelled = true,
+                Step::Copy => {
+                    let mut leg = s.leg.clone();
+                    let source = match s.origin {
+                        Origin::Original(i) | Origin::CopyOf(i) => i,
+                    };
+                    leg.id = copy_id(&slots, &leg.id);
+                    slots.push(Slot {
+                        leg,
+                        origin: Origin::CopyOf(source),
+                        cancelled: false,
+                    });
+                }
+            }
+        }
+        self.plan.slots = slots;
+        self.compare();
+    }
+
+    fn compare(&mut self) {
+        let changed: Vec<usize> = (0..self.plan.slots.len())
+            .filter(|&i| self.slot_changed(i))
+            .collect();
+        if changed.is_empty() {
+            self.plan.compared.clear();
+            return;
+        }
+        // The planned operator: the forecast look-ahead reads legs by index.
+        let mut planned = self.ops.clone();
+        planned.legs = self.plan.slots.iter().map(|s| s.leg.clone()).collect();
+        let ctx = Context {
+            ops: &planned,
+            model: self.model(),
+            store: &self.store,
+            at: self.clock,
+        };
+        let mut out = Vec::new();
+        let mut news: Vec<(usize, State)> = Vec::new();
+        let mut results = Vec::new();
+        for &i in &changed {
+            let s = &self.plan.slots[i];
+            let new = (!s.cancelled).then(|| crate::assess::leg::assess(&ctx, &s.leg, i));
+            if let Some(r) = &new {
+                news.push((i, r.state));
+            }
+            results.push(new);
+        }
+        let looks = super::forecast::looks(&planned, self.model(), &self.store, self.clock, &news);
+        let mut looks = looks.into_iter();
+        for (n, &i) in changed.iter().enumerate() {
+            let s = &self.plan.slots[i];
+            let old = match s.origin {
+                Origin::Original(o) => self
+                    .assessment
+                    .legs
+                    .iter()
+                    .position(|r| r.index == o)
+                    .map(|k| Figures::of(&self.assessment.legs[k], self.look(k))),
+                Origin::CopyOf(_) => None,
+            };
+            let new = results[n].as_ref().map(|r| {
+                let look = looks.next().flatten();
+                Figures::of(r, look.as_ref())
+            });
+            let mut what = match s.origin {
+                Origin::Original(o) => self
+                    .ops
+                    .legs
+                    .get(o)
+                    .map_or_else(Vec::new, |l| differences(l, &s.leg)),
+                Origin::CopyOf(o) => vec![format!(
+                    "new leg, a copy of {}",
+                    self.ops.legs.get(o).map_or("—", |l| l.id.as_str())
+                )],
+            };
+            if s.cancelled {
+                what.push("cancelled".into());
+            }
+            out.push(Compared {
+                slot: i,
+                id: s.leg.id.clone(),
+                what,
+                old,
+                new,
+            });
+        }
+        self.plan.compared = out;
+    }
+
+    fn slot_changed(&self, i: usize) -> bool {
+        let s = &self.plan.slots[i];
+        match s.origin {
+            Origin::CopyOf(_) => true,
+            Origin::Original(o) => s.cancelled || self.ops.legs.get(o) != Some(&s.leg),
+        }
+    }
+
+    /// `e`: opens the what-if panel on the selected leg.
+    pub(super) fn open_replan(&mut self) {
+        let Some(r) = self.selected_leg() else {
+            self.notice(NoteKind::Info, "what-if: no leg selected".into());
+            return;
+        };
+        let slot = r.index;
+        if self.plan.slots.len() != self.ops.legs.len() + self.copies() {
+            self.replan();
+        }
+        self.ui.mode = Mode::Replan(Box::new(ReplanUi {
+            slot,
+            ask: Ask::Menu,
+        }));
+    }
+
+    fn copies(&self) -> usize {
+        self.plan
+            .steps
+            .iter()
+            .filter(|p| p.step == Step::Copy)
+            .count()
+    }
+
+    /// Adds a change (checked by applying it to a copy first) and re-assesses.
+    pub fn plan_step(&mut self, slot: usize, step: Step) -> Result<(), String> {
+        if self.plan.slots.is_empty() {
+            self.replan();
+        }
+        let s = self
+            .plan
+            .slots
+            .get(slot)
+            .ok_or_else(|| "no such leg".to_string())?;
+        let id = s.leg.id.clone();
+        let label = match &step {
+            Step::Edit(e) => {
+                let mut trial = s.leg.clone();
+                apply(&mut trial, e).map_err(|e| e.to_string())?;
+                let d = differences(&s.leg, &trial);
+                if d.is_empty() {
+                    return Err(format!("{id}: that changes nothing"));
+                }
+                format!("{id}: {}", d.join(", "))
+            }
+            Step::Cancel => {
+                if s.cancelled {
+                    return Err(format!("{id} is already cancelled"));
+                }
+                format!("{id}: cancelled")
+            }
+            Step::Copy => format!("{id}: copied as {}", copy_id(&self.plan.slots, &id)),
+        };
+        self.plan.steps.push(Planned { slot, step, label });
+        self.replan();
+        Ok(())
+    }
+
+    /// `u`: undoes the last change.
+    pub fn plan_undo(&mut self) {
+        match self.plan.steps.pop() {
+            Some(p) => {
+                self.replan();
+                self.notice(NoteKind::Info, format!("undone: {}", p.label));
+            }
+            None => self.notice(NoteKind::Info, "nothing to undo".into()),
+        }
+    }
+
+    /// The legs of every file, as planned, in the operator's order (copies after their
+    /// source, cancelled legs left out).
+    fn planned_files(&self) -> Vec<(String, Vec<Leg>)> {
+        let mut files: Vec<(String, Vec<Leg>)> = Vec::new();
+        for (i, (rel, _)) in self.ops.leg_files.iter().enumerate() {
+            let k = match files.iter().position(|(r, _)| r == rel) {
+                Some(k) => k,
+                None => {
+                    files.push((rel.clone(), Vec::new()));
+                    files.len() - 1
+                }
+            };
+            for s in self.plan.slots.iter().filter(|s| match s.origin {
+                Origin::Original(o) => o == i,
+                Origin::CopyOf(o) => o == i,
+            }) {
+                if !s.cancelled {
+                    files[k].1.push(s.leg.clone());
+                }
+            }
+        }
+        files
+    }
+
+    fn affected_files(&self) -> Vec<String> {
+        let mut out: Vec<String> = Vec::new();
+        for c in &self.plan.compared {
+            let o = match self.plan.slots[c.slot].origin {
+                Origin::Original(o) | Origin::CopyOf(o) => o,
+            };
+            if let Some((rel, _)) = self.ops.leg_files.get(o)
+                && !out.contains(rel)
+            {
+                out.push(rel.clone());
+            }
+        }
+        out
+    }
+
+    /// The operator's legs replaced by these files' legs; the board re-assessed.
+    fn adopt(&mut self, files: Vec<(String, Vec<Leg>)>) {
+        let mut legs = Vec::new();
+        let mut leg_files = Vec::new();
+        for (rel, ls) in files {
+            for (n, l) in ls.into_iter().enumerate() {
+                legs.push(l);
+                leg_files.push((rel.clone(), n));
+            }
+        }
+        self.ops.legs = legs;
+        self.ops.leg_files = leg_files;
+        self.plan.steps.clear();
+        self.plan.conflict = None;
+        self.reassess_all();
+        self.replan();
+    }
+
+    /// `w`: writes the pending changes (the event loop saves; the demo keeps them in memory).
+    pub fn plan_write(&mut self) {
+        if !self.plan.pending() {
+            self.notice(
+                NoteKind::Info,
+                "nothing to write: no pending changes".into(),
+            );
+            return;
+        }
+        let files = self.planned_files();
+        let Some(dir) = self.plan.dir.clone() else {
+            let n = self.plan.steps.len();
+            self.adopt(files);
+            self.notice(
+                NoteKind::Info,
+                format!(
+                    "demo: no operator folder, so the {n} change(s) are applied in memory only (rhoboard init DIR makes a folder)"
+                ),
+            );
+            return;
+        };
+        let affected = self.affected_files();
+        let mut saves = Vec::new();
+        for rel in affected {
+            let Some(loaded) = self.plan.files.get(&rel) else {
+                self.notice(
+                    NoteKind::Error,
+                    format!("{rel} was not read at load: nothing written"),
+                );
+                return;
+            };
+            let mut file: LegsFile = match serde_json::from_str(&loaded.text) {
+                Ok(f) => f,
+                Err(e) => {
+                    self.notice(NoteKind::Error, format!("{rel}: {e}: nothing written"));
+                    return;
+                }
+            };
+            file.legs = files
+                .iter()
+                .find(|(r, _)| *r == rel)
+                .map(|(_, l)| l.clone())
+                .unwrap_or_default();
+            saves.push(LegsSave {
+                path: dir.join(&rel),
+                rel,
+                expected_hash: loaded.hash.clone(),
+                file,
+            });
+        }
+        self.push_effect(Effect::SaveLegs(saves));
+    }
+
+    /// The event loop's answer to [`Effect::SaveLegs`].
+    pub(super) fn saved(&mut self, outcomes: Vec<(String, SaveOutcome)>) {
+        let planned = self.planned_files();
+        let mut all_written = true;
+        for (rel, o) in outcomes {
+            match o {
+                SaveOutcome::Written { hash, backup } => {
+                    if let Some((_, legs)) = planned.iter().find(|(r, _)| *r == rel)
+                        && let Some(f) = self.plan.files.get_mut(&rel)
+                        && let Ok(mut file) = serde_json::from_str::<LegsFile>(&f.text)
+                    {
+                        file.legs = legs.clone();
+                        f.text = serde_json::to_string_pretty(&file).unwrap_or_default() + "\n";
+                        f.hash = hash;
+                    }
+                    self.notice(
+                        NoteKind::Info,
+                        format!(
+                            "saved {rel} (previous version kept as {})",
+                            backup.display()
+                        ),
+                    );
+                }
+                SaveOutcome::Conflict(on_disk) => {
+                    all_written = false;
+                    let legs = self.conflict_legs(&rel, &on_disk);
+                    self.notice(
+                        NoteKind::Error,
+                        format!(
+                            "{rel} changed on disk since it was loaded: nothing written; choose t (keep theirs) or o (overwrite with ours)"
+                        ),
+                    );
+                    self.plan.conflict = Some(Conflict { rel, on_disk, legs });
+                    self.ui.mode = Mode::Conflict;
+                }
+                SaveOutcome::Failed(e) => {
+                    all_written = false;
+                    self.notice(NoteKind::Error, format!("{e}: the changes stay pending"));
+                }
+            }
+        }
+        if all_written {
+            self.adopt(planned);
+            if matches!(self.ui.mode, Mode::Conflict) {
+                self.ui.mode = Mode::Normal;
+            }
+        }
+    }
+
+    fn conflict_legs(&self, rel: &str, on_disk: &str) -> Vec<(String, String, String, String)> {
+        let theirs: Option<LegsFile> = serde_json::from_str(on_disk).ok();
+        let loaded: Option<LegsFile> = self
+            .plan
+            .files
+            .get(rel)
+            .and_then(|f| serde_json::from_str(&f.text).ok());
+        let ours = self
+            .planned_files()
+            .into_iter()
+            .find(|(r, _)| r == rel)
+            .map(|(_, l)| l)
+            .unwrap_or_default();
+        let find = |ls: Option<&Vec<Leg>>, id: &str| {
+            ls.and_then(|ls| ls.iter().find(|l| l.id == id))
+                .map_or("— (not there)".to_string(), leg_words)
+        };
+        let mut ids: Vec<String> = Vec::new();
+        let base = loaded.as_ref().map(|f| &f.legs);
+        let th = theirs.as_ref().map(|f| &f.legs);
+        for l in ours
+            .iter()
+            .chain(th.into_iter().flatten())
+            .chain(base.into_iter().flatten())
+        {
+            let changed = find(base, &l.id) != find(Some(&ours), &l.id)
+                || find(base, &l.id) != find(th, &l.id);
+            if changed && !ids.contains(&l.id) {
+                ids.push(l.id.clone());
+            }
+        }
+        if theirs.is_none() {
+            ids.insert(0, "(their file does not parse as a legs file)".into());
+        }
+        ids.into_iter()
+            .map(|id| {
+                let a = find(base, &id);
+                let b = find(th, &id);
+                let c = find(Some(&ours), &id);
+                (id, a, b, c)
+            })
+            .collect()
+    }
+
+    /// Keys while a conflict is shown: `t` keeps theirs, `o` overwrites with ours.
+    pub(super) fn conflict_key(&mut self, key: KeyEvent) {
+        let Some(c) = self.plan.conflict.clone() else {
+            self.ui.mode = Mode::Normal;
+            return;
+        };
+        match key.code {
+            KeyCode::Char('t') => {
+                let theirs: Result<LegsFile, _> = serde_json::from_str(&c.on_disk);
+                match theirs {
+                    Ok(f) => {
+                        let mut files = self.planned_files();
+                        // Ours for the other files stay as they were on the board.
+                        let originals = self.original_files();
+                        for (rel, legs) in files.iter_mut() {
+                            *legs = if *rel == c.rel {
+                                f.legs.clone()
+                            } else {
+                                originals
+                                    .iter()
+                                    .find(|(r, _)| r == rel)
+                                    .map(|(_, l)| l.clone())
+                                    .unwrap_or_default()
+                            };
+                        }
+                        let n = self.plan.steps.len();
+                        if let Some(lf) = self.plan.files.get_mut(&c.rel) {
+                            lf.hash = content_hash(&c.on_disk);
+                            lf.text = c.on_disk.clone();
+                        }
+                        self.adopt(files);
+                        self.ui.mode = Mode::Normal;
+                        self.notice(
+                            NoteKind::Info,
+                            format!(
+                                "kept theirs: {} reloaded from disk; our {n} change(s) dropped",
+                                c.rel
+                            ),
+                        );
+                    }
+                    Err(e) => self.notice(
+                        NoteKind::Error,
+                        format!(
+                            "{}: their version does not read as a legs file ({e}); only o (overwrite) or Esc",
+                            c.rel
+                        ),
+                    ),
+                }
+            }
+            KeyCode::Char('o') => {
+                if let Some(lf) = self.plan.files.get_mut(&c.rel) {
+                    // Ours over theirs, against the hash of what is there now.
+                    lf.hash = content_hash(&c.on_disk);
+                    lf.text = c.on_disk.clone();
+                }
+                self.plan.conflict = None;
+                self.ui.mode = Mode::Normal;
+                self.plan_write();
+            }
+            KeyCode::Esc => {
+                self.ui.mode = Mode::Normal;
+                self.notice(
+                    NoteKind::Info,
+                    "conflict left open: the changes stay pending (w tries again)".into(),
+                );
+            }
+            _ => {}
+        }
+    }
+
+    fn original_files(&self) -> Vec<(String, Vec<Leg>)> {
+        let mut files: Vec<(String, Vec<Leg>)> = Vec::new();
+        for (l, (rel, _)) in self.ops.legs.iter().zip(&self.ops.leg_files) {
+            match files.iter_mut().find(|(r, _)| r == rel) {
+                Some((_, v)) => v.push(l.clone()),
+                None => files.push((rel.clone(), vec![l.clone()])),
+            }
+        }
+        files
+    }
+
+    /// `q`: quits, unless changes are pending — then it asks first.
+    pub(super) fn ask_quit(&mut self) {
+        if self.plan.pending() && !matches!(self.ui.mode, Mode::ConfirmQuit) {
+            self.ui.mode = Mode::ConfirmQuit;
+        } else {
+            self.quit = true;
+        }
+    }
+
+    /// Keys while quitting is being confirmed: `y` quits (dropping the changes), `w`
+    /// writes them, anything else stays.
+    pub(super) fn confirm_quit_key(&mut self, key: KeyEvent) {
+        self.ui.mode = Mode::Normal;
+        match key.code {
+            KeyCode::Char('y') | KeyCode::Char('Y') => self.quit = true,
+            KeyCode::Char('w') => self.plan_write(),
+            _ => {}
+        }
+    }
+
+    /// Keys in the what-if panel.
+    pub(super) fn replan_key(&mut self, key: KeyEvent) {
+        let Mode::Replan(mut ui) = std::mem::replace(&mut self.ui.mode, Mode::Normal) else {
+            return;
+        };
+        let ctrl = key.modifiers.contains(KeyModifiers::CONTROL);
+        match &mut ui.ask {
+            Ask::Menu => match key.code {
+                KeyCode::Esc | KeyCode::Char('q') => return,
+                KeyCode::Char('a') => ui.ask = self.pick_aircraft(ui.slot),
+                KeyCode::Char('d') => ui.ask = self.pick_destination(ui.slot),
+                KeyCode::Char('l') => ui.ask = self.pick_loads(ui.slot),
+                KeyCode::Char('t') => {
+                    ui.ask = Ask::Type {
+                        what: Typed::Departs,
+                        text: String::new(),
+                        error: None,
+                    }
+                }
+                KeyCode::Char('f') => {
+                    ui.ask = Ask::Type {
+                        what: Typed::Fuel,
+                        text: String::new(),
+                        error: None,
+                    }
+                }
+                KeyCode::Char('c') => self.step_or_note(ui.slot, Step::Copy),
+                KeyCode::Char('x') => self.step_or_note(ui.slot, Step::Cancel),
+                KeyCode::Char('u') => self.plan_undo(),
+                KeyCode::Char('w') => {
+                    self.plan_write();
+                    if !matches!(self.ui.mode, Mode::Normal) {
+                        return;
+                    }
+                }
+                _ => {}
+            },
+            Ask::Pick {
+                options, cursor, ..
+            } => match key.code {
+                KeyCode::Esc => ui.ask = Ask::Menu,
+                KeyCode::Up | KeyCode::Char('k') => *cursor = cursor.saturating_sub(1),
+                KeyCode::Down | KeyCode::Char('j') => {
+                    *cursor = (*cursor + 1).min(options.len().saturating_sub(1))
+                }
+                KeyCode::Enter => {
+                    if let Some((_, step)) = options.get(*cursor).cloned() {
+                        self.step_or_note(ui.slot, step);
+                    }
+                    ui.ask = Ask::Menu;
+                }
+                _ => {}
+            },
+            Ask::Type { what, text, error } => match key.code {
+                KeyCode::Esc => ui.ask = Ask::Menu,
+                KeyCode::Backspace => {
+                    text.pop();
+                }
+                KeyCode::Enter => match self.typed_edit(ui.slot, *what, text) {
+                    Ok(e) => match self.plan_step(ui.slot, Step::Edit(e)) {
+                        Ok(()) => ui.ask = Ask::Menu,
+                        Err(e) => *error = Some(e),
+                    },
+                    Err(e) => *error = Some(e),
+                },
+                KeyCode::Char(ch) if !ctrl => {
+                    text.push(ch);
+                    *error = None;
+                }
+                _ => {}
+            },
+        }
+        self.ui.mode = Mode::Replan(ui);
+    }
+
+    fn step_or_note(&mut self, slot: usize, step: Step) {
+        if let Err(e) = self.plan_step(slot, step) {
+            self.notice(NoteKind::Error, format!("what-if: {e}"));
+        }
+    }
+
+    fn typed_edit(&self, slot: usize, what: Typed, text: &str) -> Result<Edit, String> {
+        let leg = &self
+            .plan
+            .slots
+            .get(slot)
+            .ok_or_else(|| "no such leg".to_string())?
+            .leg;
+        match what {
+            Typed::Departs => {
+                let hm = text.trim().trim_end_matches(['Z', 'z']);
+                let t = NaiveTime::parse_from_str(hm, "%H%M")
+                    .or_else(|_| NaiveTime::parse_from_str(hm, "%H:%M"))
+                    .map_err(|_| format!("'{text}': expected a UTC time as HHMM, e.g. 0630"))?;
+                let day = leg.departs_utc().date_naive();
+                Ok(Edit::Departs(day.and_time(t).and_utc().fixed_offset()))
+            }
+            Typed::Fuel => {
+                let t = text.trim();
+                let n = t.trim_end_matches(['L', 'l']).trim();
+                let l: f64 = n
+                    .parse()
+                    .ok()
+                    .filter(|v: &f64| v.is_finite() && *v >= 0.0)
+                    .ok_or_else(|| format!("'{text}': expected litres, e.g. 90 or 90L"))?;
+                Ok(Edit::FuelL(l))
+            }
+        }
+    }
+
+    fn pick_aircraft(&self, slot: usize) -> Ask {
+        let Some(leg) = self.plan.slots.get(slot).map(|s| &s.leg) else {
+            return Ask::Menu;
+        };
+        let m = &self.assessment.matrix;
+        let fi = self.ops.airfields.iter().position(|f| f.id == leg.from);
+        let mut options: Vec<(State, f64, String, Step)> = Vec::new();
+        for (ai, &a) in m.aircraft.iter().enumerate() {
+            let Some(ac) = self.ops.aircraft.get(a) else {
+                continue;
+            };
+            if ac.registration == leg.aircraft {
+                continue;
+            }
+            let Some(fi) = fi.filter(|&f| f < m.fields) else {
+                continue;
+            };
+            let c = m.cell(ai, fi);
+            if c.state == State::Below {
+                continue;
+            }
+            let margin = if c.margin_percent.is_finite() {
+                c.margin_percent
+            } else {
+                f64::NEG_INFINITY
+            };
+            options.push((
+                c.state,
+                margin,
+                format!(
+                    "{:<8} {:<12} {} {:<8} {} at {}",
+                    ac.registration,
+                    ac.type_id,
+                    c.state.glyph(),
+                    c.state.word(),
+                    if margin.is_finite() {
+                        format!("{margin:+.0}")
+                    } else {
+                        "—".into()
+                    },
+                    leg.from
+                ),
+                Step::Edit(Edit::Aircraft(ac.registration.clone())),
+            ));
+        }
+        options.sort_by(|a, b| a.0.cmp(&b.0).then(b.1.total_cmp(&a.1)));
+        Ask::Pick {
+            title: format!(
+                "Another aircraft for {} (pairings at {} not below, best first)",
+                leg.id, leg.from
+            ),
+            options: options.into_iter().map(|(_, _, l, s)| (l, s)).collect(),
+            cursor: 0,
+        }
+    }
+
+    fn pick_destination(&self, slot: usize) -> Ask {
+        let Some(leg) = self.plan.slots.get(slot).map(|s| &s.leg) else {
+            return Ask::Menu;
+        };
+        let options = self
+            .ops
+            .airfields
+            .iter()
+            .filter(|f| f.id != leg.to)
+            .map(|f| {
+                (
+                    format!("{:<5} {} ({:.0} ft)", f.id, f.name, f.elevation_ft),
+                    Step::Edit(Edit::To(f.id.clone())),
+                )
+            })
+            .collect();
+        Ask::Pick {
+            title: format!("Another destination for {} (now {})", leg.id, leg.to),
+            options,
+            cursor: 0,
+        }
+    }
+
+    fn pick_loads(&self, slot: usize) -> Ask {
+        let Some(leg) = self.plan.slots.get(slot).map(|s| &s.leg) else {
+            return Ask::Menu;
+        };
+        let Some(loads) = &leg.loads else {
+            return Ask::Pick {
+                title: format!("{} gives a fixed takeoff mass, not loads", leg.id),
+                options: Vec::new(),
+                cursor: 0,
+            };
+        };
+        let stations: Vec<(String, String)> = self
+            .ops
+            .aircraft(&leg.aircraft)
+            .and_then(|a| self.ops.aircraft_type(&a.type_id))
+            .and_then(|t| t.file.mass_balance.as_ref())
+            .map(|mb| {
+                mb.stations
+                    .iter()
+                    .map(|s| (s.id.clone(), s.name.clone()))
+                    .collect()
+            })
+            .unwrap_or_else(|| {
+                loads
+                    .stations
+                    .iter()
+                    .map(|s| (s.station.clone(), s.station.clone()))
+                    .collect()
+            });
+        let mut options = Vec::new();
+        for (id, name) in stations {
+            let cur = loads.stations.iter().find(|s| s.station == id);
+            let adults = cur.map_or(0, |s| s.standard_adults);
+            let mass = cur.and_then(|s| s.mass_kg);
+            let bags = id.contains("bag") || name.to_lowercase().contains("bag");
+            if !bags {
+                if adults > 0 {
+                    options.push((
+                        format!("{id}: remove a passenger ({adults} → {})", adults - 1),
+                        if adults == 1 && mass.is_none() {
+                            Step::Edit(Edit::Unload(id.clone()))
+                        } else {
+                            Step::Edit(Edit::Load {
+                                station: id.clone(),
+                                mass_kg: mass,
+                                adults: adults - 1,
+                            })
+                        },
+                    ));
+                }
+                options.push((
+                    format!("{id}: add a passenger ({adults} → {})", adults + 1),
+                    Step::Edit(Edit::Load {
+                        station: id.clone(),
+                        mass_kg: mass,
+                        adults: adults + 1,
+                    }),
+                ));
+            } else {
+                let m = mass.unwrap_or(0.0);
+                if m > 0.0 {
+                    options.push((
+                        format!("{id}: 10 kg less ({m:.0} → {:.0} kg)", (m - 10.0).max(0.0)),
+                        Step::Edit(Edit::Load {
+                            station: id.clone(),
+                            mass_kg: Some((m - 10.0).max(0.0)),
+                            adults,
+                        }),
+                    ));
+                }
+                options.push((
+                    format!("{id}: 10 kg more ({m:.0} → {:.0} kg)", m + 10.0),
+                    Step::Edit(Edit::Load {
+                        station: id.clone(),
+                        mass_kg: Some(m + 10.0),
+                        adults,
+                    }),
+                ));
+            }
+            if cur.is_some() {
+                options.push((
+                    format!("{id}: empty it ({name})"),
+                    Step::Edit(Edit::Unload(id.clone())),
+                ));
+            }
+        }
+        Ask::Pick {
+            title: format!("Loads of {} (fuel: f in the menu)", leg.id),
+            options,
+            cursor: 0,
+        }
+    }
+
+    /// The comparison of the slot, if it changed.
+    pub fn compared(&self, slot: usize) -> Option<&Compared> {
+        self.plan.compared.iter().find(|c| c.slot == slot)
+    }
+
+    /// The leg in a slot as planned, in words.
+    pub fn slot_words(&self, slot: usize) -> String {
+        self.plan
+            .slots
+            .get(slot)
+            .map_or("—".to_string(), |s| leg_words(&s.leg))
+    }
+}
+
+/// A new id for a copy: `L16-2`, `L16-3`, …
+fn copy_id(slots: &[Slot], id: &str) -> String {
+    let base = id.split_once('-').map_or(id, |(b, _)| b);
+    (2..)
+        .map(|n| format!("{base}-{n}"))
+        .find(|c| !slots.iter().any(|s| &s.leg.id == c))
+        .unwrap_or_else(|| format!("{base}-copy"))
+}
