@@ -7,10 +7,15 @@ pub mod check;
 pub mod metar;
 pub mod overview;
 pub mod runway;
+pub mod taf;
 
 use std::process::ExitCode;
 
 pub mod init;
+pub mod leg;
+pub mod log;
+pub mod report;
+pub mod signoff;
 pub mod validate;
 
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").

@@ -27,12 +27,22 @@ enum Command {
     Check(commands::check::Args),
     /// Today's runway state: closures, reduced distances, surface condition, end in use.
     Runway(commands::runway::Args),
+    /// Re-plans a leg: see the re-assessment, then save safely.
+    Leg(commands::leg::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
+    /// Decodes TAFs and shows the forecast hour by hour (TEXT, or `-` for standard input).
+    Taf(commands::taf::Args),
     /// Checks an operator folder and reports every problem (file, line, column, field).
     Validate(commands::validate::Args),
     /// Writes a new operator folder from the fictional demo, every value marked to replace.
     Init(commands::init::Args),
+    /// Signs a leg off (or revokes a sign-off) in the operator's tamper-evident log.
+    Signoff(commands::signoff::Args),
+    /// Verifies or lists the sign-off log.
+    Log(commands::log::Args),
+    /// Writes the printable briefing sheet (markdown or HTML).
+    Report(commands::report::Args),
 }
 
 fn main() -> ExitCode {
@@ -59,12 +69,26 @@ fn main() -> ExitCode {
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
         Some(Command::Check(args)) => commands::check::run(&args, &mut out),
         Some(Command::Runway(args)) => commands::runway::run(&args, &mut out),
+        Some(Command::Leg(args)) => commands::leg::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
+        Some(Command::Taf(args)) => commands::taf::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),
+        Some(Command::Signoff(args)) => commands::signoff::run(&args, &mut out),
+        Some(Command::Log(args)) => commands::log::run(&args, &mut out),
+        Some(Command::Report(args)) => commands::report::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),
+        // A reader that stopped early (`| head`) is not an error of ours.
+        Err(err)
+            if err.chain().any(|c| {
+                c.downcast_ref::<std::io::Error>()
+                    .is_some_and(|e| e.kind() == std::io::ErrorKind::BrokenPipe)
+            }) =>
+        {
+            ExitCode::SUCCESS
+        }
         Err(err) => {
             drop(out);
             eprintln!("rhoboard: {err:#}");

@@ -7,9 +7,12 @@
 //! plain `f64`s with the unit in the name, so nothing is re-parsed downstream.
 
 pub mod file;
+pub mod forecast;
+mod groups;
 pub mod manual;
 pub mod metar;
 pub mod store;
+pub mod taf;
 
 use chrono::{DateTime, Utc};
 

@@ -10,11 +10,16 @@ use std::fmt;
 
 use chrono::{DateTime, Datelike, Duration, NaiveDate, Utc};
 
-use super::{
-    Bound, CloudLayer, Convective, Cover, DIRECTIONS, Group, GroupKind, Intensity, Kind,
-    NotUnderstood, Report, Rvr, SkyClear, SpeedUnit, Visibility, Weather, Wind, WindShear,
+use super::groups::{
+    self, GroupParse, SkyGroup, VisibilityGroup, all_digits, bound_prefix, bound_word,
+    describe_cloud, describe_sky_clear, describe_visibility, describe_weather, describe_wind, num,
+    quote, weather_body,
 };
-use crate::units::{HPA_PER_INHG, KMH_PER_KT, M_PER_FT, M_PER_SM, MPS_PER_KT, mps_to_kt};
+use super::{
+    Bound, DIRECTIONS, Group, GroupKind, Intensity, Kind, NotUnderstood, Report, Rvr, Visibility,
+    Wind, WindShear,
+};
+use crate::units::{HPA_PER_INHG, M_PER_FT};
 
 /// Longest report accepted; a real METAR with remarks is a few hundred characters.
 pub const MAX_REPORT_LEN: usize = 2_000;
@@ -255,133 +260,6 @@ struct Decoder<'a> {
     minvis_done: bool,
     temp_done: bool,
     altimeters: u8,
-}
-
-/// Shortens a group for quoting in a message.
-fn quote(s: &str) -> String {
-    let mut q = String::with_capacity(s.len().min(48));
-    for (k, ch) in s.chars().enumerate() {
-        if k == 40 {
-            q.push('…');
-            break;
-        }
-        if ch.is_control() {
-            q.extend(ch.escape_default());
-        } else {
-            q.push(ch);
-        }
-    }
-    q
-}
-
-fn all_digits(s: &str) -> bool {
-    !s.is_empty() && s.bytes().all(|b| b.is_ascii_digit())
-}
-
-/// The value of an all-digit string of at most 9 digits.
-fn num(s: &str) -> Option<u32> {
-    if all_digits(s) && s.len() <= 9 {
-        s.parse().ok()
-    } else {
-        None
-    }
-}
-
-const DESCRIPTORS: [&str; 8] = ["MI", "BC", "PR", "DR", "BL", "SH", "TS", "FZ"];
-const PHENOMENA: [&str; 21] = [
-    "DZ", "RA", "SN", "SG", "IC", "PL", "GR", "GS", "UP", "BR", "FG", "FU", "VA", "DU", "SA", "HZ",
-    "PY", "PO", "SQ", "FC", "SS",
-];
-const PHENOMENA_MORE: [&str; 1] = ["DS"];
-
-fn phenomenon(code: &str) -> Option<&'static str> {
-    PHENOMENA
-        .iter()
-        .chain(PHENOMENA_MORE.iter())
-        .find(|p| **p == code)
-        .copied()
-}
-
-/// Parses the body of a weather group (after any intensity), e.g. `TSRA`, `FZDZ`, `BR`.
-fn weather_body(s: &str, intensity: Intensity) -> Option<Weather> {
-    let mut rest = s;
-    let mut descriptor = None;
-    if let Some(head) = rest.get(..2)
-        && let Some(d) = DESCRIPTORS.iter().find(|d| **d == head)
-    {
-        descriptor = Some(*d);
-        rest = rest.get(2..).unwrap_or("");
-    }
-    let mut phenomena = Vec::new();
-    while !rest.is_empty() {
-        let head = rest.get(..2)?;
-        phenomena.push(phenomenon(head)?);
-        rest = rest.get(2..).unwrap_or("");
-        if phenomena.len() > 4 {
-            return None;
-        }
-    }
-    let ok = !phenomena.is_empty()
-        || descriptor == Some("TS")
-        || (intensity == Intensity::Vicinity && descriptor.is_some());
-    ok.then_some(Weather {
-        intensity,
-        descriptor,
-        phenomena,
-        not_observed: false,
-    })
-}
-
-fn parse_weather(tok: &str) -> Option<Weather> {
-    if tok == "//" {
-        return Some(Weather {
-            not_observed: true,
-            ..Weather::default()
-        });
-    }
-    let (intensity, body) = if let Some(b) = tok.strip_prefix('-') {
-        (Intensity::Light, b)
-    } else if let Some(b) = tok.strip_prefix('+') {
-        (Intensity::Heavy, b)
-    } else if let Some(b) = tok.strip_prefix("VC") {
-        (Intensity::Vicinity, b)
-    } else {
-        (Intensity::Moderate, tok)
-    };
-    weather_body(body, intensity)
-}
-
-/// `P`/`M` prefix of a value.
-fn bound_prefix(s: &str) -> (Bound, &str) {
-    if let Some(r) = s.strip_prefix('P') {
-        (Bound::AtLeast, r)
-    } else if let Some(r) = s.strip_prefix('M') {
-        (Bound::LessThan, r)
-    } else {
-        (Bound::Exact, s)
-    }
-}
-
-/// `1/2`, `3/16` → the fraction.
-fn fraction(s: &str) -> Option<f64> {
-    let (n, d) = s.split_once('/')?;
-    let (n, d) = (num(n)?, num(d)?);
-    if d == 0 || n > 99 || d > 16 {
-        return None;
-    }
-    Some(f64::from(n) / f64::from(d))
-}
-
-/// Statute miles in `P6SM`, `1/2SM`, `M1/4SM`, `10SM` (without the `SM`).
-fn miles(s: &str) -> Option<(Bound, f64)> {
-    let (bound, v) = bound_prefix(s);
-    if v.contains('/') {
-        fraction(v).map(|f| (bound, f))
-    } else if v.len() <= 3 {
-        num(v).map(|n| (bound, f64::from(n)))
-    } else {
-        None
-    }
 }
 
 /// Temperature `15`, `M05` in °C; `None` for `//`; error otherwise.
@@ -749,110 +627,16 @@ impl<'a> Decoder<'a> {
     }
 
     fn wind(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
-        let (body, unit) = if let Some(b) = tok.strip_suffix("KT") {
-            (b, SpeedUnit::Kt)
-        } else if let Some(b) = tok.strip_suffix("MPS") {
-            (b, SpeedUnit::Mps)
-        } else if let Some(b) = tok.strip_suffix("KMH") {
-            (b, SpeedUnit::Kmh)
-        } else {
-            // Not ending in a unit: is it a wind group with a bad or missing unit?
-            let b = tok.as_bytes();
-            let head_ok = tok.starts_with("VRB")
-                || b.get(..3).is_some_and(|h| h.iter().all(u8::is_ascii_digit));
-            if !head_ok || tok.len() < 5 {
-                return Parsed::No;
+        match groups::wind(self.tok(i)) {
+            GroupParse::No => Parsed::No,
+            GroupParse::Bad(p) => Parsed::Bad(p),
+            GroupParse::Ok(w, _) => {
+                self.r.wind = Some(w);
+                self.wind_done = true;
+                self.group(GroupKind::Wind, i, 1);
+                Parsed::Ok(1)
             }
-            let digits_end = b
-                .iter()
-                .skip(3)
-                .position(|c| !(c.is_ascii_digit() || *c == b'G' || *c == b'P'))
-                .map_or(b.len(), |p| p + 3);
-            if digits_end < 5 {
-                return Parsed::No;
-            }
-            let suffix = tok.get(digits_end..).unwrap_or("");
-            if suffix.is_empty() {
-                return Parsed::Bad(
-                    "the speed unit is missing; expected KT, MPS or KMH after the speed".into(),
-                );
-            }
-            if suffix.len() <= 5 && suffix.bytes().all(|c| c.is_ascii_uppercase()) {
-                return Parsed::Bad(format!(
-                    "speed unit '{suffix}' not understood; expected KT, MPS or KMH"
-                ));
-            }
-            return Parsed::No;
-        };
-        if body.is_empty() || body.len() > 12 {
-            return Parsed::No;
         }
-        if body.bytes().all(|c| c == b'/') {
-            return Parsed::Bad("wind not reported".into());
-        }
-        let (dir_text, rest) = (body.get(..3).unwrap_or(""), body.get(3..).unwrap_or(""));
-        let direction = if dir_text == "VRB" {
-            None
-        } else if let Some(d) = num(dir_text).filter(|_| dir_text.len() == 3) {
-            if d > 360 {
-                return Parsed::Bad(format!("direction {d}° is more than 360°"));
-            }
-            Some(f64::from(d))
-        } else {
-            return Parsed::Bad(
-                "expected 3 digits of direction (or VRB), then 2 or 3 digits of speed".into(),
-            );
-        };
-        let (speed_text, gust_text) = match rest.split_once('G') {
-            Some((s, g)) => (s, Some(g)),
-            None => (rest, None),
-        };
-        let speed_val = |s: &str| -> Option<(Bound, f64)> {
-            let (b, v) = match s.strip_prefix('P') {
-                Some(v) => (Bound::AtLeast, v),
-                None => (Bound::Exact, s),
-            };
-            if v.len() == 2 || v.len() == 3 {
-                num(v).map(|n| (b, f64::from(n)))
-            } else {
-                None
-            }
-        };
-        let Some((speed_bound, speed)) = speed_val(speed_text) else {
-            return Parsed::Bad(format!(
-                "expected 2 or 3 digits of speed after the direction, found '{speed_text}'"
-            ));
-        };
-        let gust = match gust_text {
-            None => None,
-            Some(g) => match speed_val(g) {
-                Some((_, v)) => Some(v),
-                None => {
-                    return Parsed::Bad(format!(
-                        "expected 2 or 3 digits of gust after G, found '{g}'"
-                    ));
-                }
-            },
-        };
-        let to_kt = |v: f64| match unit {
-            SpeedUnit::Kt => v,
-            SpeedUnit::Mps => mps_to_kt(v),
-            SpeedUnit::Kmh => v / KMH_PER_KT,
-        };
-        self.r.wind = Some(Wind {
-            direction_deg: direction,
-            variable: direction.is_none(),
-            speed_kt: to_kt(speed),
-            speed_bound,
-            gust_kt: gust.map(to_kt),
-            variable_from_deg: None,
-            variable_to_deg: None,
-            unit: Some(unit),
-        });
-        self.wind_done = true;
-        self.group(GroupKind::Wind, i, 1);
-        Parsed::Ok(1)
     }
 
     fn sector(&mut self, i: usize) -> Parsed {
@@ -890,78 +674,27 @@ impl<'a> Decoder<'a> {
 
     fn visibility(&mut self, i: usize) -> Parsed {
         let tok = self.tok(i);
-        if tok == "CAVOK" {
-            self.r.cavok = true;
-            self.vis_done = true;
-            self.r.visibility = Some(Visibility {
-                prevailing_m: 10_000.0,
-                bound: Bound::AtLeast,
-                ..Visibility::default()
-            });
-            self.group(GroupKind::Cavok, i, 1);
-            return Parsed::Ok(1);
-        }
-        let (metres, ndv) = match tok.strip_suffix("NDV") {
-            Some(m) => (m, true),
-            None => (tok, false),
-        };
-        if metres.len() == 4 && all_digits(metres) {
-            let m = f64::from(num(metres).unwrap_or(0));
-            let (prevailing_m, bound) = match metres {
-                "9999" => (10_000.0, Bound::AtLeast),
-                "0000" => (50.0, Bound::LessThan),
-                _ => (m, Bound::Exact),
-            };
-            return self.set_visibility(
-                Visibility {
-                    prevailing_m,
-                    bound,
-                    no_directional_variation: ndv,
-                    ..Visibility::default()
-                },
-                i,
-                1,
-            );
-        }
-        if tok == "////" || tok == "////SM" {
-            self.vis_done = true;
-            return Parsed::Bad("visibility not reported".into());
-        }
-        // `1 1/2SM`: a whole number, then the fraction.
-        if tok.len() == 1 && all_digits(tok) {
-            let next = self.tok(i + 1);
-            if let Some(frac) = next.strip_suffix("SM").and_then(fraction) {
-                let sm = f64::from(num(tok).unwrap_or(0)) + frac;
-                return self.set_visibility(
-                    Visibility {
-                        prevailing_m: sm * M_PER_SM,
-                        reported_sm: Some(sm),
-                        ..Visibility::default()
-                    },
-                    i,
-                    2,
-                );
-            }
-            return Parsed::No;
-        }
-        if let Some(m) = tok.strip_suffix("SM") {
-            return match miles(m) {
-                Some((bound, sm)) => self.set_visibility(
-                    Visibility {
-                        prevailing_m: sm * M_PER_SM,
-                        reported_sm: Some(sm),
-                        bound,
-                        ..Visibility::default()
-                    },
-                    i,
-                    1,
-                ),
-                None => {
-                    Parsed::Bad("expected statute miles such as 3SM, 1/2SM, P6SM or 1 1/2SM".into())
+        match groups::visibility(tok, self.tok(i + 1)) {
+            GroupParse::No => Parsed::No,
+            GroupParse::Bad(p) => {
+                if tok == "////" || tok == "////SM" {
+                    self.vis_done = true;
                 }
-            };
+                Parsed::Bad(p)
+            }
+            GroupParse::Ok(VisibilityGroup::Cavok, _) => {
+                self.r.cavok = true;
+                self.vis_done = true;
+                self.r.visibility = Some(Visibility {
+                    prevailing_m: 10_000.0,
+                    bound: Bound::AtLeast,
+                    ..Visibility::default()
+                });
+                self.group(GroupKind::Cavok, i, 1);
+                Parsed::Ok(1)
+            }
+            GroupParse::Ok(VisibilityGroup::Visibility(v), n) => self.set_visibility(v, i, n),
         }
-        Parsed::No
     }
 
     fn min_visibility(&mut self, i: usize) -> Parsed {
@@ -1061,85 +794,34 @@ impl<'a> Decoder<'a> {
     }
 
     fn weather(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
-        if tok.len() > 14 {
-            return Parsed::No;
-        }
-        match parse_weather(tok) {
-            Some(w) => {
+        match groups::weather(self.tok(i)) {
+            GroupParse::No => Parsed::No,
+            GroupParse::Bad(p) => Parsed::Bad(p),
+            GroupParse::Ok(w, _) => {
                 self.r.weather.push(w);
                 let n = u16::try_from(self.r.weather.len() - 1).unwrap_or(u16::MAX);
                 self.group(GroupKind::Weather(n), i, 1);
                 Parsed::Ok(1)
             }
-            None if tok.len() > 1 && (tok.starts_with('-') || tok.starts_with('+')) => {
-                Parsed::Bad("unknown weather code; expected e.g. -RA, +TSRA, SHSN, BR".into())
-            }
-            None => Parsed::No,
         }
     }
 
     fn cloud(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
-        let clear = match tok {
-            "NSC" => Some(SkyClear::Nsc),
-            "NCD" => Some(SkyClear::Ncd),
-            "SKC" => Some(SkyClear::Skc),
-            "CLR" => Some(SkyClear::Clr),
-            _ => None,
-        };
-        if let Some(c) = clear {
-            self.r.sky_clear = Some(c);
-            self.group(GroupKind::SkyClear, i, 1);
-            return Parsed::Ok(1);
-        }
-        let (cover, rest) = if let Some(r) = tok.strip_prefix("VV") {
-            (Cover::VerticalVisibility, r)
-        } else if let Some(r) = tok.strip_prefix("FEW") {
-            (Cover::Few, r)
-        } else if let Some(r) = tok.strip_prefix("SCT") {
-            (Cover::Scattered, r)
-        } else if let Some(r) = tok.strip_prefix("BKN") {
-            (Cover::Broken, r)
-        } else if let Some(r) = tok.strip_prefix("OVC") {
-            (Cover::Overcast, r)
-        } else if tok.len() >= 6 && tok.starts_with("///") {
-            (Cover::Unknown, tok.get(3..).unwrap_or(""))
-        } else {
-            return Parsed::No;
-        };
-        let (height, kind) = (rest.get(..3).unwrap_or(""), rest.get(3..).unwrap_or(""));
-        let base_ft = if height == "///" {
-            None
-        } else if height.len() == 3 && all_digits(height) {
-            Some(f64::from(num(height).unwrap_or(0)) * 100.0)
-        } else {
-            return Parsed::Bad(
-                "expected 3 digits of height in hundreds of feet (or ///), e.g. BKN012".into(),
-            );
-        };
-        let convective = match kind {
-            "" => None,
-            "CB" => Some(Convective::Cb),
-            "TCU" => Some(Convective::Tcu),
-            "///" => Some(Convective::Unknown),
-            _ => {
-                return Parsed::Bad(format!(
-                    "cloud type '{kind}' not understood; expected CB or TCU"
-                ));
+        match groups::cloud(self.tok(i)) {
+            GroupParse::No => Parsed::No,
+            GroupParse::Bad(p) => Parsed::Bad(p),
+            GroupParse::Ok(SkyGroup::Clear(c), _) => {
+                self.r.sky_clear = Some(c);
+                self.group(GroupKind::SkyClear, i, 1);
+                Parsed::Ok(1)
             }
-        };
-        if cover == Cover::VerticalVisibility && convective.is_some() {
-            return Parsed::Bad("a vertical visibility (VV) carries no cloud type".into());
+            GroupParse::Ok(SkyGroup::Layer(layer), _) => {
+                self.r.clouds.push(layer);
+                let n = u16::try_from(self.r.clouds.len() - 1).unwrap_or(u16::MAX);
+                self.group(GroupKind::Cloud(n), i, 1);
+                Parsed::Ok(1)
+            }
         }
-        self.r.clouds.push(CloudLayer {
-            cover,
-            base_ft,
-            convective,
-        });
-        let n = u16::try_from(self.r.clouds.len() - 1).unwrap_or(u16::MAX);
-        self.group(GroupKind::Cloud(n), i, 1);
-        Parsed::Ok(1)
     }
 
     fn temperature(&mut self, i: usize) -> Parsed {
@@ -1322,96 +1004,6 @@ impl<'a> Decoder<'a> {
     }
 }
 
-fn bound_word(b: Bound) -> &'static str {
-    match b {
-        Bound::Exact => "",
-        Bound::AtLeast => "more than ",
-        Bound::LessThan => "less than ",
-    }
-}
-
-fn fmt_num(v: f64) -> String {
-    if (v - v.round()).abs() < 1e-9 {
-        format!("{v:.0}")
-    } else {
-        let s = format!("{v:.2}");
-        s.trim_end_matches('0').to_string()
-    }
-}
-
-fn describe_weather(w: &Weather) -> String {
-    if w.not_observed {
-        return "present weather not observable (automatic station)".into();
-    }
-    let mut parts: Vec<&str> = Vec::new();
-    let intensity = match w.intensity {
-        Intensity::Light => Some("light"),
-        Intensity::Heavy => Some("heavy"),
-        _ => None,
-    };
-    // The intensity qualifies the precipitation: +TSRA is a thunderstorm with heavy rain.
-    let ts_with_precip = w.descriptor == Some("TS") && !w.phenomena.is_empty();
-    if !ts_with_precip && let Some(i) = intensity {
-        parts.push(i);
-    }
-    if let Some(d) = w.descriptor {
-        parts.push(match d {
-            "MI" => "shallow",
-            "BC" => "patches of",
-            "PR" => "partial",
-            "DR" => "low drifting",
-            "BL" => "blowing",
-            "SH" => "showers of",
-            "TS" => "thunderstorm",
-            "FZ" => "freezing",
-            _ => d,
-        });
-    }
-    if ts_with_precip {
-        parts.push("with");
-        if let Some(i) = intensity {
-            parts.push(i);
-        }
-    }
-    for (k, p) in w.phenomena.iter().enumerate() {
-        if k > 0 {
-            parts.push("and");
-        }
-        parts.push(match *p {
-            "DZ" => "drizzle",
-            "RA" => "rain",
-            "SN" => "snow",
-            "SG" => "snow grains",
-            "IC" => "ice crystals",
-            "PL" => "ice pellets",
-            "GR" => "hail",
-            "GS" => "small hail",
-            "UP" => "unknown precipitation",
-            "BR" => "mist",
-            "FG" => "fog",
-            "FU" => "smoke",
-            "VA" => "volcanic ash",
-            "DU" => "dust",
-            "SA" => "sand",
-            "HZ" => "haze",
-            "PY" => "spray",
-            "PO" => "dust/sand whirls",
-            "SQ" => "squalls",
-            "FC" => "funnel cloud",
-            "SS" => "sandstorm",
-            "DS" => "duststorm",
-            other => other,
-        });
-    }
-    if w.descriptor == Some("SH") && w.phenomena.is_empty() {
-        parts.push("showers");
-    }
-    if w.intensity == Intensity::Vicinity {
-        parts.push("in the vicinity");
-    }
-    parts.join(" ")
-}
-
 /// What a decoded group says, in plain words and units, for the readable decode.
 pub fn describe(r: &Report, g: &Group) -> String {
     match g.kind {
@@ -1429,32 +1021,7 @@ pub fn describe(r: &Report, g: &Group) -> String {
         },
         GroupKind::Wind => match &r.wind {
             None => "wind not readable".into(),
-            Some(w) if w.is_calm() => "wind calm".into(),
-            Some(w) => {
-                let dir = match w.direction_deg {
-                    Some(d) => format!("from {d:03.0}° true"),
-                    None => "variable in direction".into(),
-                };
-                // As reported, with knots beside a metric unit.
-                let speed = |kt: f64| match w.unit {
-                    Some(SpeedUnit::Mps) => {
-                        format!("{} m/s ({:.1} kt)", fmt_num((kt * MPS_PER_KT).round()), kt)
-                    }
-                    Some(SpeedUnit::Kmh) => {
-                        format!("{} km/h ({:.1} kt)", fmt_num((kt * KMH_PER_KT).round()), kt)
-                    }
-                    _ => format!("{} kt", fmt_num(kt)),
-                };
-                let mut s = format!(
-                    "wind {dir} at {}{}",
-                    bound_word(w.speed_bound),
-                    speed(w.speed_kt)
-                );
-                if let Some(gk) = w.gust_kt {
-                    s.push_str(&format!(", gusting {}", speed(gk)));
-                }
-                s
-            }
+            Some(w) => describe_wind(w),
         },
         GroupKind::WindSector => match &r.wind {
             Some(Wind {
@@ -1471,27 +1038,7 @@ pub fn describe(r: &Report, g: &Group) -> String {
         }
         GroupKind::Visibility => match &r.visibility {
             None => "visibility not readable".into(),
-            Some(v) => {
-                let b = bound_word(v.bound);
-                let mut s = match v.reported_sm {
-                    Some(sm) => format!(
-                        "visibility {b}{} SM ({b}{:.0} m)",
-                        fmt_num(sm),
-                        v.prevailing_m
-                    ),
-                    None if v.bound == Bound::AtLeast => "visibility 10 km or more".into(),
-                    None if v.bound == Bound::LessThan => "visibility less than 50 m".into(),
-                    None => format!(
-                        "visibility {:.0} m ({} SM)",
-                        v.prevailing_m,
-                        fmt_num((v.prevailing_sm() * 100.0).round() / 100.0)
-                    ),
-                };
-                if v.no_directional_variation {
-                    s.push_str(", no directional variation available");
-                }
-                s
-            }
+            Some(v) => describe_visibility(v),
         },
         GroupKind::MinimumVisibility => match &r.visibility {
             Some(Visibility {
@@ -1546,38 +1093,13 @@ pub fn describe(r: &Report, g: &Group) -> String {
             .recent_weather
             .get(usize::from(n))
             .map_or_else(String::new, |w| format!("recent {}", describe_weather(w))),
-        GroupKind::Cloud(n) => match r.clouds.get(usize::from(n)) {
-            None => String::new(),
-            Some(c) => {
-                let cover = match c.cover {
-                    Cover::Few => "few clouds (1-2 oktas)",
-                    Cover::Scattered => "scattered clouds (3-4 oktas)",
-                    Cover::Broken => "broken clouds (5-7 oktas)",
-                    Cover::Overcast => "overcast (8 oktas)",
-                    Cover::VerticalVisibility => "sky obscured, vertical visibility",
-                    Cover::Unknown => "cloud of unknown amount",
-                };
-                let base = match c.base_ft {
-                    Some(ft) if c.cover == Cover::VerticalVisibility => format!(" {ft:.0} ft"),
-                    Some(ft) => format!(" at {ft:.0} ft"),
-                    None => " at unknown height".into(),
-                };
-                let kind = match c.convective {
-                    Some(Convective::Cb) => ", cumulonimbus",
-                    Some(Convective::Tcu) => ", towering cumulus",
-                    Some(Convective::Unknown) => ", cloud type not observable",
-                    None => "",
-                };
-                format!("{cover}{base}{kind}")
-            }
-        },
-        GroupKind::SkyClear => match r.sky_clear {
-            Some(SkyClear::Nsc) => "no significant cloud".into(),
-            Some(SkyClear::Ncd) => "no cloud detected (automatic)".into(),
-            Some(SkyClear::Skc) => "sky clear".into(),
-            Some(SkyClear::Clr) => "no cloud below 12,000 ft (automatic)".into(),
-            None => String::new(),
-        },
+        GroupKind::Cloud(n) => r
+            .clouds
+            .get(usize::from(n))
+            .map_or_else(String::new, describe_cloud),
+        GroupKind::SkyClear => r
+            .sky_clear
+            .map_or_else(String::new, |c| describe_sky_clear(c).to_string()),
         GroupKind::Temperature => {
             let f = |v: Option<f64>| v.map_or("not reported".to_string(), |v| format!("{v:.0} °C"));
             if r.temperature_from_remarks {

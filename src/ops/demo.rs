@@ -76,6 +76,10 @@ pub const FILES: &[(&str, &str)] = &[
         "observations/2026-06-14.txt",
         include_str!("../../fixtures/demo/observations/2026-06-14.txt"),
     ),
+    (
+        "forecasts/2026-06-14.txt",
+        include_str!("../../fixtures/demo/forecasts/2026-06-14.txt"),
+    ),
 ];
 
 /// The demo's files.

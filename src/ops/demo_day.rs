@@ -188,3 +188,50 @@ pub fn metars() -> String {
     }
     out
 }
+
+/// The demo day's TAFs, one per station, issued 05Z and valid 06Z to 06Z the next day,
+/// written from the same profile as the METARs: TX/TN from the day's highest and
+/// lowest temperature, the 12Z wind shift as an FM group, the gusty 14Z hour as a
+/// TEMPO, the morning mist at XMRS and the afternoon CB at the high fields.
+pub fn tafs() -> String {
+    let mut out = String::new();
+    for s in &STATIONS {
+        let dir = |base: i32| {
+            let d = (base + s.dir_offset_deg).rem_euclid(360);
+            if d == 0 { 360 } else { d }
+        };
+        let base_sky = if s.id == "XMRS" {
+            "3000 BR BKN004"
+        } else {
+            "9999 FEW030"
+        };
+        let _ = writeln!(
+            out,
+            "TAF {id} 140500Z 1406/1506 {d1:03}05KT {base_sky} TX{tx}/1415Z TN{tn}/1406Z",
+            id = s.id,
+            d1 = dir(230),
+            tx = temp_group(s.t_max_c),
+            tn = temp_group(s.t_min_c),
+        );
+        if s.id == "XMRS" {
+            let _ = writeln!(out, "  BECMG 1407/1408 6000 SCT006");
+            let _ = writeln!(out, "  BECMG 1408/1409 9999 NSW FEW030");
+        }
+        let _ = writeln!(out, "  BECMG 1409/1411 {:03}08KT SCT040", dir(250));
+        let _ = writeln!(out, "  FM141200 {:03}12KT 9999 SCT040", dir(310));
+        let _ = writeln!(out, "  TEMPO 1414/1415 {:03}16G28KT", dir(310));
+        let _ = writeln!(out, "  FM141500 {:03}13KT 9999 SCT050", dir(300));
+        match s.id {
+            "XHIG" => {
+                let _ = writeln!(out, "  PROB30 TEMPO 1416/1419 VCTS FEW055CB BKN090=");
+            }
+            "XPIN" => {
+                let _ = writeln!(out, "  TEMPO 1416/1418 FEW065CB SCT100=");
+            }
+            _ => {
+                let _ = writeln!(out, "  BECMG 1420/1422 {:03}06KT=", dir(280));
+            }
+        }
+    }
+    out
+}

@@ -615,6 +615,10 @@ pub fn generated_files() -> Vec<(String, String)> {
         format!("fixtures/demo/observations/{DEMO_DATE}.txt"),
         super::demo_day::metars(),
     ));
+    v.push((
+        format!("fixtures/demo/forecasts/{DEMO_DATE}.txt"),
+        super::demo_day::tafs(),
+    ));
     v
 }
 
