@@ -17,12 +17,13 @@ pub mod layout;
 pub mod overlays;
 pub mod replan;
 pub mod run;
+pub mod runway_form;
 pub mod screenshot;
 pub mod signoff;
 pub mod theme;
 pub mod view;
 
-pub use app::{App, Msg, Pane, Replay, Settings, Sort};
+pub use app::{App, Effect, Msg, Pane, Replay, Settings, Sort};
 pub use keys::{Action, KEYMAP};
 pub use layout::{BoardLayout, LayoutSettings};
 pub use run::{Feeds, run};

@@ -67,6 +67,10 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         bell: args.bell,
         demo: loaded.demo,
         live_offset: None,
+        ops_dir: match &choice {
+            Choice::Explicit(d) | Choice::Configured(d) if !loaded.demo => Some(d.clone()),
+            _ => None,
+        },
     };
     // The sign-off log and the legs files belong to the operator folder (the demo: none).
     let ops_dir = if loaded.demo {
