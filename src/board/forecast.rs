@@ -64,11 +64,15 @@ pub fn cell(l: Option<&LookAhead>, observed: State) -> String {
 pub fn summary(l: Option<&LookAhead>, observed: State) -> String {
     match l {
         None => "no forecast".to_string(),
+        Some(_) if observed == State::Below => "forecast ✗ below (below now)".to_string(),
         Some(l) => format!(
-            "forecast {} {}, {}",
+            "forecast {} {}{}",
             l.state.glyph(),
             l.state.word(),
-            cell(Some(l), observed)
+            match l.fails_from {
+                Some(t) => format!("; below if flown from ~{}", t.format("%H%MZ")),
+                None => "; holds all day".to_string(),
+            }
         ),
     }
 }

@@ -165,7 +165,7 @@ fn comparison(
 ) -> Vec<Line<'static>> {
     let mut lines = vec![Line::from(vec![
         Span::styled(format!("  {:<10}", ""), t.dim()),
-        Span::styled(format!("{:<38}", "now (as loaded)"), t.heading()),
+        Span::styled(format!("{:<44}", "now (as loaded)"), t.heading()),
         Span::styled("   ", t.dim()),
         Span::styled("what-if", t.heading()),
     ])];
@@ -193,10 +193,10 @@ fn comparison(
         } else {
             b
         };
-        let a: String = a.chars().take(38).collect();
+        let a: String = a.chars().take(43).collect();
         lines.push(Line::from(vec![
             Span::styled(format!("  {name:<10}"), t.dim()),
-            Span::styled(format!("{a:<38}"), sa),
+            Span::styled(format!("{a:<44}"), sa),
             Span::styled(" → ", t.dim()),
             Span::styled(b, sb),
         ]));
@@ -219,7 +219,8 @@ fn centered(area: Rect, w: u16, h: u16) -> Rect {
 }
 
 fn boxed(lines: Vec<Line<'static>>, title: String, area: Rect, buf: &mut Buffer, t: Theme, w: u16) {
-    let r = centered(area, w, lines.len() as u16 + 2);
+    // One spare row: the caution and long lines wrap.
+    let r = centered(area, w, lines.len() as u16 + 3);
     Clear.render(r, buf);
     Paragraph::new(lines)
         .wrap(Wrap { trim: false })

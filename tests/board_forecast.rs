@@ -1,0 +1,81 @@
+//! The forecast look-ahead on the board: a column per leg and a section in the detail,
+//! computed as `rhoboard check --forecast` does, labelled as a forecast and kept apart
+//! from the observed state; recomputed as reports arrive.
+
+#[path = "common/board.rs"]
+mod board_common;
+
+use board_common::{demo_stepped_to, key, screen};
+
+use ratatui::crossterm::event::KeyCode;
+use rhoboard::assess::State;
+
+#[test]
+fn at_0800_the_look_ahead_names_the_legs_the_afternoon_breaks() {
+    let morning = demo_stepped_to(8);
+    let afternoon = demo_stepped_to(15);
+    assert_eq!(morning.forecast.len(), morning.assessment.legs.len());
+    let mut named = 0;
+    for (k, r) in morning.assessment.legs.iter().enumerate() {
+        let later = afternoon
+            .assessment
+            .legs
+            .iter()
+            .find(|a| a.id == r.id)
+            .unwrap();
+        if r.state != State::Below && later.state == State::Below {
+            let look = morning
+                .look(k)
+                .unwrap_or_else(|| panic!("{}: no forecast", r.id));
+            assert!(
+                look.fails_from.is_some() || look.state == State::Below,
+                "{}: below at 15Z but the 08Z forecast holds: {look:?}",
+                r.id
+            );
+            named += 1;
+        }
+    }
+    assert!(named > 0, "the demo day breaks some legs in the afternoon");
+}
+
+#[test]
+fn the_column_and_the_detail_say_forecast() {
+    let mut app = demo_stepped_to(8);
+    let text = screen(&mut app, 120, 40);
+    assert!(text.contains("forecast"), "{text}");
+    assert!(text.contains("fails ~"), "{text}");
+    let k = app.rows()[0];
+    let lines = rhoboard::board::overlays::detail_extra(
+        &app,
+        k,
+        rhoboard::board::theme::Theme { color: false },
+    );
+    let text: Vec<String> = lines.iter().map(|l| l.to_string()).collect();
+    let text = text.join("\n");
+    assert!(
+        text.contains("Forecast look-ahead (from the TAFs — a forecast, not an observation)"),
+        "{text}"
+    );
+    assert!(
+        text.contains("observed now: ✓ within"),
+        "kept apart: {text}"
+    );
+    assert!(text.contains("Sign-off"), "{text}");
+}
+
+#[test]
+fn recomputed_when_a_report_arrives() {
+    let mut app = demo_stepped_to(8);
+    let before = app.forecast.clone();
+    app.update(key(KeyCode::Char('n')));
+    assert_eq!(app.forecast.len(), app.assessment.legs.len());
+    assert_ne!(before, app.forecast, "the 09Z reports move the look-ahead");
+    // An observed below is never made better by the forecast.
+    for (k, r) in app.assessment.legs.iter().enumerate() {
+        if r.state == State::Below
+            && let Some(l) = app.look(k)
+        {
+            assert_eq!(l.state, State::Below, "{}", r.id);
+        }
+    }
+}

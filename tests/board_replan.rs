@@ -1,0 +1,443 @@
+//! What-if re-planning on the board: each kind of edit re-assessed at once (old → new),
+//! undo, quitting with changes pending, writing (the demo in memory; an operator folder
+//! through the event loop's safe save) and the conflict when the file changed on disk.
+
+#[path = "common/board.rs"]
+mod board_common;
+
+use board_common::{demo_stepped_to, demo_time, key, render, screen, type_text};
+use ratatui::crossterm::event::KeyCode;
+use rhoboard::assess::State;
+use rhoboard::board::App;
+use rhoboard::board::app::Mode;
+use rhoboard::board::effects::perform;
+use rhoboard::board::replan::{Ask, Step};
+use rhoboard::board::signoff::Mark;
+use rhoboard::replan::Edit;
+
+fn select_leg(app: &mut App, id: &str) -> usize {
+    app.update(key(KeyCode::Home));
+    for _ in 0..app.rows().len() {
+        if app.selected_leg().is_some_and(|r| r.id == id) {
+            return app.selected_leg().unwrap().index;
+        }
+        app.update(key(KeyCode::Down));
+    }
+    panic!("leg {id} not found");
+}
+
+fn new_state(app: &App, slot: usize) -> Option<State> {
+    app.compared(slot)?.new.as_ref().map(|f| f.state)
+}
+
+fn old_state(app: &App, slot: usize) -> Option<State> {
+    app.compared(slot)?.old.as_ref().map(|f| f.state)
+}
+
+/// Picks the option whose label starts with `prefix` in the open pick list.
+fn pick(app: &mut App, prefix: &str) {
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!("no what-if panel")
+    };
+    let Ask::Pick { options, .. } = &ui.ask else {
+        panic!("no pick list: {:?}", ui.ask)
+    };
+    let i = options
+        .iter()
+        .position(|(l, _)| l.starts_with(prefix))
+        .unwrap_or_else(|| panic!("no option {prefix}: {options:?}"));
+    for _ in 0..i {
+        app.update(key(KeyCode::Down));
+    }
+    app.update(key(KeyCode::Enter));
+}
+
+#[test]
+fn l16_becomes_within_by_moving_it_to_0630() {
+    let mut app = demo_stepped_to(13);
+    let slot = select_leg(&mut app, "L16");
+    assert_eq!(app.selected_leg().unwrap().state, State::Below);
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.plan.steps.len(), 1);
+    assert_eq!(old_state(&app, slot), Some(State::Below));
+    assert_eq!(new_state(&app, slot), Some(State::Within));
+    assert_eq!(
+        app.plan.slots[slot].leg.departs_utc(),
+        demo_time(6, 30),
+        "the planned duration is kept from the new time"
+    );
+    // The board's own leg is untouched until written.
+    assert_eq!(app.ops.legs[slot].departs_utc(), demo_time(12, 30));
+    assert_eq!(app.selected_leg().unwrap().state, State::Below);
+}
+
+#[test]
+fn l16_becomes_within_by_unloading_the_rear_seats() {
+    let mut app = demo_stepped_to(13);
+    let slot = select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('l')));
+    pick(&mut app, "rear_seats: remove a passenger");
+    assert_eq!(
+        app.plan.steps[0].step,
+        Step::Edit(Edit::Unload("rear_seats".into()))
+    );
+    assert_eq!(new_state(&app, slot), Some(State::Within));
+}
+
+#[test]
+fn aircraft_offered_are_not_below_at_the_departure_best_first() {
+    // The morning review (at 13Z every pairing at XPIN is below: the list is empty).
+    let mut app = demo_stepped_to(8);
+    let slot = select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('a')));
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!()
+    };
+    let Ask::Pick { options, .. } = &ui.ask else {
+        panic!()
+    };
+    assert!(!options.is_empty());
+    assert!(
+        options.iter().all(|(l, _)| !l.contains("below")),
+        "{options:?}"
+    );
+    assert!(
+        options.iter().all(|(l, _)| !l.starts_with("X-UTLB")),
+        "not the current one"
+    );
+    let first = options[0].clone();
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.plan.steps[0].step, first.1);
+    assert!(app.compared(slot).unwrap().what[0].starts_with("aircraft X-UTLB →"));
+}
+
+#[test]
+fn destination_fuel_bags_cancel_copy_and_undo() {
+    let mut app = demo_stepped_to(13);
+    let slot = select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('d')));
+    pick(&mut app, "XSHT");
+    assert!(
+        app.compared(slot)
+            .unwrap()
+            .what
+            .contains(&"to XSEA → XSHT".to_string())
+    );
+    app.update(key(KeyCode::Char('f')));
+    type_text(&mut app, "lots");
+    app.update(key(KeyCode::Enter));
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!()
+    };
+    assert!(
+        matches!(&ui.ask, Ask::Type { error: Some(e), .. } if e.contains("expected litres")),
+        "{:?}",
+        ui.ask
+    );
+    for _ in 0..4 {
+        app.update(key(KeyCode::Backspace));
+    }
+    type_text(&mut app, "80");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.plan.steps[1].step, Step::Edit(Edit::FuelL(80.0)));
+    app.update(key(KeyCode::Char('l')));
+    pick(&mut app, "baggage: 10 kg less");
+    assert_eq!(app.plan.steps.len(), 3);
+    app.update(key(KeyCode::Char('c')));
+    let copy = app.plan.slots.len() - 1;
+    assert_eq!(app.plan.slots[copy].leg.id, "L16-2");
+    assert!(
+        app.compared(copy).unwrap().old.is_none(),
+        "a new leg has no before"
+    );
+    assert!(app.compared(copy).unwrap().new.is_some());
+    app.update(key(KeyCode::Char('x')));
+    assert!(app.compared(slot).unwrap().new.is_none(), "cancelled");
+    assert_eq!(app.plan.steps.len(), 5);
+    // Undo, one at a time, back to nothing.
+    app.update(key(KeyCode::Char('u')));
+    assert!(app.compared(slot).unwrap().new.is_some());
+    app.update(key(KeyCode::Char('u')));
+    assert_eq!(app.plan.slots.len(), app.ops.legs.len(), "the copy is gone");
+    for _ in 0..3 {
+        app.update(key(KeyCode::Char('u')));
+    }
+    assert!(!app.plan.pending());
+    assert!(app.compared(slot).is_none());
+    // Undo also works from the board (u outside the panel).
+    app.update(key(KeyCode::Char('x')));
+    app.update(key(KeyCode::Esc));
+    assert!(app.plan.pending());
+    app.update(key(KeyCode::Char('u')));
+    assert!(!app.plan.pending());
+}
+
+#[test]
+fn quitting_with_pending_changes_asks_first() {
+    let mut app = demo_stepped_to(13);
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('x')));
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Char('q')));
+    assert!(!app.quit);
+    assert!(matches!(app.ui.mode, Mode::ConfirmQuit));
+    assert!(screen(&mut app, 80, 24).contains("pending and not written"));
+    app.update(key(KeyCode::Char('n')));
+    assert!(!app.quit, "any other key stays");
+    app.update(key(KeyCode::Char('q')));
+    app.update(key(KeyCode::Char('y')));
+    assert!(app.quit);
+}
+
+#[test]
+fn the_demo_writes_in_memory_and_the_signoff_of_a_replanned_leg_needs_a_recheck() {
+    let tmp = tempfile::tempdir().unwrap();
+    let mut app = demo_stepped_to(8);
+    app.attach_signoffs(
+        Ok(rhoboard::signoff::log::Log::new(
+            tmp.path().join("signoffs"),
+        )),
+        rhoboard::commands::signoff::data_hashes(None),
+    );
+    select_leg(&mut app, "L09");
+    app.update(key(KeyCode::Char('S')));
+    type_text(&mut app, "M. Ortiz");
+    app.update(key(KeyCode::Enter));
+    for e in app.take_board_io() {
+        let done = perform(&app, e, demo_time(19, 0));
+        app.update(done);
+    }
+    let k = app.rows()[app.ui.leg_row];
+    assert!(matches!(app.mark(k), Mark::Signed { .. }));
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0900");
+    app.update(key(KeyCode::Enter));
+    app.update(key(KeyCode::Char('w')));
+    assert!(
+        app.take_board_io().is_empty(),
+        "the demo has no file to write"
+    );
+    assert!(!app.plan.pending());
+    assert!(
+        app.notes.iter().any(|n| n.text.contains("in memory only")),
+        "says so"
+    );
+    let i = app.ops.legs.iter().position(|l| l.id == "L09").unwrap();
+    assert_eq!(app.ops.legs[i].departs_utc(), demo_time(9, 0));
+    let k = select_leg(&mut app, "L09");
+    let k = app
+        .assessment
+        .legs
+        .iter()
+        .position(|r| r.index == k)
+        .unwrap();
+    assert!(
+        matches!(app.mark(k), Mark::Recheck { .. } | Mark::Signed { .. }),
+        "{:?}",
+        app.mark(k)
+    );
+    // Another aircraft: the sign-off no longer fits the leg.
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('a')));
+    app.update(key(KeyCode::Enter));
+    app.update(key(KeyCode::Char('w')));
+    let k = app
+        .assessment
+        .legs
+        .iter()
+        .position(|r| r.id == "L09")
+        .unwrap();
+    let Mark::Recheck { why, .. } = app.mark(k) else {
+        panic!("{:?}", app.mark(k))
+    };
+    assert!(
+        why.iter().any(|w| w.starts_with("aircraft is now")),
+        "{why:?}"
+    );
+}
+
+#[test]
+fn side_by_side_120x40() {
+    let mut app = demo_stepped_to(13);
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    insta::assert_snapshot!(render(&mut app, 120, 40).backend());
+}
+
+// --- An operator folder: the safe save and the conflict ---
+
+fn operator_folder() -> tempfile::TempDir {
+    let tmp = tempfile::tempdir().unwrap();
+    for (path, text) in rhoboard::ops::demo::FILES {
+        let p = tmp.path().join(path);
+        std::fs::create_dir_all(p.parent().unwrap()).unwrap();
+        std::fs::write(p, text).unwrap();
+    }
+    tmp
+}
+
+fn board_on(dir: &std::path::Path) -> App {
+    let args = rhoboard::commands::board::Args {
+        ops: Some(dir.to_path_buf()),
+        at: Some("2026-06-14T13:00:00Z".into()),
+        feed_every: "10m".into(),
+        ..Default::default()
+    };
+    let (app, _feeds) = rhoboard::commands::board::prepare(&args, demo_time(13, 0)).unwrap();
+    app
+}
+
+fn legs_path(dir: &std::path::Path) -> std::path::PathBuf {
+    dir.join("legs/2026-06-14.json")
+}
+
+fn run_io(app: &mut App) -> usize {
+    let io = app.take_board_io();
+    let n = io.len();
+    for e in io {
+        let done = perform(app, e, demo_time(19, 0));
+        app.update(done);
+    }
+    n
+}
+
+#[test]
+fn writing_to_an_operator_folder_saves_safely_and_adopts_the_plan() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    let before = std::fs::read_to_string(legs_path(tmp.path())).unwrap();
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    app.update(key(KeyCode::Esc));
+    assert_eq!(
+        std::fs::read_to_string(legs_path(tmp.path())).unwrap(),
+        before,
+        "nothing written before w"
+    );
+    app.update(key(KeyCode::Char('w')));
+    assert_eq!(run_io(&mut app), 1);
+    assert!(!app.plan.pending());
+    let now = std::fs::read_to_string(legs_path(tmp.path())).unwrap();
+    let file: rhoboard::ops::legs::LegsFile = serde_json::from_str(&now).unwrap();
+    let l16 = file.legs.iter().find(|l| l.id == "L16").unwrap();
+    assert_eq!(l16.departs_utc(), demo_time(6, 30));
+    assert_eq!(
+        std::fs::read_to_string(tmp.path().join("legs/.2026-06-14.json.bak")).unwrap(),
+        before
+    );
+    let k = app
+        .assessment
+        .legs
+        .iter()
+        .position(|r| r.id == "L16")
+        .unwrap();
+    assert_eq!(
+        app.assessment.legs[k].state,
+        State::Within,
+        "the board shows the new plan"
+    );
+    // A second change writes against the new hash: no false conflict.
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('x')));
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    assert!(!matches!(app.ui.mode, Mode::Conflict));
+    let file: rhoboard::ops::legs::LegsFile =
+        serde_json::from_str(&std::fs::read_to_string(legs_path(tmp.path())).unwrap()).unwrap();
+    assert!(file.legs.iter().all(|l| l.id != "L16"), "cancelled");
+}
+
+#[test]
+fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    // Another dispatcher moves L16 to another aircraft meanwhile.
+    let path = legs_path(tmp.path());
+    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+        "\"aircraft\": \"X-UTLB\"",
+        "\"aircraft\": \"X-UTLA\"",
+        1,
+    );
+    std::fs::write(&path, &theirs).unwrap();
+    app.update(key(KeyCode::Char('w')));
+    assert_eq!(run_io(&mut app), 1);
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    assert_eq!(
+        std::fs::read_to_string(&path).unwrap(),
+        theirs,
+        "nothing lost"
+    );
+    assert!(app.plan.pending(), "ours stay pending");
+    let c = app.plan.conflict.as_ref().unwrap();
+    let (_, loaded, their, ours) = c.legs.iter().find(|(id, ..)| id == "L16").unwrap();
+    assert!(loaded.contains("1230Z X-UTLB"), "{loaded}");
+    assert!(their.contains("1230Z X-UTLA"), "{their}");
+    assert!(ours.contains("0630Z X-UTLB"), "{ours}");
+    let text = screen(&mut app, 140, 40);
+    assert!(text.contains("theirs now: 1230Z X-UTLA"), "{text}");
+    assert!(text.contains("ours:       0630Z X-UTLB"), "{text}");
+
+    // Overwrite with ours: theirs is kept as the backup.
+    app.update(key(KeyCode::Char('o')));
+    assert_eq!(run_io(&mut app), 1);
+    assert!(!app.plan.pending());
+    let now = std::fs::read_to_string(&path).unwrap();
+    assert!(now.contains("\"2026-06-14T06:30:00Z\""), "ours written");
+    assert_eq!(
+        std::fs::read_to_string(tmp.path().join("legs/.2026-06-14.json.bak")).unwrap(),
+        theirs,
+        "theirs kept"
+    );
+}
+
+#[test]
+fn keeping_theirs_reloads_their_legs() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('x')));
+    let path = legs_path(tmp.path());
+    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+        "\"aircraft\": \"X-UTLB\"",
+        "\"aircraft\": \"X-UTLA\"",
+        1,
+    );
+    std::fs::write(&path, &theirs).unwrap();
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    app.update(key(KeyCode::Char('t')));
+    assert!(matches!(app.ui.mode, Mode::Normal));
+    assert!(!app.plan.pending());
+    assert_eq!(std::fs::read_to_string(&path).unwrap(), theirs);
+    let l16 = app.ops.legs.iter().find(|l| l.id == "L16").unwrap();
+    assert_eq!(l16.aircraft, "X-UTLA", "the board now shows their version");
+    // And the next save goes against their hash.
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('x')));
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    assert!(!matches!(app.ui.mode, Mode::Conflict));
+}
