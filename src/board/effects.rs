@@ -104,12 +104,13 @@ pub fn perform(app: &App, effect: Effect, now: DateTime<Utc>) -> Msg {
                 match signoff::sign(log, &app.ops, &result, &req, &AppendOptions::default()) {
                     Ok(a) => {
                         let mut text = format!(
-                            "{} signed #{} by {} on the {} basis ({})",
+                            "{} signed #{} by {} on the {} basis ({} {})",
                             a.entry.record.leg,
                             a.entry.record.seq,
                             a.entry.record.instructor,
                             basis_at.format("%H%MZ"),
-                            format!("{} {}", result.state.glyph(), result.state.word())
+                            result.state.glyph(),
+                            result.state.word()
                         );
                         if let Some(s) = a.entry.record.supersedes_seq {
                             text.push_str(&format!("; supersedes #{s}"));

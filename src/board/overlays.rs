@@ -32,6 +32,29 @@ impl LegColumns {
         }
     }
 
+    /// The first column: the change mark `*`, and on narrow panes the sign-off glyph.
+    pub fn first_header(&self) -> &'static str {
+        if self.words { " " } else { " ✎" }
+    }
+
+    /// Its width.
+    pub fn first_width(&self) -> u16 {
+        if self.words { 1 } else { 2 }
+    }
+
+    /// Its cell for leg `k`.
+    pub fn first_cell(&self, app: &App, k: usize, flash: bool, t: Theme) -> Cell<'static> {
+        let star = if flash { "*" } else { " " };
+        if self.words {
+            return Cell::from(star);
+        }
+        let m = app.mark(k);
+        Cell::from(Line::from(vec![
+            Span::raw(star),
+            Span::styled(m.glyph(), mark_style(m, t)),
+        ]))
+    }
+
     /// The sign-off column's heading.
     pub fn mark_header(&self) -> &'static str {
         if self.words { "sign-off" } else { "✎" }
@@ -73,15 +96,15 @@ fn mark_style(m: &Mark, t: Theme) -> Style {
 
 /// The status text on the change list's frame: re-checks, the log head, pending changes.
 pub fn status(app: &App) -> String {
-    let mut s = format!(" {}", app.signoffs.status());
+    let mut s = app.signoffs.status();
     if app.plan.pending() {
         s.push_str(&format!(
-            " · what-if: {} pending (w writes, u undoes)",
+            "{}what-if: {} pending (w writes, u undoes)",
+            if s.is_empty() { "" } else { " · " },
             app.plan.steps.len()
         ));
     }
-    s.push(' ');
-    s
+    if s.is_empty() { s } else { format!(" {s} ") }
 }
 
 /// Its style: a re-check or a broken log stands out.

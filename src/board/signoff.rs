@@ -93,6 +93,10 @@ impl Signoffs {
 
     /// Short status text: re-checks and the head.
     pub fn status(&self) -> String {
+        if self.log.is_none() && self.unavailable.is_none() && self.chain.is_none() {
+            // No log was asked for (a board built in code): nothing to say.
+            return String::new();
+        }
         let head = match self.log_line() {
             LogLine::Sound(h) => {
                 let short: String = h.sha256.chars().take(12).collect();

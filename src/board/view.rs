@@ -256,8 +256,8 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let offset = scroll_offset(app.ui.leg_row, height);
     let cols = super::overlays::LegColumns::for_width(area.width);
     let header = Row::new(
-        std::iter::once(Cell::from(" "))
-            .chain(std::iter::once(Cell::from(cols.mark_header())))
+        std::iter::once(Cell::from(cols.first_header()))
+            .chain(cols.words.then(|| Cell::from(cols.mark_header())))
             .chain(LEG_HEADERS.iter().enumerate().flat_map(|(i, h)| {
                 std::iter::once(Cell::from(*h))
                     .chain((i == 7 && cols.forecast).then(|| Cell::from("forecast")))
@@ -273,8 +273,10 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         .filter_map(|(row, &k)| {
             let r = app.assessment.legs.get(k)?;
             let flash = app.flashing(r.index);
-            let mut cells: Vec<Cell> = vec![Cell::from(if flash { "*" } else { " " })];
-            cells.push(cols.mark_cell(app, k, t));
+            let mut cells: Vec<Cell> = vec![cols.first_cell(app, k, flash, t)];
+            if cols.words {
+                cells.push(cols.mark_cell(app, k, t));
+            }
             for col in 0..9 {
                 let text = leg_cell(app, r, col).into_owned();
                 let cell = if col == 5 {
@@ -296,8 +298,8 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             }
             Some(Row::new(cells).style(style))
         });
-    let widths: Vec<Constraint> = std::iter::once(Constraint::Length(1))
-        .chain(std::iter::once(Constraint::Length(cols.mark_width())))
+    let widths: Vec<Constraint> = std::iter::once(Constraint::Length(cols.first_width()))
+        .chain(cols.words.then_some(Constraint::Length(cols.mark_width())))
         .chain(LEG_WIDTHS.iter().enumerate().flat_map(|(i, w)| {
             std::iter::once(Constraint::Length(*w))
                 .chain((i == 7 && cols.forecast).then_some(Constraint::Length(12)))
