@@ -9,6 +9,7 @@ pub mod day;
 pub mod headroom;
 pub mod leg;
 pub mod limits;
+pub mod lookahead;
 pub mod mass;
 pub mod model;
 pub mod pairing;

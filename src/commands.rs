@@ -1,6 +1,7 @@
 //! The subcommands behind the binary: each takes its parsed arguments and a writer,
 //! and returns what the process should exit with.
 
+pub mod board;
 pub mod calc;
 pub mod check;
 pub mod metar;
@@ -11,6 +12,10 @@ pub mod taf;
 use std::process::ExitCode;
 
 pub mod init;
+pub mod leg;
+pub mod log;
+pub mod report;
+pub mod signoff;
 pub mod validate;
 
 /// How a command ended, mapped to the process exit status (DESIGN.md "Command line").

@@ -10,10 +10,14 @@
 
 pub mod assess;
 pub mod atmosphere;
+pub mod board;
 pub mod commands;
 pub mod daylight;
 pub mod observation;
 pub mod ops;
+pub mod replan;
+pub mod report;
+pub mod signoff;
 pub mod units;
 
 /// The caution shown on every screen and in every report.

@@ -1,6 +1,7 @@
 //! The `rhoboard` binary: parses arguments, runs one command, maps the result to an
 //! exit status (0 success, 1 findings, 2 bad usage or input).
 
+use std::io::IsTerminal;
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
@@ -18,12 +19,16 @@ struct Cli {
 
 #[derive(Subcommand, Debug)]
 enum Command {
+    /// The terminal board: live on an operator folder, or replaying a day.
+    Board(commands::board::Args),
     /// Pressure and density altitude, density, ISA deviation and TAS factor at a field.
     Calc(commands::calc::Args),
     /// Assesses every leg of the day against the operator's minimums.
     Check(commands::check::Args),
     /// Today's runway state: closures, reduced distances, surface condition, end in use.
     Runway(commands::runway::Args),
+    /// Re-plans a leg: see the re-assessment, then save safely.
+    Leg(commands::leg::Args),
     /// Decodes METAR/SPECI reports (TEXT, or `-` for standard input).
     Metar(commands::metar::Args),
     /// Decodes TAFs and shows the forecast hour by hour (TEXT, or `-` for standard input).
@@ -32,23 +37,58 @@ enum Command {
     Validate(commands::validate::Args),
     /// Writes a new operator folder from the fictional demo, every value marked to replace.
     Init(commands::init::Args),
+    /// Signs a leg off (or revokes a sign-off) in the operator's tamper-evident log.
+    Signoff(commands::signoff::Args),
+    /// Verifies or lists the sign-off log.
+    Log(commands::log::Args),
+    /// Writes the printable briefing sheet (markdown or HTML).
+    Report(commands::report::Args),
 }
 
 fn main() -> ExitCode {
     let cli = Cli::parse();
+    // The board owns the terminal; with no subcommand it opens only on a terminal, and
+    // piped output keeps the printed overview.
+    let board = match &cli.command {
+        Some(Command::Board(args)) => Some(args.clone()),
+        None if std::io::stdout().is_terminal() => Some(commands::board::Args::default()),
+        _ => None,
+    };
+    if let Some(args) = board {
+        return match commands::board::run(&args) {
+            Ok(outcome) => outcome.into(),
+            Err(err) => {
+                eprintln!("rhoboard: {err:#}");
+                Outcome::BadInput.into()
+            }
+        };
+    }
     let mut out = std::io::stdout().lock();
     let result: anyhow::Result<Outcome> = match cli.command {
-        None => commands::overview::run(&mut out),
+        None | Some(Command::Board(_)) => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
         Some(Command::Check(args)) => commands::check::run(&args, &mut out),
         Some(Command::Runway(args)) => commands::runway::run(&args, &mut out),
+        Some(Command::Leg(args)) => commands::leg::run(&args, &mut out),
         Some(Command::Metar(args)) => commands::metar::run(&args, &mut out),
         Some(Command::Taf(args)) => commands::taf::run(&args, &mut out),
         Some(Command::Validate(args)) => commands::validate::run(&args, &mut out),
         Some(Command::Init(args)) => commands::init::run(&args, &mut out),
+        Some(Command::Signoff(args)) => commands::signoff::run(&args, &mut out),
+        Some(Command::Log(args)) => commands::log::run(&args, &mut out),
+        Some(Command::Report(args)) => commands::report::run(&args, &mut out),
     };
     match result {
         Ok(outcome) => outcome.into(),
+        // A reader that stopped early (`| head`) is not an error of ours.
+        Err(err)
+            if err.chain().any(|c| {
+                c.downcast_ref::<std::io::Error>()
+                    .is_some_and(|e| e.kind() == std::io::ErrorKind::BrokenPipe)
+            }) =>
+        {
+            ExitCode::SUCCESS
+        }
         Err(err) => {
             drop(out);
             eprintln!("rhoboard: {err:#}");

@@ -220,6 +220,89 @@ impl Setup<'_> {
     }
 }
 
+/// The five table values at one point: a cell found once (twice when the landing mass
+/// differs) and read by every table, then shared by every runway end.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct TableValues {
+    /// Takeoff ground roll, m.
+    pub takeoff_ground_roll_m: f64,
+    /// Takeoff distance to 50 ft, m.
+    pub takeoff_distance_50ft_m: f64,
+    /// Rate of climb, ft/min.
+    pub climb_rate_fpm: f64,
+    /// Landing ground roll, m.
+    pub landing_ground_roll_m: f64,
+    /// Landing distance from 50 ft, m.
+    pub landing_distance_50ft_m: f64,
+}
+
+/// The table values for a setup's masses in this air.
+pub fn table_values(s: &Setup<'_>, air: &AirData) -> Result<TableValues, Gap> {
+    let (ty, perf) = (s.ty, s.perf);
+    let (pa, oat) = (air.pressure_altitude_ft, air.oat_c);
+    let t = locate(ty, perf, s.takeoff_mass_kg, pa, oat)?;
+    let l = if s.landing_mass_kg == s.takeoff_mass_kg {
+        t
+    } else {
+        locate(ty, perf, s.landing_mass_kg, pa, oat)?
+    };
+    Ok(TableValues {
+        takeoff_ground_roll_m: perf.takeoff_ground_roll_m.at(&t),
+        takeoff_distance_50ft_m: perf.takeoff_distance_50ft_m.at(&t),
+        climb_rate_fpm: perf.climb_rate_fpm.at(&t),
+        landing_ground_roll_m: perf.landing_ground_roll_m.at(&l),
+        landing_distance_50ft_m: perf.landing_distance_50ft_m.at(&l),
+    })
+}
+
+/// Takeoff and climb on one end from table values: a few multiplications.
+pub fn departure_with(
+    s: &Setup<'_>,
+    tv: &TableValues,
+    end: &EndModel,
+    air: &AirData,
+    headwind_kt: f64,
+) -> Result<(DistanceChain, ClimbChain), Gap> {
+    let chain = perf::distances(
+        &s.ty.takeoff,
+        tv.takeoff_ground_roll_m,
+        tv.takeoff_distance_50ft_m,
+        s.wind(headwind_kt),
+        end.surface,
+        end.slope_percent,
+    )
+    .map_err(Gap::Perf)?;
+    let climb = perf::climb(
+        tv.climb_rate_fpm,
+        s.ty.climb_speed_kias,
+        air.true_airspeed_factor,
+        headwind_kt,
+        s.mins.min_climb_rate_fpm,
+        end.required_gradient_ft_per_nm,
+    );
+    Ok((chain, climb))
+}
+
+/// Landing on one end from table values.
+pub fn landing_with(
+    s: &Setup<'_>,
+    tv: &TableValues,
+    end: &EndModel,
+    headwind_kt: f64,
+) -> Result<DistanceChain, Gap> {
+    let rules = perf::landing_rules(&s.ty.landing, s.mins.wet_paved_landing_factor);
+    perf::distances(
+        &rules,
+        tv.landing_ground_roll_m,
+        tv.landing_distance_50ft_m,
+        s.wind(headwind_kt),
+        end.surface,
+        // A downhill landing is the adverse one.
+        -end.slope_percent,
+    )
+    .map_err(Gap::Perf)
+}
+
 /// Takeoff and climb on one end: the cell is found once and read by the takeoff and
 /// climb tables.
 pub fn departure_chains(
@@ -236,24 +319,14 @@ pub fn departure_chains(
         air.pressure_altitude_ft,
         air.oat_c,
     )?;
-    let chain = perf::distances(
-        &ty.takeoff,
-        perf.takeoff_ground_roll_m.at(&cell),
-        perf.takeoff_distance_50ft_m.at(&cell),
-        s.wind(headwind_kt),
-        end.surface,
-        end.slope_percent,
-    )
-    .map_err(Gap::Perf)?;
-    let climb = perf::climb(
-        perf.climb_rate_fpm.at(&cell),
-        ty.climb_speed_kias,
-        air.true_airspeed_factor,
-        headwind_kt,
-        s.mins.min_climb_rate_fpm,
-        end.required_gradient_ft_per_nm,
-    );
-    Ok((chain, climb))
+    let tv = TableValues {
+        takeoff_ground_roll_m: perf.takeoff_ground_roll_m.at(&cell),
+        takeoff_distance_50ft_m: perf.takeoff_distance_50ft_m.at(&cell),
+        climb_rate_fpm: perf.climb_rate_fpm.at(&cell),
+        landing_ground_roll_m: f64::NAN,
+        landing_distance_50ft_m: f64::NAN,
+    };
+    departure_with(s, &tv, end, air, headwind_kt)
 }
 
 /// Landing on one end.
@@ -271,17 +344,14 @@ pub fn landing_chain(
         air.pressure_altitude_ft,
         air.oat_c,
     )?;
-    let rules = perf::landing_rules(&ty.landing, s.mins.wet_paved_landing_factor);
-    perf::distances(
-        &rules,
-        perf.landing_ground_roll_m.at(&cell),
-        perf.landing_distance_50ft_m.at(&cell),
-        s.wind(headwind_kt),
-        end.surface,
-        // A downhill landing is the adverse one.
-        -end.slope_percent,
-    )
-    .map_err(Gap::Perf)
+    let tv = TableValues {
+        takeoff_ground_roll_m: f64::NAN,
+        takeoff_distance_50ft_m: f64::NAN,
+        climb_rate_fpm: f64::NAN,
+        landing_ground_roll_m: perf.landing_ground_roll_m.at(&cell),
+        landing_distance_50ft_m: perf.landing_distance_50ft_m.at(&cell),
+    };
+    landing_with(s, &tv, end, headwind_kt)
 }
 
 /// One evaluated distance check with its rule text and source.

@@ -279,6 +279,38 @@ pub fn compute(
             open_ended: false,
         });
     }
+    // A load at a station this type does not have (a swapped aircraft, a typo) is never
+    // dropped silently: it is a failed check, and its mass still counts at the empty CG.
+    for (l, m) in loads.stations.iter().zip(&masses) {
+        if !mb.stations.iter().any(|st| st.id == l.station) {
+            let known: Vec<&str> = mb.stations.iter().map(|st| st.id.as_str()).collect();
+            rows.push(LoadRow {
+                station: l.station.clone(),
+                name: format!("{} (not a station of this type)", l.station),
+                mass_kg: *m,
+                arm_mm: aircraft.empty_arm_mm,
+                moment_kg_mm: m * aircraft.empty_arm_mm,
+                max_mass_kg: Some(0.0),
+            });
+            checks.push(LimitCheck {
+                kind: LimitKind::Loading,
+                value: Some(*m),
+                limit: Some(0.0),
+                unit: "kg",
+                margin: -m.max(1.0),
+                band: 0.0,
+                state: State::Below,
+                source: "aircraft type: loading stations".to_string(),
+                note: format!(
+                    "{} kg at '{}', which this type does not have (it has: {})",
+                    m,
+                    l.station,
+                    known.join(", ")
+                ),
+                open_ended: false,
+            });
+        }
+    }
     let start_l = fuel_start_l(loads, density);
     let takeoff_l = (start_l - loads.taxi_fuel_l).max(0.0);
     let hours = ((leg.arrives_utc() - leg.departs_utc()).num_seconds() as f64 / 3_600.0).max(0.0);

@@ -11,12 +11,14 @@ use serde_json::{Value, json};
 
 use super::leg::LegResult;
 use super::leg::{
-    Context, EndWind, FieldWx, Setup, departure_chains, landing_chain, observation_for,
+    Context, EndWind, FieldWx, Gap, Setup, TableValues, departure_with, landing_with,
+    observation_for, table_values,
 };
 use super::limits::{self, Who};
 use super::model::{EndModel, Model};
 use super::perf;
 use super::state::{State, verdict};
+use crate::atmosphere::AirData;
 use crate::ops::operator::Buffers;
 use crate::ops::{Category, Leg, Ops, Status};
 
@@ -404,15 +406,17 @@ impl Prepared {
             distance_buffer: self.dist_buf,
             climb_buffer: self.climb_buf,
         };
-        let eval = |k: usize, dt: f64| -> Outcome {
-            evaluate(&setup, b, &field.ends[k], wx, &field.winds[k], dt)
+        // One cell lookup for this air, shared by every runway end.
+        let eval = |k: usize, air: &AirData, tv: &Result<TableValues, Gap>| -> Outcome {
+            evaluate(&setup, b, &field.ends[k], air, tv, &field.winds[k])
         };
+        let tv0 = table_values(&setup, &wx.air);
         let weather = field.weather[cat_index(ap.category)];
-        let now = eval(in_use, 0.0);
+        let now = eval(in_use, &wx.air, &tv0);
         let mut best = now.state;
         for k in 0..field.ends.len() {
             if k != in_use && field.ends[k].usable_at(ctx.at) {
-                best = best.min(eval(k, 0.0).state);
+                best = best.min(eval(k, &wx.air, &tv0).state);
             }
         }
         let (mut state, mut score, mut limiting, mut margin) =
@@ -427,7 +431,10 @@ impl Prepared {
         let headroom_c = match now.state {
             State::NoData => None,
             _ => super::headroom::search(
-                |dt| eval(in_use, dt).temperature_score,
+                |dt| {
+                    let air = wx.air.with_oat(wx.air.oat_c + dt);
+                    eval(in_use, &air, &table_values(&setup, &air)).temperature_score
+                },
                 ty.oat_top_c - wx.air.oat_c,
                 ty.oat_bottom_c - wx.air.oat_c,
             )
@@ -486,9 +493,9 @@ fn evaluate(
     s: &Setup<'_>,
     b: &Buffers,
     end: &EndModel,
-    wx: &FieldWx,
+    air: &AirData,
+    tv: &Result<TableValues, Gap>,
     w: &EndWind,
-    dt_c: f64,
 ) -> Outcome {
     let (ty, mins) = (s.ty, s.mins);
     let (dist_buf, climb_buf) = (s.distance_buffer, s.climb_buffer);
@@ -499,13 +506,15 @@ fn evaluate(
         limiting: PairLimit::None,
         temperature_score: Some(f64::INFINITY),
     };
-    let air = if dt_c == 0.0 {
-        wx.air
-    } else {
-        wx.air.with_oat(wx.air.oat_c + dt_c)
+    let tv = match tv {
+        Ok(tv) => Some(tv),
+        Err(_) => {
+            o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table);
+            None
+        }
     };
-    match departure_chains(s, end, &air, w.headwind_kt) {
-        Ok((chain, climb)) => {
+    match tv.map(|tv| departure_with(s, tv, end, air, w.headwind_kt)) {
+        Some(Ok((chain, climb))) => {
             let m = perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0);
             o.add(
                 verdict(m, dist_buf),
@@ -521,10 +530,11 @@ fn evaluate(
                 PairLimit::Climb,
             );
         }
-        Err(_) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+        Some(Err(_)) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+        None => {}
     }
-    match landing_chain(s, end, &air, w.headwind_kt) {
-        Ok(chain) => {
+    match tv.map(|tv| landing_with(s, tv, end, w.headwind_kt)) {
+        Some(Ok(chain)) => {
             let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
             let m = perf::min_margin(&chain, end, &mins.landing_checks, extra);
             o.add(
@@ -534,7 +544,8 @@ fn evaluate(
                 PairLimit::Landing,
             );
         }
-        Err(_) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+        Some(Err(_)) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+        None => {}
     }
     let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
     o.limit(max_x - w.crosswind_kt, b.wind_kt, PairLimit::Crosswind);

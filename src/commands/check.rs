@@ -9,6 +9,7 @@ use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
 
 use crate::assess::leg::{LegResult, PhaseResult, Side};
+use crate::assess::lookahead::{LookAhead, TafSource, look_ahead};
 use crate::assess::pairing::{self, Matrix};
 use crate::assess::{Context, DaySettings, Model, State, assess_leg};
 use crate::commands::Outcome;
@@ -35,6 +36,10 @@ pub struct Args {
     /// Also assess every available aircraft at every airfield.
     #[arg(long)]
     pub pairings: bool,
+    /// Also look ahead with the operator's TAFs: the forecast state of each leg and the
+    /// time from which the forecast makes it below.
+    #[arg(long)]
+    pub forecast: bool,
     /// Print JSON.
     #[arg(long)]
     pub json: bool,
@@ -317,6 +322,57 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
     Ok(())
 }
 
+/// The forecast object of a leg's JSON: always labelled as a forecast.
+pub fn forecast_json(l: Option<&LookAhead>) -> Value {
+    match l {
+        None => {
+            json!({"state": Value::Null, "fails_from": Value::Null, "basis": "no forecast covers this leg"})
+        }
+        Some(l) => json!({
+            "state": l.state,
+            "fails_from": l.fails_from,
+            "limiting": l.limiting,
+            "basis": l.basis,
+            "worst_case": l.worst_case,
+            "no_temperature_forecast": l.no_temperature,
+        }),
+    }
+}
+
+fn write_forecast(
+    results: &[LegResult],
+    looks: &[Option<LookAhead>],
+    out: &mut dyn Write,
+) -> std::io::Result<()> {
+    writeln!(out)?;
+    writeln!(
+        out,
+        "Forecast look-ahead (from the TAFs; a forecast, not an observation):"
+    )?;
+    for (r, l) in results.iter().zip(looks) {
+        match l {
+            None => writeln!(out, "  {:<5} no forecast covers it", r.id)?,
+            Some(l) => writeln!(
+                out,
+                "  {:<5} forecast {:<10} {}{}",
+                r.id,
+                l.state.to_string(),
+                match l.fails_from {
+                    Some(t) => format!("fails from ~{}", t.format("%H%MZ")),
+                    None if r.state == State::Below => "below now".to_string(),
+                    None => "holds through the forecast".to_string(),
+                },
+                if l.worst_case {
+                    " (includes a TEMPO/PROB worst case)"
+                } else {
+                    ""
+                },
+            )?,
+        }
+    }
+    Ok(())
+}
+
 fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<()> {
     writeln!(out)?;
     writeln!(
@@ -379,13 +435,41 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         .iter()
         .filter_map(|&i| assess_leg(&ctx, i))
         .collect();
+    let looks: Vec<Option<LookAhead>> = if args.forecast {
+        let tafs = crate::observation::taf::from_files(&ops.observations, loaded.at);
+        let src = TafSource {
+            tafs: &tafs,
+            as_of: loaded.at,
+            expected_high_c: ops.operator.policy.expected_high_c,
+            utc_offset_min: ops.operator.time_zone.utc_offset_min,
+            store: &loaded.store,
+        };
+        let end_of_day = loaded
+            .at
+            .date_naive()
+            .and_hms_opt(23, 59, 0)
+            .map(|t| t.and_utc())
+            .unwrap_or(loaded.at);
+        results
+            .iter()
+            .map(|r| look_ahead(&ctx, r.index, r.state, &src, end_of_day))
+            .collect()
+    } else {
+        Vec::new()
+    };
     let matrix = args.pairings.then(|| pairing::matrix(&ctx));
     if args.json {
         let v = json!({
             "operator": ops.operator.name,
             "at": loaded.at,
             "caution": crate::CAUTION,
-            "legs": results.iter().map(|r| leg_json(ops, r)).collect::<Vec<_>>(),
+            "legs": results.iter().enumerate().map(|(k, r)| {
+                let mut v = leg_json(ops, r);
+                if args.forecast {
+                    v["forecast"] = forecast_json(looks.get(k).and_then(|l| l.as_ref()));
+                }
+                v
+            }).collect::<Vec<_>>(),
             "pairings": matrix.as_ref().map(|m| m.to_json(ops)),
         });
         serde_json::to_writer_pretty(&mut *out, &v)?;
@@ -404,6 +488,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             writeln!(out, "No legs depart on {}.", loaded.at.format("%Y-%m-%d"))?;
         }
         write_table(ops, &results, out)?;
+        if args.forecast {
+            write_forecast(&results, &looks, out)?;
+        }
         if let Some(m) = &matrix {
             write_matrix(ops, m, out)?;
         }

@@ -218,6 +218,33 @@ pub struct Policy {
     /// Fuel that must remain at landing.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub fuel_reserve: Option<FuelReserve>,
+    /// Instructor sign-offs: overrides and when a sign-off needs a re-check.
+    #[serde(default)]
+    pub sign_off: SignOffPolicy,
+}
+
+/// The policy for instructor sign-offs (`policy.sign_off`; every field optional).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields, default)]
+pub struct SignOffPolicy {
+    /// Categories whose `below` or `no-data` legs may be signed with `--override REASON`.
+    /// Default: none (so never a student solo unless the operator lists it).
+    pub override_categories: Vec<Category>,
+    /// A sign-off needs a re-check when density altitude at either end rose by more
+    /// than this, ft.
+    pub recheck_density_altitude_rise_ft: f64,
+    /// A sign-off needs a re-check when the headroom falls below this, °C of warming.
+    pub recheck_headroom_floor_c: f64,
+}
+
+impl Default for SignOffPolicy {
+    fn default() -> Self {
+        SignOffPolicy {
+            override_categories: Vec::new(),
+            recheck_density_altitude_rise_ft: 300.0,
+            recheck_headroom_floor_c: 3.0,
+        }
+    }
 }
 
 /// Standard masses per person, including hand baggage.

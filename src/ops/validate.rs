@@ -73,6 +73,20 @@ pub fn check_operator(o: &OperatorFile, c: &mut Collector<'_>) {
         p.stale_after_min,
         "stale age",
     );
+    positive(
+        c,
+        f,
+        "policy.sign_off.recheck_density_altitude_rise_ft",
+        p.sign_off.recheck_density_altitude_rise_ft,
+        "re-check density-altitude step",
+    );
+    if !p.sign_off.recheck_headroom_floor_c.is_finite() {
+        c.error(
+            f,
+            "policy.sign_off.recheck_headroom_floor_c",
+            "re-check headroom floor must be a number of °C".to_string(),
+        );
+    }
     if !(0.0..=100.0).contains(&p.wind.headwind_credit_percent) {
         c.error(
             f,

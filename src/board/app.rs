@@ -1,0 +1,1167 @@
+//! The board's state and its one `update`: every event arrives as a [`Msg`]; `update`
+//! changes plain data and does no I/O, so tests drive it with a fixed clock.
+
+use std::collections::{HashMap, VecDeque};
+use std::time::Duration;
+
+use chrono::{DateTime, DurationRound, TimeDelta, Utc};
+use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+
+use super::form::{FIELDS, Form};
+use super::keys::{Action, action_for, is_ctrl_c};
+use crate::assess::{Assessment, Change, Context, DaySettings, LegResult, Model, State};
+use crate::observation::{FileReport, Insert, Report, Store};
+use crate::ops::{Category, Leg, Ops};
+
+/// Simulated seconds per real second at pace ×1: one simulated hour in ten seconds.
+pub const REPLAY_RATE: f64 = 360.0;
+/// How long (real time) a leg whose state changed stays marked.
+pub const FLASH_FOR: Duration = Duration::from_secs(30);
+/// How often (board clock) every leg is re-checked for staleness with no new report.
+pub const REFRESH_EVERY: TimeDelta = TimeDelta::minutes(5);
+/// Notes kept in the change list.
+const NOTES_KEPT: usize = 200;
+/// Reports kept in the Reports pane.
+const RECEIVED_KEPT: usize = 500;
+
+/// Everything that can happen to the board.
+#[derive(Debug, Clone)]
+pub enum Msg {
+    /// A key press.
+    Key(KeyEvent),
+    /// A mouse click at (column, row).
+    Click(u16, u16),
+    /// The terminal's new size.
+    Resize(u16, u16),
+    /// Time passed: the wall clock now, and real time since the last tick.
+    Tick {
+        /// Wall clock (the board's clock when live).
+        now: DateTime<Utc>,
+        /// Real time since the previous tick (drives the replay clock).
+        elapsed: Duration,
+    },
+    /// Reports read by a feed (a file of the observations folder, or the feed command).
+    Observations {
+        /// Where they came from, for the Reports pane.
+        source: String,
+        /// The decoded reports.
+        reports: Vec<FileReport>,
+    },
+    /// A feed failed (the board keeps running and says so).
+    FeedError {
+        /// Which feed.
+        source: String,
+        /// What went wrong.
+        error: String,
+    },
+    /// Quit (a signal, or the input thread ending).
+    Quit,
+}
+
+/// The panes, in Tab order.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Pane {
+    /// Today's legs (with the detail beside them on wide terminals).
+    Legs,
+    /// Aircraft × airfield matrix.
+    Pairings,
+    /// Airfields and their latest weather.
+    Airfields,
+    /// The aircraft.
+    Fleet,
+    /// Reports as received.
+    Reports,
+}
+
+impl Pane {
+    /// Every pane in Tab order.
+    pub const ALL: [Pane; 5] = [
+        Pane::Legs,
+        Pane::Pairings,
+        Pane::Airfields,
+        Pane::Fleet,
+        Pane::Reports,
+    ];
+
+    /// The pane's name on its tab.
+    pub const fn title(self) -> &'static str {
+        match self {
+            Pane::Legs => "Legs",
+            Pane::Pairings => "Pairings",
+            Pane::Airfields => "Airfields",
+            Pane::Fleet => "Fleet",
+            Pane::Reports => "Reports",
+        }
+    }
+
+    fn step(self, by: isize) -> Pane {
+        let i = Pane::ALL.iter().position(|p| *p == self).unwrap_or(0) as isize;
+        let n = Pane::ALL.len() as isize;
+        Pane::ALL[(i + by).rem_euclid(n) as usize]
+    }
+}
+
+/// How the legs are ordered.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Sort {
+    /// By departure time.
+    Time,
+    /// Worst state first (below, no-data, thin, within), then time.
+    State,
+    /// Smallest margin first, then time.
+    Margin,
+}
+
+impl Sort {
+    /// Word on screen.
+    pub const fn word(self) -> &'static str {
+        match self {
+            Sort::Time => "time",
+            Sort::State => "state",
+            Sort::Margin => "margin",
+        }
+    }
+}
+
+/// What keys type into.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Mode {
+    /// Keys are actions.
+    Normal,
+    /// Keys type the filter.
+    Filter,
+    /// The help overlay.
+    Help,
+    /// The manual-observation form.
+    Form(Box<Form>),
+}
+
+/// What the detail shows.
+#[derive(Debug, Clone)]
+pub enum DetailOf {
+    /// A leg of the day (index into `Assessment::legs`).
+    Leg(usize),
+    /// A pairing, assessed as a local flight of that aircraft at that airfield.
+    Pairing(Box<PairingDetail>),
+}
+
+/// A pairing opened from the matrix.
+#[derive(Debug, Clone)]
+pub struct PairingDetail {
+    /// Heading: which aircraft, where, as what.
+    pub title: String,
+    /// The assessment of the synthetic local flight.
+    pub result: LegResult,
+}
+
+/// Cursor positions and what is open.
+#[derive(Debug, Clone)]
+pub struct Ui {
+    /// The pane shown.
+    pub pane: Pane,
+    /// What keys do.
+    pub mode: Mode,
+    /// Order of the legs.
+    pub sort: Sort,
+    /// Filter text (case-insensitive substring).
+    pub filter: String,
+    /// Row of the legs cursor (in the filtered, sorted rows).
+    pub leg_row: usize,
+    /// Pairings cursor: (row in `matrix.aircraft`, airfield).
+    pub pair: (usize, usize),
+    /// Airfields cursor.
+    pub field_row: usize,
+    /// Fleet cursor.
+    pub fleet_row: usize,
+    /// Reports cursor.
+    pub report_row: usize,
+    /// Whether the detail is open (narrow: instead of the pane; wide: focused).
+    pub detail_open: bool,
+    /// A pairing's detail, when one was opened from the matrix.
+    pub pairing: Option<Box<PairingDetail>>,
+    /// Lines scrolled in the detail.
+    pub detail_scroll: u16,
+    /// Lines scrolled in the help.
+    pub help_scroll: u16,
+}
+
+/// A line of the change list.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Note {
+    /// Board clock when it happened.
+    pub at: DateTime<Utc>,
+    /// Kind.
+    pub kind: NoteKind,
+    /// Text.
+    pub text: String,
+}
+
+/// Kinds of note.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum NoteKind {
+    /// A leg changed state; the new state.
+    Change(State),
+    /// Something went wrong (a feed, a file, a form).
+    Error,
+    /// Information (replay stepped, report added by hand).
+    Info,
+}
+
+/// A report as received, for the Reports pane.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Received {
+    /// Board clock when it arrived.
+    pub at: DateTime<Utc>,
+    /// Where from.
+    pub source: String,
+    /// The text.
+    pub text: String,
+    /// `None` if stored, else why it was rejected.
+    pub rejected: Option<String>,
+}
+
+/// The replay of a day on a simulated clock.
+#[derive(Debug, Clone)]
+pub struct Replay {
+    /// The day's reports, oldest first.
+    pub queue: Vec<Report>,
+    /// How many of `queue` the store has.
+    pub fed: usize,
+    /// Paused.
+    pub paused: bool,
+    /// Pace multiplier (×1 = one simulated hour per ten seconds).
+    pub speed: f64,
+    /// Where the replay started.
+    pub start: DateTime<Utc>,
+    /// Simulated time not yet applied (sub-second remainders).
+    carry_ms: f64,
+}
+
+impl Replay {
+    /// A replay of `reports` starting at `start`, at pace `speed`.
+    pub fn new(mut reports: Vec<Report>, start: DateTime<Utc>, speed: f64) -> Replay {
+        reports.retain(|r| r.observed_at.is_some() || r.rejection().is_some());
+        reports.sort_by_key(|r| r.observed_at);
+        Replay {
+            queue: reports,
+            fed: 0,
+            paused: false,
+            speed: if speed.is_finite() && speed > 0.0 {
+                speed
+            } else {
+                1.0
+            },
+            start,
+            carry_ms: 0.0,
+        }
+    }
+}
+
+/// Settings fixed at start.
+#[derive(Debug, Clone)]
+pub struct Settings {
+    /// Colours allowed (`NO_COLOR` unset).
+    pub color: bool,
+    /// Ring the terminal bell when a leg becomes `below`.
+    pub bell: bool,
+    /// Whether this is the built-in demo.
+    pub demo: bool,
+    /// Live board with `--at`: the clock runs from that time (wall clock + this).
+    pub live_offset: Option<TimeDelta>,
+}
+
+impl Default for Settings {
+    fn default() -> Self {
+        Settings {
+            color: true,
+            bell: false,
+            demo: false,
+            live_offset: None,
+        }
+    }
+}
+
+/// The board's whole state.
+pub struct App {
+    /// The operator.
+    pub ops: Ops,
+    model: Model,
+    /// The observations known.
+    pub store: Store,
+    /// Legs and pairings, kept current.
+    pub assessment: Assessment,
+    /// The board's clock: the wall clock when live, the simulated one in replay.
+    pub clock: DateTime<Utc>,
+    /// The replay, if replaying.
+    pub replay: Option<Replay>,
+    /// Cursors, pane and mode.
+    pub ui: Ui,
+    /// The change list, newest first.
+    pub notes: VecDeque<Note>,
+    /// Reports as received, newest first.
+    pub received: VecDeque<Received>,
+    /// Legs (index into `Ops::legs`) marked as changed, until this much real time.
+    pub flash: HashMap<usize, Duration>,
+    /// Real time the board has run (from ticks).
+    pub uptime: Duration,
+    /// Fixed settings.
+    pub settings: Settings,
+    /// The terminal's size.
+    pub size: (u16, u16),
+    /// Set when the board should end.
+    pub quit: bool,
+    /// Hand-entered reports (kept across a replay step back).
+    manual: Vec<Report>,
+    /// Visible legs: indices into `assessment.legs`, filtered and sorted.
+    rows: Vec<usize>,
+    last_refresh: DateTime<Utc>,
+    /// The UTC date whose legs are on the board.
+    day: chrono::NaiveDate,
+    bell_pending: bool,
+    /// Set when something visible changed since the last draw.
+    dirty: bool,
+}
+
+fn category_word(c: Category) -> &'static str {
+    match c {
+        Category::StudentSolo => "stu solo",
+        Category::Solo => "solo",
+        Category::Dual => "dual",
+        Category::Charter => "charter",
+    }
+}
+
+/// Short words for a pilot category on the board.
+pub fn category_short(c: Category) -> &'static str {
+    category_word(c)
+}
+
+impl App {
+    /// A board on `ops` with the observations in `store`, at `clock`; with `replay`,
+    /// the store is filled from the replay's reports up to `clock` instead.
+    pub fn new(
+        ops: Ops,
+        store: Store,
+        clock: DateTime<Utc>,
+        replay: Option<Replay>,
+        settings: Settings,
+    ) -> App {
+        let model = Model::new(&ops, &DaySettings::for_date(&ops, clock.date_naive()));
+        let legs = crate::commands::check::legs_of_day(&ops, clock);
+        let ctx = Context {
+            ops: &ops,
+            model: &model,
+            store: &store,
+            at: clock,
+        };
+        let assessment = Assessment::new(&ctx, legs);
+        let mut app = App {
+            ops,
+            model,
+            store,
+            assessment,
+            clock,
+            replay,
+            ui: Ui {
+                pane: Pane::Legs,
+                mode: Mode::Normal,
+                sort: Sort::Time,
+                filter: String::new(),
+                leg_row: 0,
+                pair: (0, 0),
+                field_row: 0,
+                fleet_row: 0,
+                report_row: 0,
+                detail_open: false,
+                pairing: None,
+                detail_scroll: 0,
+                help_scroll: 0,
+            },
+            notes: VecDeque::new(),
+            received: VecDeque::new(),
+            flash: HashMap::new(),
+            uptime: Duration::ZERO,
+            settings,
+            size: (80, 24),
+            quit: false,
+            manual: Vec::new(),
+            rows: Vec::new(),
+            last_refresh: clock,
+            day: clock.date_naive(),
+            bell_pending: false,
+            dirty: true,
+        };
+        if app.replay.is_some() {
+            app.rebuild_store();
+        } else {
+            // Seed the Reports pane with each station's latest report.
+            let mut latest: Vec<Report> = app
+                .store
+                .stations()
+                .iter()
+                .filter_map(|s| app.store.current(s).cloned())
+                .collect();
+            latest.sort_by_key(|r| r.observed_at);
+            for r in latest {
+                app.log_received("on load", &r, None);
+            }
+        }
+        app.rebuild_rows();
+        app
+    }
+
+    /// The built-in demo day in replay, starting at `start` (tests and `rhoboard`).
+    pub fn demo(start: DateTime<Utc>, settings: Settings) -> anyhow::Result<App> {
+        let ops = crate::ops::demo::load()
+            .ops
+            .ok_or_else(|| anyhow::anyhow!("the built-in demo failed its own checks"))?;
+        let reports = replay_reports(&ops, start);
+        let store = Store::new(stale_after(&ops));
+        let replay = Replay::new(reports, start, 1.0);
+        Ok(App::new(
+            ops,
+            store,
+            start,
+            Some(replay),
+            Settings {
+                demo: true,
+                ..settings
+            },
+        ))
+    }
+
+    /// Visible legs: indices into `assessment.legs`, filtered and sorted.
+    pub fn rows(&self) -> &[usize] {
+        &self.rows
+    }
+
+    /// The leg under the cursor.
+    pub fn selected_leg(&self) -> Option<&LegResult> {
+        let k = *self.rows.get(self.ui.leg_row)?;
+        self.assessment.legs.get(k)
+    }
+
+    /// What the detail shows now.
+    pub fn detail_of(&self) -> Option<DetailOf> {
+        if let Some(p) = &self.ui.pairing {
+            return Some(DetailOf::Pairing(p.clone()));
+        }
+        self.rows.get(self.ui.leg_row).map(|&k| DetailOf::Leg(k))
+    }
+
+    /// Takes the pending bell (the event loop rings it).
+    pub fn take_bell(&mut self) -> bool {
+        std::mem::take(&mut self.bell_pending)
+    }
+
+    /// Takes the redraw flag.
+    pub fn take_dirty(&mut self) -> bool {
+        std::mem::take(&mut self.dirty)
+    }
+
+    /// The newest report in the store (station and time).
+    pub fn newest_report(&self) -> Option<&Report> {
+        self.store
+            .stations()
+            .iter()
+            .filter_map(|s| self.store.valid_at(s, self.clock))
+            .map(|v| v.report)
+            .max_by_key(|r| r.observed_at)
+    }
+
+    /// Whether the leg (index into `Ops::legs`) is marked as changed.
+    pub fn flashing(&self, leg: usize) -> bool {
+        self.flash
+            .get(&leg)
+            .is_some_and(|until| *until > self.uptime)
+    }
+
+    /// Changes state for one message. No I/O.
+    pub fn update(&mut self, msg: Msg) {
+        match msg {
+            Msg::Key(key) => {
+                self.dirty = true;
+                self.on_key(key);
+            }
+            Msg::Click(col, row) => {
+                self.dirty = true;
+                self.on_click(col, row);
+            }
+            Msg::Resize(w, h) => {
+                self.dirty = true;
+                self.size = (w, h);
+            }
+            Msg::Tick { now, elapsed } => self.on_tick(now, elapsed),
+            Msg::Observations { source, reports } => {
+                let reports: Vec<Report> = reports.into_iter().map(|r| r.report).collect();
+                self.take_reports(&source, reports);
+            }
+            Msg::FeedError { source, error } => {
+                let text = format!("{source}: {error}");
+                // A feed that keeps failing the same way says so once.
+                if self.notes.front().is_none_or(|n| n.text != text) {
+                    self.note(NoteKind::Error, text);
+                }
+            }
+            Msg::Quit => self.quit = true,
+        }
+    }
+
+    /// Adds a line to the change list (load warnings, hints).
+    pub fn notice(&mut self, kind: NoteKind, text: String) {
+        self.note(kind, text);
+    }
+
+    fn note(&mut self, kind: NoteKind, text: String) {
+        self.dirty = true;
+        self.notes.push_front(Note {
+            at: self.clock,
+            kind,
+            text,
+        });
+        self.notes.truncate(NOTES_KEPT);
+    }
+
+    fn log_received(&mut self, source: &str, r: &Report, rejected: Option<String>) {
+        self.received.push_front(Received {
+            at: self.clock,
+            source: source.to_string(),
+            text: r.text.clone(),
+            rejected,
+        });
+        self.received.truncate(RECEIVED_KEPT);
+    }
+
+    /// Inserts reports, recomputes what they touch and lists the changes.
+    fn take_reports(&mut self, source: &str, reports: Vec<Report>) {
+        // Station by station, so a change is put down to the report that made it.
+        let mut groups: Vec<(String, Vec<Report>)> = Vec::new();
+        for r in reports {
+            match groups.iter_mut().find(|(s, _)| *s == r.station) {
+                Some((_, g)) => g.push(r),
+                None => groups.push((r.station.clone(), vec![r])),
+            }
+        }
+        // Many stations at once (a folder read at start): one full pass instead.
+        let one_pass = groups.len() > 32;
+        let mut any = false;
+        for (station, group) in groups {
+            let mut label = None;
+            for r in group {
+                // The note carries the board's time; name the report's own only if it differs.
+                let this = match r.observed_at {
+                    Some(t)
+                        if t.format("%H%M").to_string()
+                            != self.clock.format("%H%M").to_string() =>
+                    {
+                        format!("{} {}", r.station, t.format("%H%MZ"))
+                    }
+                    _ => r.station.clone(),
+                };
+                let copy = r.clone();
+                match self.store.insert(r) {
+                    Insert::Added { .. } | Insert::Replaced => {
+                        self.log_received(source, &copy, None);
+                        label = Some(this);
+                    }
+                    Insert::Duplicate | Insert::KeptCorrection => {}
+                    Insert::Rejected(why) => {
+                        self.dirty = true;
+                        if source != "on load" {
+                            self.note(NoteKind::Error, format!("{source}: rejected {why}"));
+                        }
+                        self.log_received(source, &copy, Some(why));
+                    }
+                }
+            }
+            let Some(label) = label else {
+                continue;
+            };
+            any = true;
+            if !one_pass {
+                let ctx = Context {
+                    ops: &self.ops,
+                    model: &self.model,
+                    store: &self.store,
+                    at: self.clock,
+                };
+                let changes = self.assessment.on_report(&ctx, &station);
+                self.note_changes(&label, changes);
+            }
+        }
+        if !any {
+            return;
+        }
+        self.dirty = true;
+        if one_pass {
+            let ctx = Context {
+                ops: &self.ops,
+                model: &self.model,
+                store: &self.store,
+                at: self.clock,
+            };
+            let changes = self.assessment.refresh(&ctx);
+            self.last_refresh = self.clock;
+            self.note_changes("", changes);
+        }
+        self.rebuild_rows();
+    }
+
+    fn note_changes(&mut self, label: &str, changes: Vec<Change>) {
+        for ch in changes {
+            if ch.to == State::Below && ch.from != State::Below && self.settings.bell {
+                self.bell_pending = true;
+            }
+            self.flash.insert(ch.leg, self.uptime + FLASH_FOR);
+            let prefix = if label.is_empty() {
+                "re-check".to_string()
+            } else {
+                label.to_string()
+            };
+            let why = if ch.why.is_empty() {
+                String::new()
+            } else {
+                format!(": {}", ch.why)
+            };
+            self.note(
+                NoteKind::Change(ch.to),
+                format!(
+                    "{prefix}: {} now {} {} (was {}){why}",
+                    ch.id,
+                    ch.to.glyph(),
+                    ch.to.word(),
+                    ch.from.word()
+                ),
+            );
+        }
+    }
+
+    fn refresh(&mut self) {
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        let changes = self.assessment.refresh(&ctx);
+        self.last_refresh = self.clock;
+        if !changes.is_empty() {
+            self.dirty = true;
+            self.note_changes("", changes);
+        }
+        self.rebuild_rows();
+    }
+
+    fn on_tick(&mut self, now: DateTime<Utc>, elapsed: Duration) {
+        let before_flash = self.flash.values().filter(|u| **u > self.uptime).count();
+        self.uptime += elapsed;
+        let after_flash = self.flash.values().filter(|u| **u > self.uptime).count();
+        if before_flash != after_flash {
+            self.dirty = true;
+            self.flash.retain(|_, u| *u > self.uptime);
+        }
+        let old = self.clock;
+        match &mut self.replay {
+            Some(rp) if !rp.paused => {
+                let ms = elapsed.as_secs_f64() * 1000.0 * REPLAY_RATE * rp.speed + rp.carry_ms;
+                let whole = ms.floor();
+                rp.carry_ms = ms - whole;
+                self.clock += TimeDelta::milliseconds(whole as i64);
+            }
+            Some(_) => {}
+            None => self.clock = now + self.settings.live_offset.unwrap_or_default(),
+        }
+        if self.clock.format("%H%M").to_string() != old.format("%H%M").to_string() {
+            self.dirty = true;
+        }
+        if self.clock != old {
+            self.advance();
+        }
+    }
+
+    /// After the clock moved forward: feed due replay reports, re-check staleness.
+    fn advance(&mut self) {
+        if let Some(rp) = &mut self.replay {
+            let start = rp.fed;
+            let clock = self.clock;
+            let pending = rp.queue.get(start..).unwrap_or_default();
+            let due = pending
+                .iter()
+                .take_while(|r| r.observed_at.is_none_or(|t| t <= clock))
+                .count();
+            let batch: Vec<Report> = pending[..due].to_vec();
+            rp.fed = start + due;
+            if !batch.is_empty() {
+                self.take_reports("replay", batch);
+            }
+        }
+        if self.clock.date_naive() != self.day {
+            self.new_day();
+        } else if self.clock - self.last_refresh >= REFRESH_EVERY {
+            self.refresh();
+        }
+    }
+
+    /// The clock passed midnight UTC: the new date's legs replace the old.
+    fn new_day(&mut self) {
+        self.day = self.clock.date_naive();
+        let legs = crate::commands::check::legs_of_day(&self.ops, self.clock);
+        let n = legs.len();
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        self.assessment = Assessment::new(&ctx, legs);
+        self.last_refresh = self.clock;
+        self.flash.clear();
+        self.ui.leg_row = 0;
+        self.rebuild_rows();
+        let text = format!("a new UTC day: the {n} legs of {}", self.day);
+        self.note(NoteKind::Info, text);
+    }
+
+    /// Replay: empties the store and refills it with the reports up to the clock.
+    fn rebuild_store(&mut self) {
+        let Some(rp) = &mut self.replay else {
+            return;
+        };
+        self.store = Store::new(self.store.stale_after());
+        let clock = self.clock;
+        rp.fed = rp
+            .queue
+            .iter()
+            .take_while(|r| r.observed_at.is_none_or(|t| t <= clock))
+            .count();
+        for r in &rp.queue[..rp.fed] {
+            self.store.insert(r.clone());
+        }
+        // Hand-entered reports stay whatever their time: the store only answers with
+        // reports at or before the time asked.
+        for r in &self.manual {
+            self.store.insert(r.clone());
+        }
+        self.received.clear();
+        let shown: Vec<Report> = rp.queue[..rp.fed].to_vec();
+        for r in &shown {
+            let rej = r.rejection();
+            self.log_received("replay", r, rej);
+        }
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        self.day = self.clock.date_naive();
+        let legs = crate::commands::check::legs_of_day(&self.ops, self.clock);
+        self.assessment = Assessment::new(&ctx, legs);
+        self.last_refresh = self.clock;
+        self.dirty = true;
+    }
+
+    fn rebuild_rows(&mut self) {
+        let keep = self.rows.get(self.ui.leg_row).copied();
+        let needle = self.ui.filter.to_lowercase();
+        let ops = &self.ops;
+        let mut rows: Vec<usize> = self
+            .assessment
+            .legs
+            .iter()
+            .enumerate()
+            .filter(|(_, r)| needle.is_empty() || leg_matches(ops, r, &needle))
+            .map(|(k, _)| k)
+            .collect();
+        let legs = &self.assessment.legs;
+        let time = |k: usize| ops.legs.get(legs[k].index).map(Leg::departs_utc);
+        match self.ui.sort {
+            Sort::Time => rows.sort_by_key(|&k| (time(k), k)),
+            Sort::State => rows.sort_by_key(|&k| (std::cmp::Reverse(legs[k].state), time(k), k)),
+            Sort::Margin => rows.sort_by(|&a, &b| {
+                let s = |k: usize| legs[k].limiting.as_ref().map_or(f64::INFINITY, |l| l.score);
+                let (sa, sb) = (s(a), s(b));
+                let key = |x: f64| if x.is_nan() { f64::INFINITY } else { x };
+                key(sa)
+                    .total_cmp(&key(sb))
+                    .then_with(|| time(a).cmp(&time(b)))
+                    .then(a.cmp(&b))
+            }),
+        }
+        self.rows = rows;
+        self.ui.leg_row = keep
+            .and_then(|k| self.rows.iter().position(|&r| r == k))
+            .unwrap_or(self.ui.leg_row)
+            .min(self.rows.len().saturating_sub(1));
+    }
+
+    fn page(&self) -> usize {
+        usize::from(self.size.1.saturating_sub(12)).max(1)
+    }
+
+    fn on_key(&mut self, key: KeyEvent) {
+        if is_ctrl_c(&key) {
+            self.quit = true;
+            return;
+        }
+        match &mut self.ui.mode {
+            Mode::Filter => {
+                match key.code {
+                    KeyCode::Enter => self.ui.mode = Mode::Normal,
+                    KeyCode::Esc => {
+                        self.ui.filter.clear();
+                        self.ui.mode = Mode::Normal;
+                    }
+                    KeyCode::Backspace => {
+                        self.ui.filter.pop();
+                    }
+                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
+                        self.ui.filter.push(ch);
+                    }
+                    _ => {}
+                }
+                self.ui.leg_row = 0;
+                self.rebuild_rows();
+                return;
+            }
+            Mode::Help => {
+                match action_for(&key) {
+                    Some(Action::Down) => {
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(1).min(60)
+                    }
+                    Some(Action::Up) => self.ui.help_scroll = self.ui.help_scroll.saturating_sub(1),
+                    Some(Action::PageDown) => {
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(10).min(60)
+                    }
+                    Some(Action::PageUp) => {
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_sub(10)
+                    }
+                    Some(Action::Close | Action::Help | Action::Open | Action::Quit) => {
+                        self.ui.mode = Mode::Normal;
+                    }
+                    _ => {}
+                }
+                return;
+            }
+            Mode::Form(form) => {
+                let n = FIELDS.len();
+                match key.code {
+                    KeyCode::Esc => self.ui.mode = Mode::Normal,
+                    KeyCode::Tab | KeyCode::Down => form.focus = (form.focus + 1) % n,
+                    KeyCode::BackTab | KeyCode::Up => form.focus = (form.focus + n - 1) % n,
+                    KeyCode::Backspace => {
+                        form.values[form.focus].pop();
+                    }
+                    KeyCode::Enter => {
+                        let mut f = std::mem::take(form);
+                        match f.submit(&self.ops, self.clock) {
+                            Some(report) => {
+                                self.ui.mode = Mode::Normal;
+                                let label = report.label();
+                                self.manual.push(report.clone());
+                                self.note(NoteKind::Info, format!("{label}: added by hand"));
+                                self.take_reports("by hand", vec![report]);
+                            }
+                            None => {
+                                if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
+                                    f.focus = first;
+                                }
+                                self.ui.mode = Mode::Form(f);
+                            }
+                        }
+                    }
+                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
+                        form.values[form.focus].push(ch);
+                    }
+                    _ => {}
+                }
+                return;
+            }
+            Mode::Normal => {}
+        }
+        if let Some(action) = action_for(&key) {
+            self.act(action);
+        }
+    }
+
+    /// Performs one keymap action.
+    pub fn act(&mut self, action: Action) {
+        self.dirty = true;
+        let detail = self.ui.detail_open;
+        match action {
+            Action::Quit => self.quit = true,
+            Action::Help => {
+                self.ui.help_scroll = 0;
+                self.ui.mode = Mode::Help;
+            }
+            Action::Filter => {
+                self.ui.pane = Pane::Legs;
+                self.ui.detail_open = false;
+                self.ui.pairing = None;
+                self.ui.mode = Mode::Filter;
+            }
+            Action::Sort => {
+                self.ui.sort = match self.ui.sort {
+                    Sort::Time => Sort::State,
+                    Sort::State => Sort::Margin,
+                    Sort::Margin => Sort::Time,
+                };
+                self.rebuild_rows();
+            }
+            Action::ManualReport => {
+                let station = match self.ui.pane {
+                    Pane::Airfields => self.ops.airfields.get(self.ui.field_row),
+                    Pane::Pairings => self.ops.airfields.get(self.ui.pair.1),
+                    _ => self
+                        .selected_leg()
+                        .and_then(|r| self.ops.airfield(&r.departure.airfield)),
+                }
+                .map(|a| a.id.clone());
+                self.ui.mode = Mode::Form(Box::new(Form::new(self.clock, station.as_deref())));
+            }
+            Action::Close => {
+                if self.ui.detail_open || self.ui.pairing.is_some() {
+                    self.ui.detail_open = false;
+                    self.ui.pairing = None;
+                    self.ui.detail_scroll = 0;
+                } else if !self.ui.filter.is_empty() {
+                    self.ui.filter.clear();
+                    self.rebuild_rows();
+                }
+            }
+            Action::NextPane | Action::PrevPane => {
+                self.ui.pane = self
+                    .ui
+                    .pane
+                    .step(if action == Action::NextPane { 1 } else { -1 });
+                self.ui.detail_open = false;
+                self.ui.pairing = None;
+                self.ui.detail_scroll = 0;
+            }
+            Action::Open => self.open(),
+            Action::Up | Action::Down | Action::PageUp | Action::PageDown if detail => {
+                let by: i32 = match action {
+                    Action::Up => -1,
+                    Action::Down => 1,
+                    Action::PageUp => -(self.page() as i32),
+                    _ => self.page() as i32,
+                };
+                self.ui.detail_scroll =
+                    (i32::from(self.ui.detail_scroll) + by).clamp(0, 2000) as u16;
+            }
+            Action::Top if detail => self.ui.detail_scroll = 0,
+            Action::Up => self.move_by(-1, 0),
+            Action::Down => self.move_by(1, 0),
+            Action::PageUp => self.move_by(-(self.page() as isize), 0),
+            Action::PageDown => self.move_by(self.page() as isize, 0),
+            Action::Top => self.move_by(-1_000_000, 0),
+            Action::Bottom => self.move_by(1_000_000, 0),
+            Action::Left => self.move_by(0, -1),
+            Action::Right => self.move_by(0, 1),
+            Action::Pause => match &mut self.replay {
+                Some(rp) => rp.paused = !rp.paused,
+                None => self.note(
+                    NoteKind::Info,
+                    "live board: pause, n and p work in replay (--replay FILE)".into(),
+                ),
+            },
+            Action::Faster | Action::Slower => {
+                if let Some(rp) = &mut self.replay {
+                    rp.speed = if action == Action::Faster {
+                        (rp.speed * 2.0).min(64.0)
+                    } else {
+                        (rp.speed / 2.0).max(0.125)
+                    };
+                }
+            }
+            Action::NextHour => self.step_hour(true),
+            Action::PrevHour => self.step_hour(false),
+        }
+    }
+
+    fn step_hour(&mut self, forward: bool) {
+        if self.replay.is_none() {
+            self.note(
+                NoteKind::Info,
+                "live board: n and p step the replay (--replay FILE)".into(),
+            );
+            return;
+        }
+        let floor = self
+            .clock
+            .duration_trunc(TimeDelta::hours(1))
+            .unwrap_or(self.clock);
+        if forward {
+            self.clock = floor + TimeDelta::hours(1);
+            self.advance();
+            self.rebuild_rows();
+        } else {
+            // Just past a whole hour, "previous" means the one before it.
+            let back = if self.clock - floor < TimeDelta::minutes(2) {
+                floor - TimeDelta::hours(1)
+            } else {
+                floor
+            };
+            self.clock = back;
+            self.rebuild_store();
+            self.rebuild_rows();
+            let text = format!(
+                "stepped back to {}: reports after it are not known yet",
+                self.clock.format("%H%MZ")
+            );
+            self.note(NoteKind::Info, text);
+        }
+    }
+
+    fn move_by(&mut self, down: isize, right: isize) {
+        let step = |cur: usize, by: isize, len: usize| -> usize {
+            if len == 0 {
+                return 0;
+            }
+            (cur as isize + by).clamp(0, len as isize - 1) as usize
+        };
+        match self.ui.pane {
+            Pane::Legs => {
+                self.ui.leg_row = step(self.ui.leg_row, down, self.rows.len());
+                self.ui.detail_scroll = 0;
+            }
+            Pane::Pairings => {
+                let m = &self.assessment.matrix;
+                self.ui.pair.0 = step(self.ui.pair.0, down, m.aircraft.len());
+                self.ui.pair.1 = step(self.ui.pair.1, right, m.fields);
+            }
+            Pane::Airfields => {
+                self.ui.field_row = step(self.ui.field_row, down, self.ops.airfields.len());
+            }
+            Pane::Fleet => {
+                self.ui.fleet_row = step(self.ui.fleet_row, down, self.ops.aircraft.len());
+            }
+            Pane::Reports => {
+                self.ui.report_row = step(self.ui.report_row, down, self.received.len());
+            }
+        }
+    }
+
+    fn open(&mut self) {
+        match self.ui.pane {
+            Pane::Legs => {
+                if !self.rows.is_empty() {
+                    self.ui.detail_open = true;
+                    self.ui.detail_scroll = 0;
+                }
+            }
+            Pane::Pairings => {
+                let (ai, fi) = self.ui.pair;
+                if let Some(p) = self.pairing_detail(ai, fi) {
+                    self.ui.pairing = Some(Box::new(p));
+                    self.ui.detail_open = true;
+                    self.ui.detail_scroll = 0;
+                }
+            }
+            Pane::Airfields | Pane::Fleet | Pane::Reports => {}
+        }
+    }
+
+    /// A pairing's full chain (`Matrix::open`): the aircraft assessed as a local flight
+    /// at the airfield at the board's time, with the cell's masses and category.
+    pub fn pairing_detail(&self, ai: usize, fi: usize) -> Option<PairingDetail> {
+        let a = *self.assessment.matrix.aircraft.get(ai)?;
+        let aircraft = self.ops.aircraft.get(a)?;
+        let field = self.ops.airfields.get(fi)?;
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        let result = self.assessment.matrix.open(&ctx, ai, fi)?;
+        Some(PairingDetail {
+            title: format!(
+                "Pairing {} ({}) at {} — a local flight at {}, {} minimums, {}",
+                aircraft.registration,
+                aircraft.type_id,
+                field.id,
+                self.clock.format("%H%MZ"),
+                result.category.name().replace('_', " "),
+                result
+                    .takeoff_mass_kg
+                    .map_or("no mass".to_string(), |m| format!("{m:.0} kg"))
+            ),
+            result,
+        })
+    }
+
+    fn on_click(&mut self, col: u16, row: u16) {
+        let layout = super::layout::BoardLayout::build(
+            ratatui::layout::Rect::new(0, 0, self.size.0, self.size.1),
+            &super::layout::LayoutSettings::of(self),
+        );
+        let pos = ratatui::layout::Position::new(col, row);
+        if layout.tabs.contains(pos) {
+            // Tabs are laid out as " Name " segments separated by "│".
+            let mut x = layout.tabs.x;
+            for p in Pane::ALL {
+                let w = p.title().len() as u16 + 3;
+                if col >= x && col < x + w {
+                    self.ui.pane = p;
+                    self.ui.detail_open = false;
+                    self.ui.pairing = None;
+                    return;
+                }
+                x += w;
+            }
+            return;
+        }
+        if layout.main.contains(pos) && self.ui.pane == Pane::Legs {
+            // Row 0 is the header; the view scrolls so the cursor stays visible.
+            let height = usize::from(layout.main.height.saturating_sub(1));
+            let offset = super::view::scroll_offset(self.ui.leg_row, height);
+            let r = usize::from(row - layout.main.y);
+            if r >= 1 && offset + r - 1 < self.rows.len() {
+                self.ui.leg_row = offset + r - 1;
+                self.ui.detail_scroll = 0;
+            }
+        }
+    }
+}
+
+fn leg_matches(ops: &Ops, r: &LegResult, needle: &str) -> bool {
+    let Some(leg) = ops.legs.get(r.index) else {
+        return false;
+    };
+    [
+        leg.id.as_str(),
+        leg.aircraft.as_str(),
+        leg.from.as_str(),
+        leg.to.as_str(),
+        leg.pilot.as_str(),
+        category_word(leg.category),
+        r.state.word(),
+    ]
+    .iter()
+    .any(|s| s.to_lowercase().contains(needle))
+}
+
+/// The store's stale age from the operator's policy.
+pub fn stale_after(ops: &Ops) -> TimeDelta {
+    TimeDelta::seconds((ops.operator.policy.stale_after_min * 60.0) as i64)
+}
+
+/// The reports a replay plays: the operator's observation texts, decoded against the
+/// end of `day`'s UTC date.
+pub fn replay_reports(ops: &Ops, day: DateTime<Utc>) -> Vec<Report> {
+    let reference = end_of_day(day);
+    ops.observations
+        .iter()
+        .filter(|(path, _)| path.starts_with("observations/"))
+        .flat_map(|(_, text)| crate::observation::decode_all(text, reference))
+        .map(|r| r.report)
+        .collect()
+}
+
+/// The last second of `t`'s UTC date (the reference for decoding a day's METARs).
+pub fn end_of_day(t: DateTime<Utc>) -> DateTime<Utc> {
+    t.date_naive()
+        .and_hms_opt(23, 59, 59)
+        .map_or(t, |d| d.and_utc())
+}

@@ -1,0 +1,227 @@
+//! Feeds: threads that read observations and send them to the board as messages.
+//! Every failure becomes a `Msg::FeedError` on screen; a feed never ends the board.
+
+use std::collections::BTreeMap;
+use std::io::Read;
+use std::path::{Path, PathBuf};
+use std::process::{Command, Stdio};
+use std::sync::mpsc::Sender;
+use std::thread;
+use std::time::{Duration, Instant};
+
+use chrono::{DateTime, TimeDelta, Utc};
+
+use super::app::Msg;
+use crate::observation::{ObservationFile, decode_all};
+
+/// How long a feed command may run before it is stopped.
+pub const FEED_COMMAND_TIMEOUT: Duration = Duration::from_secs(60);
+
+/// Watches `dir` by polling every `every`: new `*.txt` files and lines appended to
+/// known ones are read with [`ObservationFile::read_new`] and sent as reports.
+/// `offset` shifts the wall clock used to date the reports (a live board run `--at`).
+pub fn spawn_folder_watch(dir: PathBuf, every: Duration, offset: TimeDelta, tx: Sender<Msg>) {
+    thread::Builder::new()
+        .name("rhoboard-folder-feed".into())
+        .spawn(move || {
+            let mut files: BTreeMap<PathBuf, ObservationFile> = BTreeMap::new();
+            loop {
+                if !poll_folder(&dir, &mut files, Utc::now() + offset, &tx) {
+                    return;
+                }
+                thread::sleep(every);
+            }
+        })
+        .ok();
+}
+
+/// One pass over the folder, dating reports against `reference`; false when the
+/// board has gone.
+pub fn poll_folder(
+    dir: &Path,
+    files: &mut BTreeMap<PathBuf, ObservationFile>,
+    reference: DateTime<Utc>,
+    tx: &Sender<Msg>,
+) -> bool {
+    let source = format!("folder {}", dir.display());
+    let entries = match std::fs::read_dir(dir) {
+        Ok(e) => e,
+        Err(e) => {
+            return tx
+                .send(Msg::FeedError {
+                    source,
+                    error: format!("cannot read the folder: {e}"),
+                })
+                .is_ok();
+        }
+    };
+    let mut paths: Vec<PathBuf> = entries
+        .filter_map(Result::ok)
+        .map(|e| e.path())
+        .filter(|p| p.extension().is_some_and(|x| x == "txt") && p.is_file())
+        .collect();
+    paths.sort();
+    for p in paths {
+        let f = files
+            .entry(p.clone())
+            .or_insert_with(|| ObservationFile::new(p.clone()));
+        let name = p.file_name().map_or_else(
+            || p.display().to_string(),
+            |n| n.to_string_lossy().into_owned(),
+        );
+        let msg = match f.read_new(reference) {
+            Ok(reports) if reports.is_empty() => continue,
+            Ok(reports) => Msg::Observations {
+                source: name,
+                reports,
+            },
+            Err(e) => Msg::FeedError {
+                source: name,
+                error: format!("cannot read: {e}"),
+            },
+        };
+        if tx.send(msg).is_err() {
+            return false;
+        }
+    }
+    true
+}
+
+/// Runs `command` through `sh -c` now and then every `every`, reading its standard
+/// output as METAR lines.
+pub fn spawn_feed_command(command: String, every: Duration, offset: TimeDelta, tx: Sender<Msg>) {
+    thread::Builder::new()
+        .name("rhoboard-command-feed".into())
+        .spawn(move || {
+            loop {
+                let msg = match run_feed_command(&command, FEED_COMMAND_TIMEOUT) {
+                    Ok(text) => Msg::Observations {
+                        source: "feed command".into(),
+                        reports: decode_all(&text, Utc::now() + offset),
+                    },
+                    Err(error) => Msg::FeedError {
+                        source: format!("feed command '{command}'"),
+                        error,
+                    },
+                };
+                if tx.send(msg).is_err() {
+                    return;
+                }
+                thread::sleep(every);
+            }
+        })
+        .ok();
+}
+
+/// Runs the feed command once; its output, or why it failed.
+pub fn run_feed_command(command: &str, timeout: Duration) -> Result<String, String> {
+    let mut child = Command::new("sh")
+        .arg("-c")
+        .arg(command)
+        .stdin(Stdio::null())
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .map_err(|e| format!("could not start: {e}"))?;
+    let mut stdout = child.stdout.take();
+    let mut stderr = child.stderr.take();
+    // Read both pipes on their own threads so a chatty command cannot block on a full pipe.
+    let out = thread::spawn(move || {
+        let mut s = String::new();
+        if let Some(o) = stdout.as_mut() {
+            let _ = o.read_to_string(&mut s);
+        }
+        s
+    });
+    let err = thread::spawn(move || {
+        let mut s = String::new();
+        if let Some(e) = stderr.as_mut() {
+            let _ = e.read_to_string(&mut s);
+        }
+        s
+    });
+    let started = Instant::now();
+    let status = loop {
+        match child.try_wait() {
+            Ok(Some(s)) => break s,
+            Ok(None) if started.elapsed() > timeout => {
+                let _ = child.kill();
+                let _ = child.wait();
+                return Err(format!(
+                    "stopped after {} s without finishing",
+                    timeout.as_secs()
+                ));
+            }
+            Ok(None) => thread::sleep(Duration::from_millis(50)),
+            Err(e) => return Err(format!("could not wait for it: {e}")),
+        }
+    };
+    let text = out.join().unwrap_or_default();
+    let errs = err.join().unwrap_or_default();
+    if status.success() {
+        Ok(text)
+    } else {
+        let first = errs.lines().find(|l| !l.trim().is_empty()).unwrap_or("");
+        Err(format!(
+            "exited with {status}{}",
+            if first.is_empty() {
+                String::new()
+            } else {
+                format!(": {first}")
+            }
+        ))
+    }
+}
+
+/// Parses `--feed-every`: `10m`, `30s`, `1h`, or plain seconds.
+pub fn parse_every(text: &str) -> Result<Duration, String> {
+    let t = text.trim();
+    let (num, unit) = t
+        .find(|c: char| !c.is_ascii_digit() && c != '.')
+        .map_or((t, "s"), |i| t.split_at(i));
+    let n: f64 = num
+        .parse()
+        .map_err(|_| format!("'{text}': expected a duration such as 10m, 30s or 1h"))?;
+    let secs = match unit {
+        "s" | "sec" => n,
+        "m" | "min" => n * 60.0,
+        "h" => n * 3600.0,
+        _ => return Err(format!("'{text}': unit '{unit}' unknown; use s, m or h")),
+    };
+    if !(1.0..=86_400.0).contains(&secs) {
+        return Err(format!("'{text}': expected between 1 s and 24 h"));
+    }
+    Ok(Duration::from_secs_f64(secs))
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn durations() {
+        assert_eq!(parse_every("10m"), Ok(Duration::from_secs(600)));
+        assert_eq!(parse_every("30s"), Ok(Duration::from_secs(30)));
+        assert_eq!(parse_every("1h"), Ok(Duration::from_secs(3600)));
+        assert_eq!(parse_every("45"), Ok(Duration::from_secs(45)));
+        assert!(parse_every("10x").is_err());
+        assert!(parse_every("0s").is_err());
+    }
+
+    #[test]
+    fn feed_command_output_and_failure() {
+        assert_eq!(
+            run_feed_command(
+                "echo METAR XSEA 140600Z 23004KT 9999 14/11 Q1019",
+                Duration::from_secs(10)
+            )
+            .as_deref(),
+            Ok("METAR XSEA 140600Z 23004KT 9999 14/11 Q1019\n")
+        );
+        let err = run_feed_command("echo nope >&2; exit 3", Duration::from_secs(10)).unwrap_err();
+        assert!(
+            err.contains("exit status: 3") && err.contains("nope"),
+            "{err}"
+        );
+    }
+}

@@ -1,0 +1,879 @@
+//! The views: pure functions of `&App` into a buffer (`impl Widget for &App`, so no
+//! state is cloned per frame). They map states to glyphs, words and styles; they
+//! decide nothing.
+
+use std::borrow::Cow;
+
+use ratatui::buffer::Buffer;
+use ratatui::layout::{Constraint, Rect};
+use ratatui::style::Style;
+use ratatui::text::{Line, Span};
+use ratatui::widgets::{Block, Borders, Cell, Clear, Paragraph, Row, Table, Widget, Wrap};
+
+use super::app::{App, DetailOf, Mode, NoteKind, Pane, category_short};
+use super::form::{FIELDS, Form};
+use super::keys::KEYMAP;
+use super::layout::{BoardLayout, LayoutSettings, MIN_SIZE};
+use super::theme::Theme;
+use crate::assess::leg::FieldWx;
+use crate::assess::pairing::{PairCell, PairLimit};
+use crate::assess::{LegResult, State};
+use crate::observation::Report;
+
+/// First row shown so that `cursor` is visible in `height` rows.
+pub fn scroll_offset(cursor: usize, height: usize) -> usize {
+    if height == 0 || cursor < height {
+        0
+    } else {
+        cursor + 1 - height
+    }
+}
+
+fn state_text(s: State) -> String {
+    format!("{} {}", s.glyph(), s.word())
+}
+
+impl App {
+    fn theme(&self) -> Theme {
+        Theme {
+            color: self.settings.color,
+        }
+    }
+}
+
+impl Widget for &App {
+    fn render(self, area: Rect, buf: &mut Buffer) {
+        let layout = BoardLayout::build(area, &LayoutSettings::of(self));
+        let t = self.theme();
+        if layout.too_small {
+            too_small(area, buf, t);
+            return;
+        }
+        header(self, layout.header, buf, t);
+        tabs(self, layout.tabs, buf, t);
+        if !layout.detail_replaces_main() {
+            match self.ui.pane {
+                Pane::Legs => legs(self, layout.main, buf, t),
+                Pane::Pairings => pairings(self, layout.main, buf, t),
+                Pane::Airfields => airfields(self, layout.main, buf, t),
+                Pane::Fleet => fleet(self, layout.main, buf, t),
+                Pane::Reports => reports(self, layout.main, buf, t),
+            }
+        }
+        if let Some(d) = layout.detail {
+            detail(self, d, buf, t);
+        }
+        changes(self, layout.changes, buf, t);
+        hints(self, layout.hints, buf, t);
+        Paragraph::new(crate::CAUTION)
+            .style(t.caution())
+            .wrap(Wrap { trim: true })
+            .render(layout.caution, buf);
+        match &self.ui.mode {
+            Mode::Help => help(area, buf, t, self.ui.help_scroll),
+            Mode::Form(f) => form(self, f, area, buf, t),
+            Mode::Normal | Mode::Filter => {}
+        }
+    }
+}
+
+fn too_small(area: Rect, buf: &mut Buffer, t: Theme) {
+    let text = vec![
+        Line::styled("Enlarge the terminal", t.heading()),
+        Line::from(format!(
+            "The board needs at least {}×{}; this one is {}×{}.",
+            MIN_SIZE.0, MIN_SIZE.1, area.width, area.height
+        )),
+        Line::from("q quits."),
+    ];
+    let h = (text.len() as u16).min(area.height);
+    let y = area.y + area.height.saturating_sub(h) / 2;
+    Paragraph::new(text)
+        .wrap(Wrap { trim: true })
+        .centered()
+        .render(
+            Rect::new(area.x, y, area.width, area.height - (y - area.y)),
+            buf,
+        );
+}
+
+fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let mut spans: Vec<Span> = Vec::new();
+    let narrow = area.width < 110;
+    let clock = if narrow {
+        app.clock.format("%H:%MZ").to_string()
+    } else {
+        app.clock.format("%Y-%m-%d %H:%MZ").to_string()
+    };
+    match &app.replay {
+        Some(rp) => {
+            spans.push(Span::styled(format!(" {clock} "), t.heading()));
+            let speed = if (rp.speed - rp.speed.round()).abs() < 1e-9 {
+                format!("{:.0}", rp.speed)
+            } else {
+                format!("{}", rp.speed)
+            };
+            let state = match (rp.paused, narrow) {
+                (true, true) => "‖",
+                (true, false) => "‖ paused",
+                (false, _) => "▶",
+            };
+            spans.push(Span::raw(format!("replay {state} ×{speed}")));
+        }
+        None => {
+            spans.push(Span::styled(format!(" {clock} "), t.heading()));
+            spans.push(Span::raw("live"));
+        }
+    }
+    spans.push(Span::styled(" │ ", t.frame()));
+    let c = app.assessment.counts();
+    for (s, n) in [
+        (State::Within, c[0]),
+        (State::Thin, c[1]),
+        (State::Below, c[2]),
+        (State::NoData, c[3]),
+    ] {
+        spans.push(Span::styled(
+            format!("{} {} {n}", s.glyph(), s.word()),
+            t.state(s),
+        ));
+        spans.push(Span::raw("  "));
+    }
+    spans.pop();
+    spans.push(Span::styled(" │ ", t.frame()));
+    match app.newest_report() {
+        Some(r) => spans.push(Span::raw(format!(
+            "newest {} {}",
+            r.station,
+            r.observed_at
+                .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
+        ))),
+        None => spans.push(Span::raw("no reports yet")),
+    }
+    spans.push(Span::styled(" │ ", t.frame()));
+    spans.push(Span::styled(app.ops.operator.name.clone(), t.dim()));
+    Line::from(spans).render(area, buf);
+}
+
+fn tabs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let mut spans: Vec<Span> = Vec::new();
+    for (i, p) in Pane::ALL.iter().enumerate() {
+        if i > 0 {
+            spans.push(Span::styled("│", t.frame()));
+        }
+        let text = format!(" {} ", p.title());
+        if *p == app.ui.pane {
+            spans.push(Span::styled(text, t.selected()));
+        } else {
+            spans.push(Span::raw(text));
+        }
+    }
+    Line::from(spans).render(area, buf);
+    let right = match app.ui.mode {
+        Mode::Filter => format!("filter: {}▏ Enter keeps, Esc clears ", app.ui.filter),
+        _ if !app.ui.filter.is_empty() => format!(
+            "sort: {} · filter: {} ({} of {}) ",
+            app.ui.sort.word(),
+            app.ui.filter,
+            app.rows().len(),
+            app.assessment.legs.len()
+        ),
+        _ => format!("sort: {} ", app.ui.sort.word()),
+    };
+    let w = right.chars().count() as u16;
+    if area.width > 50 + w {
+        Line::styled(right, t.dim())
+            .right_aligned()
+            .render(area, buf);
+    }
+}
+
+/// A leg row's cells (missing values are `—`, never 0).
+fn leg_cell<'a>(app: &'a App, r: &'a LegResult, col: usize) -> Cow<'a, str> {
+    let leg = app.ops.legs.get(r.index);
+    match col {
+        0 => leg.map_or("—".into(), |l| {
+            l.departs_utc().format("%H%MZ").to_string().into()
+        }),
+        1 => Cow::Borrowed(r.id.as_str()),
+        2 => leg.map_or("—".into(), |l| Cow::Borrowed(l.aircraft.as_str())),
+        3 => leg.map_or("—".into(), |l| format!("{}-{}", l.from, l.to).into()),
+        4 => Cow::Borrowed(category_short(r.category)),
+        5 => state_text(r.state).into(),
+        6 => r
+            .limiting
+            .as_ref()
+            .map_or("—".into(), |l| Cow::Borrowed(l.margin.as_str())),
+        7 => crate::commands::check::headroom_text(r).into(),
+        _ => r.limiting.as_ref().map_or_else(
+            || {
+                r.reasons
+                    .first()
+                    .map_or("—".into(), |s| Cow::Borrowed(s.as_str()))
+            },
+            |l| Cow::Borrowed(l.check.as_str()),
+        ),
+    }
+}
+
+const LEG_HEADERS: [&str; 9] = [
+    "dep",
+    "leg",
+    "aircraft",
+    "route",
+    "category",
+    "state",
+    "margin",
+    "headroom",
+    "limiting check",
+];
+const LEG_WIDTHS: [u16; 8] = [5, 4, 8, 9, 8, 9, 8, 8];
+
+fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let height = usize::from(area.height.saturating_sub(1));
+    let rows = app.rows();
+    if rows.is_empty() {
+        let msg = if app.assessment.legs.is_empty() {
+            format!(
+                "No legs depart on {} (legs/<date>.json).",
+                app.clock.format("%Y-%m-%d")
+            )
+        } else {
+            format!(
+                "No leg matches the filter '{}' (Esc clears it).",
+                app.ui.filter
+            )
+        };
+        Paragraph::new(msg).render(area, buf);
+        return;
+    }
+    let offset = scroll_offset(app.ui.leg_row, height);
+    let header = Row::new(
+        std::iter::once(Cell::from(" "))
+            .chain(LEG_HEADERS.iter().map(|h| Cell::from(*h)))
+            .collect::<Vec<_>>(),
+    )
+    .style(t.heading());
+    let body = rows
+        .iter()
+        .enumerate()
+        .skip(offset)
+        .take(height)
+        .filter_map(|(row, &k)| {
+            let r = app.assessment.legs.get(k)?;
+            let flash = app.flashing(r.index);
+            let mut cells: Vec<Cell> = vec![Cell::from(if flash { "*" } else { " " })];
+            for col in 0..9 {
+                let text = leg_cell(app, r, col).into_owned();
+                let cell = if col == 5 {
+                    Cell::from(text).style(t.state(r.state))
+                } else {
+                    Cell::from(text)
+                };
+                cells.push(cell);
+            }
+            let mut style = Style::new();
+            if flash {
+                style = style.patch(t.changed());
+            }
+            if row == app.ui.leg_row {
+                style = style.patch(t.selected());
+            }
+            Some(Row::new(cells).style(style))
+        });
+    let widths: Vec<Constraint> = std::iter::once(Constraint::Length(1))
+        .chain(LEG_WIDTHS.iter().map(|w| Constraint::Length(*w)))
+        .chain(std::iter::once(Constraint::Min(10)))
+        .collect();
+    Table::new(body, widths)
+        .header(header)
+        .column_spacing(1)
+        .render(area, buf);
+}
+
+fn cell_text(c: &PairCell) -> String {
+    if !c.margin_percent.is_finite() {
+        return format!("{} —", c.state.glyph());
+    }
+    let m = c.margin_percent;
+    match c.limiting {
+        PairLimit::Takeoff | PairLimit::Climb | PairLimit::Landing => {
+            format!("{}{:+.0}%", c.state.glyph(), m)
+        }
+        PairLimit::Crosswind | PairLimit::Tailwind => format!("{}{:+.0}kt", c.state.glyph(), m),
+        PairLimit::DensityAltitude => format!("{}{:+.0}ft", c.state.glyph(), m),
+        _ => format!("{}{:+.0}", c.state.glyph(), m),
+    }
+}
+
+fn limit_word(l: PairLimit) -> &'static str {
+    match l {
+        PairLimit::None => "nothing",
+        PairLimit::Takeoff => "takeoff distance",
+        PairLimit::Climb => "climb",
+        PairLimit::Landing => "landing distance",
+        PairLimit::Crosswind => "crosswind",
+        PairLimit::Tailwind => "tailwind",
+        PairLimit::DensityAltitude => "density altitude",
+        PairLimit::Weather => "the field's weather",
+        PairLimit::Observation => "no usable report",
+        PairLimit::Table => "the flight-manual tables",
+    }
+}
+
+fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let m = &app.assessment.matrix;
+    if m.aircraft.is_empty() || m.fields == 0 {
+        Paragraph::new("No available aircraft or no airfields.").render(area, buf);
+        return;
+    }
+    const REG_W: u16 = 9;
+    const CELL_W: u16 = 9;
+    let visible_cols = usize::from(area.width.saturating_sub(REG_W) / CELL_W).max(1);
+    let (cur_a, cur_f) = app.ui.pair;
+    let col0 = scroll_offset(cur_f, visible_cols);
+    let height = usize::from(area.height.saturating_sub(3));
+    let row0 = scroll_offset(cur_a, height);
+    let fields: Vec<usize> = (col0..m.fields.min(col0 + visible_cols)).collect();
+    let header =
+        Row::new(
+            std::iter::once(Cell::from("aircraft"))
+                .chain(fields.iter().map(|&fi| {
+                    Cell::from(app.ops.airfields.get(fi).map_or("—", |f| f.id.as_str()))
+                }))
+                .collect::<Vec<_>>(),
+        )
+        .style(t.heading());
+    let rows = (row0..m.aircraft.len().min(row0 + height)).map(|ai| {
+        let reg = app
+            .ops
+            .aircraft
+            .get(m.aircraft[ai])
+            .map_or("—", |a| a.registration.as_str());
+        let cells = std::iter::once(Cell::from(reg)).chain(fields.iter().map(|&fi| {
+            let c = m.cell(ai, fi);
+            let mut style = t.state(c.state);
+            if (ai, fi) == (cur_a, cur_f) {
+                style = style.patch(t.selected());
+            }
+            Cell::from(cell_text(c)).style(style)
+        }));
+        Row::new(cells.collect::<Vec<_>>())
+    });
+    let widths: Vec<Constraint> = std::iter::once(Constraint::Length(REG_W - 1))
+        .chain(fields.iter().map(|_| Constraint::Length(CELL_W - 1)))
+        .collect();
+    let table_h = area.height.saturating_sub(2);
+    Table::new(rows, widths)
+        .header(header)
+        .column_spacing(1)
+        .render(Rect::new(area.x, area.y, area.width, table_h), buf);
+    // What the selected cell says, in words.
+    let summary = if cur_a < m.aircraft.len() && cur_f < m.fields {
+        let c = m.cell(cur_a, cur_f);
+        let reg = app
+            .ops
+            .aircraft
+            .get(m.aircraft[cur_a])
+            .map_or("—", |a| a.registration.as_str());
+        let field = app.ops.airfields.get(cur_f);
+        let runway = c
+            .end_in_use
+            .and_then(|k| field.and_then(|f| f.runway_ends.get(usize::from(k))))
+            .map_or("—".to_string(), |e| e.designator.clone());
+        format!(
+            "{reg} at {}: {} on runway {runway}, limited by {}; best end {}; headroom {}. Enter opens its chain.",
+            field.map_or("—", |f| f.id.as_str()),
+            state_text(c.state),
+            limit_word(c.limiting),
+            state_text(c.best_end_state),
+            c.headroom_c
+                .map_or("—".to_string(), |h| format!("{h:+.1} °C"))
+        )
+    } else {
+        String::new()
+    };
+    let more = if m.fields > visible_cols {
+        format!(
+            "  (airfields {}–{} of {}; ← → scroll)",
+            col0 + 1,
+            col0 + fields.len(),
+            m.fields
+        )
+    } else {
+        String::new()
+    };
+    Paragraph::new(format!("{summary}{more}"))
+        .wrap(Wrap { trim: true })
+        .render(
+            Rect::new(area.x, area.y + table_h, area.width, area.height - table_h),
+            buf,
+        );
+}
+
+fn wind_text(r: &Report) -> String {
+    match &r.wind {
+        None => "—".to_string(),
+        Some(w) if w.is_calm() => "calm".to_string(),
+        Some(w) => {
+            let dir = if w.variable && w.direction_deg.is_none() {
+                "VRB".to_string()
+            } else {
+                w.direction_deg
+                    .map_or("—".to_string(), |d| format!("{d:03.0}"))
+            };
+            let gust = w.gust_kt.map_or(String::new(), |g| format!("G{g:.0}"));
+            format!("{dir}/{:.0}{gust}kt", w.speed_kt)
+        }
+    }
+}
+
+fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let header = Row::new(vec![
+        "id", "name", "elev", "report", "age", "temp", "dens alt", "wind", "runway",
+    ])
+    .style(t.heading());
+    let height = usize::from(area.height.saturating_sub(1));
+    let off = scroll_offset(app.ui.field_row, height);
+    let m = &app.assessment.matrix;
+    let rows = app
+        .ops
+        .airfields
+        .iter()
+        .enumerate()
+        .skip(off)
+        .take(height)
+        .map(|(fi, f)| {
+            let valid = app.store.valid_at(&f.id, app.clock);
+            let (time, age, temp, da, wind) = match &valid {
+                None => ("—".into(), "—".into(), "—".into(), "—".into(), "—".into()),
+                Some(v) => {
+                    let wx = FieldWx::from_report(v.report, f.elevation_ft);
+                    (
+                        v.report
+                            .observed_at
+                            .map_or("—".to_string(), |t| t.format("%H%MZ").to_string()),
+                        format!(
+                            "{} min{}",
+                            v.age.num_minutes(),
+                            if v.stale { " STALE" } else { "" }
+                        ),
+                        v.report
+                            .temperature_c
+                            .map_or("—".to_string(), |c| format!("{c:.0} °C")),
+                        wx.map_or("—".to_string(), |w| {
+                            format!("{:.0} ft", w.air.density_altitude_ft)
+                        }),
+                        wind_text(v.report),
+                    )
+                }
+            };
+            let runway = (0..m.aircraft.len())
+                .find_map(|ai| m.cell(ai, fi).end_in_use)
+                .and_then(|k| f.runway_ends.get(usize::from(k)))
+                .map_or("—".to_string(), |e| e.designator.clone());
+            let style = if fi == app.ui.field_row {
+                t.selected()
+            } else if valid.as_ref().is_some_and(|v| v.stale) {
+                t.state(State::NoData)
+            } else {
+                Style::new()
+            };
+            Row::new(vec![
+                f.id.clone(),
+                f.name.clone(),
+                format!("{:.0} ft", f.elevation_ft),
+                time,
+                age,
+                temp,
+                da,
+                wind,
+                runway,
+            ])
+            .style(style)
+        });
+    Table::new(
+        rows,
+        [
+            Constraint::Length(5),
+            Constraint::Min(12),
+            Constraint::Length(8),
+            Constraint::Length(6),
+            Constraint::Length(12),
+            Constraint::Length(6),
+            Constraint::Length(9),
+            Constraint::Length(11),
+            Constraint::Length(6),
+        ],
+    )
+    .header(header)
+    .column_spacing(1)
+    .render(area, buf);
+}
+
+fn fleet(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let header = Row::new(vec![
+        "registration",
+        "type",
+        "status",
+        "legs today",
+        "worst state",
+    ])
+    .style(t.heading());
+    let height = usize::from(area.height.saturating_sub(1));
+    let off = scroll_offset(app.ui.fleet_row, height);
+    let rows = app
+        .ops
+        .aircraft
+        .iter()
+        .enumerate()
+        .skip(off)
+        .take(height)
+        .map(|(i, a)| {
+            let mine: Vec<&LegResult> = app
+                .assessment
+                .legs
+                .iter()
+                .filter(|r| {
+                    app.ops
+                        .legs
+                        .get(r.index)
+                        .is_some_and(|l| l.aircraft == a.registration)
+                })
+                .collect();
+            let worst = mine.iter().map(|r| r.state).max();
+            let ty = app
+                .ops
+                .aircraft_type(&a.type_id)
+                .map_or(a.type_id.clone(), |ty| {
+                    format!("{} ({})", ty.file.id, ty.file.name)
+                });
+            let status = match a.status {
+                crate::ops::fleet::Status::Available => "available".to_string(),
+                crate::ops::fleet::Status::Maintenance => format!(
+                    "maintenance{}",
+                    a.maintenance
+                        .as_ref()
+                        .map_or(String::new(), |m| format!(": {}", m.note))
+                ),
+            };
+            let worst_cell = match worst {
+                Some(s) => Cell::from(state_text(s)).style(t.state(s)),
+                None => Cell::from("—"),
+            };
+            let row = Row::new(vec![
+                Cell::from(a.registration.clone()),
+                Cell::from(ty),
+                Cell::from(status),
+                Cell::from(mine.len().to_string()),
+                worst_cell,
+            ]);
+            if i == app.ui.fleet_row {
+                row.style(t.selected())
+            } else {
+                row
+            }
+        });
+    Table::new(
+        rows,
+        [
+            Constraint::Length(12),
+            Constraint::Min(20),
+            Constraint::Length(24),
+            Constraint::Length(10),
+            Constraint::Length(11),
+        ],
+    )
+    .header(header)
+    .column_spacing(1)
+    .render(area, buf);
+}
+
+fn reports(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    if app.received.is_empty() {
+        Paragraph::new("No reports received yet.").render(area, buf);
+        return;
+    }
+    let header = Row::new(vec!["at", "from", "", "report"]).style(t.heading());
+    let height = usize::from(area.height.saturating_sub(1));
+    let off = scroll_offset(app.ui.report_row, height);
+    let rows = app
+        .received
+        .iter()
+        .enumerate()
+        .skip(off)
+        .take(height)
+        .map(|(i, r)| {
+            let (mark, text, style) = match &r.rejected {
+                None => ("stored", r.text.clone(), Style::new()),
+                Some(why) => ("REJECTED", format!("{why} — {}", r.text), t.error()),
+            };
+            let style = if i == app.ui.report_row {
+                style.patch(t.selected())
+            } else {
+                style
+            };
+            Row::new(vec![
+                r.at.format("%H%MZ").to_string(),
+                r.source.clone(),
+                mark.to_string(),
+                text,
+            ])
+            .style(style)
+        });
+    Table::new(
+        rows,
+        [
+            Constraint::Length(5),
+            Constraint::Length(14),
+            Constraint::Length(8),
+            Constraint::Min(20),
+        ],
+    )
+    .header(header)
+    .column_spacing(1)
+    .render(area, buf);
+}
+
+fn detail(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let focused = app.ui.detail_open;
+    let title = if focused {
+        " Detail — ↑↓ scroll, Esc closes "
+    } else {
+        " Detail — Enter to scroll "
+    };
+    let block = Block::new()
+        .borders(Borders::LEFT | Borders::TOP)
+        .border_style(if focused { t.heading() } else { t.frame() })
+        .title(title);
+    let inner = block.inner(area);
+    block.render(area, buf);
+    let lines = match app.detail_of() {
+        Some(DetailOf::Pairing(p)) => super::detail::lines(&app.ops, &p.result, Some(&p.title), t),
+        Some(DetailOf::Leg(k)) => match app.assessment.legs.get(k) {
+            Some(r) => super::detail::lines(&app.ops, r, None, t),
+            None => vec![Line::from("No leg selected.")],
+        },
+        None => vec![Line::from("No leg selected.")],
+    };
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((app.ui.detail_scroll, 0))
+        .render(inner, buf);
+}
+
+fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let block = Block::new()
+        .borders(Borders::TOP)
+        .border_style(t.frame())
+        .title(" Changes ");
+    let inner = block.inner(area);
+    block.render(area, buf);
+    if app.notes.is_empty() {
+        Paragraph::new("No changes yet: each new report re-checks the legs it touches; changed legs are marked *.")
+            .style(t.dim())
+            .wrap(Wrap { trim: true })
+            .render(inner, buf);
+        return;
+    }
+    let lines: Vec<Line> = app
+        .notes
+        .iter()
+        .take(usize::from(inner.height))
+        .map(|n| {
+            let style = match n.kind {
+                NoteKind::Change(s) => t.state(s),
+                NoteKind::Error => t.error(),
+                NoteKind::Info => Style::new(),
+            };
+            let tag = match n.kind {
+                NoteKind::Error => "error: ",
+                _ => "",
+            };
+            Line::from(vec![
+                Span::styled(format!("{} ", n.at.format("%H%MZ")), t.dim()),
+                Span::styled(format!("{tag}{}", n.text), style),
+            ])
+        })
+        .collect();
+    Paragraph::new(lines).render(inner, buf);
+}
+
+fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let text = match &app.ui.mode {
+        Mode::Filter => "type to filter · Enter keeps the filter · Esc clears it".to_string(),
+        Mode::Help => "Esc or ? closes the help".to_string(),
+        Mode::Form(_) => "Tab/↑↓ field · Enter adds the report · Esc cancels".to_string(),
+        Mode::Normal => {
+            let replay = if app.replay.is_some() {
+                " · space pause · n/p next/prev hour"
+            } else {
+                ""
+            };
+            let narrow = area.width < 130;
+            if narrow {
+                let replay = if app.replay.is_some() {
+                    " space:pause n/p:hour"
+                } else {
+                    ""
+                };
+                let esc = if area.width < 100 { "" } else { " Esc:close" };
+                let text = format!(
+                    "?:help Tab:pane Enter:open{esc} /:filter s:sort o:report{replay} q:quit"
+                );
+                Line::styled(text, t.dim()).render(area, buf);
+                return;
+            }
+            let replay = if narrow && app.replay.is_some() {
+                " · n/p hour"
+            } else {
+                replay
+            };
+            let open = match (app.ui.pane, narrow) {
+                (Pane::Legs | Pane::Pairings, false) => " · Enter open · Esc close",
+                (Pane::Legs | Pane::Pairings, true) => " · Enter open",
+                _ => "",
+            };
+            let select = if narrow { "" } else { " · ↑↓ select" };
+            format!(
+                "? help · Tab pane{select}{open} · / filter · s sort · o report{replay} · q quit"
+            )
+        }
+    };
+    Line::styled(text, t.dim()).render(area, buf);
+}
+
+fn centered(area: Rect, w: u16, h: u16) -> Rect {
+    let w = w.min(area.width);
+    let h = h.min(area.height);
+    Rect::new(
+        area.x + (area.width - w) / 2,
+        area.y + (area.height - h) / 2,
+        w,
+        h,
+    )
+}
+
+fn help(area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
+    let mut lines: Vec<Line> = vec![
+        Line::styled("What the board shows", t.heading()),
+        Line::from("Every leg of the day against the operator's minimums, re-checked as each"),
+        Line::from("report arrives. Enter on a leg opens its chain: observation, air, wind,"),
+        Line::from("takeoff, climb, landing, limits, headroom (°C of warming left) and advice."),
+        Line::from(vec![
+            Span::styled("✓ within", t.state(State::Within)),
+            Span::raw(" every minimum with the buffer to spare · "),
+            Span::styled("~ thin", t.state(State::Thin)),
+            Span::raw(" inside the buffer"),
+        ]),
+        Line::from(vec![
+            Span::styled("✗ below", t.state(State::Below)),
+            Span::raw(" misses a minimum · "),
+            Span::styled("? no-data", t.state(State::NoData)),
+            Span::raw(" no usable report, or outside the tables"),
+        ]),
+        Line::default(),
+        Line::styled("Keys", t.heading()),
+    ];
+    for b in KEYMAP {
+        lines.push(Line::from(vec![
+            Span::styled(format!("  {:<11}", b.label), t.heading()),
+            Span::raw(b.help),
+        ]));
+    }
+    lines.push(Line::default());
+    lines.push(Line::styled(crate::CAUTION, t.caution()));
+    let r = centered(area, 80, lines.len() as u16 + 2);
+    // Wrapped lines take more rows than there are lines: leave some slack.
+    let hidden = (lines.len() as u16 + 5).saturating_sub(r.height);
+    let scroll = scroll.min(hidden);
+    let title = if hidden > 0 {
+        " Help — ↑↓ scroll, Esc closes "
+    } else {
+        " Help — Esc closes "
+    };
+    Clear.render(r, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .scroll((scroll, 0))
+        .block(Block::bordered().border_style(t.frame()).title(title))
+        .render(r, buf);
+}
+
+/// A field's error without the "manual observation XSEA: " prefix the form makes plain.
+fn field_error(e: &str) -> &str {
+    match e.strip_prefix("manual observation ") {
+        Some(rest) => rest.split_once(": ").map_or(rest, |(_, m)| m),
+        None => e,
+    }
+}
+
+fn form(app: &App, f: &Form, area: Rect, buf: &mut Buffer, t: Theme) {
+    let mut lines: Vec<Line> = vec![
+        Line::styled(
+            "An observation typed by hand (tagged as manual wherever shown):",
+            t.dim(),
+        ),
+        Line::default(),
+    ];
+    for (i, spec) in FIELDS.iter().enumerate() {
+        let focus = i == f.focus;
+        let value = if focus {
+            format!("{}▏", f.values[i])
+        } else {
+            f.values[i].clone()
+        };
+        let label_style = if focus { t.selected() } else { t.heading() };
+        lines.push(Line::from(vec![
+            Span::styled(format!("{:>17}", spec.label), label_style),
+            Span::raw(format!(" {value:<14} ")),
+            Span::styled(spec.hint, t.dim()),
+        ]));
+        if let Some(e) = f.error_for(i) {
+            lines.push(Line::styled(
+                format!("{:>17} ✗ {}", "", field_error(e)),
+                t.error(),
+            ));
+        }
+    }
+    let general: Vec<&str> = f
+        .errors
+        .iter()
+        .filter(|(i, _)| i.is_none())
+        .map(|(_, m)| m.as_str())
+        .collect();
+    lines.push(Line::default());
+    for g in general {
+        lines.push(Line::styled(format!("✗ {g}"), t.error()));
+    }
+    if !f.errors.is_empty() {
+        lines.push(Line::styled(
+            format!(
+                "{} problem(s): fix the marked fields and press Enter again.",
+                f.errors.len()
+            ),
+            t.error(),
+        ));
+    }
+    lines.push(Line::styled(
+        format!("Wind: {}.", crate::observation::manual::WIND_FORM_NOTE),
+        t.dim(),
+    ));
+    lines.push(Line::styled(
+        format!(
+            "Date: {} (the board's day). Enter adds the report, Esc cancels.",
+            app.clock.format("%Y-%m-%d")
+        ),
+        t.dim(),
+    ));
+    let r = centered(area, 100, lines.len() as u16 + 4);
+    Clear.render(r, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .block(
+            Block::bordered()
+                .border_style(t.frame())
+                .title(" Report by hand (o) "),
+        )
+        .render(r, buf);
+}

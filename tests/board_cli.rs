@@ -1,0 +1,108 @@
+//! `rhoboard board` through the binary when standard output is not a terminal.
+
+use std::process::Command;
+
+#[test]
+fn the_board_needs_a_terminal_and_says_what_to_use_instead() {
+    let home = std::env::temp_dir().join(format!("rhoboard-cli-board-{}", std::process::id()));
+    let out = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .arg("board")
+        .env("HOME", &home)
+        .env("XDG_CONFIG_HOME", &home)
+        .output()
+        .expect("runs");
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    insta::assert_snapshot!(err, @"rhoboard: the board needs a terminal; for text or JSON use `rhoboard check` (with --json)");
+}
+
+#[test]
+fn bad_board_arguments_are_named() {
+    let out = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(["board", "--ops", "/nonexistent/rhoboard-ops"])
+        .output()
+        .expect("runs");
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("/nonexistent/rhoboard-ops"), "{err}");
+}
+
+fn demo_folder(tag: &str) -> std::path::PathBuf {
+    let dir = std::env::temp_dir().join(format!("rhoboard-board-ops-{tag}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    for (path, text) in rhoboard::ops::demo::files().files {
+        let p = dir.join(path);
+        std::fs::create_dir_all(p.parent().unwrap()).unwrap();
+        std::fs::write(p, text).unwrap();
+    }
+    dir
+}
+
+#[test]
+fn replay_of_a_file_starts_half_an_hour_after_its_first_report() {
+    use chrono::{TimeZone, Utc};
+    use rhoboard::commands::board::{Args, prepare};
+    let dir = demo_folder("replay");
+    let args = Args {
+        ops: Some(dir.clone()),
+        replay: Some(dir.join("observations/2026-06-14.txt")),
+        speed: Some(4.0),
+        ..Args::default()
+    };
+    let now = Utc.with_ymd_and_hms(2026, 12, 1, 19, 0, 0).unwrap();
+    let (app, feeds) = prepare(&args, now).expect("prepares");
+    assert_eq!(
+        app.clock,
+        Utc.with_ymd_and_hms(2026, 6, 14, 6, 30, 0).unwrap()
+    );
+    let rp = app.replay.as_ref().expect("replay");
+    assert_eq!(rp.speed, 4.0);
+    assert!(!app.assessment.legs.is_empty());
+    assert!(
+        feeds.folder.is_none() && feeds.command.is_none(),
+        "a replay has no live feeds"
+    );
+    std::fs::remove_dir_all(&dir).unwrap();
+}
+
+#[test]
+fn live_on_a_folder_watches_its_observations_and_runs_the_feed_command() {
+    use chrono::{TimeZone, Utc};
+    use rhoboard::commands::board::{Args, prepare};
+    let dir = demo_folder("live");
+    let args = Args {
+        ops: Some(dir.clone()),
+        at: Some("2026-06-14T10:00:00Z".into()),
+        feed_cmd: Some("cat /dev/null".into()),
+        feed_every: "5m".into(),
+        ..Args::default()
+    };
+    let now = Utc.with_ymd_and_hms(2026, 12, 1, 19, 0, 0).unwrap();
+    let (app, feeds) = prepare(&args, now).expect("prepares");
+    assert!(app.replay.is_none());
+    assert_eq!(
+        app.clock,
+        Utc.with_ymd_and_hms(2026, 6, 14, 10, 0, 0).unwrap()
+    );
+    assert_eq!(feeds.folder.as_ref().unwrap().0, dir.join("observations"));
+    assert_eq!(
+        feeds.command,
+        Some((
+            "cat /dev/null".to_string(),
+            std::time::Duration::from_secs(300)
+        ))
+    );
+    assert_eq!(
+        feeds.clock_offset,
+        app.clock - now,
+        "feeds date reports on the board's clock"
+    );
+    // A bad schedule is named.
+    let bad = Args {
+        feed_every: "soon".into(),
+        ..args
+    };
+    let err = prepare(&bad, now).err().expect("refused").to_string();
+    assert!(err.contains("--feed-every 'soon'"), "{err}");
+    std::fs::remove_dir_all(&dir).unwrap();
+}

@@ -1,0 +1,435 @@
+//! `update` driven by messages on a fixed clock: no sleeps, no timing.
+
+#[path = "common/board.rs"]
+mod board_common;
+
+use std::time::Duration;
+
+use board_common::{demo, demo_stepped_to, demo_time, key, type_text};
+use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+use rhoboard::assess::State;
+use rhoboard::board::app::{Mode, NoteKind};
+use rhoboard::board::{Msg, Pane, Sort};
+use rhoboard::observation::decode_all;
+
+fn selected_id(app: &rhoboard::board::App) -> String {
+    app.selected_leg().map(|r| r.id.clone()).unwrap_or_default()
+}
+
+#[test]
+fn arrows_and_vi_keys_move_the_selection() {
+    let mut app = demo(8, 0);
+    assert_eq!(selected_id(&app), "L01");
+    app.update(key(KeyCode::Char('j')));
+    app.update(key(KeyCode::Down));
+    assert_eq!(selected_id(&app), "L03");
+    app.update(key(KeyCode::Char('k')));
+    assert_eq!(selected_id(&app), "L02");
+    app.update(key(KeyCode::Char('G')));
+    assert_eq!(selected_id(&app), "L15");
+    app.update(key(KeyCode::Down));
+    assert_eq!(selected_id(&app), "L15", "stays on the last row");
+    app.update(key(KeyCode::Char('g')));
+    assert_eq!(selected_id(&app), "L01");
+    app.update(key(KeyCode::Up));
+    assert_eq!(selected_id(&app), "L01", "stays on the first row");
+}
+
+#[test]
+fn sort_cycles_time_state_margin_and_keeps_the_selected_leg() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('j')));
+    assert_eq!(selected_id(&app), "L02");
+    app.update(key(KeyCode::Char('s')));
+    assert_eq!(app.ui.sort, Sort::State);
+    assert_eq!(selected_id(&app), "L02", "the selection follows its leg");
+    let states: Vec<State> = app
+        .rows()
+        .iter()
+        .map(|&k| app.assessment.legs[k].state)
+        .collect();
+    let mut sorted = states.clone();
+    sorted.sort_by(|a, b| b.cmp(a));
+    assert_eq!(states, sorted, "worst first");
+    assert_eq!(states[0], State::Below);
+    app.update(key(KeyCode::Char('s')));
+    assert_eq!(app.ui.sort, Sort::Margin);
+    let first = &app.assessment.legs[app.rows()[0]];
+    assert_eq!(first.state, State::Below);
+    app.update(key(KeyCode::Char('s')));
+    assert_eq!(app.ui.sort, Sort::Time);
+}
+
+#[test]
+fn filter_narrows_the_legs_and_esc_clears_it() {
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Char('/')));
+    assert_eq!(app.ui.mode, Mode::Filter);
+    type_text(&mut app, "xhig");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.ui.mode, Mode::Normal);
+    let ids: Vec<String> = app
+        .rows()
+        .iter()
+        .map(|&k| app.assessment.legs[k].id.clone())
+        .collect();
+    assert_eq!(ids, ["L03", "L07", "L11", "L13"]);
+    // Keys are actions again once the filter is kept.
+    app.update(key(KeyCode::Char('j')));
+    assert_eq!(selected_id(&app), "L07");
+    app.update(key(KeyCode::Esc));
+    assert_eq!(app.rows().len(), app.assessment.legs.len());
+    assert!(app.ui.filter.is_empty());
+}
+
+#[test]
+fn filter_by_state_word() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('/')));
+    type_text(&mut app, "below");
+    app.update(key(KeyCode::Enter));
+    assert!(!app.rows().is_empty());
+    assert!(
+        app.rows()
+            .iter()
+            .all(|&k| app.assessment.legs[k].state == State::Below)
+    );
+}
+
+#[test]
+fn tab_and_shift_tab_cycle_the_panes() {
+    let mut app = demo(8, 0);
+    let mut seen = vec![app.ui.pane];
+    for _ in 0..5 {
+        app.update(key(KeyCode::Tab));
+        seen.push(app.ui.pane);
+    }
+    assert_eq!(
+        seen,
+        [
+            Pane::Legs,
+            Pane::Pairings,
+            Pane::Airfields,
+            Pane::Fleet,
+            Pane::Reports,
+            Pane::Legs
+        ]
+    );
+    app.update(key(KeyCode::BackTab));
+    assert_eq!(app.ui.pane, Pane::Reports);
+    app.update(Msg::Key(KeyEvent::new(KeyCode::Tab, KeyModifiers::SHIFT)));
+    assert_eq!(app.ui.pane, Pane::Fleet);
+}
+
+#[test]
+fn enter_opens_the_detail_and_esc_closes_it() {
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Enter));
+    assert!(app.ui.detail_open);
+    app.update(key(KeyCode::Down));
+    assert_eq!(app.ui.detail_scroll, 1, "arrows scroll an open detail");
+    assert_eq!(selected_id(&app), "L01");
+    app.update(key(KeyCode::Esc));
+    assert!(!app.ui.detail_open);
+    app.update(key(KeyCode::Down));
+    assert_eq!(selected_id(&app), "L02");
+}
+
+#[test]
+fn enter_on_a_pairing_opens_its_chain() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Char('l')));
+    app.update(key(KeyCode::Char('j')));
+    assert_eq!(app.ui.pair, (1, 1));
+    app.update(key(KeyCode::Enter));
+    let p = app.ui.pairing.as_ref().expect("pairing detail");
+    assert!(p.title.contains("X-TRNB"), "{}", p.title);
+    assert_eq!(p.result.departure.airfield, "XFEN");
+    // The chain's state is the matrix cell's state.
+    let m = &app.assessment.matrix;
+    assert_eq!(p.result.departure.state.max(p.result.state), p.result.state);
+    assert_eq!(m.cell(1, 1).state, app.assessment.matrix.cell(1, 1).state);
+    app.update(key(KeyCode::Esc));
+    assert!(app.ui.pairing.is_none());
+}
+
+#[test]
+fn a_hot_report_turns_a_leg_below_and_lists_the_change() {
+    let mut app = demo(8, 0);
+    let before = app
+        .assessment
+        .legs
+        .iter()
+        .find(|r| r.id == "L14")
+        .unwrap()
+        .state;
+    assert_ne!(before, State::Below);
+    let hot = decode_all(
+        "METAR XBRK 140800Z 30004KT 9999 FEW040 38/05 Q1008",
+        demo_time(23, 0),
+    );
+    app.update(Msg::Observations {
+        source: "test".into(),
+        reports: hot,
+    });
+    let after = app.assessment.legs.iter().find(|r| r.id == "L14").unwrap();
+    assert_eq!(after.state, State::Below, "{:?}", after.reasons);
+    let note = app
+        .notes
+        .iter()
+        .find(|n| n.text.contains("L14"))
+        .expect("change listed");
+    assert_eq!(note.kind, NoteKind::Change(State::Below));
+    assert!(
+        note.text.starts_with("XBRK: L14 now ✗ below"),
+        "{}",
+        note.text
+    );
+    let index = after.index;
+    assert!(app.flashing(index));
+    assert_eq!(app.received.front().unwrap().source, "test");
+    // The mark fades after a while of real time.
+    app.update(Msg::Tick {
+        now: demo_time(8, 0),
+        elapsed: Duration::from_secs(60),
+    });
+    assert!(!app.flashing(index));
+}
+
+#[test]
+fn a_rejected_report_shows_with_its_reason() {
+    let mut app = demo(8, 0);
+    app.update(Msg::Observations {
+        source: "feed command".into(),
+        reports: decode_all("METAR XSEA 140800Z NIL", demo_time(23, 0)),
+    });
+    let r = app.received.front().unwrap();
+    assert!(r.rejected.is_some(), "{r:?}");
+}
+
+#[test]
+fn a_failing_feed_is_shown_once() {
+    let mut app = demo(8, 0);
+    for _ in 0..3 {
+        app.update(Msg::FeedError {
+            source: "feed command 'false'".into(),
+            error: "exited with exit status: 1".into(),
+        });
+    }
+    let errors = app
+        .notes
+        .iter()
+        .filter(|n| n.kind == NoteKind::Error)
+        .count();
+    assert_eq!(errors, 1);
+}
+
+#[test]
+fn replay_plays_an_hour_in_ten_seconds_and_feeds_due_reports() {
+    let mut app = demo(6, 30);
+    app.update(key(KeyCode::Char(' '))); // resume (the helper pauses)
+    let fed = app.replay.as_ref().unwrap().fed;
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_secs(5),
+    });
+    assert_eq!(app.clock, demo_time(7, 0));
+    assert!(app.replay.as_ref().unwrap().fed > fed, "07Z reports fed");
+    app.update(key(KeyCode::Char('+')));
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_secs(5),
+    });
+    assert_eq!(app.clock, demo_time(8, 0), "twice the pace");
+    app.update(key(KeyCode::Char(' ')));
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_secs(60),
+    });
+    assert_eq!(app.clock, demo_time(8, 0), "paused");
+}
+
+#[test]
+fn next_and_previous_hour() {
+    let mut app = demo(6, 30);
+    app.update(key(KeyCode::Char('n')));
+    assert_eq!(app.clock, demo_time(7, 0));
+    for _ in 0..8 {
+        app.update(key(KeyCode::Char('n')));
+    }
+    assert_eq!(app.clock, demo_time(15, 0));
+    let afternoon = app.assessment.counts();
+    app.update(key(KeyCode::Char('p')));
+    assert_eq!(app.clock, demo_time(14, 0));
+    let xsea = app.store.valid_at("XSEA", demo_time(23, 0)).unwrap();
+    assert_eq!(
+        xsea.report.observed_at,
+        Some(demo_time(14, 0)),
+        "the 15Z report is gone after stepping back"
+    );
+    app.update(key(KeyCode::Char('n')));
+    assert_eq!(app.clock, demo_time(15, 0));
+    assert_eq!(app.assessment.counts(), afternoon);
+}
+
+#[test]
+fn a_report_typed_by_hand_is_stored_and_kept_across_a_step_back() {
+    let mut app = demo_stepped_to(9);
+    app.update(key(KeyCode::Char('o')));
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!("form open")
+    };
+    assert_eq!(f.values[0], "XSEA", "station from the selected leg");
+    assert_eq!(f.values[1], "0900");
+    // station, time, wind direction, wind true, wind speed, gust, visibility, ceiling,
+    // temperature, dew point, altimeter
+    app.update(key(KeyCode::Backspace));
+    app.update(key(KeyCode::Backspace));
+    app.update(key(KeyCode::Backspace));
+    app.update(key(KeyCode::Backspace));
+    type_text(&mut app, "XFEN");
+    app.update(key(KeyCode::Tab));
+    for _ in 0..4 {
+        app.update(key(KeyCode::Backspace));
+    }
+    type_text(&mut app, "0915");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "270");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "8kt");
+    for _ in 0..4 {
+        app.update(key(KeyCode::Tab));
+    }
+    type_text(&mut app, "24C");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "1016hPa");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.ui.mode, Mode::Normal, "form closed");
+    assert!(app.notes.iter().any(|n| n.text.contains("added by hand")));
+    // 09:15 is after the board's 09:00: the report waits in the store for its time.
+    app.update(key(KeyCode::Char('n')));
+    let v = app.store.valid_at("XFEN", demo_time(9, 20)).unwrap();
+    assert_eq!(v.report.observed_at, Some(demo_time(9, 15)));
+    app.update(key(KeyCode::Char('p')));
+    app.update(key(KeyCode::Char('n')));
+    app.update(key(KeyCode::Char('n')));
+    let v = app.store.valid_at("XFEN", demo_time(9, 20)).unwrap();
+    assert_eq!(
+        v.report.observed_at,
+        Some(demo_time(9, 15)),
+        "kept across a step back"
+    );
+}
+
+#[test]
+fn the_form_shows_errors_beside_their_fields() {
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Char('o')));
+    app.update(key(KeyCode::Enter));
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!("form stays open")
+    };
+    assert!(f.error_for(2).is_some(), "wind direction: {:?}", f.errors);
+    assert!(f.error_for(8).is_some(), "temperature: {:?}", f.errors);
+    assert!(f.error_for(10).is_some(), "altimeter: {:?}", f.errors);
+    assert_eq!(f.focus, 2, "focus jumps to the first bad field");
+    app.update(key(KeyCode::Esc));
+    assert_eq!(app.ui.mode, Mode::Normal);
+}
+
+#[test]
+fn help_opens_and_closes_and_q_and_ctrl_c_quit() {
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Char('?')));
+    assert_eq!(app.ui.mode, Mode::Help);
+    app.update(key(KeyCode::Char('q')));
+    assert_eq!(app.ui.mode, Mode::Normal, "q closes the help first");
+    assert!(!app.quit);
+    app.update(key(KeyCode::Char('q')));
+    assert!(app.quit);
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Char('/')));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('c'),
+        KeyModifiers::CONTROL,
+    )));
+    assert!(app.quit, "Ctrl-C quits from any mode");
+    let mut app = demo(8, 0);
+    app.update(Msg::Quit);
+    assert!(app.quit);
+}
+
+#[test]
+fn a_click_selects_a_leg_and_a_tab() {
+    let mut app = demo(8, 0);
+    app.update(Msg::Resize(120, 40));
+    // Row 2 is the header; row 3 is L01, row 6 is L04.
+    app.update(Msg::Click(10, 6));
+    assert_eq!(selected_id(&app), "L04");
+    app.update(Msg::Click(9, 1));
+    assert_eq!(app.ui.pane, Pane::Pairings);
+}
+
+#[test]
+fn staleness_is_rechecked_as_the_clock_moves_without_reports() {
+    let mut app = demo(8, 0);
+    // Stop the replay's reports: a live board whose feed went quiet.
+    app.replay.as_mut().unwrap().queue.clear();
+    app.update(key(KeyCode::Char(' ')));
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_secs(20),
+    });
+    assert_eq!(app.clock, demo_time(10, 0));
+    let l05 = app.assessment.legs.iter().find(|r| r.id == "L05").unwrap();
+    assert_eq!(l05.state, State::NoData, "the 08Z report is stale by 0930Z");
+}
+
+#[test]
+fn past_midnight_the_new_days_legs_replace_the_old() {
+    let mut app = demo(23, 0);
+    assert!(app.assessment.legs.len() >= 15);
+    app.update(key(KeyCode::Char('n')));
+    assert_eq!(app.clock, demo_time(23, 0) + chrono::TimeDelta::hours(1));
+    assert!(
+        app.assessment.legs.is_empty(),
+        "the demo has no legs on the 15th"
+    );
+    assert!(app.notes.iter().any(|n| n.text.contains("new UTC day")));
+}
+
+#[test]
+fn stepping_back_over_midnight_brings_the_day_back() {
+    let mut app = demo(23, 30);
+    let day = app.assessment.legs.len();
+    app.update(key(KeyCode::Char('n')));
+    assert!(app.assessment.legs.is_empty());
+    app.update(key(KeyCode::Char('p')));
+    assert_eq!(app.clock, demo_time(23, 0));
+    assert_eq!(app.assessment.legs.len(), day);
+}
+
+#[test]
+fn the_bell_rings_once_for_a_new_below_when_asked_for() {
+    let mut app = rhoboard::board::App::demo(
+        demo_time(8, 0),
+        rhoboard::board::Settings {
+            bell: true,
+            color: false,
+            ..Default::default()
+        },
+    )
+    .unwrap();
+    app.update(Msg::Observations {
+        source: "test".into(),
+        reports: decode_all(
+            "METAR XBRK 140800Z 30004KT 9999 FEW040 38/05 Q1008",
+            demo_time(23, 0),
+        ),
+    });
+    assert!(app.take_bell());
+    assert!(!app.take_bell(), "rung once");
+}

@@ -1,0 +1,77 @@
+//! The forecast look-ahead on the demo day: at the 08:00Z morning review, the TAFs name
+//! the afternoon legs that the observed day then breaks.
+
+use std::process::Command;
+
+use serde_json::Value;
+
+fn check(args: &[&str]) -> Value {
+    let home = std::env::temp_dir().join(format!("rhoboard-fc-{}", std::process::id()));
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(args)
+        .env("XDG_CONFIG_HOME", &home)
+        .env("HOME", &home)
+        .output()
+        .unwrap();
+    serde_json::from_str(&String::from_utf8_lossy(&o.stdout)).expect("JSON")
+}
+
+#[test]
+fn the_morning_forecast_names_the_legs_the_afternoon_breaks() {
+    let morning = check(&[
+        "check",
+        "--json",
+        "--forecast",
+        "--at",
+        "2026-06-14T08:00:00Z",
+    ]);
+    let afternoon = check(&["check", "--json", "--at", "2026-06-14T16:00:00Z"]);
+    let legs = |v: &Value| v["legs"].as_array().unwrap().clone();
+    let mut named = 0;
+    for (m, a) in legs(&morning).iter().zip(legs(&afternoon).iter()) {
+        assert_eq!(m["id"], a["id"]);
+        let f = &m["forecast"];
+        assert!(f["basis"].as_str().unwrap().contains("TAF"), "{f}");
+        if a["state"] == "below" && m["state"] != "below" {
+            // Broken later in the observed day: the morning forecast saw it coming —
+            // below at its planned time, or failing from a time before it departs.
+            let departs = m["departs_at"].as_str().unwrap();
+            let fails = f["fails_from"].as_str();
+            let foreseen = f["state"] == "below" || fails.is_some_and(|t| t <= departs);
+            assert!(foreseen, "{}: forecast {f}", m["id"]);
+            named += 1;
+        }
+        // A forecast never turns an observed below into anything better.
+        if m["state"] == "below" {
+            assert_eq!(f["state"], "below");
+        }
+    }
+    assert!(named >= 3, "only {named} legs broken in the afternoon");
+}
+
+#[test]
+fn the_forecast_is_kept_apart_from_the_observed_result() {
+    let v = check(&[
+        "check",
+        "--json",
+        "--forecast",
+        "--leg",
+        "L14",
+        "--at",
+        "2026-06-14T08:00:00Z",
+    ]);
+    let l = &v["legs"][0];
+    assert_eq!(l["state"], "thin", "observed");
+    assert!(l["forecast"]["state"].is_string());
+    assert!(l["forecast"]["fails_from"].is_string());
+    // Without --forecast there is no forecast key at all.
+    let v = check(&[
+        "check",
+        "--json",
+        "--leg",
+        "L14",
+        "--at",
+        "2026-06-14T08:00:00Z",
+    ]);
+    assert!(v["legs"][0].get("forecast").is_none());
+}

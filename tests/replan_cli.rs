@@ -1,0 +1,117 @@
+//! `rhoboard leg set`: re-planning from the command line, on a folder made by `init`.
+
+use std::process::Command;
+
+fn rhoboard(home: &std::path::Path, args: &[&str]) -> (i32, String, String) {
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(args)
+        .env("XDG_CONFIG_HOME", home)
+        .env("HOME", home)
+        .output()
+        .unwrap();
+    (
+        o.status.code().unwrap_or(-1),
+        String::from_utf8_lossy(&o.stdout).into_owned(),
+        String::from_utf8_lossy(&o.stderr).into_owned(),
+    )
+}
+
+#[test]
+fn the_afternoon_charter_is_re_planned_to_the_morning_and_saved() {
+    let dir = std::env::temp_dir().join(format!("rhoboard-leg-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let home = dir.join("home");
+    let ops = dir.join("ops");
+    let d = ops.to_str().unwrap();
+    assert_eq!(rhoboard(&home, &["init", d]).0, 0);
+    let at = "2026-06-14T14:00:00Z";
+    // Dry run: before and after, nothing written.
+    let legs = ops.join("legs/2026-06-14.json");
+    let original = std::fs::read_to_string(&legs).unwrap();
+    let (code, out, err) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L16",
+            "--etd",
+            "06:30Z",
+            "--dry-run",
+            "--ops",
+            d,
+            "--at",
+            at,
+        ],
+    );
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        out.contains("before: ✗ below") && out.contains("after:  ✓ within"),
+        "{out}"
+    );
+    assert!(out.contains("Dry run"), "{out}");
+    assert_eq!(std::fs::read_to_string(&legs).unwrap(), original);
+    // Dropping the third passenger also makes it go, and says how much room is left.
+    let (code, out, _) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L16",
+            "--unload",
+            "rear_seats",
+            "--dry-run",
+            "--ops",
+            d,
+            "--at",
+            at,
+        ],
+    );
+    assert_eq!(code, 0);
+    assert!(
+        out.contains("after:  ✓ within") && out.contains("room for"),
+        "{out}"
+    );
+    // Saved: the file changes, a hidden backup keeps the previous version, and the
+    // folder still validates.
+    let (code, out, err) = rhoboard(
+        &home,
+        &[
+            "leg", "set", "L16", "--etd", "06:30Z", "--ops", d, "--at", at,
+        ],
+    );
+    assert_eq!(code, 0, "{err}");
+    assert!(out.contains("Saved"), "{out}");
+    let now = std::fs::read_to_string(&legs).unwrap();
+    assert!(
+        now.contains("2026-06-14T06:30:00+00:00") || now.contains("2026-06-14T06:30:00Z"),
+        "{now}"
+    );
+    assert_eq!(
+        std::fs::read_to_string(ops.join("legs/.2026-06-14.json.bak")).unwrap(),
+        original
+    );
+    assert_eq!(rhoboard(&home, &["validate", "--ops", d]).0, 0);
+    // A stray temporary file (a crash between write and rename) is ignored and the
+    // legs file is whole.
+    std::fs::write(ops.join("legs/.2026-06-14.json.tmp-1"), "{ half a fi").unwrap();
+    let (code, out, _) = rhoboard(&home, &["check", "--ops", d, "--leg", "L16", "--at", at]);
+    assert!(code == 0 || code == 1, "{out}");
+    // Bad input: exit 2 with the value quoted.
+    let (code, _, err) = rhoboard(
+        &home,
+        &["leg", "set", "L16", "--aircraft", "X-NONE", "--ops", d],
+    );
+    assert_eq!(code, 2);
+    assert!(err.contains("X-NONE"), "{err}");
+    let (code, _, err) = rhoboard(
+        &home,
+        &["leg", "set", "L16", "--load", "baggage", "--ops", d],
+    );
+    assert_eq!(code, 2);
+    assert!(err.contains("STATION=MASS"), "{err}");
+    // On the built-in demo only a dry run is possible.
+    let (code, _, err) = rhoboard(&home, &["leg", "set", "L16", "--etd", "06:30Z"]);
+    assert_eq!(code, 2);
+    assert!(err.contains("--dry-run"), "{err}");
+    let _ = std::fs::remove_dir_all(&dir);
+}
