@@ -295,28 +295,24 @@ fn compare(ours: &Taf, theirs: &Value) -> Vec<(String, String)> {
             (t.day(), t.hour())
         }
     };
-    let ov = ours
-        .valid_from
-        .zip(ours.valid_to)
-        .map(|(a, b)| (hours(a, false), hours(b, true)));
-    let tv = Some((
-        (
-            v["start_day"].as_u64().unwrap_or(0) as u32,
-            v["start_hour"].as_u64().unwrap_or(0) as u32,
-        ),
-        (
-            v["end_day"].as_u64().unwrap_or(0) as u32,
-            v["end_hour"].as_u64().unwrap_or(0) as u32,
-        ),
-    ));
-    let norm = |x: Option<((u32, u32), (u32, u32))>| {
-        x.map(|(a, (d, h))| if h == 0 { (a, (d, 0)) } else { (a, (d, h)) })
+    // Day and hour as written; hour 24 of day D is 00:00 of the day after D.
+    let same = |t: chrono::DateTime<Utc>, d: u64, h: u64| {
+        (u64::from(t.day()) == d && u64::from(t.hour()) == h)
+            || (h == 24 && t.hour() == 0 && u64::from((t - chrono::Duration::days(1)).day()) == d)
     };
-    if norm(ov) != norm(tv)
-        && !(ov.is_some_and(|(_, e)| e.1 == 24) && tv.is_some_and(|(_, e)| e.1 == 0))
-    {
-        // 24 vs 00 of the next day are the same instant; anything else is a real difference.
-        diff("validity", format!("ours {ov:?} theirs {tv:?}"));
+    let field = |k: &str| v[k].as_u64().unwrap_or(99);
+    let validity_ok = match (ours.valid_from, ours.valid_to) {
+        (Some(a), Some(b)) => {
+            same(a, field("start_day"), field("start_hour"))
+                && same(b, field("end_day"), field("end_hour"))
+        }
+        _ => false,
+    };
+    if !validity_ok {
+        diff(
+            "validity",
+            format!("ours {:?}-{:?} theirs {v}", ours.valid_from, ours.valid_to),
+        );
     }
     let mut parts = Vec::new();
     compare_part(
