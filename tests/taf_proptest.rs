@@ -1,5 +1,5 @@
 //! Property tests for the TAF decoder and the forecast: arbitrary strings and mutations
-//! of the corpus never panic; a TEMPO/PROB worst case is never better than the
+//! of the corpus never panic (and decode stably); a TEMPO/PROB worst case is never better than the
 //! prevailing conditions; the temperature curve stays within [TN, TX]. 800 cases each
 //! by default (`PROPTEST_CASES` overrides).
 
@@ -121,6 +121,10 @@ proptest! {
         s.replace_range(start..end, "");
         let t = taf::decode(&s, reference());
         exercise(&t);
+        // Stable: decoding its own normalised text gives the same TAF.
+        if !t.text.ends_with('…') {
+            prop_assert_eq!(taf::decode(&t.text, reference()), t);
+        }
     }
 
     #[test]
