@@ -1,7 +1,7 @@
 //! Property tests for the TAF decoder and the forecast: arbitrary strings and mutations
-//! of the corpus never panic (and decode stably); a TEMPO/PROB worst case is never better than the
-//! prevailing conditions; the temperature curve stays within [TN, TX]. 800 cases each
-//! by default (`PROPTEST_CASES` overrides).
+//! of the corpus never panic (and decode stably); a TEMPO/PROB worst case is never
+//! better than the prevailing conditions; the temperature curve stays within [TN, TX].
+//! 800 cases each by default (`PROPTEST_CASES` overrides).
 
 use chrono::{DateTime, Duration, TimeZone, Utc};
 use proptest::prelude::*;
