@@ -196,6 +196,55 @@ pub struct Sheet {
     pub chains: Vec<ChainBlock>,
     /// Legs whose sign-off needs a re-check: (leg, reasons).
     pub rechecks: Vec<(String, Vec<String>)>,
+    /// The forecast look-ahead, where the operator has TAFs: (leg, forecast state,
+    /// when it fails from, basis). Always labelled as a forecast.
+    pub forecast: Vec<ForecastLine>,
+}
+
+/// One leg's forecast look-ahead on the sheet.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ForecastLine {
+    /// Leg id.
+    pub leg: String,
+    /// The forecast state, or `None` when no forecast covers the leg.
+    pub state: Option<State>,
+    /// In words: "fails from ~1311Z", "holds through the forecast", "below now".
+    pub outlook: String,
+}
+
+/// The sheet's forecast lines from the look-ahead results.
+pub fn forecast_lines(
+    results: &[LegResult],
+    looks: &[Option<crate::assess::lookahead::LookAhead>],
+) -> Vec<ForecastLine> {
+    results
+        .iter()
+        .zip(looks)
+        .map(|(r, l)| ForecastLine {
+            leg: r.id.clone(),
+            state: l.as_ref().map(|l| l.state),
+            outlook: match l {
+                None => "no forecast covers it".to_string(),
+                Some(l) => {
+                    let when = match l.fails_from {
+                        Some(t) => format!("fails from ~{}", t.format("%H%MZ")),
+                        None if r.state == State::Below => "below now".to_string(),
+                        None => "holds through the forecast".to_string(),
+                    };
+                    if l.worst_case {
+                        when + " (a TEMPO/PROB worst case)"
+                    } else {
+                        when
+                    }
+                }
+            },
+        })
+        .collect()
+}
+
+fn forecast_state(l: &ForecastLine) -> String {
+    l.state
+        .map_or("—".to_string(), |s| format!("{} {}", s.glyph(), s.word()))
 }
 
 fn wind_words(w: &crate::observation::Wind) -> String {
@@ -333,6 +382,7 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
         fields,
         chains,
         rechecks,
+        forecast: Vec::new(),
     }
 }
 
@@ -558,6 +608,25 @@ pub fn markdown(s: &Sheet) -> String {
         }
         let _ = writeln!(o);
     }
+    if !s.forecast.is_empty() {
+        let _ = writeln!(
+            o,
+            "## Forecast look-ahead (from the TAFs — a forecast, not an observation)"
+        );
+        let _ = writeln!(o);
+        let _ = writeln!(o, "| Leg | Forecast | Outlook |");
+        let _ = writeln!(o, "| --- | --- | --- |");
+        for f in &s.forecast {
+            let _ = writeln!(
+                o,
+                "| {} | {} | {} |",
+                md_cell(&f.leg),
+                forecast_state(f),
+                md_cell(&f.outlook)
+            );
+        }
+        let _ = writeln!(o);
+    }
     let _ = writeln!(o, "## Airfields at {}", s.at.format("%H%MZ"));
     let _ = writeln!(o);
     let _ = writeln!(
@@ -760,6 +829,26 @@ pub fn html(s: &Sheet) -> String {
             let _ = writeln!(o, "<li>↻ {}: {}</li>", esc(leg), esc(&why.join("; ")));
         }
         let _ = writeln!(o, "</ul></div>");
+    }
+    if !s.forecast.is_empty() {
+        let _ = writeln!(
+            o,
+            "<h2>Forecast look-ahead <small>(from the TAFs — a forecast, not an observation)</small></h2>"
+        );
+        let _ = writeln!(
+            o,
+            "<table><thead><tr><th>Leg</th><th>Forecast</th><th>Outlook</th></tr></thead><tbody>"
+        );
+        for f in &s.forecast {
+            let _ = writeln!(
+                o,
+                "<tr><td>{}</td><td>{}</td><td>{}</td></tr>",
+                esc(&f.leg),
+                esc(&forecast_state(f)),
+                esc(&f.outlook)
+            );
+        }
+        let _ = writeln!(o, "</tbody></table>");
     }
     let _ = writeln!(o, "<h2>Airfields at {}</h2>", s.at.format("%H%MZ"));
     let _ = writeln!(o, "<table>");

@@ -322,6 +322,33 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
     Ok(())
 }
 
+/// The look-ahead of every result from the operator's TAFs, to the end of the UTC day.
+pub fn look_aheads(
+    ctx: &Context<'_>,
+    store: &Store,
+    results: &[LegResult],
+) -> Vec<Option<LookAhead>> {
+    let ops = ctx.ops;
+    let tafs = crate::observation::taf::from_files(&ops.observations, ctx.at);
+    let src = TafSource {
+        tafs: &tafs,
+        as_of: ctx.at,
+        expected_high_c: ops.operator.policy.expected_high_c,
+        utc_offset_min: ops.operator.time_zone.utc_offset_min,
+        store,
+    };
+    let end_of_day = ctx
+        .at
+        .date_naive()
+        .and_hms_opt(23, 59, 0)
+        .map(|t| t.and_utc())
+        .unwrap_or(ctx.at);
+    results
+        .iter()
+        .map(|r| look_ahead(ctx, r.index, r.state, &src, end_of_day))
+        .collect()
+}
+
 /// The forecast object of a leg's JSON: always labelled as a forecast.
 pub fn forecast_json(l: Option<&LookAhead>) -> Value {
     match l {
@@ -436,24 +463,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         .filter_map(|&i| assess_leg(&ctx, i))
         .collect();
     let looks: Vec<Option<LookAhead>> = if args.forecast {
-        let tafs = crate::observation::taf::from_files(&ops.observations, loaded.at);
-        let src = TafSource {
-            tafs: &tafs,
-            as_of: loaded.at,
-            expected_high_c: ops.operator.policy.expected_high_c,
-            utc_offset_min: ops.operator.time_zone.utc_offset_min,
-            store: &loaded.store,
-        };
-        let end_of_day = loaded
-            .at
-            .date_naive()
-            .and_hms_opt(23, 59, 0)
-            .map(|t| t.and_utc())
-            .unwrap_or(loaded.at);
-        results
-            .iter()
-            .map(|r| look_ahead(&ctx, r.index, r.state, &src, end_of_day))
-            .collect()
+        look_aheads(&ctx, &loaded.store, &results)
     } else {
         Vec::new()
     };

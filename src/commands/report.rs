@@ -42,7 +42,7 @@ pub struct Args {
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let (dir, loaded) = load_operator(args.ops.as_deref(), args.at.as_deref())?;
     let ops = &loaded.ops;
-    let model = Model::new(ops, &DaySettings::default());
+    let model = Model::new(ops, &DaySettings::for_date(ops, loaded.at.date_naive()));
     let ctx = Context {
         ops,
         model: &model,
@@ -56,7 +56,11 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let chain = log_for(dir.as_deref())
         .and_then(|log| Ok(log.read()?))
         .map_err(|e| format!("{e:#}"));
-    let sheet = report::build(&ctx, &results, chain.as_ref().map_err(String::clone));
+    let mut sheet = report::build(&ctx, &results, chain.as_ref().map_err(String::clone));
+    let looks = crate::commands::check::look_aheads(&ctx, &loaded.store, &results);
+    if looks.iter().any(Option::is_some) {
+        sheet.forecast = report::forecast_lines(&results, &looks);
+    }
     let text = match args.format {
         Format::Markdown => report::markdown(&sheet),
         Format::Html => report::html(&sheet),
