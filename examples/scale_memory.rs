@@ -13,9 +13,11 @@ fn rss_mb() -> f64 {
     std::fs::read_to_string("/proc/self/status")
         .ok()
         .and_then(|s| {
-            s.lines()
-                .find(|l| l.starts_with("VmRSS:"))
-                .and_then(|l| l.split_whitespace().nth(1).and_then(|v| v.parse::<f64>().ok()))
+            s.lines().find(|l| l.starts_with("VmRSS:")).and_then(|l| {
+                l.split_whitespace()
+                    .nth(1)
+                    .and_then(|v| v.parse::<f64>().ok())
+            })
         })
         .map_or(f64::NAN, |kb| kb / 1024.0)
 }
@@ -23,7 +25,9 @@ fn rss_mb() -> f64 {
 fn main() {
     let before = rss_mb();
     let at = Utc.with_ymd_and_hms(2026, 6, 14, 12, 0, 0).unwrap();
-    let ops = load_files(&synthetic::operator(Size::LARGE)).ops.expect("loads");
+    let ops = load_files(&synthetic::operator(Size::LARGE))
+        .ops
+        .expect("loads");
     let mut store = Store::default();
     for (_, text) in &ops.observations {
         for r in decode_all(text, at) {
@@ -42,7 +46,10 @@ fn main() {
         );
         app.update(Msg::Observations {
             source: "memory".to_string(),
-            reports: vec![FileReport { line: 1, report: decode(&text, t) }],
+            reports: vec![FileReport {
+                line: 1,
+                report: decode(&text, t),
+            }],
         });
     }
     println!(
