@@ -349,3 +349,35 @@ fn new_widgets_in_tiny_terminals_do_not_panic() {
         render(&mut app, w, h);
     }
 }
+
+#[test]
+fn mass_and_balance_follows_the_display_unit() {
+    let mut app = demo_stepped_to(15);
+    app.ops.operator.display_units.mass = rhoboard::ops::operator::MassUnit::Lb;
+    select_leg(&mut app, "L16");
+    let r = app.selected_leg().unwrap();
+    let text: Vec<String> = rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        120,
+    )
+    .iter()
+    .map(|l| l.to_string())
+    .collect();
+    let text = text.join("\n");
+    // 1466 kg × 2.20462 ≈ 3233 lb; 1355 mm ÷ 25.4 ≈ 53.3 in.
+    let section = &text[text.find("── Mass and balance").expect("the section")..];
+    assert!(
+        section.contains("takeoff  mass  3233 lb  CG   53.3 in"),
+        "{section}"
+    );
+    assert!(
+        section.contains("lb·in") && section.contains("US gal"),
+        "{section}"
+    );
+    assert!(section.contains("72 lb must come off"), "{section}");
+    let table = &section[..section.find("Checks").unwrap()];
+    assert!(!table.contains(" kg "), "{table}");
+}

@@ -587,6 +587,21 @@ fn on_the_demo_the_runway_state_is_kept_in_memory_and_said_so() {
     let r = app.selected_leg().unwrap();
     assert_eq!(r.departure.runway.as_deref(), Some("09"));
     assert_eq!(r.state, State::Below);
+    // The detail's wind line for 27 says it is closed today.
+    let lines = rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        120,
+    );
+    let on_27 = lines
+        .iter()
+        .map(|l| l.to_string())
+        .find(|l| l.trim_start().starts_with("27 "))
+        .expect("27's wind line");
+    assert!(on_27.contains("not usable"), "{on_27}");
+    assert!(on_27.ends_with("✗ closed  today: closed"), "{on_27}");
     assert!(
         app.notes
             .iter()

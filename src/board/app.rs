@@ -629,11 +629,12 @@ impl App {
             }
             Msg::RunwayStateSaved { what, result } => match result {
                 Ok((path, state)) => {
+                    // The legs' changes first, so the line saying where it went is on top.
+                    self.apply_runway_state(state, &what);
                     self.note(
                         NoteKind::Info,
                         format!("{what}: saved in {}", path.display()),
                     );
-                    self.apply_runway_state(state, &what);
                 }
                 Err(e) => self.note(
                     NoteKind::Error,
@@ -711,13 +712,13 @@ impl App {
                     .cloned()
                     .unwrap_or_else(|| RunwayStateFile::new(self.day));
                 state.entries.push(entry);
+                self.apply_runway_state(state, &what);
                 self.note(
                     NoteKind::Info,
                     format!(
                         "{what}: kept in memory only — the built-in demo has no operator folder"
                     ),
                 );
-                self.apply_runway_state(state, &what);
             }
         }
     }

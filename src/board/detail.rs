@@ -563,7 +563,12 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
                     "  {:<4} {:<11} {head}, crosswind {:.0} kt from the {from}  ",
                     e.designator, tag, w.crosswind_kt
                 )),
-                state_span(t, e.state),
+                // A closed end is not assessed: its state would only say "no data".
+                if e.usable {
+                    state_span(t, e.state)
+                } else {
+                    Span::styled("✗ closed", t.error())
+                },
             ];
             if let Some(today) = &e.today {
                 let style = if e.usable { t.dim() } else { t.error() };

@@ -1000,9 +1000,9 @@ fn end_lines(app: &App, fi: usize, t: Theme) -> Vec<Line<'static>> {
                     if usable { Style::new() } else { t.error() },
                 ),
                 Span::raw(format!(
-                    "TORA {:.0} m, LDA {:.0} m, {} · ",
-                    e.tora_m,
-                    e.lda_m,
+                    "TORA {}, LDA {}, {} · ",
+                    length(app, e.tora_m),
+                    length(app, e.lda_m),
                     e.surface.word()
                 )),
                 Span::styled(
@@ -1016,6 +1016,16 @@ fn end_lines(app: &App, fi: usize, t: Theme) -> Vec<Line<'static>> {
             ])
         })
         .collect()
+}
+
+/// A declared distance in the operator's display unit.
+fn length(app: &App, m: f64) -> String {
+    match app.ops.operator.display_units.distance {
+        crate::ops::operator::DistanceUnit::M => format!("{m:.0} m"),
+        crate::ops::operator::DistanceUnit::Ft => {
+            format!("{:.0} ft", crate::units::m_to_ft(m))
+        }
+    }
 }
 
 fn runway_form(app: &App, f: &RunwayForm, area: Rect, buf: &mut Buffer, t: Theme) {

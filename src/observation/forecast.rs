@@ -508,10 +508,10 @@ fn half_cosine(a: f64, b: f64, f: f64) -> f64 {
 
 /// The TX/TN curve at `t` (see [`temperature_at`]).
 fn diurnal(points: &[TemperaturePoint], t: DateTime<Utc>) -> Option<f64> {
-    // The given extremes, and each repeated a day before and after.
+    // The given extremes, each repeated one and two days before and after.
     let mut pts: Vec<TemperaturePoint> = Vec::with_capacity(points.len() * 3);
     for p in points {
-        for shift in [-1i64, 0, 1] {
+        for shift in [-2i64, -1, 0, 1, 2] {
             let at = p.at + Duration::days(shift);
             // A repeat never displaces a given extreme of the same kind nearby.
             let clash = shift != 0

@@ -49,6 +49,36 @@ pub enum LogError {
     Json(#[from] serde_json::Error),
 }
 
+/// The largest monthly file read: far beyond any school's month of sign-offs.
+const MAX_LOG_FILE_BYTES: u64 = 256 * 1024 * 1024;
+
+/// Reads a monthly file whole: a regular file of bounded size only (a device, a pipe or
+/// a runaway file is an error, never an endless read).
+fn read_log_file(path: &Path) -> Result<Vec<u8>, LogError> {
+    let f = File::open(path).map_err(io("reading", path))?;
+    let meta = f.metadata().map_err(io("reading", path))?;
+    let refuse = |why: String| LogError::Io {
+        what: "reading",
+        path: path.to_path_buf(),
+        source: std::io::Error::new(std::io::ErrorKind::InvalidData, why),
+    };
+    if !meta.is_file() {
+        return Err(refuse("not a regular file".to_string()));
+    }
+    if meta.len() > MAX_LOG_FILE_BYTES {
+        return Err(refuse(format!(
+            "{} MB, more than a monthly log can hold ({} MB)",
+            meta.len() / 1_000_000,
+            MAX_LOG_FILE_BYTES / 1_000_000
+        )));
+    }
+    let mut bytes = Vec::with_capacity(meta.len() as usize);
+    f.take(MAX_LOG_FILE_BYTES + 1)
+        .read_to_end(&mut bytes)
+        .map_err(io("reading", path))?;
+    Ok(bytes)
+}
+
 fn io<'p>(what: &'static str, path: &'p Path) -> impl FnOnce(std::io::Error) -> LogError + 'p {
     move |source| LogError::Io {
         what,
@@ -390,10 +420,7 @@ impl Log {
         let files = chain.files.clone();
         for (fi, file) in files.iter().enumerate() {
             let path = self.dir.join(file);
-            let mut bytes = Vec::new();
-            File::open(&path)
-                .and_then(|mut f| f.read_to_end(&mut bytes))
-                .map_err(io("reading", &path))?;
+            let bytes = read_log_file(&path)?;
             let mut offset = 0usize;
             let mut line_no = 0usize;
             while offset < bytes.len() {
@@ -582,10 +609,7 @@ impl Log {
     /// Moves a torn last line into `<file>.torn` and cuts it from the monthly file.
     fn set_aside(&self, t: &Torn) -> Result<(), LogError> {
         let path = self.dir.join(&t.file);
-        let mut bytes = Vec::new();
-        File::open(&path)
-            .and_then(|mut f| f.read_to_end(&mut bytes))
-            .map_err(io("reading", &path))?;
+        let bytes = read_log_file(&path)?;
         let start = (t.offset as usize).min(bytes.len());
         let mut torn = bytes[start..].to_vec();
         torn.push(b'\n');
