@@ -49,6 +49,46 @@ fn main() -> anyhow::Result<()> {
     key(&mut afternoon, KeyCode::Char('s'));
     key(&mut afternoon, KeyCode::Tab);
     shoot(&mut afternoon, 120, 32, "afternoon-pairings")?;
+    // L16's mass and balance: the loading table beside the CG envelope.
+    let mut mb = demo_at(15);
+    while mb.selected_leg().is_some_and(|r| r.id != "L16") {
+        key(&mut mb, KeyCode::Down);
+    }
+    key(&mut mb, KeyCode::Enter);
+    mb.update(Msg::Resize(120, 40));
+    for _ in 0..400 {
+        let r = mb.selected_leg().expect("L16");
+        let lines = rhoboard::board::detail::lines(
+            &mb.ops,
+            r,
+            None,
+            rhoboard::board::theme::Theme { color: true },
+            119,
+        );
+        let at = lines
+            .iter()
+            .position(|l| l.to_string().contains("── Mass and balance"))
+            .unwrap_or(0);
+        if usize::from(mb.ui.detail_scroll) >= at {
+            break;
+        }
+        key(&mut mb, KeyCode::Down);
+    }
+    shoot(&mut mb, 120, 40, "afternoon-mass-and-balance")?;
+    // The Airfields pane with sunset, after closing XBRK 36 until 18:00Z from the board.
+    let mut fields = demo_at(15);
+    key(&mut fields, KeyCode::Tab);
+    key(&mut fields, KeyCode::Tab);
+    key(&mut fields, KeyCode::Char('r'));
+    for c in "y".chars() {
+        key(&mut fields, KeyCode::Char(c));
+    }
+    key(&mut fields, KeyCode::Tab);
+    for c in "18:00Z".chars() {
+        key(&mut fields, KeyCode::Char(c));
+    }
+    key(&mut fields, KeyCode::Enter);
+    shoot(&mut fields, 120, 36, "afternoon-airfields")?;
     let mut help = demo_at(8);
     key(&mut help, KeyCode::Char('?'));
     shoot(&mut help, 120, 40, "help")?;

@@ -13,11 +13,12 @@ pub mod form;
 pub mod keys;
 pub mod layout;
 pub mod run;
+pub mod runway_form;
 pub mod screenshot;
 pub mod theme;
 pub mod view;
 
-pub use app::{App, Msg, Pane, Replay, Settings, Sort};
+pub use app::{App, Effect, Msg, Pane, Replay, Settings, Sort};
 pub use keys::{Action, KEYMAP};
 pub use layout::{BoardLayout, LayoutSettings};
 pub use run::{Feeds, run};

@@ -223,3 +223,161 @@ fn states_are_coloured_and_no_color_keeps_glyph_word_and_bold() {
         }
     }
 }
+
+/// Opens L16's detail in the afternoon and scrolls to its mass-and-balance section.
+fn l16_at_its_mass_and_balance(w: u16, h: u16) -> App {
+    let mut app = demo_stepped_to(15);
+    select_leg(&mut app, "L16");
+    assert_eq!(app.selected_leg().unwrap().state.word(), "below");
+    app.update(key(KeyCode::Enter));
+    // Scroll until the section's heading is the detail's first line.
+    for _ in 0..400 {
+        let s = screen(&mut app, w, h);
+        if s.lines()
+            .skip(3)
+            .take(1)
+            .any(|l| l.contains("── Mass and balance"))
+        {
+            return app;
+        }
+        app.update(key(KeyCode::Down));
+    }
+    panic!("no mass and balance section in L16's detail");
+}
+
+#[test]
+fn l16_mass_and_balance_with_the_envelope_120x40() {
+    let mut app = l16_at_its_mass_and_balance(120, 40);
+    let t = render(&mut app, 120, 40);
+    let s = format!("{}", t.backend());
+    assert!(
+        s.contains("CG envelope") && s.contains('T') && s.contains('L'),
+        "{s}"
+    );
+    insta::assert_snapshot!(t.backend());
+}
+
+#[test]
+fn l16_mass_and_balance_with_the_envelope_200x60() {
+    let mut app = l16_at_its_mass_and_balance(200, 60);
+    insta::assert_snapshot!(render(&mut app, 200, 60).backend());
+}
+
+#[test]
+fn airfields_with_sunset_and_runway_state_120x40() {
+    let mut app = demo_stepped_to(15);
+    // Close the first airfield's end in use until 18:00Z from the Airfields pane.
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Char('r')));
+    let rhoboard::board::app::Mode::Runway(f) = &app.ui.mode else {
+        panic!("the runway form is open");
+    };
+    assert_eq!(f.airfield(), app.ops.airfields[0].id);
+    type_text(&mut app, "y");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "18:00Z");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "works");
+    app.update(key(KeyCode::Enter));
+    let s = screen(&mut app, 120, 40);
+    assert!(s.contains("closed until 1800Z"), "{s}");
+    assert!(s.contains("sunset"), "{s}");
+    insta::assert_snapshot!(s);
+}
+
+#[test]
+fn runway_form_with_errors_120x40() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('r')));
+    // Prefilled with the selected leg's departure and its runway; a TORA without unit.
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "900");
+    app.update(key(KeyCode::Enter));
+    let s = screen(&mut app, 120, 40);
+    assert!(s.contains("✗ TORA '900'"), "{s}");
+    insta::assert_snapshot!(s);
+}
+
+#[test]
+fn runway_form_with_an_unknown_end_80x24() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('r')));
+    app.update(key(KeyCode::Up)); // to "end"
+    for _ in 0..4 {
+        app.update(key(KeyCode::Backspace));
+    }
+    type_text(&mut app, "99");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "y");
+    app.update(key(KeyCode::Enter));
+    let s = screen(&mut app, 80, 24);
+    assert!(s.contains("has no runway end '99'"), "{s}");
+    insta::assert_snapshot!(s);
+}
+
+#[test]
+fn new_widgets_in_tiny_terminals_do_not_panic() {
+    let mut app = l16_at_its_mass_and_balance(120, 40);
+    for (w, h) in [
+        (1, 1),
+        (0, 0),
+        (2, 2),
+        (80, 24),
+        (81, 25),
+        (140, 24),
+        (200, 60),
+    ] {
+        render(&mut app, w, h);
+    }
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Char('r')));
+    for (w, h) in [(1, 1), (0, 0), (80, 24)] {
+        render(&mut app, w, h);
+    }
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    for (w, h) in [(1, 1), (0, 0), (80, 24), (200, 1), (1, 60)] {
+        render(&mut app, w, h);
+    }
+}
+
+#[test]
+fn mass_and_balance_follows_the_display_unit() {
+    let mut app = demo_stepped_to(15);
+    app.ops.operator.display_units.mass = rhoboard::ops::operator::MassUnit::Lb;
+    select_leg(&mut app, "L16");
+    let r = app.selected_leg().unwrap();
+    let text: Vec<String> = rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        120,
+    )
+    .iter()
+    .map(|l| l.to_string())
+    .collect();
+    let text = text.join("\n");
+    // 1466 kg × 2.20462 ≈ 3233 lb; 1355 mm ÷ 25.4 ≈ 53.3 in.
+    let section = &text[text.find("── Mass and balance").expect("the section")..];
+    assert!(
+        section.contains("takeoff  mass  3233 lb  CG   53.3 in"),
+        "{section}"
+    );
+    assert!(
+        section.contains("lb·in") && section.contains("US gal"),
+        "{section}"
+    );
+    assert!(section.contains("72 lb must come off"), "{section}");
+    let table = &section[..section.find("Checks").unwrap()];
+    assert!(!table.contains(" kg "), "{table}");
+}

@@ -181,3 +181,43 @@ fn sigterm_restores_the_terminal() {
     s.wait_for("exit", |t| t.contains("rhoboard exited"));
     assert_restored(&s);
 }
+
+#[test]
+fn the_runway_form_closes_an_end_on_the_demo_and_l01_goes_below() {
+    if !have_tmux() {
+        return;
+    }
+    let s = Session::start("runway", "");
+    s.wait_for("the first frame", |t| {
+        t.contains("L01") && t.contains("replay")
+    });
+    s.keys(&["Space"]);
+    s.wait_for("paused", |t| t.contains("paused"));
+    s.keys(&["n", "n"]);
+    s.wait_for("08:00", |t| t.contains("08:00Z"));
+    // L01 is selected: r opens the form on XSEA and its runway in use, the cursor on
+    // "closed".
+    s.keys(&["g", "r"]);
+    let screen = s.wait_for("the runway form", |t| {
+        t.contains("Runway state for the day")
+    });
+    assert!(screen.contains("airfield XSEA"), "{screen}");
+    assert!(screen.contains("kept in memory"), "{screen}");
+    s.keys(&["y", "Enter"]);
+    let screen = s.wait_for("the change", |t| {
+        t.contains(
+            "XSEA 27: closed: kept in memory only — the built-in demo has no operator folder",
+        )
+    });
+    let l01 = screen
+        .lines()
+        .find(|l| l.contains(" L01 "))
+        .unwrap_or_default();
+    assert!(
+        l01.contains("✗ below") && l01.contains("XSEA tailwind"),
+        "{screen}"
+    );
+    s.keys(&["q"]);
+    s.wait_for("exit", |t| t.contains("rhoboard exited 0"));
+    assert_restored(&s);
+}

@@ -433,3 +433,233 @@ fn the_bell_rings_once_for_a_new_below_when_asked_for() {
     assert!(app.take_bell());
     assert!(!app.take_bell(), "rung once");
 }
+
+/// Opens the runway form on the selected leg (L01: XSEA, its runway in use) and marks
+/// the end closed.
+fn close_l01_runway(app: &mut rhoboard::board::App) -> String {
+    app.update(key(KeyCode::Home));
+    assert_eq!(selected_id(app), "L01");
+    let before = app
+        .selected_leg()
+        .unwrap()
+        .departure
+        .runway
+        .clone()
+        .unwrap();
+    app.update(key(KeyCode::Char('r')));
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("r opens the runway form");
+    };
+    assert_eq!(f.values[0], "XSEA", "the selected leg's departure");
+    assert_eq!(f.values[1], before, "its runway in use");
+    assert_eq!(f.focus, 2, "the cursor waits on 'closed'");
+    type_text(app, "y");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.ui.mode, Mode::Normal, "a valid entry closes the form");
+    before
+}
+
+fn temp_dir(name: &str) -> std::path::PathBuf {
+    let d = std::env::temp_dir().join(format!("rhoboard-{name}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&d);
+    std::fs::create_dir_all(&d).unwrap();
+    d
+}
+
+#[test]
+fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
+    let mut app = demo_stepped_to(8);
+    let dir = temp_dir("board-runway");
+    app.settings.demo = false;
+    app.settings.ops_dir = Some(dir.clone());
+    let l01 = app.selected_leg().unwrap().clone();
+    assert_eq!(
+        l01.departure.runway.as_deref(),
+        Some("27"),
+        "westerly wind: 27"
+    );
+    assert_ne!(l01.state, State::Below);
+    close_l01_runway(&mut app);
+    // update did no I/O: the effect waits for the event loop, nothing changed yet.
+    let effects = app.take_effects();
+    assert_eq!(effects.len(), 1);
+    let rhoboard::board::Effect::SaveRunwayState { date, entry, .. } = &effects[0];
+    assert_eq!(date.to_string(), "2026-06-14");
+    assert_eq!(
+        (entry.airfield.as_str(), entry.end.as_str()),
+        ("XSEA", "27")
+    );
+    assert_eq!(entry.closed, Some(true));
+    assert!(!dir.join("runway-state").exists());
+    assert_eq!(
+        app.selected_leg().unwrap().departure.runway.as_deref(),
+        Some("27")
+    );
+    // The loop performs it with `rhoboard runway`'s code and answers.
+    let answer = rhoboard::board::run::perform(effects[0].clone());
+    let path = dir.join("runway-state/2026-06-14.json");
+    let written: rhoboard::ops::runway_state::RunwayStateFile =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    assert_eq!(written.entries.len(), 1);
+    app.update(answer);
+    let r = app.selected_leg().unwrap();
+    assert_eq!(r.departure.runway.as_deref(), Some("09"), "27 closed: 09");
+    let on_09 = r
+        .departure
+        .ends
+        .iter()
+        .find(|e| e.designator == "09")
+        .unwrap();
+    assert!(on_09.wind.headwind_kt < 0.0, "a tailwind on 09");
+    let on_27 = r
+        .departure
+        .ends
+        .iter()
+        .find(|e| e.designator == "27")
+        .unwrap();
+    assert!(!on_27.usable);
+    assert_eq!(on_27.today.as_deref(), Some("closed"));
+    assert_eq!(r.state, State::Below, "{:?}", r.reasons);
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("XSEA 27: closed: saved in")),
+        "{:?}",
+        app.notes
+    );
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.starts_with("XSEA 27: closed: L01 now ✗ below")),
+        "{:?}",
+        app.notes
+    );
+    // A second change is appended to the file, as `rhoboard runway` does.
+    app.update(key(KeyCode::Char('r')));
+    for _ in 0..6 {
+        app.update(key(KeyCode::Tab));
+    }
+    type_text(&mut app, "wet");
+    app.update(key(KeyCode::Enter));
+    for e in app.take_effects() {
+        let m = rhoboard::board::run::perform(e);
+        app.update(m);
+    }
+    let written: rhoboard::ops::runway_state::RunwayStateFile =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    assert_eq!(written.entries.len(), 2);
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn a_failed_write_shows_on_screen_and_changes_nothing() {
+    let mut app = demo_stepped_to(8);
+    let dir = temp_dir("board-runway-fail");
+    // A file where the folder should be: the write fails.
+    std::fs::write(dir.join("runway-state"), "not a folder").unwrap();
+    app.settings.demo = false;
+    app.settings.ops_dir = Some(dir.clone());
+    close_l01_runway(&mut app);
+    for e in app.take_effects() {
+        let m = rhoboard::board::run::perform(e);
+        app.update(m);
+    }
+    assert_eq!(
+        app.selected_leg().unwrap().departure.runway.as_deref(),
+        Some("27")
+    );
+    let n = app.notes.front().unwrap();
+    assert_eq!(n.kind, NoteKind::Error);
+    assert!(
+        n.text
+            .starts_with("XSEA 27: closed: not saved, nothing changed:"),
+        "{}",
+        n.text
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn on_the_demo_the_runway_state_is_kept_in_memory_and_said_so() {
+    let mut app = demo_stepped_to(8);
+    close_l01_runway(&mut app);
+    assert!(app.take_effects().is_empty(), "no folder: nothing to write");
+    let r = app.selected_leg().unwrap();
+    assert_eq!(r.departure.runway.as_deref(), Some("09"));
+    assert_eq!(r.state, State::Below);
+    // The detail's wind line for 27 says it is closed today.
+    let lines = rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        120,
+    );
+    let on_27 = lines
+        .iter()
+        .map(|l| l.to_string())
+        .find(|l| l.trim_start().starts_with("27 "))
+        .expect("27's wind line");
+    assert!(on_27.contains("not usable"), "{on_27}");
+    assert!(on_27.ends_with("✗ closed  today: closed"), "{on_27}");
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("kept in memory only")),
+        "{:?}",
+        app.notes
+    );
+    // It survives a step back in the replay (it is the day's state, not a report).
+    app.update(key(KeyCode::Char('p')));
+    assert_eq!(
+        app.selected_leg().unwrap().departure.runway.as_deref(),
+        Some("09")
+    );
+}
+
+#[test]
+fn the_runway_form_shows_errors_and_esc_cancels() {
+    let mut app = demo_stepped_to(8);
+    app.update(key(KeyCode::Char('r')));
+    app.update(key(KeyCode::Up));
+    for _ in 0..3 {
+        app.update(key(KeyCode::Backspace));
+    }
+    type_text(&mut app, "99");
+    app.update(key(KeyCode::Enter));
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("the form stays open with its error");
+    };
+    assert_eq!(
+        f.error_for(1),
+        Some("XSEA has no runway end '99' (it has: 09, 27)")
+    );
+    assert_eq!(f.focus, 1);
+    // Nothing to change is an error too.
+    app.update(key(KeyCode::Backspace));
+    app.update(key(KeyCode::Backspace));
+    type_text(&mut app, "09");
+    app.update(key(KeyCode::Enter));
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("still open");
+    };
+    assert!(
+        f.errors[0].1.starts_with("nothing to change"),
+        "{:?}",
+        f.errors
+    );
+    // until without closing (the cursor is still on "end").
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "18:00Z");
+    app.update(key(KeyCode::Enter));
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("still open");
+    };
+    assert_eq!(f.error_for(3), Some("until goes with closed"));
+    let before = app.selected_leg().unwrap().clone();
+    app.update(key(KeyCode::Esc));
+    assert_eq!(app.ui.mode, Mode::Normal);
+    assert!(app.take_effects().is_empty());
+    assert_eq!(app.selected_leg().unwrap(), &before, "Esc changed nothing");
+}

@@ -2,6 +2,7 @@
 //! changes plain data and does no I/O, so tests drive it with a fixed clock.
 
 use std::collections::{HashMap, VecDeque};
+use std::path::PathBuf;
 use std::time::Duration;
 
 use chrono::{DateTime, DurationRound, TimeDelta, Utc};
@@ -9,8 +10,10 @@ use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
 use super::form::{FIELDS, Form};
 use super::keys::{Action, action_for, is_ctrl_c};
+use super::runway_form::{RUNWAY_FIELDS, RunwayForm};
 use crate::assess::{Assessment, Change, Context, DaySettings, LegResult, Model, State};
 use crate::observation::{FileReport, Insert, Report, Store};
+use crate::ops::runway_state::{EndState, RunwayStateFile};
 use crate::ops::{Category, Leg, Ops};
 
 /// Simulated seconds per real second at pace ×1: one simulated hour in ten seconds.
@@ -54,8 +57,33 @@ pub enum Msg {
         /// What went wrong.
         error: String,
     },
+    /// The event loop performed an [`Effect::SaveRunwayState`]: the day's state as now
+    /// written (and where), or why it could not be.
+    RunwayStateSaved {
+        /// What was asked for, in words ("XSEA 27: closed").
+        what: String,
+        /// The file written and the day's whole state, or the error.
+        result: Result<(PathBuf, RunwayStateFile), String>,
+    },
     /// Quit (a signal, or the input thread ending).
     Quit,
+}
+
+/// I/O that `update` asks the event loop to do (it answers with a [`Msg`]).
+#[derive(Debug, Clone, PartialEq)]
+pub enum Effect {
+    /// Append `entry` to `dir/runway-state/<date>.json` (as `rhoboard runway` does);
+    /// answered by [`Msg::RunwayStateSaved`].
+    SaveRunwayState {
+        /// The operator folder.
+        dir: PathBuf,
+        /// The UTC date of the state.
+        date: chrono::NaiveDate,
+        /// The change.
+        entry: EndState,
+        /// The change in words, for the answer's note.
+        what: String,
+    },
 }
 
 /// The panes, in Tab order.
@@ -134,6 +162,8 @@ pub enum Mode {
     Help,
     /// The manual-observation form.
     Form(Box<Form>),
+    /// The runway-state form.
+    Runway(Box<RunwayForm>),
 }
 
 /// What the detail shows.
@@ -268,6 +298,8 @@ pub struct Settings {
     pub demo: bool,
     /// Live board with `--at`: the clock runs from that time (wall clock + this).
     pub live_offset: Option<TimeDelta>,
+    /// The operator folder, where the runway state is written (none: kept in memory).
+    pub ops_dir: Option<PathBuf>,
 }
 
 impl Default for Settings {
@@ -277,6 +309,7 @@ impl Default for Settings {
             bell: false,
             demo: false,
             live_offset: None,
+            ops_dir: None,
         }
     }
 }
@@ -318,6 +351,8 @@ pub struct App {
     /// The UTC date whose legs are on the board.
     day: chrono::NaiveDate,
     bell_pending: bool,
+    /// I/O asked for by `update`, for the event loop.
+    effects: Vec<Effect>,
     /// Set when something visible changed since the last draw.
     dirty: bool,
 }
@@ -389,6 +424,7 @@ impl App {
             last_refresh: clock,
             day: clock.date_naive(),
             bell_pending: false,
+            effects: Vec::new(),
             dirty: true,
         };
         if app.replay.is_some() {
@@ -454,6 +490,30 @@ impl App {
         std::mem::take(&mut self.bell_pending)
     }
 
+    /// Takes the I/O `update` asked for (the event loop performs it).
+    pub fn take_effects(&mut self) -> Vec<Effect> {
+        std::mem::take(&mut self.effects)
+    }
+
+    /// The compiled operator with today's runway state.
+    pub fn model(&self) -> &Model {
+        &self.model
+    }
+
+    /// The UTC date whose legs are on the board.
+    pub fn day(&self) -> chrono::NaiveDate {
+        self.day
+    }
+
+    /// The runway in use at airfield `fi` now, as the pairings found it (index into
+    /// the field's runway ends).
+    pub fn field_end_in_use(&self, fi: usize) -> Option<usize> {
+        let m = &self.assessment.matrix;
+        (0..m.aircraft.len())
+            .find_map(|ai| m.cell(ai, fi).end_in_use)
+            .map(usize::from)
+    }
+
     /// Takes the redraw flag.
     pub fn take_dirty(&mut self) -> bool {
         std::mem::take(&mut self.dirty)
@@ -503,7 +563,91 @@ impl App {
                     self.note(NoteKind::Error, text);
                 }
             }
+            Msg::RunwayStateSaved { what, result } => match result {
+                Ok((path, state)) => {
+                    // The legs' changes first, so the line saying where it went is on top.
+                    self.apply_runway_state(state, &what);
+                    self.note(
+                        NoteKind::Info,
+                        format!("{what}: saved in {}", path.display()),
+                    );
+                }
+                Err(e) => self.note(
+                    NoteKind::Error,
+                    format!("{what}: not saved, nothing changed: {e}"),
+                ),
+            },
             Msg::Quit => self.quit = true,
+        }
+    }
+
+    /// Puts the day's runway state into the operator data, recompiles the model and
+    /// re-checks every leg, listing what changed under `label`.
+    fn apply_runway_state(&mut self, state: RunwayStateFile, label: &str) {
+        let date = state.date;
+        match self.ops.runway_states.iter_mut().find(|s| s.date == date) {
+            Some(s) => *s = state,
+            None => self.ops.runway_states.push(state),
+        }
+        if date != self.day {
+            return;
+        }
+        self.model = Model::new(&self.ops, &DaySettings::for_date(&self.ops, self.day));
+        let ctx = Context {
+            ops: &self.ops,
+            model: &self.model,
+            store: &self.store,
+            at: self.clock,
+        };
+        let changes = self.assessment.refresh(&ctx);
+        self.last_refresh = self.clock;
+        self.dirty = true;
+        self.note_changes(label, changes);
+        self.rebuild_rows();
+    }
+
+    /// A submitted runway-state entry: written by the event loop to the operator
+    /// folder, or on the built-in demo (no folder) kept in memory and said so.
+    fn runway_entry(&mut self, entry: EndState) {
+        let mut parts: Vec<String> = Vec::new();
+        if entry.closed == Some(false) {
+            parts.push("open again".to_string());
+        }
+        let described = crate::assess::model::describe(&entry);
+        if !described.is_empty() {
+            parts.push(described);
+        }
+        if entry.in_use == Some(true) {
+            parts.push("in use".to_string());
+        }
+        let what = format!("{} {}: {}", entry.airfield, entry.end, parts.join("; "));
+        match self.settings.ops_dir.clone() {
+            Some(dir) if !self.settings.demo => {
+                self.note(NoteKind::Info, format!("{what}: saving…"));
+                self.effects.push(Effect::SaveRunwayState {
+                    dir,
+                    date: self.day,
+                    entry,
+                    what,
+                });
+            }
+            _ => {
+                let mut state = self
+                    .ops
+                    .runway_states
+                    .iter()
+                    .find(|s| s.date == self.day)
+                    .cloned()
+                    .unwrap_or_else(|| RunwayStateFile::new(self.day));
+                state.entries.push(entry);
+                self.apply_runway_state(state, &what);
+                self.note(
+                    NoteKind::Info,
+                    format!(
+                        "{what}: kept in memory only — the built-in demo has no operator folder"
+                    ),
+                );
+            }
         }
     }
 
@@ -705,6 +849,7 @@ impl App {
     /// The clock passed midnight UTC: the new date's legs replace the old.
     fn new_day(&mut self) {
         self.day = self.clock.date_naive();
+        self.model = Model::new(&self.ops, &DaySettings::for_date(&self.ops, self.day));
         let legs = crate::commands::check::legs_of_day(&self.ops, self.clock);
         let n = legs.len();
         let ctx = Context {
@@ -877,6 +1022,32 @@ impl App {
                 }
                 return;
             }
+            Mode::Runway(form) => {
+                let n = RUNWAY_FIELDS.len();
+                match key.code {
+                    KeyCode::Esc => self.ui.mode = Mode::Normal,
+                    KeyCode::Tab | KeyCode::Down => form.focus = (form.focus + 1) % n,
+                    KeyCode::BackTab | KeyCode::Up => form.focus = (form.focus + n - 1) % n,
+                    KeyCode::Backspace => {
+                        form.values[form.focus].pop();
+                    }
+                    KeyCode::Enter => {
+                        let mut f = std::mem::take(form);
+                        match f.submit(&self.ops, self.day) {
+                            Some(entry) => {
+                                self.ui.mode = Mode::Normal;
+                                self.runway_entry(entry);
+                            }
+                            None => self.ui.mode = Mode::Runway(f),
+                        }
+                    }
+                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
+                        form.values[form.focus].push(ch);
+                    }
+                    _ => {}
+                }
+                return;
+            }
             Mode::Normal => {}
         }
         if let Some(action) = action_for(&key) {
@@ -918,6 +1089,30 @@ impl App {
                 }
                 .map(|a| a.id.clone());
                 self.ui.mode = Mode::Form(Box::new(Form::new(self.clock, station.as_deref())));
+            }
+            Action::RunwayState => {
+                // The selected airfield, else the selected leg's departure; its end in use.
+                let fi = match self.ui.pane {
+                    Pane::Airfields => Some(self.ui.field_row),
+                    Pane::Pairings => Some(self.ui.pair.1),
+                    _ => self
+                        .selected_leg()
+                        .and_then(|r| self.ops.airfield_position(&r.departure.airfield)),
+                };
+                let field = fi.and_then(|fi| self.ops.airfields.get(fi));
+                let end = match (self.ui.pane, self.selected_leg()) {
+                    (Pane::Legs, Some(r)) => r.departure.runway.clone(),
+                    _ => None,
+                }
+                .or_else(|| {
+                    let fi = fi?;
+                    let k = self.field_end_in_use(fi)?;
+                    Some(field?.runway_ends.get(k)?.designator.clone())
+                });
+                self.ui.mode = Mode::Runway(Box::new(RunwayForm::new(
+                    field.map(|f| f.id.as_str()),
+                    end.as_deref(),
+                )));
             }
             Action::Close => {
                 if self.ui.detail_open || self.ui.pairing.is_some() {

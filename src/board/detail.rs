@@ -1,14 +1,22 @@
 //! The detail of one leg (or pairing): every number opened to its chain, as the basis
 //! an instructor signs. Pure: lines from an assessed result.
 
+use ratatui::buffer::Buffer;
+use ratatui::layout::Rect;
+use ratatui::style::{Color, Style};
+use ratatui::symbols::Marker;
 use ratatui::text::{Line, Span};
+use ratatui::widgets::Widget;
+use ratatui::widgets::canvas::{Canvas, Line as CanvasLine};
 
 use super::theme::Theme;
 use crate::assess::leg::{ClimbResult, PhaseResult, Side};
+use crate::assess::mass::MassBalance;
 use crate::assess::wind::Side as XSide;
 use crate::assess::{LegResult, State};
 use crate::ops::Ops;
 use crate::ops::actype::SurfaceRule;
+use crate::ops::operator::MassUnit;
 
 fn state_span(t: Theme, s: State) -> Span<'static> {
     Span::styled(format!("{} {}", s.glyph(), s.word()), t.state(s))
@@ -30,8 +38,15 @@ fn indented(depth: usize, text: impl Into<String>) -> Line<'static> {
     Line::from(format!("{}{}", "  ".repeat(depth), text.into()))
 }
 
-/// The lines of the detail of `r`. `title` overrides the heading (pairings).
-pub fn lines(ops: &Ops, r: &LegResult, title: Option<&str>, t: Theme) -> Vec<Line<'static>> {
+/// The lines of the detail of `r`, for a pane `width` columns wide (the envelope
+/// drawing's size). `title` overrides the heading (pairings).
+pub fn lines(
+    ops: &Ops,
+    r: &LegResult,
+    title: Option<&str>,
+    t: Theme,
+    width: u16,
+) -> Vec<Line<'static>> {
     let mut out: Vec<Line<'static>> = Vec::new();
     let leg = ops.legs.get(r.index);
     let heading = match (title, leg) {
@@ -66,10 +81,15 @@ pub fn lines(ops: &Ops, r: &LegResult, title: Option<&str>, t: Theme) -> Vec<Lin
         "Limiting: {limiting}   Headroom: {}",
         headroom_words(r)
     )));
+    let unit = ops.operator.display_units.mass;
     out.push(plain(format!(
-        "Mass: takeoff {}, landing {}",
-        kg(r.takeoff_mass_kg),
-        kg(r.landing_mass_kg)
+        "Mass: takeoff {}, landing {}{}",
+        mass_opt(r.takeoff_mass_kg, unit),
+        mass_opt(r.landing_mass_kg, unit),
+        match &r.payload_headroom {
+            Some(p) => format!("   Payload: {}", payload_words(p, unit)),
+            None => String::new(),
+        }
     )));
     if !r.reasons.is_empty() {
         out.push(Line::styled("Why:", t.heading()));
@@ -85,6 +105,9 @@ pub fn lines(ops: &Ops, r: &LegResult, title: Option<&str>, t: Theme) -> Vec<Lin
     if !same {
         side(&mut out, "Arrival", &r.arrival, t);
     }
+    if let Some(mb) = &r.mass_balance {
+        mass_balance(&mut out, mb, r, unit, t, width);
+    }
     if !r.advice.is_empty() {
         out.push(Line::default());
         out.push(Line::styled("Advice", t.heading()));
@@ -97,8 +120,325 @@ pub fn lines(ops: &Ops, r: &LegResult, title: Option<&str>, t: Theme) -> Vec<Lin
     out
 }
 
-fn kg(m: Option<f64>) -> String {
-    m.map_or("—".to_string(), |m| format!("{m:.0} kg"))
+/// A mass in the operator's display unit.
+fn mass(kg: f64, unit: MassUnit) -> String {
+    match unit {
+        MassUnit::Kg => format!("{kg:.0} kg"),
+        MassUnit::Lb => format!("{:.0} lb", crate::units::kg_to_lb(kg)),
+    }
+}
+
+fn mass_opt(kg: Option<f64>, unit: MassUnit) -> String {
+    kg.map_or("—".to_string(), |m| mass(m, unit))
+}
+
+/// The payload headroom in the dispatcher's words.
+pub fn payload_words(p: &crate::assess::leg::PayloadHeadroom, unit: MassUnit) -> String {
+    if p.kg >= 0.0 {
+        format!("can take {} more at {}", mass(p.kg, unit), p.station)
+    } else {
+        format!("{} must come off at {}", mass(-p.kg, unit), p.station)
+    }
+}
+
+/// Arms: mm with kg, inches with lb (the weight-and-balance convention of each).
+fn arm(mm: f64, unit: MassUnit) -> String {
+    match unit {
+        MassUnit::Kg => format!("{mm:.0} mm"),
+        MassUnit::Lb => format!("{:.1} in", mm / 25.4),
+    }
+}
+
+fn moment(kg_mm: f64, unit: MassUnit) -> String {
+    match unit {
+        MassUnit::Kg => format!("{:.1} kg·m", kg_mm / 1000.0),
+        MassUnit::Lb => format!("{:.0} lb·in", crate::units::kg_to_lb(kg_mm) / 25.4),
+    }
+}
+
+fn mass_balance(
+    out: &mut Vec<Line<'static>>,
+    mb: &MassBalance,
+    r: &LegResult,
+    unit: MassUnit,
+    t: Theme,
+    width: u16,
+) {
+    out.push(Line::default());
+    let state = mb
+        .checks
+        .iter()
+        .map(|c| c.state)
+        .max()
+        .unwrap_or(State::Within);
+    let envelope = match mb.within_envelope {
+        None => "fixed mass given: no loading, no CG".to_string(),
+        Some(true) => "takeoff-to-landing CG line inside the envelope".to_string(),
+        Some(false) => "the CG leaves the envelope".to_string(),
+    };
+    out.push(Line::from(vec![
+        Span::styled(format!("── Mass and balance · {envelope}  "), t.heading()),
+        state_span(t, state),
+    ]));
+    // The loading table, with the envelope drawn beside it when there is room.
+    let mut left: Vec<Line<'static>> = Vec::new();
+    if !mb.rows.is_empty() {
+        left.push(Line::styled(
+            format!(
+                "  {:<28} {:>8} {:>9} {:>11} {:>7}",
+                "load", "mass", "arm", "moment", "max"
+            ),
+            t.heading(),
+        ));
+        for row in &mb.rows {
+            let over = row.max_mass_kg.is_some_and(|m| row.mass_kg > m + 1e-6);
+            let name: String = row.name.chars().take(28).collect();
+            let text = format!(
+                "  {:<28} {:>8} {:>9} {:>11} {:>7}{}",
+                name,
+                mass(row.mass_kg, unit),
+                arm(row.arm_mm, unit),
+                moment(row.moment_kg_mm, unit),
+                mass_opt(row.max_mass_kg, unit),
+                if over { " ✗ over" } else { "" }
+            );
+            left.push(if over {
+                Line::styled(text, t.state(State::Below))
+            } else {
+                plain(text)
+            });
+        }
+    }
+    for (what, p) in [
+        ("ramp", mb.ramp),
+        ("takeoff", mb.takeoff),
+        ("landing", mb.landing),
+    ] {
+        let cg = if mb.rows.is_empty() {
+            "—".to_string()
+        } else {
+            arm(p.cg_mm, unit)
+        };
+        left.push(plain(format!(
+            "  {what:<8} mass {:>8}  CG {cg:>9}",
+            mass(p.mass_kg, unit)
+        )));
+    }
+    if !mb.rows.is_empty() {
+        let gal = |l: f64| match unit {
+            MassUnit::Kg => String::new(),
+            MassUnit::Lb => format!(" ({:.1} US gal)", l / crate::units::L_PER_USGAL),
+        };
+        left.push(plain(format!(
+            "  fuel {:.0} L{} at engine start, {:.0} L{} at landing,",
+            mb.fuel_start_l,
+            gal(mb.fuel_start_l),
+            mb.fuel_landing_l,
+            gal(mb.fuel_landing_l),
+        )));
+        left.push(plain(format!(
+            "       reserve {:.0} L{}",
+            mb.fuel_reserve_l,
+            gal(mb.fuel_reserve_l)
+        )));
+    }
+    const LEFT_W: u16 = 72;
+    let drawable = mb.envelope.len() >= 3 && !mb.rows.is_empty();
+    let beside = drawable && width >= LEFT_W + 36;
+    if beside {
+        let plot = envelope_drawing(mb, unit, t, (width - LEFT_W).min(72), left.len());
+        let n = left.len().max(plot.len());
+        let mut left = left.into_iter();
+        let mut plot = plot.into_iter();
+        for _ in 0..n {
+            let mut l = left.next().unwrap_or_default();
+            let pad = usize::from(LEFT_W).saturating_sub(l.width());
+            l.spans.push(Span::raw(" ".repeat(pad)));
+            if let Some(p) = plot.next() {
+                l.spans.extend(p.spans);
+            }
+            out.push(l);
+        }
+    } else {
+        out.extend(left);
+    }
+    if let Some(p) = &r.payload_headroom {
+        out.push(plain(format!(
+            "  Payload headroom at today's temperature: {}",
+            payload_words(p, unit)
+        )));
+    }
+    if drawable && !beside {
+        out.push(Line::default());
+        out.extend(envelope_drawing(mb, unit, t, width, 12));
+    }
+    out.push(plain(
+        "  Checks (station loads inside their limit: see the max column):",
+    ));
+    for c in &mb.checks {
+        if c.kind == crate::assess::limits::LimitKind::Loading && c.state == State::Within {
+            continue;
+        }
+        let conv = |v: f64| -> String {
+            match c.unit {
+                "kg" => mass(v, unit),
+                "mm" => arm(v, unit),
+                u => format!("{v:.0} {u}"),
+            }
+        };
+        let v = c.value.map_or("—".to_string(), conv);
+        let lim = c.limit.map_or("—".to_string(), conv);
+        let margin = if c.margin.is_finite() {
+            let m = conv(c.margin.abs());
+            if c.margin < 0.0 {
+                format!("−{m}")
+            } else {
+                format!("+{m}")
+            }
+        } else {
+            "—".to_string()
+        };
+        out.push(Line::from(vec![
+            Span::raw(format!(
+                "  {:<16} {:>10} limit {:>10}  margin {:>10}  ",
+                c.kind.word(),
+                v,
+                lim,
+                margin
+            )),
+            state_span(t, c.state),
+        ]));
+        if !c.note.is_empty() && c.state != State::Within {
+            out.push(indented(3, c.note.clone()));
+        }
+        if !c.source.is_empty() {
+            out.push(Line::styled(format!("      from {}", c.source), t.dim()));
+        }
+    }
+}
+
+/// The CG envelope drawn with braille lines in `width` columns and about `rows` rows:
+/// the outline plain, the takeoff (`T`) and landing (`L`) points labelled and joined,
+/// so it reads in monochrome.
+fn envelope_drawing(
+    mb: &MassBalance,
+    unit: MassUnit,
+    t: Theme,
+    width: u16,
+    rows: usize,
+) -> Vec<Line<'static>> {
+    const LABEL_W: u16 = 9;
+    let plot_w = width.saturating_sub(LABEL_W + 2).min(64);
+    // Caption, plot, axis, arm labels.
+    let plot_h = (rows.saturating_sub(3) as u16).clamp(6, 14);
+    let mut out = Vec::new();
+    if plot_w < 16 {
+        return out;
+    }
+    let (t_pt, l_pt) = (mb.takeoff, mb.landing);
+    let arms = mb
+        .envelope
+        .iter()
+        .map(|p| p.arm_mm)
+        .chain([t_pt.cg_mm, l_pt.cg_mm]);
+    let masses = mb
+        .envelope
+        .iter()
+        .map(|p| p.mass_kg)
+        .chain([t_pt.mass_kg, l_pt.mass_kg]);
+    let (x0, x1) = arms.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+        (a.min(v), b.max(v))
+    });
+    let (y0, y1) = masses.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+        (a.min(v), b.max(v))
+    });
+    if !(x0.is_finite() && x1 > x0 && y0.is_finite() && y1 > y0) {
+        return out;
+    }
+    let (px, py) = ((x1 - x0) * 0.04, (y1 - y0) * 0.06);
+    let (x0, x1, y0, y1) = (x0 - px, x1 + px, y0 - py, y1 + py);
+    let outline = if t.color { Color::Gray } else { Color::Reset };
+    let worst = mb
+        .checks
+        .iter()
+        .map(|c| c.state)
+        .max()
+        .unwrap_or(State::Within);
+    let path = t
+        .state(worst)
+        .fg
+        .filter(|_| t.color)
+        .unwrap_or(Color::Reset);
+    let canvas = Canvas::default()
+        .marker(Marker::Braille)
+        .x_bounds([x0, x1])
+        .y_bounds([y0, y1])
+        .paint(|ctx| {
+            let n = mb.envelope.len();
+            for i in 0..n {
+                let (a, b) = (mb.envelope[i], mb.envelope[(i + 1) % n]);
+                ctx.draw(&CanvasLine::new(
+                    a.arm_mm, a.mass_kg, b.arm_mm, b.mass_kg, outline,
+                ));
+            }
+            ctx.layer();
+            ctx.draw(&CanvasLine::new(
+                t_pt.cg_mm,
+                t_pt.mass_kg,
+                l_pt.cg_mm,
+                l_pt.mass_kg,
+                path,
+            ));
+            ctx.layer();
+            let bold = Style::new().add_modifier(ratatui::style::Modifier::BOLD);
+            ctx.print(l_pt.cg_mm, l_pt.mass_kg, Span::styled("L", bold));
+            ctx.print(t_pt.cg_mm, t_pt.mass_kg, Span::styled("T", bold));
+        });
+    let area = Rect::new(0, 0, plot_w, plot_h);
+    let mut buf = Buffer::empty(area);
+    canvas.render(area, &mut buf);
+    let unit_word = match unit {
+        MassUnit::Kg => "kg",
+        MassUnit::Lb => "lb",
+    };
+    out.push(Line::styled(
+        "CG envelope · T takeoff · L landing".to_string(),
+        t.heading(),
+    ));
+    let label = |kg: f64| match unit {
+        MassUnit::Kg => format!("{kg:.0} {unit_word}"),
+        MassUnit::Lb => format!("{:.0} {unit_word}", crate::units::kg_to_lb(kg)),
+    };
+    for row in 0..plot_h {
+        let left = if row == 0 {
+            label(y1)
+        } else if row == plot_h - 1 {
+            label(y0)
+        } else {
+            String::new()
+        };
+        let mut spans = vec![Span::styled(
+            format!("{left:>w$} │", w = usize::from(LABEL_W - 1)),
+            t.dim(),
+        )];
+        for col in 0..plot_w {
+            let cell = &buf[(col, row)];
+            spans.push(Span::styled(cell.symbol().to_string(), cell.style()));
+        }
+        out.push(Line::from(spans));
+    }
+    let (lx, rx) = (arm(x0, unit), arm(x1, unit));
+    let gap = usize::from(plot_w).saturating_sub(lx.chars().count() + rx.chars().count());
+    let pad = " ".repeat(usize::from(LABEL_W - 1));
+    out.push(Line::styled(
+        format!("{pad} └{}", "─".repeat(usize::from(plot_w))),
+        t.dim(),
+    ));
+    out.push(Line::styled(
+        format!("{pad}  {lx}{}{rx}", " ".repeat(gap)),
+        t.dim(),
+    ));
+    out
 }
 
 /// Headroom in words for the detail.
@@ -218,13 +558,23 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
             } else {
                 "not usable"
             };
-            out.push(Line::from(vec![
+            let mut spans = vec![
                 Span::raw(format!(
                     "  {:<4} {:<11} {head}, crosswind {:.0} kt from the {from}  ",
                     e.designator, tag, w.crosswind_kt
                 )),
-                state_span(t, e.state),
-            ]));
+                // A closed end is not assessed: its state would only say "no data".
+                if e.usable {
+                    state_span(t, e.state)
+                } else {
+                    Span::styled("✗ closed", t.error())
+                },
+            ];
+            if let Some(today) = &e.today {
+                let style = if e.usable { t.dim() } else { t.error() };
+                spans.push(Span::styled(format!("  today: {today}"), style));
+            }
+            out.push(Line::from(spans));
         }
     }
     if let Some(p) = &s.takeoff {

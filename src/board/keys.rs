@@ -35,6 +35,8 @@ pub enum Action {
     Sort,
     /// Type an observation by hand.
     ManualReport,
+    /// Set today's runway state (close an end, reduce distances, condition, end in use).
+    RunwayState,
     /// Pause or resume the replay.
     Pause,
     /// Replay: jump to the next whole hour.
@@ -175,6 +177,12 @@ pub const KEYMAP: &[Binding] = &[
         label: "o",
         action: Action::ManualReport,
         help: "type an observation by hand",
+    },
+    Binding {
+        keys: &[c('r')],
+        label: "r",
+        action: Action::RunwayState,
+        help: "today's runway state: close an end, reduce TORA/LDA, condition, end in use",
     },
     Binding {
         keys: &[c(' ')],

@@ -14,6 +14,7 @@ use super::app::{App, DetailOf, Mode, NoteKind, Pane, category_short};
 use super::form::{FIELDS, Form};
 use super::keys::KEYMAP;
 use super::layout::{BoardLayout, LayoutSettings, MIN_SIZE};
+use super::runway_form::{RUNWAY_FIELDS, RunwayForm};
 use super::theme::Theme;
 use crate::assess::leg::FieldWx;
 use crate::assess::pairing::{PairCell, PairLimit};
@@ -72,6 +73,7 @@ impl Widget for &App {
         match &self.ui.mode {
             Mode::Help => help(area, buf, t, self.ui.help_scroll),
             Mode::Form(f) => form(self, f, area, buf, t),
+            Mode::Runway(f) => runway_form(self, f, area, buf, t),
             Mode::Normal | Mode::Filter => {}
         }
     }
@@ -430,12 +432,31 @@ fn wind_text(r: &Report) -> String {
 
 fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let header = Row::new(vec![
-        "id", "name", "elev", "report", "age", "temp", "dens alt", "wind", "runway",
+        "id", "name", "elev", "report", "age", "temp", "dens alt", "wind", "runway", "sunset",
+        "local", "today",
     ])
     .style(t.heading());
+    // The selected airfield's sun and runway ends below the table, where there is room.
+    let ends = app
+        .ops
+        .airfields
+        .get(app.ui.field_row)
+        .map_or(0, |f| f.runway_ends.len() as u16);
+    let panel_h = (ends + 5).min(area.height / 2);
+    let area = if panel_h >= 4 {
+        let table_h = area.height.saturating_sub(panel_h);
+        field_panel(
+            app,
+            Rect::new(area.x, area.y + table_h, area.width, panel_h),
+            buf,
+            t,
+        );
+        Rect::new(area.x, area.y, area.width, table_h)
+    } else {
+        area
+    };
     let height = usize::from(area.height.saturating_sub(1));
     let off = scroll_offset(app.ui.field_row, height);
-    let m = &app.assessment.matrix;
     let rows = app
         .ops
         .airfields
@@ -468,10 +489,28 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                     )
                 }
             };
-            let runway = (0..m.aircraft.len())
-                .find_map(|ai| m.cell(ai, fi).end_in_use)
-                .and_then(|k| f.runway_ends.get(usize::from(k)))
+            let runway = app
+                .field_end_in_use(fi)
+                .and_then(|k| f.runway_ends.get(k))
                 .map_or("—".to_string(), |e| e.designator.clone());
+            let sunset =
+                crate::daylight::daylight(app.day(), f.latitude_deg, f.longitude_deg).sunset;
+            let local = sun_local(app, sunset).unwrap_or_else(|| "—".to_string());
+            let today: Vec<String> = app
+                .model()
+                .field_ends(fi)
+                .iter()
+                .filter_map(|e| {
+                    let note = e.day_note.as_ref()?;
+                    let id = f.runway_ends.get(e.index)?;
+                    Some(format!("{} {note}", id.designator))
+                })
+                .collect();
+            let today = if today.is_empty() {
+                "—".to_string()
+            } else {
+                today.join("; ")
+            };
             let style = if fi == app.ui.field_row {
                 t.selected()
             } else if valid.as_ref().is_some_and(|v| v.stale) {
@@ -489,6 +528,9 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 da,
                 wind,
                 runway,
+                sun_z(sunset),
+                local,
+                today,
             ])
             .style(style)
         });
@@ -504,6 +546,9 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             Constraint::Length(9),
             Constraint::Length(11),
             Constraint::Length(6),
+            Constraint::Length(6),
+            Constraint::Length(5),
+            Constraint::Min(10),
         ],
     )
     .header(header)
@@ -649,9 +694,11 @@ fn detail(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let inner = block.inner(area);
     block.render(area, buf);
     let lines = match app.detail_of() {
-        Some(DetailOf::Pairing(p)) => super::detail::lines(&app.ops, &p.result, Some(&p.title), t),
+        Some(DetailOf::Pairing(p)) => {
+            super::detail::lines(&app.ops, &p.result, Some(&p.title), t, inner.width)
+        }
         Some(DetailOf::Leg(k)) => match app.assessment.legs.get(k) {
-            Some(r) => super::detail::lines(&app.ops, r, None, t),
+            Some(r) => super::detail::lines(&app.ops, r, None, t, inner.width),
             None => vec![Line::from("No leg selected.")],
         },
         None => vec![Line::from("No leg selected.")],
@@ -704,6 +751,7 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         Mode::Filter => "type to filter · Enter keeps the filter · Esc clears it".to_string(),
         Mode::Help => "Esc or ? closes the help".to_string(),
         Mode::Form(_) => "Tab/↑↓ field · Enter adds the report · Esc cancels".to_string(),
+        Mode::Runway(_) => "Tab/↑↓ field · Enter sets the runway state · Esc cancels".to_string(),
         Mode::Normal => {
             let replay = if app.replay.is_some() {
                 " · space pause · n/p next/prev hour"
@@ -717,9 +765,14 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 } else {
                     ""
                 };
-                let esc = if area.width < 100 { "" } else { " Esc:close" };
+                // Under 100 columns Esc and r give way (the help lists every key).
+                let (esc, runway) = if area.width < 100 {
+                    ("", "")
+                } else {
+                    (" Esc:close", " r:runway")
+                };
                 let text = format!(
-                    "?:help Tab:pane Enter:open{esc} /:filter s:sort o:report{replay} q:quit"
+                    "?:help Tab:pane Enter:open{esc} /:filter s:sort o:report{runway}{replay} q:quit"
                 );
                 Line::styled(text, t.dim()).render(area, buf);
                 return;
@@ -736,7 +789,7 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             };
             let select = if narrow { "" } else { " · ↑↓ select" };
             format!(
-                "? help · Tab pane{select}{open} · / filter · s sort · o report{replay} · q quit"
+                "? help · Tab pane{select}{open} · / filter · s sort · o report · r runway{replay} · q quit"
             )
         }
     };
@@ -876,4 +929,191 @@ fn form(app: &App, f: &Form, area: Rect, buf: &mut Buffer, t: Theme) {
                 .title(" Report by hand (o) "),
         )
         .render(r, buf);
+}
+
+/// The ends of airfield `fi` today, one line each: designator, usable now or not,
+/// in use, declared distances as today, and the day's note.
+fn end_lines(app: &App, fi: usize, t: Theme) -> Vec<Line<'static>> {
+    let (Some(field), Some(_)) = (app.ops.airfields.get(fi), app.model().fields.get(fi)) else {
+        return Vec::new();
+    };
+    let set = app.model().set_in_use.get(fi).copied().flatten();
+    let now = app.field_end_in_use(fi);
+    app.model()
+        .field_ends(fi)
+        .iter()
+        .map(|e| {
+            let id = field
+                .runway_ends
+                .get(e.index)
+                .map_or("—".to_string(), |r| r.designator.clone());
+            let usable = e.usable_at(app.clock);
+            let word = if !usable {
+                "✗ closed"
+            } else if set == Some(e.index) {
+                "▶ in use (set)"
+            } else if now == Some(e.index) {
+                "▶ in use"
+            } else {
+                "· usable"
+            };
+            let state = e
+                .day_note
+                .clone()
+                .unwrap_or_else(|| "as declared".to_string());
+            Line::from(vec![
+                Span::styled(
+                    format!("  {id:<4} {word:<15}"),
+                    if usable { Style::new() } else { t.error() },
+                ),
+                Span::raw(format!(
+                    "TORA {}, LDA {}, {} · ",
+                    length(app, e.tora_m),
+                    length(app, e.lda_m),
+                    e.surface.word()
+                )),
+                Span::styled(
+                    format!("today: {state}"),
+                    if e.day_note.is_some() {
+                        t.heading()
+                    } else {
+                        t.dim()
+                    },
+                ),
+            ])
+        })
+        .collect()
+}
+
+/// A declared distance in the operator's display unit.
+fn length(app: &App, m: f64) -> String {
+    match app.ops.operator.display_units.distance {
+        crate::ops::operator::DistanceUnit::M => format!("{m:.0} m"),
+        crate::ops::operator::DistanceUnit::Ft => {
+            format!("{:.0} ft", crate::units::m_to_ft(m))
+        }
+    }
+}
+
+fn runway_form(app: &App, f: &RunwayForm, area: Rect, buf: &mut Buffer, t: Theme) {
+    let mut lines: Vec<Line> = vec![Line::styled(
+        format!(
+            "Runway state on {} (as `rhoboard runway` sets it):",
+            app.day()
+        ),
+        t.dim(),
+    )];
+    match app.ops.airfield_position(&f.airfield()) {
+        Some(fi) => lines.extend(end_lines(app, fi, t)),
+        None => lines.push(Line::styled(
+            "  (type an airfield id to see its ends)",
+            t.dim(),
+        )),
+    }
+    if area.height >= 30 {
+        lines.push(Line::default());
+    }
+    for (i, spec) in RUNWAY_FIELDS.iter().enumerate() {
+        let focus = i == f.focus;
+        let value = if focus {
+            format!("{}▏", f.values[i])
+        } else {
+            f.values[i].clone()
+        };
+        let label_style = if focus { t.selected() } else { t.heading() };
+        lines.push(Line::from(vec![
+            Span::styled(format!("{:>10}", spec.label), label_style),
+            Span::raw(format!(" {value:<14} ")),
+            Span::styled(spec.hint, t.dim()),
+        ]));
+        if let Some(e) = f.error_for(i) {
+            lines.push(Line::styled(format!("{:>10} ✗ {e}", ""), t.error()));
+        }
+    }
+    for (_, g) in f.errors.iter().filter(|(i, _)| i.is_none()) {
+        lines.push(Line::styled(format!("✗ {g}"), t.error()));
+    }
+    let where_to = match (&app.settings.ops_dir, app.settings.demo) {
+        (Some(dir), false) => format!(
+            "Enter writes {} and re-checks every leg; Esc cancels.",
+            crate::commands::runway::state_path(dir, app.day()).display()
+        ),
+        _ => "Demo, no operator folder: kept in memory for this session only. Enter sets \
+              it and re-checks every leg; Esc cancels."
+            .to_string(),
+    };
+    lines.push(Line::styled(where_to, t.dim()));
+    let r = centered(area, 104, lines.len() as u16 + 4);
+    Clear.render(r, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: false })
+        .block(
+            Block::bordered()
+                .border_style(t.frame())
+                .title(" Runway state for the day (r) "),
+        )
+        .render(r, buf);
+}
+
+/// A sun event as `1947Z`, or why there is none.
+fn sun_z(e: crate::daylight::Event) -> String {
+    match e {
+        crate::daylight::Event::At(t) => t.format("%H%MZ").to_string(),
+        crate::daylight::Event::AlwaysAbove => "up all day".to_string(),
+        crate::daylight::Event::AlwaysBelow => "no sun".to_string(),
+    }
+}
+
+/// A sun event in the operator's local time (`2147`), when there is one.
+fn sun_local(app: &App, e: crate::daylight::Event) -> Option<String> {
+    let off = chrono::TimeDelta::minutes(i64::from(app.ops.operator.time_zone.utc_offset_min));
+    e.time().map(|t| (t + off).format("%H%M").to_string())
+}
+
+/// `UTC+2`, `UTC-5:30`.
+fn utc_offset_text(min: i32) -> String {
+    let sign = if min < 0 { '-' } else { '+' };
+    let (h, m) = (min.abs() / 60, min.abs() % 60);
+    if m == 0 {
+        format!("UTC{sign}{h}")
+    } else {
+        format!("UTC{sign}{h}:{m:02}")
+    }
+}
+
+/// The selected airfield's day: sun times (Z and local) and its runway ends today.
+fn field_panel(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+    let Some(f) = app.ops.airfields.get(app.ui.field_row) else {
+        return;
+    };
+    let d = crate::daylight::daylight(app.day(), f.latitude_deg, f.longitude_deg);
+    let tz = &app.ops.operator.time_zone;
+    let both = |e| match sun_local(app, e) {
+        Some(l) => format!("{} ({l} local)", sun_z(e)),
+        None => sun_z(e),
+    };
+    let mut lines = vec![
+        Line::from(vec![
+            Span::styled(format!("{} on {}: ", f.id, app.day()), t.heading()),
+            Span::raw(format!(
+                "sunrise {}, sunset {}, civil twilight ends {} (local: {})",
+                both(d.sunrise),
+                both(d.sunset),
+                both(d.civil_dusk),
+                if tz.name.contains("UTC") {
+                    tz.name.clone()
+                } else {
+                    format!("{}, {}", tz.name, utc_offset_text(tz.utc_offset_min))
+                }
+            )),
+        ]),
+        Line::styled("Runway ends today (r sets the state):", t.dim()),
+    ];
+    lines.extend(end_lines(app, app.ui.field_row, t));
+    let block = Block::new().borders(Borders::TOP).border_style(t.frame());
+    let inner = block.inner(area);
+    block.render(area, buf);
+    Paragraph::new(lines)
+        .wrap(Wrap { trim: true })
+        .render(inner, buf);
 }

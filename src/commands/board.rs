@@ -67,6 +67,10 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         bell: args.bell,
         demo: loaded.demo,
         live_offset: None,
+        ops_dir: match &choice {
+            Choice::Explicit(d) | Choice::Configured(d) if !loaded.demo => Some(d.clone()),
+            _ => None,
+        },
     };
     let replaying = args.replay.is_some() || loaded.demo;
     let at = args.at.as_deref().map(parse_at).transpose()?;

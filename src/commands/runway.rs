@@ -62,22 +62,22 @@ pub struct Args {
     pub ops: Option<PathBuf>,
 }
 
-fn length_m(flag: &str, text: &Option<String>) -> anyhow::Result<Option<f64>> {
-    match text {
+fn length_m(flag: &str, text: Option<&str>) -> anyhow::Result<Option<f64>> {
+    match text.map(str::trim).filter(|t| !t.is_empty()) {
         None => Ok(None),
         Some(t) => {
             let m = units::parse_length(t)
-                .map_err(|e| anyhow::anyhow!("--{flag} {e}"))?
+                .map_err(|e| anyhow::anyhow!("{flag} {e}"))?
                 .m();
             if !(m > 0.0 && m < 10_000.0) {
-                bail!("--{flag} '{t}' is outside 0 to 10,000 m");
+                bail!("{flag} '{t}' is outside 0 to 10,000 m");
             }
             Ok(Some(m))
         }
     }
 }
 
-fn parse_until(text: &str, date: NaiveDate) -> anyhow::Result<DateTime<Utc>> {
+fn parse_until(flag: &str, text: &str, date: NaiveDate) -> anyhow::Result<DateTime<Utc>> {
     if let Ok(t) = DateTime::parse_from_rfc3339(text) {
         return Ok(t.with_timezone(&Utc));
     }
@@ -86,10 +86,198 @@ fn parse_until(text: &str, date: NaiveDate) -> anyhow::Result<DateTime<Utc>> {
         .or_else(|_| NaiveTime::parse_from_str(hm, "%H%M"))
         .map_err(|_| {
             anyhow::anyhow!(
-                "--until '{text}': expected a UTC time such as 18:00Z or an RFC 3339 time"
+                "{flag} '{text}': expected a UTC time such as 18:00Z or an RFC 3339 time"
             )
         })?;
     Ok(date.and_time(time).and_utc())
+}
+
+/// One change to one runway end as typed — the command's flags or the board's form.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Request {
+    /// `Some(true)` closes the end, `Some(false)` opens it again.
+    pub closed: Option<bool>,
+    /// When the closure ends (`18:00Z`, `1800` or RFC 3339).
+    pub until: Option<String>,
+    /// Reduced take-off run available (`900m`, `2950ft`).
+    pub tora: Option<String>,
+    /// Reduced take-off distance available.
+    pub toda: Option<String>,
+    /// Reduced accelerate-stop distance available.
+    pub asda: Option<String>,
+    /// Reduced landing distance available.
+    pub lda: Option<String>,
+    /// Surface condition word: dry, wet, soft, long-grass, water.
+    pub condition: Option<String>,
+    /// Make the end the one in use for the day.
+    pub in_use: bool,
+    /// Why.
+    pub note: String,
+    /// Who sets it.
+    pub by: String,
+}
+
+/// How a [`Request`]'s inputs are named in messages: the command's flags (`--tora`)
+/// or the board form's labels (`TORA`).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Names {
+    /// `--tora`, `--until`, `--condition`.
+    Flags,
+    /// `TORA`, `until`, `condition`.
+    Labels,
+}
+
+impl Names {
+    fn of(self, flag: &'static str) -> String {
+        match self {
+            Names::Flags => format!("--{flag}"),
+            Names::Labels => match flag {
+                "tora" | "toda" | "asda" | "lda" => flag.to_ascii_uppercase(),
+                other => other.to_string(),
+            },
+        }
+    }
+}
+
+/// Checks a request against the operator's airfields and builds the entry for
+/// `date`: the airfield and end must exist, lengths carry a unit, grass conditions
+/// need grass, `until` goes with closing.
+pub fn entry(
+    ops: &crate::ops::Ops,
+    field: &str,
+    end: &str,
+    date: NaiveDate,
+    req: &Request,
+    names: Names,
+) -> anyhow::Result<EndState> {
+    let field = ops.airfield(field.trim()).ok_or_else(|| {
+        let id = field.trim();
+        match names {
+            Names::Flags => {
+                anyhow::anyhow!("unknown airfield '{id}'; it needs airfields/{id}.json")
+            }
+            Names::Labels => {
+                let known: Vec<&str> = ops.airfields.iter().map(|a| a.id.as_str()).collect();
+                anyhow::anyhow!(
+                    "unknown airfield '{id}' (the operator's: {})",
+                    known.join(", ")
+                )
+            }
+        }
+    })?;
+    let Some(end) = field
+        .runway_ends
+        .iter()
+        .find(|e| e.designator == end.trim())
+    else {
+        let known: Vec<&str> = field
+            .runway_ends
+            .iter()
+            .map(|e| e.designator.as_str())
+            .collect();
+        bail!(
+            "{} has no runway end '{}' (it has: {})",
+            field.id,
+            end.trim(),
+            known.join(", ")
+        );
+    };
+    let condition = match req
+        .condition
+        .as_deref()
+        .map(str::trim)
+        .filter(|c| !c.is_empty())
+    {
+        None => None,
+        Some(c) => {
+            let flag = names.of("condition");
+            let c = DayCondition::parse(c).ok_or_else(|| {
+                anyhow::anyhow!("{flag} '{c}': expected dry, wet, soft, long-grass or water")
+            })?;
+            if end.surface == Surface::Paved
+                && matches!(c, DayCondition::SoftGround | DayCondition::LongGrass)
+            {
+                bail!(
+                    "{flag} '{}' is for grass; {} {} is paved",
+                    c.word(),
+                    field.id,
+                    end.designator
+                );
+            }
+            Some(c)
+        }
+    };
+    let until = req
+        .until
+        .as_deref()
+        .map(str::trim)
+        .filter(|u| !u.is_empty())
+        .map(|u| parse_until(&names.of("until"), u, date))
+        .transpose()?;
+    if until.is_some() && req.closed != Some(true) {
+        bail!("{} goes with {}", names.of("until"), names.of("closed"));
+    }
+    Ok(EndState {
+        airfield: field.id.clone(),
+        end: end.designator.clone(),
+        closed: req.closed,
+        until,
+        tora_m: length_m(&names.of("tora"), req.tora.as_deref())?,
+        toda_m: length_m(&names.of("toda"), req.toda.as_deref())?,
+        asda_m: length_m(&names.of("asda"), req.asda.as_deref())?,
+        lda_m: length_m(&names.of("lda"), req.lda.as_deref())?,
+        condition,
+        in_use: req.in_use.then_some(true),
+        note: req.note.trim().to_string(),
+        set_by: req.by.trim().to_string(),
+    })
+}
+
+/// Whether an entry changes anything (a note alone does not).
+pub fn changes_something(e: &EndState) -> bool {
+    e.closed.is_some()
+        || e.tora_m.is_some()
+        || e.toda_m.is_some()
+        || e.asda_m.is_some()
+        || e.lda_m.is_some()
+        || e.condition.is_some()
+        || e.in_use.is_some()
+}
+
+/// `DIR/runway-state/<date>.json`.
+pub fn state_path(dir: &Path, date: NaiveDate) -> PathBuf {
+    dir.join("runway-state").join(format!("{date}.json"))
+}
+
+/// The day's state file as it is in the folder now (empty when there is none).
+pub fn read_state(dir: &Path, date: NaiveDate) -> anyhow::Result<RunwayStateFile> {
+    let path = state_path(dir, date);
+    match std::fs::read_to_string(&path) {
+        Ok(text) => serde_json::from_str::<RunwayStateFile>(&text).with_context(|| {
+            format!(
+                "{} is not a runway state file; run `rhoboard validate --ops {}`",
+                path.display(),
+                dir.display()
+            )
+        }),
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(RunwayStateFile::new(date)),
+        Err(e) => Err(e).with_context(|| format!("reading {}", path.display())),
+    }
+}
+
+/// Appends `entry` to the day's state in `dir` (read afresh, so changes made meanwhile
+/// by someone else are kept) and writes it atomically; returns the path and the new state.
+pub fn append_entry(
+    dir: &Path,
+    date: NaiveDate,
+    entry: EndState,
+) -> anyhow::Result<(PathBuf, RunwayStateFile)> {
+    let path = state_path(dir, date);
+    let mut state = read_state(dir, date)?;
+    state.entries.push(entry);
+    let text = serde_json::to_string_pretty(&state)? + "\n";
+    write_atomically(&path, &text)?;
+    Ok((path, state))
 }
 
 /// Writes `text` to `path` safely: a temporary file in the same folder, synced, then
@@ -131,56 +319,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             .map_err(|_| anyhow::anyhow!("--date '{d}': expected YYYY-MM-DD"))?,
         None => Utc::now().date_naive(),
     };
-    let field = ops.airfield(&args.field).ok_or_else(|| {
-        anyhow::anyhow!(
-            "unknown airfield '{}'; it needs airfields/{}.json",
-            args.field,
-            args.field
-        )
-    })?;
-    let Some(end) = field.runway_ends.iter().find(|e| e.designator == args.end) else {
-        let known: Vec<&str> = field
-            .runway_ends
-            .iter()
-            .map(|e| e.designator.as_str())
-            .collect();
-        bail!(
-            "{} has no runway end '{}' (it has: {})",
-            field.id,
-            args.end,
-            known.join(", ")
-        );
-    };
-    let condition = match &args.condition {
-        None => None,
-        Some(c) => {
-            let c = DayCondition::parse(c).ok_or_else(|| {
-                anyhow::anyhow!("--condition '{c}': expected dry, wet, soft, long-grass or water")
-            })?;
-            if end.surface == Surface::Paved
-                && matches!(c, DayCondition::SoftGround | DayCondition::LongGrass)
-            {
-                bail!(
-                    "--condition '{}' is for grass; {} {} is paved",
-                    c.word(),
-                    field.id,
-                    end.designator
-                );
-            }
-            Some(c)
-        }
-    };
-    let until = args
-        .until
-        .as_deref()
-        .map(|u| parse_until(u, date))
-        .transpose()?;
-    if until.is_some() && !args.closed {
-        bail!("--until goes with --closed");
-    }
-    let entry = EndState {
-        airfield: field.id.clone(),
-        end: end.designator.clone(),
+    let req = Request {
         closed: if args.closed {
             Some(true)
         } else if args.open {
@@ -188,49 +327,31 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         } else {
             None
         },
-        until,
-        tora_m: length_m("tora", &args.tora)?,
-        toda_m: length_m("toda", &args.toda)?,
-        asda_m: length_m("asda", &args.asda)?,
-        lda_m: length_m("lda", &args.lda)?,
-        condition,
-        in_use: args.in_use.then_some(true),
+        until: args.until.clone(),
+        tora: args.tora.clone(),
+        toda: args.toda.clone(),
+        asda: args.asda.clone(),
+        lda: args.lda.clone(),
+        condition: args.condition.clone(),
+        in_use: args.in_use,
         note: args.note.clone().unwrap_or_default(),
-        set_by: args.by.clone().unwrap_or_default(),
+        by: args.by.clone().unwrap_or_default(),
     };
-    let path = dir.join("runway-state").join(format!("{date}.json"));
-    let mut state = match std::fs::read_to_string(&path) {
-        Ok(text) => serde_json::from_str::<RunwayStateFile>(&text).with_context(|| {
-            format!(
-                "{} is not a runway state file; run `rhoboard validate --ops {}`",
-                path.display(),
-                dir.display()
-            )
-        })?,
-        Err(e) if e.kind() == std::io::ErrorKind::NotFound => RunwayStateFile::new(date),
-        Err(e) => return Err(e).with_context(|| format!("reading {}", path.display())),
-    };
-    let changes = entry.closed.is_some()
-        || entry.tora_m.is_some()
-        || entry.toda_m.is_some()
-        || entry.asda_m.is_some()
-        || entry.lda_m.is_some()
-        || entry.condition.is_some()
-        || entry.in_use.is_some();
-    if changes {
-        state.entries.push(entry);
-        let text = serde_json::to_string_pretty(&state)? + "\n";
-        write_atomically(&path, &text)?;
+    let entry = entry(&ops, &args.field, &args.end, date, &req, Names::Flags)?;
+    let (field, end) = (entry.airfield.clone(), entry.end.clone());
+    let state = if changes_something(&entry) {
+        let (path, state) = append_entry(&dir, date, entry)?;
         writeln!(out, "Saved in {}.", path.display())?;
-    }
-    match state.end(&field.id, &end.designator) {
+        state
+    } else {
+        read_state(&dir, date)?
+    };
+    match state.end(&field, &end) {
         Some(s) => writeln!(
             out,
-            "{} {} on {date}: {}{}",
-            field.id,
-            end.designator,
+            "{field} {end} on {date}: {}{}",
             crate::assess::model::describe(&s),
-            if state.in_use(&field.id).as_deref() == Some(end.designator.as_str()) {
+            if state.in_use(&field).as_deref() == Some(end.as_str()) {
                 "; in use"
             } else {
                 ""
@@ -238,8 +359,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         )?,
         None => writeln!(
             out,
-            "{} {} on {date}: as declared (no change for the day)",
-            field.id, end.designator
+            "{field} {end} on {date}: as declared (no change for the day)"
         )?,
     }
     Ok(Outcome::Success)
