@@ -1173,6 +1173,13 @@ fn payload_headroom(ops: &Ops, leg: &Leg, plan: &Plan<'_>) -> Option<PayloadHead
             station: name(si),
         })
     } else {
+        // Where to take load off, in the order a dispatcher would: baggage first, then
+        // passenger rows behind the first, the first row (the pilot's) last.
+        let rank = |si: usize| match stations[si].seats {
+            0 => 0,
+            _ if si > 0 => 1,
+            _ => 2,
+        };
         let mut best: Option<(f64, usize)> = None;
         for (si, &have) in current.iter().enumerate() {
             if have <= 0.0 || !ok(si, -have) {
@@ -1180,7 +1187,8 @@ fn payload_headroom(ops: &Ops, leg: &Leg, plan: &Plan<'_>) -> Option<PayloadHead
             }
             // Removing `have` passes, removing nothing fails.
             let off = -bisect(si, -have, 0.0, true);
-            if best.is_none_or(|(b, _)| off < b) {
+            let better = best.is_none_or(|(b, bi)| (rank(si), off) < (rank(bi), b));
+            if better {
                 best = Some((off, si));
             }
         }
