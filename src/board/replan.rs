@@ -277,7 +277,57 @@ pub fn differences(old: &Leg, new: &Leg) -> Vec<String> {
             out.push(format!("{what} {a} → {b}"));
         }
     }
-    if old.loads != new.loads || old.takeoff_mass_kg != new.takeoff_mass_kg {
+    if old.takeoff_mass_kg != new.takeoff_mass_kg {
+        out.push(format!(
+            "takeoff mass {} → {}",
+            old.takeoff_mass_kg
+                .map_or("—".into(), |m| format!("{m:.0} kg")),
+            new.takeoff_mass_kg
+                .map_or("—".into(), |m| format!("{m:.0} kg"))
+        ));
+    }
+    if let (Some(a), Some(b)) = (&old.loads, &new.loads) {
+        let load = |l: &crate::ops::legs::Loads, id: &str| {
+            l.stations.iter().find(|s| s.station == id).map_or_else(
+                || "empty".to_string(),
+                |s| {
+                    let mut t = Vec::new();
+                    if s.standard_adults > 0 {
+                        t.push(format!("{} adult(s)", s.standard_adults));
+                    }
+                    if let Some(m) = s.mass_kg {
+                        t.push(format!("{m:.0} kg"));
+                    }
+                    if t.is_empty() {
+                        "empty".into()
+                    } else {
+                        t.join(" + ")
+                    }
+                },
+            )
+        };
+        let mut ids: Vec<&str> = Vec::new();
+        for s in a.stations.iter().chain(&b.stations) {
+            if !ids.contains(&s.station.as_str()) {
+                ids.push(&s.station);
+            }
+        }
+        for id in ids {
+            let (x, y) = (load(a, id), load(b, id));
+            if x != y {
+                out.push(format!("{id} {x} → {y}"));
+            }
+        }
+        if a.fuel_at_start_l != b.fuel_at_start_l {
+            out.push(format!(
+                "fuel {} → {}",
+                a.fuel_at_start_l
+                    .map_or("—".into(), |f| format!("{f:.0} L")),
+                b.fuel_at_start_l
+                    .map_or("—".into(), |f| format!("{f:.0} L"))
+            ));
+        }
+    } else if old.loads != new.loads {
         out.push("loads changed".into());
     }
     out
