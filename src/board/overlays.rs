@@ -14,6 +14,9 @@ use super::signoff::{Mark, SIGN_FIELDS, SignForm};
 use super::theme::Theme;
 use crate::assess::{LegResult, State};
 
+/// The help's line on the sign-off marks and the forecast column.
+pub const HELP_LEGEND: &str = "✎ signed off · ↻ sign-off needs a re-check · forecast: fails ~HHMMZ (a forecast, not an observation)";
+
 /// Which extra leg columns fit.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct LegColumns {

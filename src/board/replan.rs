@@ -469,6 +469,13 @@ impl App {
 
     /// `e`: opens the what-if panel on the selected leg.
     pub(super) fn open_replan(&mut self) {
+        if self.ui.pane != super::app::Pane::Legs {
+            self.notice(
+                NoteKind::Info,
+                "e re-plans a leg: choose one in the Legs pane (Tab)".into(),
+            );
+            return;
+        }
         let Some(r) = self.selected_leg() else {
             self.notice(NoteKind::Info, "what-if: no leg selected".into());
             return;

@@ -236,6 +236,13 @@ impl App {
 
     /// `S`: opens the confirmation for the selected leg.
     pub(super) fn open_sign(&mut self) {
+        if self.ui.pane != super::app::Pane::Legs {
+            self.notice(
+                NoteKind::Info,
+                "S signs off a leg: choose one in the Legs pane (Tab)".into(),
+            );
+            return;
+        }
         let Some(&k) = self.rows().get(self.ui.leg_row) else {
             self.notice(NoteKind::Info, "sign-off: no leg selected".into());
             return;

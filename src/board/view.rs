@@ -858,6 +858,7 @@ fn help(area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
             Span::styled("? no-data", t.state(State::NoData)),
             Span::raw(" no usable report, or outside the tables"),
         ]),
+        Line::from(super::overlays::HELP_LEGEND),
         Line::default(),
         Line::styled("Keys", t.heading()),
     ];
