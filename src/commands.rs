@@ -45,3 +45,27 @@ impl From<Outcome> for ExitCode {
         ExitCode::from(o.code())
     }
 }
+
+/// Writes a decoded report's groups in column order, each with its meaning, aligned;
+/// a group longer than 24 characters gets its meaning on the next line.
+pub(crate) fn write_groups(
+    mut lines: Vec<(usize, String, String)>,
+    out: &mut dyn std::io::Write,
+) -> std::io::Result<()> {
+    lines.sort_by_key(|(column, _, _)| *column);
+    let width = lines
+        .iter()
+        .map(|(_, t, _)| t.chars().count())
+        .filter(|n| *n <= 24)
+        .max()
+        .unwrap_or(8);
+    for (_, text, meaning) in &lines {
+        if text.chars().count() > 24 {
+            writeln!(out, "  {text}")?;
+            writeln!(out, "  {:width$}  {meaning}", "")?;
+        } else {
+            writeln!(out, "  {text:width$}  {meaning}")?;
+        }
+    }
+    Ok(())
+}

@@ -218,21 +218,7 @@ pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Resu
             lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
         }
     }
-    lines.sort_by_key(|(column, _, _)| *column);
-    let width = lines
-        .iter()
-        .map(|(_, t, _)| t.chars().count())
-        .filter(|n| *n <= 24)
-        .max()
-        .unwrap_or(8);
-    for (_, text, meaning) in &lines {
-        if text.chars().count() > 24 {
-            writeln!(out, "  {text}")?;
-            writeln!(out, "  {:width$}  {meaning}", "")?;
-        } else {
-            writeln!(out, "  {text:width$}  {meaning}")?;
-        }
-    }
+    crate::commands::write_groups(lines, out)?;
     let ceiling = match r.ceiling {
         Ceiling::None => "none".to_string(),
         Ceiling::Known(ft) => format!("{ft:.0} ft"),

@@ -320,21 +320,7 @@ pub fn write_readable(t: &Taf, out: &mut dyn std::io::Write) -> std::io::Result<
             lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
         }
     }
-    lines.sort_by_key(|(column, _, _)| *column);
-    let width = lines
-        .iter()
-        .map(|(_, s, _)| s.chars().count())
-        .filter(|n| *n <= 24)
-        .max()
-        .unwrap_or(8);
-    for (_, text, meaning) in &lines {
-        if text.chars().count() > 24 {
-            writeln!(out, "  {text}")?;
-            writeln!(out, "  {:width$}  {meaning}", "")?;
-        } else {
-            writeln!(out, "  {text:width$}  {meaning}")?;
-        }
-    }
+    crate::commands::write_groups(lines, out)?;
     let periods = forecast::periods(t);
     if !periods.is_empty() {
         writeln!(out, "  periods:")?;
