@@ -202,3 +202,27 @@ fn overlays_do_not_panic_in_tiny_terminals() {
         let _ = render(&mut app, w, h);
     }
 }
+
+#[test]
+fn a_board_opened_later_lists_the_recheck_at_load() {
+    let tmp = tempfile::tempdir().unwrap();
+    let mut morning = demo_stepped_to(8);
+    with_log(&mut morning, tmp.path());
+    select_leg(&mut morning, "L09");
+    morning.update(key(KeyCode::Char('S')));
+    type_text(&mut morning, "M. Ortiz");
+    morning.update(key(KeyCode::Enter));
+    assert_eq!(run_effects(&mut morning), 1);
+    // Another board (another dispatcher, later) reads the same log.
+    let mut later = demo_stepped_to(13);
+    with_log(&mut later, tmp.path());
+    assert!(
+        later
+            .notes
+            .iter()
+            .any(|n| n.text.starts_with("L09 sign-off #1 needs a re-check:")),
+        "{:?}",
+        later.notes
+    );
+    assert_eq!(later.signoffs.rechecks(), 1);
+}

@@ -181,7 +181,8 @@ impl App {
                 self.signoffs.unavailable = Some(e);
             }
         }
-        self.restand(false);
+        // Sign-offs found needing a re-check (at load, or since the last read) are listed.
+        self.restand(true);
     }
 
     /// Recomputes every leg's standing; with `announce`, a sign-off newly needing a
