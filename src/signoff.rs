@@ -165,8 +165,36 @@ pub struct EndFigures {
     pub checks: Vec<CheckFigure>,
     /// Climb (departure only).
     pub climb: Option<ClimbFigure>,
+    /// Today's runway state of the end in use, in words, when one was set.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub runway_today: Option<String>,
+    /// Every limit checked at this end — weather, wind, density altitude, daylight,
+    /// endorsements, the pilot's own limits, mass and balance — with where it comes from.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub limits: Vec<LimitFigure>,
     /// State of this end.
     pub state: String,
+}
+
+/// One limit as it stood when the leg was signed.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct LimitFigure {
+    /// What it is about, e.g. `crosswind`, `daylight`, `endorsement`.
+    pub kind: String,
+    /// The value, in `unit`.
+    pub value: Option<f64>,
+    /// The limit, in `unit`.
+    pub limit: Option<f64>,
+    /// The unit.
+    pub unit: String,
+    /// `within`, `thin`, `below` or `no-data`.
+    pub state: String,
+    /// Where the limit comes from (category, pilot, regulation, type).
+    pub source: String,
+    /// A plain sentence.
+    #[serde(default, skip_serializing_if = "String::is_empty")]
+    pub note: String,
 }
 
 /// What the assessment showed when the leg was signed.
@@ -268,6 +296,24 @@ fn end_figures(s: &Side, phase: &str, p: &Option<PhaseResult>) -> EndFigures {
             min_rate_fpm: c.chain.min_rate_fpm,
             required_gradient_ft_per_nm: c.chain.required_gradient_ft_per_nm,
         }),
+        runway_today: s
+            .ends
+            .iter()
+            .find(|e| e.in_use)
+            .and_then(|e| e.today.clone()),
+        limits: s
+            .limits
+            .iter()
+            .map(|l| LimitFigure {
+                kind: l.kind.word().to_string(),
+                value: l.value.and_then(finite),
+                limit: l.limit.and_then(finite),
+                unit: l.unit.to_string(),
+                state: l.state.word().to_string(),
+                source: l.source.clone(),
+                note: l.note.clone(),
+            })
+            .collect(),
         state: s.state.word().to_string(),
     }
 }

@@ -198,8 +198,9 @@ fn the_runway_form_closes_an_end_on_the_demo_and_l01_goes_below() {
     // L01 is selected: r opens the form on XSEA and its runway in use, the cursor on
     // "closed".
     s.keys(&["g", "r"]);
+    // Wait for the whole form, not only its title (a frame can be caught mid-draw).
     let screen = s.wait_for("the runway form", |t| {
-        t.contains("Runway state for the day")
+        t.contains("Runway state for the day") && t.contains("airfield XSEA")
     });
     assert!(screen.contains("airfield XSEA"), "{screen}");
     assert!(screen.contains("kept in memory"), "{screen}");
