@@ -468,7 +468,10 @@ impl App {
             }
         }
         app.rebuild_rows();
-        app.reassessed();
+        if app.replay.is_none() {
+            // (A replay's `rebuild_store` has done it already.)
+            app.reassessed();
+        }
         app
     }
 
