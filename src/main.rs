@@ -85,6 +85,9 @@ fn main() -> ExitCode {
             if err.chain().any(|c| {
                 c.downcast_ref::<std::io::Error>()
                     .is_some_and(|e| e.kind() == std::io::ErrorKind::BrokenPipe)
+                    || c.downcast_ref::<serde_json::Error>()
+                        .and_then(serde_json::Error::io_error_kind)
+                        == Some(std::io::ErrorKind::BrokenPipe)
             }) =>
         {
             ExitCode::SUCCESS

@@ -132,6 +132,8 @@ pub enum Saved {
         /// The file's text on disk now.
         on_disk: String,
     },
+    /// The legs are the same as on disk: nothing written.
+    Unchanged,
 }
 
 /// Saves a day's legs file at `path`, only if its content still hashes to `expected_hash`.
@@ -140,13 +142,21 @@ pub fn save_legs(path: &Path, expected_hash: &str, file: &LegsFile) -> std::io::
     if content_hash(&now) != expected_hash {
         return Ok(Saved::Conflict { on_disk: now });
     }
+    if serde_json::from_str::<LegsFile>(&now).is_ok_and(|old| &old == file) {
+        return Ok(Saved::Unchanged);
+    }
     let text = serde_json::to_string_pretty(file).map_err(std::io::Error::other)? + "\n";
     let dir = path.parent().unwrap_or(Path::new("."));
     let name = path
         .file_name()
         .and_then(|n| n.to_str())
         .unwrap_or("legs.json");
-    let backup = dir.join(format!(".{name}.bak"));
+    // One backup per version replaced, named by its content hash: a second save never
+    // overwrites the backup of the original.
+    let backup = dir.join(format!(
+        ".{name}.{}.bak",
+        &expected_hash[..expected_hash.len().min(12)]
+    ));
     let tmp = dir.join(format!(".{name}.tmp-{}", std::process::id()));
     {
         let mut f = std::fs::File::create(&tmp)?;

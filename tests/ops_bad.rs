@@ -150,7 +150,7 @@ fn axes_not_increasing() {
     insta::assert_snapshot!(validate_case("axes-not-increasing"), @r#"
     1 error(s):
       fleet/types/tiny.json:11:68: performance.axes.pressure_altitude_ft[1]: axis pressure_altitude_ft must be strictly increasing, but 0 follows 8000
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -161,7 +161,7 @@ fn climb_increases() {
     2 error(s):
       fleet/types/tiny.json:22:40: performance.climb.rate_fpm[0][1][1]: value 940 increases from 900 as pressure altitude rises from 0 to 8000 ft; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
       fleet/types/tiny.json:22:40: performance.climb.rate_fpm[0][1][1]: value 940 increases from 600 as OAT rises from -10 to 40 °C; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -171,7 +171,7 @@ fn designator_heading() {
     insta::assert_snapshot!(validate_case("designator-heading"), @r#"
     1 error(s):
       airfields/XAAA.json:10:46: runway_ends[0].true_heading_deg: designator 09 disagrees with the magnetic heading 110° (true 112 − variation 2) by 20°; check the heading, the designator or the variation's sign (east positive)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -182,7 +182,7 @@ fn distance_decreases() {
     2 error(s):
       fleet/types/tiny.json:14:46: performance.takeoff.distance_50ft_m[0][1][1]: value 360 decreases from 370 as pressure altitude rises from 0 to 8000 ft; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
       fleet/types/tiny.json:14:46: performance.takeoff.distance_50ft_m[0][1][1]: value 360 decreases from 460 as OAT rises from -10 to 40 °C; probably a typing error (if the manual really says so, add "irregular_ok": "reason" to this section)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -195,7 +195,7 @@ fn duplicate_ids() {
       legs/2026-06-14.json:7:12: legs[1].id: duplicate leg id 'T1' (also legs/2026-06-14.json legs[0])
       legs/2026-06-14.json:8:15: legs[1].pilot: unknown pilot 'ins-bo'; it is not in pilots.json
       pilots.json:6:12: pilots[1].id: duplicate pilot id 'stu-ash' (also pilots[0])
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -205,7 +205,7 @@ fn ground_roll_above_50ft() {
     insta::assert_snapshot!(validate_case("ground-roll-above-50ft"), @r#"
     1 error(s):
       fleet/types/tiny.json:13:70: performance.takeoff.ground_roll_m[1][1][1]: ground roll 1500 m is longer than the 50 ft distance 930 m at the same point; one of them is mistyped
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -213,7 +213,7 @@ fn ground_roll_above_50ft() {
 #[test]
 fn irregular_ok() {
     insta::assert_snapshot!(validate_case("irregular-ok"), @r#"
-    All is well: 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    All is well: 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation and forecast file(s).
     exit 0
     "#);
 }
@@ -223,7 +223,7 @@ fn json_syntax() {
     insta::assert_snapshot!(validate_case("json-syntax"), @r#"
     1 error(s):
       airfields/XAAA.json:5:24: JSON syntax: key must be a string
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -233,7 +233,7 @@ fn leg_arrives_first() {
     insta::assert_snapshot!(validate_case("leg-arrives-first"), @r#"
     1 error(s):
       legs/2026-06-14.json:5:70: legs[0].arrives_at: arrives at 2026-06-14T07:30:00+00:00 before or when it departs (2026-06-14T08:00:00+00:00)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -244,7 +244,7 @@ fn leg_loads() {
     2 error(s):
       legs/2026-06-14.json:7:41: legs[0].loads.stations[0].station: type tiny has no loading station 'front_seats' (it has: seats, baggage)
       legs/2026-06-14.json:7:92: legs[0].loads.fuel_at_start_l: 100 L of fuel is more than the usable capacity 90 L
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -254,7 +254,7 @@ fn leg_maintenance() {
     insta::assert_snapshot!(validate_case("leg-maintenance"), @r#"
     1 error(s):
       legs/2026-06-14.json:7:116: legs[1].aircraft: aircraft X-TINB is in maintenance (Propeller overhaul); choose another aircraft
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -266,7 +266,7 @@ fn leg_overlap_and_position() {
       legs/2026-06-14.json:7:32: legs[1].departs_at: aircraft X-TINA is on leg T1 until 0900Z, which overlaps leg T2
     1 warning(s):
       legs/2026-06-14.json:10:53: legs[2].from: aircraft X-TINA departs XBBB but its previous leg T2 landed at XAAA
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -278,7 +278,7 @@ fn leg_unknown_refs() {
       legs/2026-06-14.json:5:106: legs[0].aircraft: unknown aircraft 'X-TINZ'; it is not in fleet/aircraft.json
       legs/2026-06-14.json:6:15: legs[0].pilot: unknown pilot 'stu-ashe'; it is not in pilots.json
       legs/2026-06-14.json:6:63: legs[0].from: unknown airfield 'XAAB'; add airfields/XAAB.json or fix the id
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -288,7 +288,7 @@ fn leg_wrong_day_file() {
     insta::assert_snapshot!(validate_case("leg-wrong-day-file"), @r#"
     1 error(s):
       legs/2026-06-14.json:5:32: legs[0].departs_at: departs on 2026-06-15 UTC, but this file holds the legs departing on 2026-06-14; move it to legs/2026-06-15.json
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -298,7 +298,7 @@ fn maintenance_without_note() {
     insta::assert_snapshot!(validate_case("maintenance-without-note"), @r#"
     1 error(s):
       fleet/aircraft.json:5:104: aircraft[1].status: status is `maintenance` but there is no `maintenance` note: add {"note": …, "since": "YYYY-MM-DD"}
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -308,7 +308,7 @@ fn missing_field() {
     insta::assert_snapshot!(validate_case("missing-field"), @r#"
     1 error(s):
       fleet/aircraft.json:4:5: aircraft[0]: missing field `empty_mass_kg`
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -318,7 +318,7 @@ fn missing_file() {
     insta::assert_snapshot!(validate_case("missing-file"), @r#"
     1 error(s):
       pilots.json:1:1: file is missing; every operator folder needs one (`rhoboard init DIR` writes a template)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -329,7 +329,7 @@ fn misspelt_folder() {
     2 warning(s):
       airfield:1:1: not part of the operator-folder layout, so not read (expected in the folder: operator.json, pilots.json, fleet, airfields, legs, runway-state, observations, forecasts, signoffs)
       airfields/XDDD.JSON:1:1: not read: only .json files are read in this folder
-    No errors (2 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    No errors (2 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation and forecast file(s).
     exit 0
     "#);
 }
@@ -340,7 +340,7 @@ fn non_positive_distance() {
     2 error(s):
       fleet/types/tiny.json:17:29: performance.landing.distance_50ft_m[0][0][0]: distance 0 m must be positive
       fleet/types/tiny.json:18:27: performance.landing.ground_roll_m[0][0][0]: ground roll 140 m is longer than the 50 ft distance 0 m at the same point; one of them is mistyped
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -350,7 +350,7 @@ fn observation_rejected() {
     insta::assert_snapshot!(validate_case("observation-rejected"), @r#"
     1 warning(s):
       observations/2026-06-14.txt:3:1: report not usable: observation XAAA 140900Z: temperature/dew point group missing (expected e.g. 15/08)
-    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation and forecast file(s).
     exit 0
     "#);
 }
@@ -361,7 +361,7 @@ fn operator_two_categories() {
     2 error(s):
       operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `land_before_sunset_min`, `depart_after_sunrise_min`, `sources`
       operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `land_before_sunset_min`, `depart_after_sunrise_min`, `sources`
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -372,7 +372,7 @@ fn schema_errors_top_and_list() {
     2 error(s):
       airfields/XBBB.json:5:25: elevation_ft: invalid type: string "1200", expected a number (the unit is in the field name)
       airfields/XBBB.json:10:127: runway_ends[0].surface: unknown variant `gras`, expected `paved` or `grass`
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -382,7 +382,7 @@ fn schema_version() {
     insta::assert_snapshot!(validate_case("schema-version"), @r#"
     1 error(s):
       airfields/XBBB.json:2:21: schema_version: schema_version 2 is not one this build reads (1)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -392,7 +392,7 @@ fn slope_signs() {
     insta::assert_snapshot!(validate_case("slope-signs"), @r#"
     1 error(s):
       airfields/XAAA.json:11:147: runway_ends[1].slope_percent: runway 27 slopes 1 % and its opposite end 09 slopes 1 %; opposite ends carry opposite signs (uphill one way is downhill the other)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -402,7 +402,7 @@ fn table_shape() {
     insta::assert_snapshot!(validate_case("table-shape"), @r#"
     1 error(s):
       fleet/types/tiny.json:13:38: performance.takeoff.ground_roll_m[0][1]: expected 2 columns (one per oat_c value), found 1
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -412,7 +412,7 @@ fn table_too_cool() {
     insta::assert_snapshot!(validate_case("table-too-cool"), @r#"
     1 warning(s):
       fleet/types/tiny.json:11:81: performance.axes.oat_c: tables stop at 40 °C while the folder's reports reach 43 °C; legs in that heat will be no-data
-    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation file(s).
+    No errors (1 warning(s) above): 1 aircraft type(s), 2 aircraft, 2 pilot(s), 2 airfield(s), 2 leg(s), 1 observation and forecast file(s).
     exit 0
     "#);
 }
@@ -424,7 +424,7 @@ fn three_errors_one_file() {
       airfields/XBBB.json:6:19: latitude_deg: latitude 140.2 is outside -90 to 90
       airfields/XBBB.json:10:76: runway_ends[0].toda_m: TODA 650 m is shorter than TORA 700 m; TODA is TORA plus any clearway
       airfields/XBBB.json:10:105: runway_ends[0].lda_m: lda_m must be a positive number, found -700
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -435,7 +435,7 @@ fn tora_toda_asda() {
     2 error(s):
       airfields/XAAA.json:10:75: runway_ends[0].toda_m: TODA 850 m is shorter than TORA 900 m; TODA is TORA plus any clearway
       airfields/XAAA.json:10:90: runway_ends[0].asda_m: ASDA 800 m is shorter than TORA 900 m; ASDA is TORA plus any stopway
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -446,7 +446,7 @@ fn unknown_fields() {
     2 error(s):
       airfields/XAAA.json:10:50: runway_ends[0].tora: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
       airfields/XAAA.json:11:130: runway_ends[1].surface: unknown variant `asphalt`, expected `paved` or `grass`
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -457,7 +457,7 @@ fn variation_sign() {
     2 error(s):
       airfields/XAAA.json:10:46: runway_ends[0].true_heading_deg: designator 09 disagrees with the magnetic heading 104° (true 92 − variation -12) by 14°; check the heading, the designator or the variation's sign (east positive)
       airfields/XAAA.json:11:46: runway_ends[1].true_heading_deg: designator 27 disagrees with the magnetic heading 284° (true 272 − variation -12) by 14°; check the heading, the designator or the variation's sign (east positive)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -467,7 +467,7 @@ fn wrong_type() {
     insta::assert_snapshot!(validate_case("wrong-type"), @r#"
     1 error(s):
       airfields/XBBB.json:5:27: elevation_ft: invalid type: string "1200ft", expected a number (the unit is in the field name)
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
 }
@@ -479,7 +479,7 @@ fn loads_fuel_units() {
       legs/2026-06-14.json:7:15: legs[0].loads: give exactly one of fuel_at_start_l, fuel_at_start_usgal or fuel_at_start_kg
       legs/2026-06-14.json:7:29: legs[0].loads.stations[0]: standard masses are used but operator.json has no policy.standard_masses
       legs/2026-06-14.json:7:73: legs[0].loads.stations[1]: give mass_kg, standard_adults or standard_children
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     ");
 }
@@ -489,7 +489,7 @@ fn envelope_crossing() {
     insta::assert_snapshot!(validate_case("envelope-crossing"), @r"
     1 error(s):
       fleet/types/tiny.json:31:17: mass_balance.envelope: the CG envelope crosses itself; list its corners in order around the outline
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     ");
 }
@@ -501,7 +501,7 @@ fn runway_state_unknown_end() {
       runway-state/2026-06-14.json:5:33: entries[0].end: XAAA has no runway end '31' (it has: 09, 27)
       runway-state/2026-06-14.json:6:18: entries[1].airfield: unknown airfield 'XZZZ'
       runway-state/2026-06-14.json:7:49: entries[2].tora_m: -5 must be positive
-    Fix the errors above and run `rhoboard validate` again.
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     ");
 }

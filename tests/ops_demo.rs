@@ -158,7 +158,7 @@ fn validate_command_on_the_demo_says_all_is_well() {
     assert_eq!(outcome, rhoboard::commands::Outcome::Success);
     let text = String::from_utf8(out).unwrap();
     let text = text.lines().skip(1).collect::<Vec<_>>().join("\n");
-    insta::assert_snapshot!(text, @"All is well: 3 aircraft type(s), 8 aircraft, 6 pilot(s), 9 airfield(s), 16 leg(s), 2 observation file(s).");
+    insta::assert_snapshot!(text, @"All is well: 3 aircraft type(s), 8 aircraft, 6 pilot(s), 9 airfield(s), 16 leg(s), 2 observation and forecast file(s).");
     std::fs::remove_dir_all(&dir).unwrap();
 }
 

@@ -86,10 +86,38 @@ fn the_afternoon_charter_is_re_planned_to_the_morning_and_saved() {
         now.contains("2026-06-14T06:30:00+00:00") || now.contains("2026-06-14T06:30:00Z"),
         "{now}"
     );
+    let backup = |text: &str| {
+        ops.join(format!(
+            "legs/.2026-06-14.json.{}.bak",
+            &rhoboard::replan::content_hash(text)[..12]
+        ))
+    };
     assert_eq!(
-        std::fs::read_to_string(ops.join("legs/.2026-06-14.json.bak")).unwrap(),
+        std::fs::read_to_string(backup(&original)).unwrap(),
         original
     );
+    // The same change again writes nothing; a further change keeps both backups.
+    let (code, out, _) = rhoboard(
+        &home,
+        &[
+            "leg", "set", "L16", "--etd", "06:30Z", "--ops", d, "--at", at,
+        ],
+    );
+    assert_eq!(code, 0);
+    assert!(out.contains("nothing written"), "{out}");
+    let (code, _, err) = rhoboard(
+        &home,
+        &[
+            "leg", "set", "L16", "--etd", "06:45Z", "--ops", d, "--at", at,
+        ],
+    );
+    assert_eq!(code, 0, "{err}");
+    assert_eq!(
+        std::fs::read_to_string(backup(&original)).unwrap(),
+        original,
+        "the original's backup survives"
+    );
+    assert_eq!(std::fs::read_to_string(backup(&now)).unwrap(), now);
     assert_eq!(rhoboard(&home, &["validate", "--ops", d]).0, 0);
     // A stray temporary file (a crash between write and rename) is ignored and the
     // legs file is whole.

@@ -120,12 +120,12 @@ impl LimitCheck {
             f64::NAN
         } else if not_in_play && self.margin >= 0.0 {
             f64::INFINITY
-        } else if self.margin.is_nan() {
-            f64::NAN
         } else if self.band > 0.0 {
             self.margin / self.band
         } else if self.margin < 0.0 {
-            -1.0
+            // A hard limit with no thin band (an endorsement, a hazard, daylight, a mass
+            // limit) that fails is named first: no runway or hour of the day fixes it.
+            f64::NEG_INFINITY
         } else {
             f64::INFINITY
         }

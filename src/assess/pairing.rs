@@ -48,6 +48,18 @@ pub enum PairLimit {
     Table,
 }
 
+impl PairLimit {
+    /// The unit of a cell's margin for this limiting check.
+    pub const fn margin_unit(self) -> &'static str {
+        match self {
+            PairLimit::Takeoff | PairLimit::Climb | PairLimit::Landing => "%",
+            PairLimit::Crosswind | PairLimit::Tailwind => "kt",
+            PairLimit::DensityAltitude => "ft",
+            PairLimit::None | PairLimit::Weather | PairLimit::Observation | PairLimit::Table => "",
+        }
+    }
+}
+
 /// One cell of the matrix.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct PairCell {
@@ -55,7 +67,8 @@ pub struct PairCell {
     pub state: State,
     /// Margin ÷ buffer of the limiting check.
     pub score: f64,
-    /// The limiting check's margin in percent (distance and climb) or its unit.
+    /// The limiting check's margin: percent for distances and climb, kt for wind, ft
+    /// for density altitude ([`PairLimit::margin_unit`]).
     pub margin_percent: f64,
     /// What limits.
     pub limiting: PairLimit,
@@ -111,7 +124,8 @@ impl Matrix {
                     "runway": c.end_in_use.and_then(|k| field.runway_ends.get(k as usize)).map(|e| e.designator.clone()),
                     "state": c.state,
                     "limiting": c.limiting,
-                    "margin_percent": c.margin_percent.is_finite().then_some(c.margin_percent),
+                    "margin": c.margin_percent.is_finite().then_some(c.margin_percent),
+                    "margin_unit": c.limiting.margin_unit(),
                     "best_end_state": c.best_end_state,
                     "headroom_c": c.headroom_c,
                 }));

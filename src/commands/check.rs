@@ -110,7 +110,10 @@ pub fn load(
         texts.push((f.display().to_string(), text));
     }
     for (file, text) in &texts {
-        for r in decode_all(text, at) {
+        // A day file (`observations/2026-06-14.txt`) is read against its own date, so
+        // its day-of-month times resolve to that day whatever the clock says.
+        let reference = day_of_file(file).unwrap_or(at);
+        for r in decode_all(text, reference) {
             if let Insert::Rejected(why) = store.insert(r.report) {
                 warnings.push(format!("{file}:{}: {why}", r.line));
             }
@@ -123,6 +126,15 @@ pub fn load(
         warnings,
         demo,
     })
+}
+
+/// Noon UTC on the date a file is named for (`…/2026-06-14.txt`), if it is so named.
+pub fn day_of_file(path: &str) -> Option<DateTime<Utc>> {
+    let stem = std::path::Path::new(path).file_stem()?.to_str()?;
+    NaiveDate::parse_from_str(stem, "%Y-%m-%d")
+        .ok()?
+        .and_hms_opt(12, 0, 0)
+        .map(|t| t.and_utc())
 }
 
 /// The legs assessed by default: those departing on T's UTC date.
@@ -329,7 +341,18 @@ pub fn look_aheads(
     results: &[LegResult],
 ) -> Vec<Option<LookAhead>> {
     let ops = ctx.ops;
-    let tafs = crate::observation::taf::from_files(&ops.observations, ctx.at);
+    // Each forecasts file is read against its own date when it is named for one.
+    let tafs: Vec<crate::observation::taf::Taf> = ops
+        .observations
+        .iter()
+        .filter(|(path, _)| path.starts_with("forecasts/"))
+        .flat_map(|(path, text)| {
+            let reference = day_of_file(path).unwrap_or(ctx.at);
+            crate::observation::taf::split_tafs(text)
+                .into_iter()
+                .map(move |(_, t)| crate::observation::taf::decode(&t, reference))
+        })
+        .collect();
     let src = TafSource {
         tafs: &tafs,
         as_of: ctx.at,
@@ -418,8 +441,8 @@ fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<(
             let h = c
                 .headroom_c
                 .map_or("—".to_string(), |h| format!("{h:+.0}°"));
-            let margin = if c.score.is_finite() {
-                format!("{:+.0}%", c.margin_percent)
+            let margin = if c.score.is_finite() && c.margin_percent.is_finite() {
+                format!("{:+.0}{}", c.margin_percent, c.limiting.margin_unit())
             } else {
                 String::new()
             };
@@ -487,15 +510,34 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     } else {
         writeln!(
             out,
-            "{} — legs of {} assessed as of {} (reports known up to then)",
+            "{} — legs of {} assessed as of {} UTC (reports known up to then)",
             ops.operator.name,
             loaded.at.format("%Y-%m-%d"),
-            loaded.at.format("%H%MZ")
+            loaded.at.format("%H:%M")
         )?;
         writeln!(out, "{}", crate::CAUTION)?;
         writeln!(out)?;
         if results.is_empty() {
-            writeln!(out, "No legs depart on {}.", loaded.at.format("%Y-%m-%d"))?;
+            let mut days: Vec<chrono::NaiveDate> = ops
+                .legs
+                .iter()
+                .map(|l| l.departs_utc().date_naive())
+                .collect();
+            days.sort();
+            days.dedup();
+            match days.first() {
+                Some(d) => writeln!(
+                    out,
+                    "No legs depart on {}. The operator has legs on {}: pass --at, e.g. --at {}T08:00:00Z.",
+                    loaded.at.format("%Y-%m-%d"),
+                    days.iter()
+                        .map(ToString::to_string)
+                        .collect::<Vec<_>>()
+                        .join(", "),
+                    d
+                )?,
+                None => writeln!(out, "No legs depart on {}.", loaded.at.format("%Y-%m-%d"))?,
+            }
         }
         write_table(ops, &results, out)?;
         if args.forecast {

@@ -272,6 +272,11 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             path.display(),
             backup.display()
         )?,
+        Saved::Unchanged => writeln!(
+            out,
+            "{} already holds this; nothing written.",
+            path.display()
+        )?,
         Saved::Conflict { .. } => bail!(
             "{} changed on disk while this ran; nothing was written — run the command again",
             path.display()

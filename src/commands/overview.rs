@@ -44,12 +44,19 @@ pub fn run(out: &mut dyn Write) -> anyhow::Result<Outcome> {
     )?;
     writeln!(
         out,
-        "Commands in this version (rhoboard help COMMAND for each):\n  \
+        "Commands (rhoboard help COMMAND for each):\n  \
+         board      the dispatch board (what rhoboard opens on a terminal)\n  \
          check      every leg of the day against the operator's minimums (try: rhoboard check)\n  \
          calc       the air at a field from elevation, altimeter setting and temperature\n  \
          metar      decodes METAR reports\n  \
+         taf        decodes TAF forecasts\n  \
          validate   checks an operator folder and lists every problem\n  \
-         init       writes a new operator folder from the fictional demo\n\n\
+         init       writes a new operator folder from the fictional demo\n  \
+         runway     today's runway state (closures, reduced distances, surface)\n  \
+         leg set    re-plans a leg and shows it re-assessed\n  \
+         signoff    an instructor's sign-off, into the tamper-evident log\n  \
+         log        verifies or lists the sign-off log\n  \
+         report     the printable briefing sheet\n\n\
          Values carry their unit: 5900ft 1800m 30.12inHg 1019hPa 31C 88F 15kt."
     )?;
     Ok(Outcome::Success)

@@ -217,15 +217,32 @@ pub fn entry(
     if until.is_some() && req.closed != Some(true) {
         bail!("{} goes with {}", names.of("until"), names.of("closed"));
     }
+    let reduced = |name: &'static str,
+                   text: Option<&str>,
+                   declared: f64|
+     -> anyhow::Result<Option<f64>> {
+        let flag = names.of(name);
+        let v = length_m(&flag, text)?;
+        if let Some(m) = v
+            && m > declared + 0.5
+        {
+            bail!(
+                "{flag} {m:.0} m is more than the declared {declared:.0} m of {} {}; a day's state only reduces distances",
+                field.id,
+                end.designator
+            );
+        }
+        Ok(v)
+    };
     Ok(EndState {
         airfield: field.id.clone(),
         end: end.designator.clone(),
         closed: req.closed,
         until,
-        tora_m: length_m(&names.of("tora"), req.tora.as_deref())?,
-        toda_m: length_m(&names.of("toda"), req.toda.as_deref())?,
-        asda_m: length_m(&names.of("asda"), req.asda.as_deref())?,
-        lda_m: length_m(&names.of("lda"), req.lda.as_deref())?,
+        tora_m: reduced("tora", req.tora.as_deref(), end.tora_m)?,
+        toda_m: reduced("toda", req.toda.as_deref(), end.toda_m)?,
+        asda_m: reduced("asda", req.asda.as_deref(), end.asda_m)?,
+        lda_m: reduced("lda", req.lda.as_deref(), end.lda_m)?,
         condition,
         in_use: req.in_use.then_some(true),
         note: req.note.trim().to_string(),
@@ -347,16 +364,14 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         read_state(&dir, date)?
     };
     match state.end(&field, &end) {
-        Some(s) => writeln!(
-            out,
-            "{field} {end} on {date}: {}{}",
-            crate::assess::model::describe(&s),
+        Some(s) => {
+            let mut parts = vec![crate::assess::model::describe(&s)];
             if state.in_use(&field).as_deref() == Some(end.as_str()) {
-                "; in use"
-            } else {
-                ""
+                parts.push("in use".to_string());
             }
-        )?,
+            parts.retain(|p| !p.is_empty());
+            writeln!(out, "{field} {end} on {date}: {}", parts.join("; "))?
+        }
         None => writeln!(
             out,
             "{field} {end} on {date}: as declared (no change for the day)"

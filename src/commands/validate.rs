@@ -40,7 +40,7 @@ pub fn write_report(report: &Report, out: &mut dyn Write) -> std::io::Result<()>
 
 fn summary(ops: &Ops) -> String {
     format!(
-        "{} aircraft type(s), {} aircraft, {} pilot(s), {} airfield(s), {} leg(s), {} observation file(s)",
+        "{} aircraft type(s), {} aircraft, {} pilot(s), {} airfield(s), {} leg(s), {} observation and forecast file(s)",
         ops.types.len(),
         ops.aircraft.len(),
         ops.pilots.len(),
@@ -90,7 +90,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         None => {
             writeln!(
                 out,
-                "Fix the errors above and run `rhoboard validate` again."
+                "Fix the errors above and run `rhoboard validate{}` again.",
+                // The same folder again (its path is the one just typed).
+                if args.ops.is_some() { " --ops DIR" } else { "" }
             )?;
             Ok(Outcome::BadInput)
         }
