@@ -56,6 +56,8 @@ pub enum SaveOutcome {
         /// The backup of the previous version.
         backup: PathBuf,
     },
+    /// The file already holds exactly this: nothing written.
+    Unchanged,
     /// Changed on disk since loaded: nothing written; the text there now.
     Conflict(String),
     /// The save failed.
@@ -135,6 +137,7 @@ pub fn perform(app: &App, effect: Effect, now: DateTime<Utc>) -> Msg {
                             SaveOutcome::Written { hash, backup }
                         }
                         Ok(Saved::Conflict { on_disk }) => SaveOutcome::Conflict(on_disk),
+                        Ok(Saved::Unchanged) => SaveOutcome::Unchanged,
                         Err(e) => SaveOutcome::Failed(format!("saving {}: {e}", s.path.display())),
                     };
                     (s.rel, o)

@@ -676,6 +676,12 @@ impl App {
                         ),
                     );
                 }
+                SaveOutcome::Unchanged => {
+                    self.notice(
+                        NoteKind::Info,
+                        format!("{rel} already holds these legs: nothing written"),
+                    );
+                }
                 SaveOutcome::Conflict(on_disk) => {
                     all_written = false;
                     let legs = self.conflict_legs(&rel, &on_disk);
