@@ -208,7 +208,8 @@ pub struct ForecastLine {
     pub leg: String,
     /// The forecast state, or `None` when no forecast covers the leg.
     pub state: Option<State>,
-    /// In words: "fails from ~1311Z", "holds through the forecast", "below now".
+    /// In words: "would be below if flown from ~1311Z", "holds through the forecast",
+    /// "below now".
     pub outlook: String,
 }
 
@@ -227,7 +228,7 @@ pub fn forecast_lines(
                 None => "no forecast covers it".to_string(),
                 Some(l) => {
                     let when = match l.fails_from {
-                        Some(t) => format!("fails from ~{}", t.format("%H%MZ")),
+                        Some(t) => format!("would be below if flown from ~{}", t.format("%H%MZ")),
                         None if r.state == State::Below => "below now".to_string(),
                         None => "holds through the forecast".to_string(),
                     };

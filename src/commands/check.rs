@@ -408,7 +408,7 @@ fn write_forecast(
                 r.id,
                 l.state.to_string(),
                 match l.fails_from {
-                    Some(t) => format!("fails from ~{}", t.format("%H%MZ")),
+                    Some(t) => format!("would be below if flown from ~{}", t.format("%H%MZ")),
                     None if r.state == State::Below => "below now".to_string(),
                     None => "holds through the forecast".to_string(),
                 },
