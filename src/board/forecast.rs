@@ -70,7 +70,7 @@ pub fn summary(l: Option<&LookAhead>, observed: State) -> String {
             l.state.glyph(),
             l.state.word(),
             match l.fails_from {
-                Some(t) => format!("; below if flown from ~{}", t.format("%H%MZ")),
+                Some(t) => format!("; would be below if flown from ~{}", t.format("%H%MZ")),
                 None => "; holds all day".to_string(),
             }
         ),
