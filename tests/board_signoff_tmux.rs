@@ -119,8 +119,11 @@ fn sign_l09_at_0800_see_the_recheck_at_1300_and_replan_l16() {
     for _ in 0..5 {
         s.keys(&["n"]);
     }
+    // Wait for the whole frame (status line and row), not a frame caught mid-draw.
     let screen = s.wait_for("13:00 and the re-check", |t| {
-        t.contains("13:00Z") && t.contains("↻ re-check 1")
+        t.contains("13:00Z")
+            && t.contains("↻ re-check 1")
+            && t.lines().any(|l| l.contains(" L09 ") && l.contains('↻'))
     });
     let row = screen
         .lines()

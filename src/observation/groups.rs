@@ -592,3 +592,47 @@ impl<T> GroupParse<T> {
         matches!(self, GroupParse::Ok(..))
     }
 }
+
+/// Reports and forecasts normalised for decoding: one space between groups, upper case,
+/// and each group's byte span in the normalised text.
+pub(super) fn normalise<'s>(
+    groups: impl Iterator<Item = &'s str>,
+) -> (String, Vec<(usize, usize)>) {
+    let mut norm = String::new();
+    let mut spans: Vec<(usize, usize)> = Vec::with_capacity(32);
+    for tok in groups.filter(|t| !t.is_empty()) {
+        if !norm.is_empty() {
+            norm.push(' ');
+        }
+        let start = norm.len();
+        for ch in tok.chars() {
+            norm.push(ch.to_ascii_uppercase());
+        }
+        spans.push((start, norm.len()));
+    }
+    (norm, spans)
+}
+
+/// The text of group `i` ("" past the end).
+pub(super) fn token<'a>(text: &'a str, spans: &[(usize, usize)], i: usize) -> &'a str {
+    spans
+        .get(i)
+        .and_then(|&(s, e)| text.get(s..e))
+        .unwrap_or("")
+}
+
+/// Byte start of group `i` (the text's end past the last).
+pub(super) fn token_start(text: &str, spans: &[(usize, usize)], i: usize) -> usize {
+    spans.get(i).map_or(text.len(), |&(s, _)| s)
+}
+
+/// Byte end of group `i` (the text's end past the last).
+pub(super) fn token_end(text: &str, spans: &[(usize, usize)], i: usize) -> usize {
+    spans.get(i).map_or(text.len(), |&(_, e)| e)
+}
+
+/// 1-based character column of group `i`.
+pub(super) fn token_column(text: &str, spans: &[(usize, usize)], i: usize) -> usize {
+    let s = token_start(text, spans, i);
+    text.get(..s).map_or(s, |p| p.chars().count()) + 1
+}

@@ -142,18 +142,7 @@ pub fn decode(text: &str, reference: DateTime<Utc>) -> Report {
         };
     }
     // Normalise: one space between groups, upper case. Token spans index `norm`.
-    let mut norm = String::with_capacity(trimmed.len());
-    let mut spans: Vec<(usize, usize)> = Vec::with_capacity(24);
-    for tok in trimmed.split_ascii_whitespace() {
-        if !norm.is_empty() {
-            norm.push(' ');
-        }
-        let start = norm.len();
-        for ch in tok.chars() {
-            norm.push(ch.to_ascii_uppercase());
-        }
-        spans.push((start, norm.len()));
-    }
+    let (norm, spans) = groups::normalise(trimmed.split_ascii_whitespace());
     if spans.is_empty() {
         return Report {
             errors: vec![DecodeError::Empty],
@@ -302,24 +291,20 @@ fn remark_temperature(tok: &str) -> Option<(f64, Option<f64>)> {
 
 impl<'a> Decoder<'a> {
     fn tok(&self, i: usize) -> &'a str {
-        self.spans
-            .get(i)
-            .and_then(|&(s, e)| self.text.get(s..e))
-            .unwrap_or("")
+        groups::token(self.text, self.spans, i)
     }
 
     fn start(&self, i: usize) -> usize {
-        self.spans.get(i).map_or(self.text.len(), |&(s, _)| s)
+        groups::token_start(self.text, self.spans, i)
     }
 
     fn end(&self, i: usize) -> usize {
-        self.spans.get(i).map_or(self.text.len(), |&(_, e)| e)
+        groups::token_end(self.text, self.spans, i)
     }
 
     /// 1-based character column of token `i`.
     fn column(&self, i: usize) -> usize {
-        let s = self.start(i);
-        self.text.get(..s).map_or(s, |p| p.chars().count()) + 1
+        groups::token_column(self.text, self.spans, i)
     }
 
     fn group(&mut self, kind: GroupKind, i: usize, ntok: usize) {

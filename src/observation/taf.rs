@@ -522,22 +522,9 @@ pub fn decode(text: &str, reference: DateTime<Utc>) -> Taf {
             ..Taf::default()
         };
     }
-    let mut norm = String::with_capacity(trimmed.len());
-    let mut spans: Vec<(usize, usize)> = Vec::with_capacity(32);
     // `=` may end a TAF inside a multi-line text; a token is cut there.
-    for tok in trimmed.split(|c: char| c.is_ascii_whitespace() || c == '=') {
-        if tok.is_empty() {
-            continue;
-        }
-        if !norm.is_empty() {
-            norm.push(' ');
-        }
-        let start = norm.len();
-        for ch in tok.chars() {
-            norm.push(ch.to_ascii_uppercase());
-        }
-        spans.push((start, norm.len()));
-    }
+    let (norm, spans) =
+        groups::normalise(trimmed.split(|c: char| c.is_ascii_whitespace() || c == '='));
     if spans.is_empty() {
         return Taf {
             errors: vec![TafError::Empty],
@@ -608,23 +595,19 @@ fn is_temperature_group(tok: &str) -> bool {
 
 impl<'a> Decoder<'a> {
     fn tok(&self, i: usize) -> &'a str {
-        self.spans
-            .get(i)
-            .and_then(|&(s, e)| self.text.get(s..e))
-            .unwrap_or("")
+        groups::token(self.text, self.spans, i)
     }
 
     fn start(&self, i: usize) -> usize {
-        self.spans.get(i).map_or(self.text.len(), |&(s, _)| s)
+        groups::token_start(self.text, self.spans, i)
     }
 
     fn end(&self, i: usize) -> usize {
-        self.spans.get(i).map_or(self.text.len(), |&(_, e)| e)
+        groups::token_end(self.text, self.spans, i)
     }
 
     fn column(&self, i: usize) -> usize {
-        let s = self.start(i);
-        self.text.get(..s).map_or(s, |p| p.chars().count()) + 1
+        groups::token_column(self.text, self.spans, i)
     }
 
     fn group(&mut self, kind: TafGroupKind, i: usize, ntok: usize) {
