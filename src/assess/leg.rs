@@ -977,6 +977,15 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
                 &leg.to,
                 &mut lim,
             );
+            limits::night_limits(
+                &who,
+                type_id,
+                side_in.field,
+                &ops.airfields[arr_fi],
+                leg.departs_utc(),
+                leg.arrives_utc(),
+                &mut lim,
+            );
         }
         if let Some(da) = lim.iter().find(|l| l.kind == LimitKind::DensityAltitude) {
             let max = da.limit.unwrap_or(f64::INFINITY);
@@ -1388,7 +1397,7 @@ fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<L
             } else {
                 format!("{:+.0} {}", l.margin, l.unit)
             };
-            (format!("{} {}", side.airfield, l.kind.word()), margin)
+            (format!("{} {}", side.airfield, l.label()), margin)
         }
     };
     Some(Limiting {
@@ -1465,16 +1474,17 @@ fn collect_reasons(
             let mut s = format!(
                 "{role} {}: {} {}",
                 side.airfield,
-                l.kind.word(),
+                l.label(),
                 l.state.word()
             );
+            // The source follows "from", never inside parentheses: it often has its own.
             if let (Some(v), Some(lim)) = (l.value, l.limit) {
                 s.push_str(&format!(
-                    " — {v:.0} {} against {lim:.0} {} ({})",
+                    " — {v:.0} {} against {lim:.0} {}; from {}",
                     l.unit, l.unit, l.source
                 ));
             } else if !l.note.is_empty() {
-                s.push_str(&format!(" — {} ({})", l.note, l.source));
+                s.push_str(&format!(" — {}; from {}", l.note, l.source));
             }
             reasons.push(s);
         }
