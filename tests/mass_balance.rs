@@ -112,7 +112,11 @@ fn ac_43_13_aircraft() -> (Ops, Leg) {
     let mm = |inches: f64| inches * 25.4;
     let reg = leg(&ops, "L16").aircraft;
     let type_id = ops.aircraft(&reg).unwrap().type_id.clone();
-    let ac = ops.aircraft.iter_mut().find(|a| a.registration == reg).unwrap();
+    let ac = ops
+        .aircraft
+        .iter_mut()
+        .find(|a| a.registration == reg)
+        .unwrap();
     ac.empty_mass_kg = lb_to_kg(1_169.0);
     ac.empty_arm_mm = mm(10.6);
     let ty = ops.types.iter_mut().find(|t| t.file.id == type_id).unwrap();
@@ -247,7 +251,11 @@ fn cg_limits_and_margin_at_the_mass() {
     assert_eq!(c.limit, Some(1_470.0));
     assert!((c.margin - t.margin_mm).abs() < 1e-12);
     assert_eq!(c.value, Some(mb.landing.cg_mm));
-    assert!(c.note.contains("1149–1470 mm: 112 mm inside the aft limit"), "{}", c.note);
+    assert!(
+        c.note.contains("1149–1470 mm: 112 mm inside the aft limit"),
+        "{}",
+        c.note
+    );
     // At the maximum mass, the top edge: 1,250–1,470 mm.
     let env = &mb.envelope;
     let top = mass::cg_range(env, 1_600.0, 1_300.0).unwrap();
@@ -276,8 +284,14 @@ fn a_line_across_a_notch_has_a_negative_margin() {
         pt(10.0, 10.0),
         pt(10.0, 0.0),
     ];
-    let from = mass::MassPoint { mass_kg: 3.0, cg_mm: 8.0 };
-    let to = mass::MassPoint { mass_kg: 7.0, cg_mm: 8.0 };
+    let from = mass::MassPoint {
+        mass_kg: 3.0,
+        cg_mm: 8.0,
+    };
+    let to = mass::MassPoint {
+        mass_kg: 7.0,
+        cg_mm: 8.0,
+    };
     assert!(!mass::line_inside(&c, from, to));
     let t = mass::line_margin(&c, from, to).unwrap();
     assert_eq!((t.margin_mm, t.aft_limit_mm), (-4.0, 4.0));
@@ -285,7 +299,10 @@ fn a_line_across_a_notch_has_a_negative_margin() {
     let t = mass::line_margin(
         &c,
         from,
-        mass::MassPoint { mass_kg: 3.0, cg_mm: 2.0 },
+        mass::MassPoint {
+            mass_kg: 3.0,
+            cg_mm: 2.0,
+        },
     )
     .unwrap();
     assert_eq!(t.margin_mm, 2.0);

@@ -389,12 +389,17 @@ fn xsea_at_greenwich(ops: &mut Ops) {
 /// The `HHMMZ` after `label` in `text` is within two minutes of `want` (the tolerance
 /// of tests/daylight.rs against ephem), on the date of `want`.
 fn near(text: &str, label: &str, want: DateTime<Utc>) {
-    let i = text.find(label).unwrap_or_else(|| panic!("{label:?} not in {text}"));
+    let i = text
+        .find(label)
+        .unwrap_or_else(|| panic!("{label:?} not in {text}"));
     let hhmm = &text[i + label.len()..i + label.len() + 4];
     let (h, m) = (hhmm[..2].parse().unwrap(), hhmm[2..].parse().unwrap());
     let got = want.date_naive().and_hms_opt(h, m, 0).unwrap().and_utc();
     let off = (got - want).num_seconds().abs();
-    assert!(off <= 120, "{label}{hhmm}Z is {off} s from {want} in {text}");
+    assert!(
+        off <= 120,
+        "{label}{hhmm}Z is {off} s from {want} in {text}"
+    );
 }
 
 fn night_checks(r: &LegResult) -> Vec<rhoboard::assess::limits::LimitCheck> {
@@ -439,8 +444,16 @@ fn a_student_solo_into_the_night_needs_the_night_endorsement() {
     ] {
         assert!(reason.contains(want), "{want:?} not in {reason}");
     }
-    near(reason, "in night at XSEA from ", at(21, 5) + Duration::seconds(44));
-    near(reason, "end of evening civil twilight ", at(21, 5) + Duration::seconds(44));
+    near(
+        reason,
+        "in night at XSEA from ",
+        at(21, 5) + Duration::seconds(44),
+    );
+    near(
+        reason,
+        "end of evening civil twilight ",
+        at(21, 5) + Duration::seconds(44),
+    );
     // Down at 21:00Z, before the end of civil twilight: no night check.
     l.arrives_at = at(21, 0).fixed_offset();
     let r = run(&ops, &DaySettings::default(), &reports, at(20, 35), &l);
@@ -496,7 +509,10 @@ fn a_dawn_solo_and_a_lapsed_or_wrong_type_night_endorsement() {
     let r = run(&ops, &DaySettings::default(), &reports, at(2, 25), &l);
     let n = night_checks(&r);
     assert_eq!(n[0].state, State::Below, "{:?}", n[0]);
-    for want in ["has lapsed (90-day validity)", "in night at XSEA from 0230Z to "] {
+    for want in [
+        "has lapsed (90-day validity)",
+        "in night at XSEA from 0230Z to ",
+    ] {
         assert!(n[0].note.contains(want), "{want:?} not in {}", n[0].note);
     }
     let dawn = at(2, 55) + Duration::seconds(10);

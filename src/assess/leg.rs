@@ -1471,12 +1471,7 @@ fn collect_reasons(
             if l.state == State::Within {
                 continue;
             }
-            let mut s = format!(
-                "{role} {}: {} {}",
-                side.airfield,
-                l.label(),
-                l.state.word()
-            );
+            let mut s = format!("{role} {}: {} {}", side.airfield, l.label(), l.state.word());
             // The source follows "from", never inside parentheses: it often has its own.
             if let (Some(v), Some(lim)) = (l.value, l.limit) {
                 s.push_str(&format!(

@@ -306,10 +306,7 @@ pub struct NightSpan {
 /// twilight to the end of evening civil twilight. Where the sun never sinks 6° below the
 /// horizon the day spans the whole 24 h about solar noon; where it never rises to −6°
 /// there is none.
-fn civil_day(
-    date: chrono::NaiveDate,
-    field: &Airfield,
-) -> Option<(DateTime<Utc>, DateTime<Utc>)> {
+fn civil_day(date: chrono::NaiveDate, field: &Airfield) -> Option<(DateTime<Utc>, DateTime<Utc>)> {
     let d = daylight::daylight(date, field.latitude_deg, field.longitude_deg);
     let half = Duration::hours(12);
     let start = match d.civil_dawn {
@@ -329,11 +326,7 @@ fn civil_day(
 /// whole of it lies between the beginning of morning and the end of evening civil
 /// twilight (NOAA solar method, [`crate::daylight`]). Reads the civil days of the dates
 /// around the leg; no allocation.
-pub fn night_during(
-    field: &Airfield,
-    from: DateTime<Utc>,
-    to: DateTime<Utc>,
-) -> Option<NightSpan> {
+pub fn night_during(field: &Airfield, from: DateTime<Utc>, to: DateTime<Utc>) -> Option<NightSpan> {
     const MAX_DAYS: usize = 8;
     let to = to.max(from);
     let first = from.date_naive() - Duration::days(1);
@@ -353,8 +346,18 @@ pub fn night_during(
             Some(end) if end >= to => return None,
             Some(end) => t = end + Duration::seconds(1),
             None => {
-                let after_dusk = days.iter().flatten().map(|(_, b)| *b).filter(|b| *b < t).max();
-                let before_dawn = days.iter().flatten().map(|(a, _)| *a).filter(|a| *a > t).min();
+                let after_dusk = days
+                    .iter()
+                    .flatten()
+                    .map(|(_, b)| *b)
+                    .filter(|b| *b < t)
+                    .max();
+                let before_dawn = days
+                    .iter()
+                    .flatten()
+                    .map(|(a, _)| *a)
+                    .filter(|a| *a > t)
+                    .min();
                 return Some(NightSpan {
                     from: t,
                     to: before_dawn.map_or(to, |d| d.min(to)),
@@ -409,7 +412,10 @@ pub fn night_limits(
         ),
         (Some(dusk), None) => format!("from the end of evening civil twilight {}", hhmm(dusk)),
         (None, Some(dawn)) => {
-            format!("until the beginning of morning civil twilight {}", hhmm(dawn))
+            format!(
+                "until the beginning of morning civil twilight {}",
+                hhmm(dawn)
+            )
         }
         (None, None) => "no civil twilight: polar night".to_string(),
     };

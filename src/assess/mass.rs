@@ -223,7 +223,11 @@ pub fn line_margin(envelope: &[EnvelopePoint], from: MassPoint, to: MassPoint) -
     let mids: Vec<f64> = masses.windows(2).map(|w| 0.5 * (w[0] + w[1])).collect();
     let mut best: Option<CgRange> = None;
     // The two ends first, so that a tie names the takeoff or landing point.
-    for m in [from.mass_kg, to.mass_kg].into_iter().chain(masses).chain(mids) {
+    for m in [from.mass_kg, to.mass_kg]
+        .into_iter()
+        .chain(masses)
+        .chain(mids)
+    {
         let cg = if m == from.mass_kg {
             from.cg_mm
         } else if m == to.mass_kg {
