@@ -336,6 +336,23 @@ fn each_failure_is_a_check_that_makes_the_leg_below() {
     // Over the station limit (rear row 180 kg).
     let r = with(&|l| l.stations.push(station("rear_seats", Some(200.0), 0)));
     assert!(failing(&r, LimitKind::Loading) && r.state == State::Below);
+    // The station is named, in the reasons and as the limiting check.
+    assert!(
+        r.reasons
+            .iter()
+            .any(|w| w.contains("station load Rear row (rear_seats) below")),
+        "{:?}",
+        r.reasons
+    );
+    assert!(
+        r.limiting
+            .as_ref()
+            .unwrap()
+            .check
+            .contains("Rear row (rear_seats)"),
+        "{:?}",
+        r.limiting
+    );
     // More fuel than the tanks hold.
     let r = with(&|l| l.fuel_at_start_l = Some(320.0));
     assert!(failing(&r, LimitKind::Fuel) && r.state == State::Below);

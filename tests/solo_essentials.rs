@@ -534,3 +534,74 @@ fn a_dawn_solo_and_a_lapsed_or_wrong_type_night_endorsement() {
     let r = run(&ops, &DaySettings::default(), &reports, at(2, 25), &dual);
     assert!(night_checks(&r).is_empty());
 }
+
+/// `validate` names the file, line, column and field of a night endorsement for a type
+/// the fleet does not have, and accepts one for a known type.
+#[test]
+fn validate_points_at_a_night_endorsement_for_an_unknown_type() {
+    use std::process::Command;
+    let bin = env!("CARGO_BIN_EXE_rhoboard");
+    let dir = std::env::temp_dir().join(format!("rhoboard-night-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let home = dir.join("home");
+    let ops_dir = dir.join("ops");
+    let cmd = |args: &[&str]| {
+        let o = Command::new(bin)
+            .args(args)
+            .env("XDG_CONFIG_HOME", &home)
+            .env("HOME", &home)
+            .env("RHOBOARD_DATA_DIR", &home)
+            .output()
+            .unwrap();
+        (
+            o.status.code().unwrap(),
+            String::from_utf8_lossy(&o.stdout).into_owned(),
+        )
+    };
+    let d = ops_dir.to_str().unwrap();
+    assert_eq!(cmd(&["init", d]).0, 0);
+    let path = ops_dir.join("pilots.json");
+    let text = std::fs::read_to_string(&path).unwrap();
+    let mut v: serde_json::Value = serde_json::from_str(&text).unwrap();
+    v["pilots"][0]["endorsements"]["night"] =
+        serde_json::json!([{"type_id": "ft2", "date": "2026-05-20", "instructor": "ins-mara"}]);
+    std::fs::write(&path, serde_json::to_string_pretty(&v).unwrap()).unwrap();
+    let (_, out) = cmd(&["validate", "--ops", d]);
+    assert!(!out.contains("endorsements.night"), "{out}");
+    v["pilots"][0]["endorsements"]["night"][0]["type_id"] = "zz9".into();
+    let pretty = serde_json::to_string_pretty(&v).unwrap();
+    std::fs::write(&path, &pretty).unwrap();
+    let line = pretty.lines().position(|l| l.contains("\"zz9\"")).unwrap() + 1;
+    let (code, out) = cmd(&["validate", "--ops", d]);
+    assert_eq!(code, 2, "{out}");
+    let want = format!("pilots.json:{line}:");
+    let hit = out
+        .lines()
+        .find(|l| l.contains("pilots[0].endorsements.night[0].type_id"))
+        .unwrap_or_else(|| panic!("{out}"));
+    assert!(
+        hit.contains(&want) && hit.contains("unknown aircraft type 'zz9'"),
+        "{hit}"
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+/// With no report at the departure the leg's weather cannot be assessed, but the
+/// night endorsement can: below (which outranks no-data), not no-data.
+#[test]
+fn a_night_solo_without_a_report_is_still_below_for_the_endorsement() {
+    let mut ops = ops();
+    xsea_at_greenwich(&mut ops);
+    let mut l = leg(&ops, "L01");
+    l.departs_at = at(21, 30).fixed_offset();
+    l.arrives_at = at(22, 20).fixed_offset();
+    let r = run(&ops, &DaySettings::default(), &[], at(21, 25), &l);
+    assert_eq!(night_checks(&r).len(), 1);
+    assert_eq!(r.state, State::Below, "{:?}", r.reasons);
+    assert!(r.reasons.iter().any(|w| w.contains("no usable report")));
+    assert!(
+        r.reasons
+            .iter()
+            .any(|w| w.contains("night solo endorsement"))
+    );
+}

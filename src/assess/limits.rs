@@ -87,7 +87,9 @@ pub struct LimitCheck {
     pub kind: LimitKind,
     /// The observed value, in `unit`.
     pub value: Option<f64>,
-    /// The limit, in `unit` (a minimum for ceiling and visibility, else a maximum).
+    /// The limit, in `unit` (a minimum for ceiling and visibility, else a maximum; for
+    /// the CG envelope the nearer of the fore and aft limits at the line's tightest
+    /// mass, see [`super::mass::CgRange`]).
     pub limit: Option<f64>,
     /// Unit of value, limit and margin.
     pub unit: &'static str,
