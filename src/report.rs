@@ -422,7 +422,7 @@ fn phase_lines(name: &str, p: &PhaseResult, out: &mut Vec<String>) {
     out.push(s);
     for k in &p.checks {
         out.push(format!(
-            "{} {}: {:.0} m × {} = {:.0} m required, {:.0} m available, margin {:+.0} % ({})",
+            "{} {}: {:.0} m × {} = {:.0} m required, {:.0} m available, margin {:+.0} %; from {}",
             k.state.glyph(),
             k.rule,
             k.result.figure_m,
@@ -495,14 +495,20 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
         phase_lines("landing", p, &mut out);
     }
     for l in s.limits.iter().filter(|l| l.state != State::Within) {
+        let envelope = l.kind == crate::assess::limits::LimitKind::Envelope;
         let value = match (l.value, l.limit) {
+            // The envelope's row carries its margin and where on the CG line it is read.
+            (Some(v), Some(lim)) if envelope && l.margin.is_finite() => format!(
+                "{v:.0} {} against {lim:.0} {}, margin {:+.0} {} ({})",
+                l.unit, l.unit, l.margin, l.unit, l.note
+            ),
             (Some(v), Some(lim)) => format!("{v:.0} {} against {lim:.0} {}", l.unit, l.unit),
             _ => l.note.clone(),
         };
         out.push(format!(
-            "{} {}: {value} — {} ({})",
+            "{} {}: {value} — {}; from {}",
             l.state.glyph(),
-            l.kind.word(),
+            l.label(),
             l.state.word(),
             l.source
         ));

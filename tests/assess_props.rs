@@ -497,3 +497,30 @@ fn a_pairing_opens_to_its_chain_with_the_same_state() {
     assert!(compared > 20);
     assert!(mismatches.is_empty(), "{mismatches:#?}");
 }
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig::with_cases(128))]
+
+    /// Night as 14 CFR 1.1 defines it (from memory): a leg on 2026-06-14 at Greenwich is
+    /// free of night exactly when it lies between that day's beginning of morning and
+    /// end of evening civil twilight (NOAA method, itself checked against ephem in
+    /// tests/daylight.rs); otherwise the night found is inside the leg and outside it.
+    #[test]
+    fn night_is_outside_the_civil_twilight_day(start_min in 0i64..1_440, len_min in 5i64..240) {
+        use chrono::{Duration, NaiveDate, TimeZone, Utc};
+        let mut field = rhoboard::ops::demo::load().ops.unwrap().airfields[0].clone();
+        field.latitude_deg = 51.4769;
+        field.longitude_deg = -0.0005;
+        let day = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+        let sun = rhoboard::daylight::daylight(day, field.latitude_deg, field.longitude_deg);
+        let (dawn, dusk) = (sun.civil_dawn.time().unwrap(), sun.civil_dusk.time().unwrap());
+        let from = Utc.with_ymd_and_hms(2026, 6, 14, 0, 0, 0).unwrap() + Duration::minutes(start_min);
+        let to = from + Duration::minutes(len_min);
+        let night = rhoboard::assess::limits::night_during(&field, from, to);
+        proptest::prop_assert_eq!(night.is_none(), from >= dawn && to <= dusk, "{:?}", night);
+        if let Some(n) = night {
+            proptest::prop_assert!(n.from >= from && n.from <= to && n.to <= to && n.from <= n.to);
+            proptest::prop_assert!(n.from < dawn || n.from > dusk);
+        }
+    }
+}

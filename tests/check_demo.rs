@@ -248,3 +248,62 @@ fn pairings_cover_every_available_aircraft_at_every_airfield() {
     assert!(p.iter().any(|c| c["state"] == "below"));
     assert!(p.iter().any(|c| c["state"] == "within"));
 }
+
+fn strings<'a>(v: &'a Value, out: &mut Vec<&'a str>) {
+    match v {
+        Value::String(s) => out.push(s),
+        Value::Array(a) => a.iter().for_each(|x| strings(x, out)),
+        Value::Object(o) => o.values().for_each(|x| strings(x, out)),
+        _ => {}
+    }
+}
+
+/// No text of the chain wraps parentheses in parentheses ("((…))"), whatever the
+/// operator's own sources hold: a source is quoted after "from" or a colon.
+#[test]
+fn no_doubled_parentheses_in_the_chain() {
+    for at in ["2026-06-14T08:00:00Z", "2026-06-14T14:00:00Z"] {
+        let v = check_json(at);
+        let mut all = Vec::new();
+        strings(&v, &mut all);
+        assert!(all.len() > 500);
+        for s in all {
+            assert!(!s.contains("((") && !s.contains("))"), "{s}");
+        }
+        let (_, text, _) = rhoboard(&["report", "--at", at]);
+        assert!(!text.contains("((") && !text.contains("))"), "{text}");
+    }
+}
+
+/// The CG envelope row carries the envelope's limit at the mass and the margin, in
+/// `limits` and in `mass_balance.cg_limits` (README's JSON description).
+#[test]
+fn the_envelope_row_has_its_limit_and_margin() {
+    let (_, out, _) = rhoboard(&[
+        "check",
+        "--json",
+        "--leg",
+        "L16",
+        "--at",
+        "2026-06-14T14:00:00Z",
+    ]);
+    let v: Value = serde_json::from_str(&out).unwrap();
+    let leg = &v["legs"][0];
+    let cg = &leg["mass_balance"]["cg_limits"];
+    let env = leg["departure"]["limits"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|l| l["kind"] == "envelope")
+        .unwrap();
+    assert_eq!(env["limit"], cg["aft_limit_mm"]);
+    assert_eq!(env["margin"], cg["margin_mm"]);
+    assert_eq!(cg["nearer"], "aft");
+    // Margin = aft limit − CG at the tightest point (the landing for L16).
+    let (aft, at_cg) = (
+        cg["aft_limit_mm"].as_f64().unwrap(),
+        cg["cg_mm"].as_f64().unwrap(),
+    );
+    assert!((cg["margin_mm"].as_f64().unwrap() - (aft - at_cg)).abs() < 1e-9);
+    assert_eq!(cg["mass_kg"], leg["mass_balance"]["landing_mass_kg"]);
+}

@@ -69,9 +69,10 @@ fn fuel_units() {
     );
 }
 
-/// The loading of the demo's L16 (six-seat type), worked by hand with the method of the
-/// FAA Aircraft Weight and Balance Handbook (FAA-H-8083-1B, ch. 2): moment = mass × arm,
-/// CG = total moment ÷ total mass. X-UTLB empty 1,016 kg at 1,158 mm; pilot 84 kg at
+/// The loading of the demo's L16 (six-seat type), worked by hand by the method of the
+/// FAA Aircraft Weight and Balance Handbook (FAA-H-8083-1B, ch. 2) — not a printed
+/// example (the printed ones are `ac_43_13_1b_*` below): moment = mass × arm, CG =
+/// total moment ÷ total mass. X-UTLB empty 1,016 kg at 1,158 mm; pilot 84 kg at
 /// 1,000 mm; two standard adults (90 kg each) at 1,900 mm; one at 2,700 mm; 10 kg of
 /// baggage at 3,300 mm; 125 L at engine start, 5 L taxi: 120 L × 0.72 = 86.4 kg at 1,250 mm.
 ///   moments: 1,176,528 + 84,000 + 342,000 + 243,000 + 33,000 + 108,000 = 1,986,528 kg·mm
@@ -99,6 +100,212 @@ fn a_worked_loading_table() {
     // Reserve: 45 min at 65 L/h = 48.75 L; landing with 120 − 59.58 = 60.4 L passes.
     assert!((mb.fuel_reserve_l - 48.75).abs() < 1e-9);
     assert!(mb.passes());
+}
+
+/// A type whose loading stations, tank and empty weight are those of the aircraft in the
+/// printed examples of FAA Advisory Circular 43.13-1B (1998), chapter 10 (Weight and
+/// Balance), section 2: empty 1,169 lb at +10.6 in, oil 17 lb at −49 in, front seats
+/// +16 in, rear seats +48 in, baggage +75.5 in, fuel +22 in. Pounds and inches are
+/// converted exactly (1 lb = 0.45359237 kg, 1 in = 25.4 mm).
+fn ac_43_13_aircraft() -> (Ops, Leg) {
+    let mut ops = ops();
+    let mm = |inches: f64| inches * 25.4;
+    let reg = leg(&ops, "L16").aircraft;
+    let type_id = ops.aircraft(&reg).unwrap().type_id.clone();
+    let ac = ops
+        .aircraft
+        .iter_mut()
+        .find(|a| a.registration == reg)
+        .unwrap();
+    ac.empty_mass_kg = lb_to_kg(1_169.0);
+    ac.empty_arm_mm = mm(10.6);
+    let ty = ops.types.iter_mut().find(|t| t.file.id == type_id).unwrap();
+    let mb = ty.file.mass_balance.as_mut().unwrap();
+    let st = |id: &str, arm_in: f64| rhoboard::ops::actype::Station {
+        id: id.to_string(),
+        name: id.to_string(),
+        arm_mm: mm(arm_in),
+        max_mass_kg: lb_to_kg(1_000.0),
+        seats: 0,
+    };
+    mb.stations = vec![
+        st("oil", -49.0),
+        st("front", 16.0),
+        st("rear", 48.0),
+        st("baggage", 75.5),
+    ];
+    mb.fuel_tanks.truncate(1);
+    mb.fuel_tanks[0].arm_mm = mm(22.0);
+    mb.fuel_tanks[0].usable_capacity_l = 200.0;
+    let mut l = leg(&ops, "L16");
+    l.loads = Some(Loads {
+        stations: vec![],
+        fuel_at_start_l: None,
+        fuel_at_start_usgal: None,
+        fuel_at_start_kg: Some(lb_to_kg(240.0)),
+        taxi_fuel_l: 0.0,
+        burn_l_per_h: 0.0,
+    });
+    (ops, l)
+}
+
+/// Total mass (kg), total moment (kg·mm) and CG (mm) of a loading in pounds at the
+/// stations of [`ac_43_13_aircraft`], back in lb, lb·in and in.
+fn ac_43_13_totals(ops: &Ops, l: &Leg, lb: &[(&str, f64)]) -> (f64, f64, f64) {
+    let mut l = l.clone();
+    let loads = l.loads.as_mut().unwrap();
+    loads.stations = lb
+        .iter()
+        .map(|(id, w)| station(id, Some(lb_to_kg(*w)), 0))
+        .collect();
+    let mb = leg_mass_balance(ops, &l).expect("loads");
+    let moment_kg_mm: f64 = mb.rows.iter().map(|r| r.moment_kg_mm).sum();
+    let kg_per_lb = lb_to_kg(1.0);
+    // The sum of the rows is the total the CG is made from.
+    assert!((moment_kg_mm / mb.takeoff.mass_kg - mb.takeoff.cg_mm).abs() < 1e-9);
+    (
+        mb.takeoff.mass_kg / kg_per_lb,
+        moment_kg_mm / (kg_per_lb * 25.4),
+        mb.takeoff.cg_mm / 25.4,
+    )
+}
+
+/// FAA AC 43.13-1B, chapter 10, Figure 10-14 (page 10-18), "Loading conditions:
+/// determination of the fuel and the number and location of passengers permissible
+/// with maximum baggage" — printed: aircraft empty 1,169 lb × +10.6 = +12,391; oil
+/// 17 × −49 = −833; pilot 170 × +16 = +2,720; passenger (1) rear 170 × +48 = +8,160;
+/// passenger (1) front 170 × +16 = +2,720; fuel (40 gal) 240 × +22 = +5,280; baggage
+/// 100 × +75.5 = +7,550; total 2,036 lb and 37,988 lb·in; CG = TM ÷ TW = +18.7 in. (The
+/// printed moments are rounded to the lb·in: 1,169 × 10.6 is 12,391.4.)
+#[test]
+fn ac_43_13_1b_figure_10_14_loading() {
+    let (ops, l) = ac_43_13_aircraft();
+    let (lb, lb_in, cg_in) = ac_43_13_totals(
+        &ops,
+        &l,
+        &[
+            ("oil", 17.0),
+            ("front", 170.0),
+            ("rear", 170.0),
+            ("front", 170.0),
+            ("baggage", 100.0),
+        ],
+    );
+    assert!((lb - 2_036.0).abs() < 1e-9, "{lb}");
+    assert!((lb_in - 37_988.0).abs() < 1.0, "{lb_in}");
+    assert!((cg_in - 18.7).abs() < 0.05, "{cg_in}");
+}
+
+/// FAA AC 43.13-1B, chapter 10, Figure 10-11 (the check of the most rearward weight and
+/// balance extreme) — printed: empty 1,169 lb at +10.6, oil 17 at −49, pilot 170 at +16,
+/// two rear passengers 340 at +48, fuel (40 gal) 240 at +22, baggage 100 at +75.5; total
+/// 2,036 lb (TW) and 43,428 lb·in (TM), against a rearward C.G. limit of 21.9 in.
+#[test]
+fn ac_43_13_1b_figure_10_11_rearward_extreme() {
+    let (ops, l) = ac_43_13_aircraft();
+    let (lb, lb_in, cg_in) = ac_43_13_totals(
+        &ops,
+        &l,
+        &[
+            ("oil", 17.0),
+            ("front", 170.0),
+            ("rear", 340.0),
+            ("baggage", 100.0),
+        ],
+    );
+    assert!((lb - 2_036.0).abs() < 1e-9, "{lb}");
+    assert!((lb_in - 43_428.0).abs() < 1.0, "{lb_in}");
+    assert!((cg_in - 43_428.0 / 2_036.0).abs() < 1e-3, "{cg_in}");
+    assert!(cg_in < 21.9);
+}
+
+/// The envelope's CG limits at a mass, worked by hand on the demo six-seat type's
+/// envelope (950 kg 1,050 mm → 1,250 kg 1,050 mm → 1,600 kg 1,250 mm → 1,600 kg
+/// 1,470 mm → 950 kg 1,470 mm): the fore limit is straight between vertices, so at
+/// 1,423.5 kg it is 1,050 + (1,423.5 − 1,250) × 200 ÷ 350 = 1,149.1 mm, the aft 1,470 mm.
+/// L16 lands at 1,423.5 kg with its CG at 1,357.9 mm: 112.1 mm inside the aft limit,
+/// tighter than at takeoff (1,466.4 kg, CG 1,354.7 mm: 115.3 mm).
+#[test]
+fn cg_limits_and_margin_at_the_mass() {
+    let ops = ops();
+    let mb = leg_mass_balance(&ops, &leg(&ops, "L16")).expect("loads");
+    let land = mb.landing_cg_range.unwrap();
+    let fore = 1_050.0 + (mb.landing.mass_kg - 1_250.0) * 200.0 / 350.0;
+    assert!((land.fore_limit_mm - fore).abs() < 1e-9);
+    assert!((fore - 1_149.1).abs() < 0.05);
+    assert_eq!(land.aft_limit_mm, 1_470.0);
+    assert_eq!(land.nearer, mass::CgSide::Aft);
+    assert!((land.margin_mm - (1_470.0 - mb.landing.cg_mm)).abs() < 1e-9);
+    let takeoff = mb.takeoff_cg_range.unwrap();
+    assert!((takeoff.margin_mm - (1_470.0 - mb.takeoff.cg_mm)).abs() < 1e-9);
+    assert!((takeoff.margin_mm - 115.3).abs() < 0.05);
+    // The line's tightest point is the landing, and the check carries it.
+    let t = mb.cg_margin.unwrap();
+    assert_eq!(t.mass_kg, mb.landing.mass_kg);
+    assert!((t.margin_mm - 112.1).abs() < 0.05);
+    let c = mb
+        .checks
+        .iter()
+        .find(|c| c.kind == LimitKind::Envelope)
+        .unwrap();
+    assert_eq!(c.limit, Some(1_470.0));
+    assert!((c.margin - t.margin_mm).abs() < 1e-12);
+    assert_eq!(c.value, Some(mb.landing.cg_mm));
+    assert!(
+        c.note.contains("1149–1470 mm: 112 mm inside the aft limit"),
+        "{}",
+        c.note
+    );
+    // At the maximum mass, the top edge: 1,250–1,470 mm.
+    let env = &mb.envelope;
+    let top = mass::cg_range(env, 1_600.0, 1_300.0).unwrap();
+    assert_eq!((top.fore_limit_mm, top.aft_limit_mm), (1_250.0, 1_470.0));
+    assert_eq!((top.margin_mm, top.nearer), (50.0, mass::CgSide::Fore));
+    // Outside: 30 mm beyond the aft limit; above the envelope's mass: no range.
+    let out = mass::cg_range(env, 1_400.0, 1_500.0).unwrap();
+    assert_eq!((out.margin_mm, out.nearer), (-30.0, mass::CgSide::Aft));
+    assert!(mass::cg_range(env, 1_600.5, 1_300.0).is_none());
+}
+
+/// A line between two inside points that crosses a concave notch has a negative margin
+/// at the notch (the envelope of the unit test in `assess::mass`: a "C" whose notch,
+/// masses 4–6, leaves only arms 0–4).
+#[test]
+fn a_line_across_a_notch_has_a_negative_margin() {
+    use rhoboard::ops::actype::EnvelopePoint;
+    let pt = |mass_kg: f64, arm_mm: f64| EnvelopePoint { mass_kg, arm_mm };
+    let c = [
+        pt(0.0, 0.0),
+        pt(0.0, 10.0),
+        pt(4.0, 10.0),
+        pt(4.0, 4.0),
+        pt(6.0, 4.0),
+        pt(6.0, 10.0),
+        pt(10.0, 10.0),
+        pt(10.0, 0.0),
+    ];
+    let from = mass::MassPoint {
+        mass_kg: 3.0,
+        cg_mm: 8.0,
+    };
+    let to = mass::MassPoint {
+        mass_kg: 7.0,
+        cg_mm: 8.0,
+    };
+    assert!(!mass::line_inside(&c, from, to));
+    let t = mass::line_margin(&c, from, to).unwrap();
+    assert_eq!((t.margin_mm, t.aft_limit_mm), (-4.0, 4.0));
+    // Along the outer edge instead: inside, 2 mm from the aft limit.
+    let t = mass::line_margin(
+        &c,
+        from,
+        mass::MassPoint {
+            mass_kg: 3.0,
+            cg_mm: 2.0,
+        },
+    )
+    .unwrap();
+    assert_eq!(t.margin_mm, 2.0);
 }
 
 #[test]
@@ -129,6 +336,23 @@ fn each_failure_is_a_check_that_makes_the_leg_below() {
     // Over the station limit (rear row 180 kg).
     let r = with(&|l| l.stations.push(station("rear_seats", Some(200.0), 0)));
     assert!(failing(&r, LimitKind::Loading) && r.state == State::Below);
+    // The station is named, in the reasons and as the limiting check.
+    assert!(
+        r.reasons
+            .iter()
+            .any(|w| w.contains("station load Rear row (rear_seats) below")),
+        "{:?}",
+        r.reasons
+    );
+    assert!(
+        r.limiting
+            .as_ref()
+            .unwrap()
+            .check
+            .contains("Rear row (rear_seats)"),
+        "{:?}",
+        r.limiting
+    );
     // More fuel than the tanks hold.
     let r = with(&|l| l.fuel_at_start_l = Some(320.0));
     assert!(failing(&r, LimitKind::Fuel) && r.state == State::Below);
@@ -362,6 +586,22 @@ fn payload_headroom_binds_on_each_limit() {
 
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(64))]
+
+    /// The margin's sign agrees with the point-in-polygon test on the demo envelope,
+    /// and the limits hold the CG between them when inside.
+    #[test]
+    fn cg_margin_sign_agrees_with_inside(mass_kg in 960.0f64..1_600.0, cg_mm in 950.0f64..1_600.0) {
+        let ops = ops();
+        let env = ops.aircraft_type("ft6").unwrap().file.mass_balance.as_ref().unwrap().envelope.clone();
+        let r = mass::cg_range(&env, mass_kg, cg_mm).unwrap();
+        prop_assert!(r.fore_limit_mm < r.aft_limit_mm);
+        if r.margin_mm.abs() > 1e-6 {
+            prop_assert_eq!(r.margin_mm > 0.0, mass::inside(&env, cg_mm, mass_kg));
+        }
+        if r.margin_mm >= 0.0 {
+            prop_assert!(r.fore_limit_mm <= cg_mm + 1e-9 && cg_mm <= r.aft_limit_mm + 1e-9);
+        }
+    }
 
     #[test]
     fn adding_load_never_lowers_takeoff_mass_or_raises_a_takeoff_margin(

@@ -370,3 +370,238 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     assert_eq!(alt.unwrap()["usable"], false);
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// Greenwich on 2026-06-14 from fixtures/reference/daylight.json (PyPI `ephem` 4.2.1):
+/// morning civil twilight begins 02:55:10Z, evening civil twilight ends 21:05:44Z.
+fn xsea_at_greenwich(ops: &mut Ops) {
+    let f = ops.airfields.iter_mut().find(|a| a.id == "XSEA").unwrap();
+    f.latitude_deg = 51.4769;
+    f.longitude_deg = -0.0005;
+    // The night rule on its own: the category's daylight-only window is another check.
+    let m = ops
+        .operator
+        .categories
+        .get_mut(&rhoboard::ops::Category::StudentSolo)
+        .unwrap();
+    m.daylight_only = false;
+}
+
+/// The `HHMMZ` after `label` in `text` is within two minutes of `want` (the tolerance
+/// of tests/daylight.rs against ephem), on the date of `want`.
+fn near(text: &str, label: &str, want: DateTime<Utc>) {
+    let i = text
+        .find(label)
+        .unwrap_or_else(|| panic!("{label:?} not in {text}"));
+    let hhmm = &text[i + label.len()..i + label.len() + 4];
+    let (h, m) = (hhmm[..2].parse().unwrap(), hhmm[2..].parse().unwrap());
+    let got = want.date_naive().and_hms_opt(h, m, 0).unwrap().and_utc();
+    let off = (got - want).num_seconds().abs();
+    assert!(
+        off <= 120,
+        "{label}{hhmm}Z is {off} s from {want} in {text}"
+    );
+}
+
+fn night_checks(r: &LegResult) -> Vec<rhoboard::assess::limits::LimitCheck> {
+    limit(r, LimitKind::Endorsement)
+        .into_iter()
+        .filter(|c| c.source.contains("61.87(o)"))
+        .cloned()
+        .collect()
+}
+
+/// Night is the time between the end of evening civil twilight and the beginning of
+/// morning civil twilight (14 CFR 1.1, from memory); a student solo in night needs the
+/// night solo endorsement (14 CFR 61.87(o), from memory). Circuits departing 20:40Z and
+/// landing 21:30Z run past the end of civil twilight at 21:05:44Z (ephem): below, the
+/// reason naming the pilot, the endorsement and the times. Landing 21:00Z: no night, no
+/// check at all. With a night endorsement for the type: within.
+#[test]
+fn a_student_solo_into_the_night_needs_the_night_endorsement() {
+    let mut ops = ops();
+    xsea_at_greenwich(&mut ops);
+    let mut l = leg(&ops, "L01");
+    l.departs_at = at(20, 40).fixed_offset();
+    l.arrives_at = at(21, 30).fixed_offset();
+    let reports = [calm("XSEA", "2030")];
+    let r = run(&ops, &DaySettings::default(), &reports, at(20, 35), &l);
+    let n = night_checks(&r);
+    assert_eq!(n.len(), 1, "{:?}", limit(&r, LimitKind::Endorsement));
+    assert_eq!(n[0].state, State::Below);
+    assert_eq!(r.state, State::Below);
+    assert!(r.headroom.is_none(), "no warming fixes an endorsement");
+    let pilot = ops.pilot(&l.pilot).unwrap();
+    let reason = r
+        .reasons
+        .iter()
+        .find(|w| w.contains("night solo endorsement"))
+        .unwrap_or_else(|| panic!("{:?}", r.reasons));
+    for want in [
+        pilot.name.as_str(),
+        "no night solo endorsement for ft2",
+        "2040Z–2130Z",
+        "to 2130Z",
+    ] {
+        assert!(reason.contains(want), "{want:?} not in {reason}");
+    }
+    near(
+        reason,
+        "in night at XSEA from ",
+        at(21, 5) + Duration::seconds(44),
+    );
+    near(
+        reason,
+        "end of evening civil twilight ",
+        at(21, 5) + Duration::seconds(44),
+    );
+    // Down at 21:00Z, before the end of civil twilight: no night check.
+    l.arrives_at = at(21, 0).fixed_offset();
+    let r = run(&ops, &DaySettings::default(), &reports, at(20, 35), &l);
+    assert!(night_checks(&r).is_empty());
+    assert_ne!(r.state, State::Below, "{:?}", r.reasons);
+    // Endorsed for night on the type a month ago: the check passes and says so.
+    l.arrives_at = at(21, 30).fixed_offset();
+    let date = NaiveDate::from_ymd_opt(2026, 5, 14).unwrap();
+    ops.pilots
+        .iter_mut()
+        .find(|p| p.id == l.pilot)
+        .unwrap()
+        .endorsements
+        .night
+        .push(rhoboard::ops::pilots::Endorsement {
+            type_id: "ft2".into(),
+            date,
+            instructor: "ins-mara".into(),
+        });
+    let r = run(&ops, &DaySettings::default(), &reports, at(20, 35), &l);
+    let n = night_checks(&r);
+    assert_eq!(n[0].state, State::Within, "{:?}", n[0]);
+    assert!(n[0].note.contains("of 2026-05-14"), "{}", n[0].note);
+    assert_ne!(r.state, State::Below, "{:?}", r.reasons);
+}
+
+/// A departure before morning civil twilight (02:55:10Z at Greenwich, ephem) is in
+/// night from its start; a night endorsement older than the category's 90 days (the
+/// same validity as 14 CFR 61.87(o)(3), from memory) has lapsed; one for another type
+/// does not count.
+#[test]
+fn a_dawn_solo_and_a_lapsed_or_wrong_type_night_endorsement() {
+    let mut ops = ops();
+    xsea_at_greenwich(&mut ops);
+    let mut l = leg(&ops, "L01");
+    l.departs_at = at(2, 30).fixed_offset();
+    l.arrives_at = at(3, 20).fixed_offset();
+    let reports = [calm("XSEA", "0220")];
+    let pilot = ops.pilots.iter_mut().find(|p| p.id == l.pilot).unwrap();
+    let day = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    pilot.endorsements.night = vec![
+        rhoboard::ops::pilots::Endorsement {
+            type_id: "ft2".into(),
+            date: day - Duration::days(90),
+            instructor: String::new(),
+        },
+        rhoboard::ops::pilots::Endorsement {
+            type_id: "ft4".into(),
+            date: day - Duration::days(3),
+            instructor: String::new(),
+        },
+    ];
+    let r = run(&ops, &DaySettings::default(), &reports, at(2, 25), &l);
+    let n = night_checks(&r);
+    assert_eq!(n[0].state, State::Below, "{:?}", n[0]);
+    for want in [
+        "has lapsed (90-day validity)",
+        "in night at XSEA from 0230Z to ",
+    ] {
+        assert!(n[0].note.contains(want), "{want:?} not in {}", n[0].note);
+    }
+    let dawn = at(2, 55) + Duration::seconds(10);
+    near(&n[0].note, "in night at XSEA from 0230Z to ", dawn);
+    near(&n[0].note, "beginning of morning civil twilight ", dawn);
+    // 89 days: still valid.
+    ops.pilots
+        .iter_mut()
+        .find(|p| p.id == l.pilot)
+        .unwrap()
+        .endorsements
+        .night[0]
+        .date = day - Duration::days(89);
+    let r = run(&ops, &DaySettings::default(), &reports, at(2, 25), &l);
+    assert_eq!(night_checks(&r)[0].state, State::Within);
+    // Only student solos: the same times flown dual need no endorsement.
+    let mut dual = l.clone();
+    dual.category = rhoboard::ops::Category::Dual;
+    let r = run(&ops, &DaySettings::default(), &reports, at(2, 25), &dual);
+    assert!(night_checks(&r).is_empty());
+}
+
+/// `validate` names the file, line, column and field of a night endorsement for a type
+/// the fleet does not have, and accepts one for a known type.
+#[test]
+fn validate_points_at_a_night_endorsement_for_an_unknown_type() {
+    use std::process::Command;
+    let bin = env!("CARGO_BIN_EXE_rhoboard");
+    let dir = std::env::temp_dir().join(format!("rhoboard-night-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let home = dir.join("home");
+    let ops_dir = dir.join("ops");
+    let cmd = |args: &[&str]| {
+        let o = Command::new(bin)
+            .args(args)
+            .env("XDG_CONFIG_HOME", &home)
+            .env("HOME", &home)
+            .env("RHOBOARD_DATA_DIR", &home)
+            .output()
+            .unwrap();
+        (
+            o.status.code().unwrap(),
+            String::from_utf8_lossy(&o.stdout).into_owned(),
+        )
+    };
+    let d = ops_dir.to_str().unwrap();
+    assert_eq!(cmd(&["init", d]).0, 0);
+    let path = ops_dir.join("pilots.json");
+    let text = std::fs::read_to_string(&path).unwrap();
+    let mut v: serde_json::Value = serde_json::from_str(&text).unwrap();
+    v["pilots"][0]["endorsements"]["night"] =
+        serde_json::json!([{"type_id": "ft2", "date": "2026-05-20", "instructor": "ins-mara"}]);
+    std::fs::write(&path, serde_json::to_string_pretty(&v).unwrap()).unwrap();
+    let (_, out) = cmd(&["validate", "--ops", d]);
+    assert!(!out.contains("endorsements.night"), "{out}");
+    v["pilots"][0]["endorsements"]["night"][0]["type_id"] = "zz9".into();
+    let pretty = serde_json::to_string_pretty(&v).unwrap();
+    std::fs::write(&path, &pretty).unwrap();
+    let line = pretty.lines().position(|l| l.contains("\"zz9\"")).unwrap() + 1;
+    let (code, out) = cmd(&["validate", "--ops", d]);
+    assert_eq!(code, 2, "{out}");
+    let want = format!("pilots.json:{line}:");
+    let hit = out
+        .lines()
+        .find(|l| l.contains("pilots[0].endorsements.night[0].type_id"))
+        .unwrap_or_else(|| panic!("{out}"));
+    assert!(
+        hit.contains(&want) && hit.contains("unknown aircraft type 'zz9'"),
+        "{hit}"
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+/// With no report at the departure the leg's weather cannot be assessed, but the
+/// night endorsement can: below (which outranks no-data), not no-data.
+#[test]
+fn a_night_solo_without_a_report_is_still_below_for_the_endorsement() {
+    let mut ops = ops();
+    xsea_at_greenwich(&mut ops);
+    let mut l = leg(&ops, "L01");
+    l.departs_at = at(21, 30).fixed_offset();
+    l.arrives_at = at(22, 20).fixed_offset();
+    let r = run(&ops, &DaySettings::default(), &[], at(21, 25), &l);
+    assert_eq!(night_checks(&r).len(), 1);
+    assert_eq!(r.state, State::Below, "{:?}", r.reasons);
+    assert!(r.reasons.iter().any(|w| w.contains("no usable report")));
+    assert!(
+        r.reasons
+            .iter()
+            .any(|w| w.contains("night solo endorsement"))
+    );
+}

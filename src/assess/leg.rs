@@ -813,6 +813,33 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         da_band: buffers.density_altitude_ft.max(1.0),
     };
     let mut temperature_independent_below = false;
+    // The pilot's endorsements (solo, cross-country, night) and named airfields: with
+    // the departure's limits, and assessed even when its weather cannot be.
+    let arr_field = &ops.airfields[arr_fi];
+    let pilot_checks = |out: &mut Vec<LimitCheck>| {
+        limits::pilot_limits(&who, type_id, leg.departs_utc(), &leg.from, &leg.to, out);
+        limits::night_limits(
+            &who,
+            type_id,
+            &ops.airfields[dep_fi],
+            arr_field,
+            leg.departs_utc(),
+            leg.arrives_utc(),
+            out,
+        );
+    };
+    let weatherless_pilot_checks =
+        |departure: bool, all: &mut Vec<(bool, LimitCheck)>, independent: &mut bool| {
+            if !departure {
+                return;
+            }
+            let mut lim = Vec::new();
+            pilot_checks(&mut lim);
+            for l in lim {
+                *independent |= l.state == State::Below;
+                all.push((true, l));
+            }
+        };
 
     for side_in in [
         SideInput {
@@ -854,6 +881,11 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             reasons.push(why);
             side.state = State::NoData;
             worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+            weatherless_pilot_checks(
+                side_in.departure,
+                &mut all_limits,
+                &mut temperature_independent_below,
+            );
             continue;
         };
         let stale = used.stale;
@@ -868,6 +900,11 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             reasons.push(why);
             side.state = State::NoData;
             worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+            weatherless_pilot_checks(
+                side_in.departure,
+                &mut all_limits,
+                &mut temperature_independent_below,
+            );
             continue;
         };
         side.air = Some(wx.air);
@@ -943,6 +980,11 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             side.state = State::Below;
             worst.add(State::Below, -1.0, What::Limit(usize::MAX));
             temperature_independent_below = true;
+            weatherless_pilot_checks(
+                side_in.departure,
+                &mut all_limits,
+                &mut temperature_independent_below,
+            );
             continue;
         };
         options[k].0.in_use = true;
@@ -969,14 +1011,7 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             &mut lim,
         );
         if side_in.departure {
-            limits::pilot_limits(
-                &who,
-                type_id,
-                side_in.event_at,
-                &leg.from,
-                &leg.to,
-                &mut lim,
-            );
+            pilot_checks(&mut lim);
         }
         if let Some(da) = lim.iter().find(|l| l.kind == LimitKind::DensityAltitude) {
             let max = da.limit.unwrap_or(f64::INFINITY);
@@ -1388,7 +1423,7 @@ fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<L
             } else {
                 format!("{:+.0} {}", l.margin, l.unit)
             };
-            (format!("{} {}", side.airfield, l.kind.word()), margin)
+            (format!("{} {}", side.airfield, l.label()), margin)
         }
     };
     Some(Limiting {
@@ -1462,19 +1497,15 @@ fn collect_reasons(
             if l.state == State::Within {
                 continue;
             }
-            let mut s = format!(
-                "{role} {}: {} {}",
-                side.airfield,
-                l.kind.word(),
-                l.state.word()
-            );
+            let mut s = format!("{role} {}: {} {}", side.airfield, l.label(), l.state.word());
+            // The source follows "from", never inside parentheses: it often has its own.
             if let (Some(v), Some(lim)) = (l.value, l.limit) {
                 s.push_str(&format!(
-                    " — {v:.0} {} against {lim:.0} {} ({})",
+                    " — {v:.0} {} against {lim:.0} {}; from {}",
                     l.unit, l.unit, l.source
                 ));
             } else if !l.note.is_empty() {
-                s.push_str(&format!(" — {} ({})", l.note, l.source));
+                s.push_str(&format!(" — {}; from {}", l.note, l.source));
             }
             reasons.push(s);
         }

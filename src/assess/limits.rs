@@ -87,7 +87,9 @@ pub struct LimitCheck {
     pub kind: LimitKind,
     /// The observed value, in `unit`.
     pub value: Option<f64>,
-    /// The limit, in `unit` (a minimum for ceiling and visibility, else a maximum).
+    /// The limit, in `unit` (a minimum for ceiling and visibility, else a maximum; for
+    /// the CG envelope the nearer of the fore and aft limits at the line's tightest
+    /// mass, see [`super::mass::CgRange`]).
     pub limit: Option<f64>,
     /// Unit of value, limit and margin.
     pub unit: &'static str,
@@ -101,12 +103,26 @@ pub struct LimitCheck {
     pub source: String,
     /// A plain sentence.
     pub note: String,
+    /// What the limit is on, where one kind covers several (a loading station's name
+    /// and id); empty otherwise. See [`LimitCheck::label`].
+    #[serde(skip_serializing_if = "String::is_empty")]
+    pub subject: String,
     /// The value is only a bound that already passes (`9999`, `P6SM`, CAVOK): the
     /// limit is not in play and never names itself as the limiting check.
     pub open_ended: bool,
 }
 
 impl LimitCheck {
+    /// The row's name in a chain: the kind, and its subject when it has one
+    /// (`station load Rear row (rear_seats)`).
+    pub fn label(&self) -> std::borrow::Cow<'static, str> {
+        if self.subject.is_empty() {
+            self.kind.word().into()
+        } else {
+            format!("{} {}", self.kind.word(), self.subject).into()
+        }
+    }
+
     /// Margin divided by the band: below 0 missed, below 1 thin.
     pub fn score(&self) -> f64 {
         // No tailwind, crosswind or gust spread at all: the limit is not in play, so it
@@ -152,6 +168,7 @@ fn bounded(
         state: verdict(margin, band),
         source,
         note: String::new(),
+        subject: String::new(),
         open_ended: false,
     }
 }
@@ -191,6 +208,7 @@ fn flag(kind: LimitKind, ok: bool, source: String, note: String) -> LimitCheck {
         state: if ok { State::Within } else { State::Below },
         source,
         note,
+        subject: String::new(),
         open_ended: false,
     }
 }
@@ -212,6 +230,7 @@ fn no_data(
         state: State::NoData,
         source,
         note,
+        subject: String::new(),
         open_ended: false,
     }
 }
@@ -249,7 +268,9 @@ pub struct Who<'a> {
 fn source_of(who: &Who<'_>, field: &str) -> String {
     let cat = who.category.name();
     match who.minimums.sources.get(field) {
-        Some(s) => format!("{cat} minimums ({s})"),
+        // No parentheses round the operator's text: it often has its own, and the chain
+        // quotes a source after a dash or "from", never inside another pair.
+        Some(s) => format!("{cat} minimums: {s}"),
         None => format!("{cat} minimums"),
     }
 }
@@ -266,6 +287,193 @@ pub fn is_day(d: &Daylight, at: DateTime<Utc>) -> bool {
         (Event::AlwaysAbove, _) | (_, Event::AlwaysAbove) => true,
         _ => false,
     }
+}
+
+/// A stretch of night (14 CFR 1.1, from memory: "the time between the end of evening
+/// civil twilight and the beginning of morning civil twilight") inside a leg, at one
+/// airfield.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct NightSpan {
+    /// First instant of the leg that is in night.
+    pub from: DateTime<Utc>,
+    /// Last instant of that stretch inside the leg.
+    pub to: DateTime<Utc>,
+    /// The end of evening civil twilight that began it, when that is a time.
+    pub after_dusk: Option<DateTime<Utc>>,
+    /// The beginning of morning civil twilight that ends it, when that is a time.
+    pub before_dawn: Option<DateTime<Utc>>,
+}
+
+/// The place's civil-twilight day around `date`: from the beginning of morning civil
+/// twilight to the end of evening civil twilight. Where the sun never sinks 6° below the
+/// horizon the day spans the whole 24 h about solar noon; where it never rises to −6°
+/// there is none.
+fn civil_day(date: chrono::NaiveDate, field: &Airfield) -> Option<(DateTime<Utc>, DateTime<Utc>)> {
+    let d = daylight::daylight(date, field.latitude_deg, field.longitude_deg);
+    let half = Duration::hours(12);
+    let start = match d.civil_dawn {
+        Event::At(t) => t,
+        Event::AlwaysAbove => d.solar_noon - half,
+        Event::AlwaysBelow => return None,
+    };
+    let end = match d.civil_dusk {
+        Event::At(t) => t,
+        Event::AlwaysAbove => d.solar_noon + half,
+        Event::AlwaysBelow => return None,
+    };
+    (start < end).then_some((start, end))
+}
+
+/// The first stretch of night between `from` and `to` at `field`, or `None` when the
+/// whole of it lies between the beginning of morning and the end of evening civil
+/// twilight (NOAA solar method, [`crate::daylight`]). Reads the civil days of the dates
+/// around the leg; no allocation.
+pub fn night_during(field: &Airfield, from: DateTime<Utc>, to: DateTime<Utc>) -> Option<NightSpan> {
+    const MAX_DAYS: usize = 8;
+    let to = to.max(from);
+    let first = from.date_naive() - Duration::days(1);
+    // The dates from the day before the departure to the day after the arrival (a leg
+    // of a week at most), each with its civil day, in time order.
+    let n = ((to.date_naive() - first).num_days().max(0) as usize + 2).min(MAX_DAYS);
+    let mut days = [None; MAX_DAYS];
+    for (k, d) in days.iter_mut().enumerate().take(n) {
+        *d = civil_day(first + Duration::days(k as i64), field);
+    }
+    let days = &days[..n];
+    let mut t = from;
+    loop {
+        // The civil day that holds `t`, if any: skip to its end.
+        let covering = days.iter().flatten().filter(|(a, b)| *a <= t && t <= *b);
+        match covering.map(|(_, b)| *b).max() {
+            Some(end) if end >= to => return None,
+            Some(end) => t = end + Duration::seconds(1),
+            None => {
+                let after_dusk = days
+                    .iter()
+                    .flatten()
+                    .map(|(_, b)| *b)
+                    .filter(|b| *b < t)
+                    .max();
+                let before_dawn = days
+                    .iter()
+                    .flatten()
+                    .map(|(a, _)| *a)
+                    .filter(|a| *a > t)
+                    .min();
+                return Some(NightSpan {
+                    from: t,
+                    to: before_dawn.map_or(to, |d| d.min(to)),
+                    after_dusk,
+                    before_dawn,
+                });
+            }
+        }
+    }
+}
+
+/// A student solo any part of which, departure to arrival, falls in night at either
+/// end needs the pilot's night solo endorsement for the type (14 CFR 61.87(o) under the
+/// FAA regime, from memory; the operator's rule elsewhere), given within the category's
+/// solo-endorsement validity where it has one (61.87(o)(3): the 90 days before the
+/// flight, from memory). Night is civil night, 14 CFR 1.1 (from memory). The route
+/// between the two fields is not modelled: a leg is in night if it is at either end.
+/// Nothing is added for a leg wholly in civil daylight.
+#[allow(clippy::too_many_arguments)]
+pub fn night_limits(
+    who: &Who<'_>,
+    type_id: &str,
+    from_field: &Airfield,
+    to_field: &Airfield,
+    departs_at: DateTime<Utc>,
+    arrives_at: DateTime<Utc>,
+    out: &mut Vec<LimitCheck>,
+) {
+    if who.category != Category::StudentSolo {
+        return;
+    }
+    let Some(pilot) = who.pilot else {
+        return;
+    };
+    let spans = [
+        (from_field, night_during(from_field, departs_at, arrives_at)),
+        (to_field, night_during(to_field, departs_at, arrives_at)),
+    ];
+    let Some((field, span)) = spans
+        .iter()
+        .filter_map(|(f, s)| s.map(|s| (*f, s)))
+        .min_by_key(|(_, s)| s.from)
+    else {
+        return;
+    };
+    let hhmm = |t: DateTime<Utc>| t.format("%H%MZ").to_string();
+    let night = match (span.after_dusk, span.before_dawn) {
+        (Some(dusk), Some(dawn)) => format!(
+            "end of evening civil twilight {} to beginning of morning civil twilight {}",
+            hhmm(dusk),
+            hhmm(dawn)
+        ),
+        (Some(dusk), None) => format!("from the end of evening civil twilight {}", hhmm(dusk)),
+        (None, Some(dawn)) => {
+            format!(
+                "until the beginning of morning civil twilight {}",
+                hhmm(dawn)
+            )
+        }
+        (None, None) => "no civil twilight: polar night".to_string(),
+    };
+    let when = format!(
+        "the leg {}–{} is in night at {} from {} to {} (night: {night}, NOAA solar method)",
+        hhmm(departs_at),
+        hhmm(arrives_at),
+        field.id,
+        hhmm(span.from),
+        hhmm(span.to)
+    );
+    let day = departs_at.date_naive();
+    let days = who.minimums.solo_endorsement_valid_days;
+    let matching = || {
+        pilot
+            .endorsements
+            .night
+            .iter()
+            .filter(|e| e.type_id == type_id && e.date <= day)
+    };
+    let valid = matching()
+        .filter(|e| days.is_none_or(|n| day - e.date < Duration::days(i64::from(n))))
+        .max_by_key(|e| e.date);
+    let who_name = format!("{} ({})", pilot.name, pilot.id);
+    let source = if who.regime == Regime::Faa {
+        "14 CFR 61.87(o): night solo endorsement (from memory); night per 14 CFR 1.1, end to beginning of civil twilight (from memory)".to_string()
+    } else {
+        "operator: night solo endorsement; night per 14 CFR 1.1, end to beginning of civil twilight (from memory)".to_string()
+    };
+    out.push(match valid {
+        Some(e) => flag(
+            LimitKind::Endorsement,
+            true,
+            source,
+            format!(
+                "{who_name} holds a night solo endorsement for {type_id} of {}; {when}",
+                e.date
+            ),
+        ),
+        None => {
+            let lapsed = matching().map(|e| e.date).max();
+            flag(
+                LimitKind::Endorsement,
+                false,
+                source,
+                match (lapsed, days) {
+                    (Some(d), Some(n)) => format!(
+                        "{who_name}'s night solo endorsement for {type_id} of {d} has lapsed ({n}-day validity); {when}"
+                    ),
+                    _ => format!(
+                        "{who_name} has no night solo endorsement for {type_id}; {when}"
+                    ),
+                },
+            )
+        }
+    });
 }
 
 /// The field-level limits at one end of a leg (everything but the runway components).
@@ -475,6 +683,7 @@ pub fn field_limits(
                         State::Within
                     },
                     source,
+                    subject: String::new(),
                     note: format!(
                         "{label} {} (NOAA solar method); {what} {} min {} it{}",
                         t.format("%H%MZ"),

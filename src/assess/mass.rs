@@ -64,8 +64,184 @@ pub struct MassBalance {
     pub within_envelope: Option<bool>,
     /// The type's envelope, for drawing.
     pub envelope: Vec<EnvelopePoint>,
+    /// The envelope's CG limits at the takeoff mass (`None`: a fixed mass, or a mass
+    /// the envelope does not reach).
+    pub takeoff_cg_range: Option<CgRange>,
+    /// The same at the landing mass.
+    pub landing_cg_range: Option<CgRange>,
+    /// The tightest point of the CG line from takeoff to landing: its mass, CG, the
+    /// envelope's limits there and the margin to the nearer one (`None` as above).
+    pub cg_margin: Option<CgRange>,
     /// The checks (maximum masses, stations, fuel, envelope).
     pub checks: Vec<LimitCheck>,
+}
+
+/// Which CG limit is the nearer one.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum CgSide {
+    /// The forward limit (a minimum arm).
+    Fore,
+    /// The aft limit (a maximum arm).
+    Aft,
+}
+
+impl CgSide {
+    /// The word for the chain.
+    pub const fn word(self) -> &'static str {
+        match self {
+            CgSide::Fore => "fore",
+            CgSide::Aft => "aft",
+        }
+    }
+}
+
+/// The envelope's CG range at one mass, and a CG against it.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct CgRange {
+    /// The mass, kg.
+    pub mass_kg: f64,
+    /// The CG, mm aft of datum.
+    pub cg_mm: f64,
+    /// The forward CG limit at this mass, mm (of the stretch of the envelope holding
+    /// the CG, or nearest it when outside).
+    pub fore_limit_mm: f64,
+    /// The aft CG limit at this mass, mm.
+    pub aft_limit_mm: f64,
+    /// Distance to the nearer limit, mm: positive inside, negative outside.
+    pub margin_mm: f64,
+    /// Which limit is nearer.
+    pub nearer: CgSide,
+}
+
+impl CgRange {
+    /// The nearer limit, mm.
+    pub fn nearer_limit_mm(&self) -> f64 {
+        match self.nearer {
+            CgSide::Fore => self.fore_limit_mm,
+            CgSide::Aft => self.aft_limit_mm,
+        }
+    }
+}
+
+/// Where the horizontal line at `mass_kg` crosses the envelope's edges, sorted: pairs
+/// of crossings bound the allowed CG stretches (even-odd rule). At the envelope's top
+/// edge (its maximum mass, where a loading often sits) the half-open rule that counts a
+/// vertex once finds nothing; it is taken closed from above there.
+fn crossings(envelope: &[EnvelopePoint], mass_kg: f64) -> Vec<f64> {
+    let n = envelope.len();
+    let mut xs = Vec::new();
+    for strict in [true, false] {
+        for i in 0..n {
+            let (a, b) = (envelope[i], envelope[(i + 1) % n]);
+            let (above_a, above_b) = if strict {
+                (a.mass_kg > mass_kg, b.mass_kg > mass_kg)
+            } else {
+                (a.mass_kg >= mass_kg, b.mass_kg >= mass_kg)
+            };
+            if above_a != above_b {
+                xs.push(
+                    a.arm_mm
+                        + (mass_kg - a.mass_kg) * (b.arm_mm - a.arm_mm) / (b.mass_kg - a.mass_kg),
+                );
+            }
+        }
+        if !xs.is_empty() {
+            break;
+        }
+    }
+    xs.sort_by(f64::total_cmp);
+    xs
+}
+
+/// The envelope's fore and aft CG limits at `mass_kg` and the margin of `cg_mm` to
+/// the nearer one; `None` when the envelope does not reach that mass (or has fewer
+/// than three points).
+pub fn cg_range(envelope: &[EnvelopePoint], mass_kg: f64, cg_mm: f64) -> Option<CgRange> {
+    if envelope.len() < 3 || !mass_kg.is_finite() || !cg_mm.is_finite() {
+        return None;
+    }
+    let xs = crossings(envelope, mass_kg);
+    let eps = 1e-9;
+    let mut best: Option<CgRange> = None;
+    for pair in xs.chunks_exact(2) {
+        let (fore, aft) = (pair[0], pair[1]);
+        let (to_fore, to_aft) = (cg_mm - fore, aft - cg_mm);
+        let (margin, nearer) = if to_fore >= -eps && to_aft >= -eps {
+            if to_fore <= to_aft {
+                (to_fore.max(0.0), CgSide::Fore)
+            } else {
+                (to_aft.max(0.0), CgSide::Aft)
+            }
+        } else if to_fore < 0.0 {
+            (to_fore, CgSide::Fore)
+        } else {
+            (to_aft, CgSide::Aft)
+        };
+        let r = CgRange {
+            mass_kg,
+            cg_mm,
+            fore_limit_mm: fore,
+            aft_limit_mm: aft,
+            margin_mm: margin,
+            nearer,
+        };
+        // The stretch holding the CG, else the one nearest it.
+        if best.is_none_or(|b| r.margin_mm > b.margin_mm) {
+            best = Some(r);
+        }
+    }
+    best
+}
+
+/// The tightest point of the straight CG line from `from` to `to` against the envelope:
+/// the margin is read at both ends, at every envelope vertex's mass in between and
+/// half-way between those (the limits are straight between vertex masses, so the
+/// smallest margin is at one of these). `None` when some point of the line is at a
+/// mass the envelope does not reach.
+pub fn line_margin(envelope: &[EnvelopePoint], from: MassPoint, to: MassPoint) -> Option<CgRange> {
+    let (lo, hi) = if from.mass_kg <= to.mass_kg {
+        (from.mass_kg, to.mass_kg)
+    } else {
+        (to.mass_kg, from.mass_kg)
+    };
+    let cg_at = |m: f64| {
+        if (to.mass_kg - from.mass_kg).abs() < 1e-12 {
+            from.cg_mm
+        } else {
+            from.cg_mm + (m - from.mass_kg) * (to.cg_mm - from.cg_mm) / (to.mass_kg - from.mass_kg)
+        }
+    };
+    let mut masses: Vec<f64> = envelope
+        .iter()
+        .map(|p| p.mass_kg)
+        .filter(|m| *m > lo && *m < hi)
+        .chain([lo, hi])
+        .collect();
+    masses.sort_by(f64::total_cmp);
+    masses.dedup();
+    let mids: Vec<f64> = masses.windows(2).map(|w| 0.5 * (w[0] + w[1])).collect();
+    let mut best: Option<CgRange> = None;
+    // The two ends first, so that a tie names the takeoff or landing point.
+    for m in [from.mass_kg, to.mass_kg]
+        .into_iter()
+        .chain(masses)
+        .chain(mids)
+    {
+        let cg = if m == from.mass_kg {
+            from.cg_mm
+        } else if m == to.mass_kg {
+            to.cg_mm
+        } else {
+            cg_at(m)
+        };
+        let r = cg_range(envelope, m, cg)?;
+        if best.is_none_or(|b| r.margin_mm < b.margin_mm) {
+            best = Some(r);
+        }
+    }
+    // A level line (takeoff and landing at one mass) is checked at its two ends.
+    best
 }
 
 /// Whether point (arm, mass) is inside the polygon or on its boundary.
@@ -276,6 +452,7 @@ pub fn compute(
             },
             source: "aircraft type: loading station limit".to_string(),
             note: format!("{} ({})", st.name, st.id),
+            subject: format!("{} ({})", st.name, st.id),
             open_ended: false,
         });
     }
@@ -307,6 +484,7 @@ pub fn compute(
                     l.station,
                     known.join(", ")
                 ),
+                subject: format!("'{}'", l.station),
                 open_ended: false,
             });
         }
@@ -359,6 +537,7 @@ pub fn compute(
             },
             source: source.to_string(),
             note,
+            subject: String::new(),
             open_ended: false,
         }
     };
@@ -410,28 +589,59 @@ pub fn compute(
         )
     });
     let within = line_inside(&mb.envelope, takeoff, landing);
-    checks.push(LimitCheck {
-        kind: LimitKind::Envelope,
-        value: Some(takeoff.cg_mm),
-        limit: None,
-        unit: "mm",
-        margin: if within { f64::INFINITY } else { -1.0 },
-        band: 0.0,
-        state: if within { State::Within } else { State::Below },
-        source: "aircraft type: CG envelope".to_string(),
-        note: format!(
-            "CG {:.0} mm at {:.0} kg (takeoff) to {:.0} mm at {:.0} kg (landing){}",
-            takeoff.cg_mm,
-            takeoff.mass_kg,
-            landing.cg_mm,
-            landing.mass_kg,
-            if within {
-                ", inside the envelope"
+    let takeoff_cg_range = cg_range(&mb.envelope, takeoff.mass_kg, takeoff.cg_mm);
+    let landing_cg_range = cg_range(&mb.envelope, landing.mass_kg, landing.cg_mm);
+    let tightest = line_margin(&mb.envelope, takeoff, landing);
+    let line = format!(
+        "CG {:.0} mm at {:.0} kg (takeoff) to {:.0} mm at {:.0} kg (landing), {} the envelope",
+        takeoff.cg_mm,
+        takeoff.mass_kg,
+        landing.cg_mm,
+        landing.mass_kg,
+        if within { "inside" } else { "outside" }
+    );
+    checks.push(match tightest {
+        Some(t) => LimitCheck {
+            kind: LimitKind::Envelope,
+            value: Some(t.cg_mm),
+            limit: Some(t.nearer_limit_mm()),
+            unit: "mm",
+            // The state is the line test's; a margin that disagrees with it (a line
+            // leaving and re-entering a concave envelope between two sample points) is
+            // shown as none to spare.
+            margin: if within {
+                t.margin_mm.max(0.0)
             } else {
-                ", outside the envelope"
-            }
-        ),
-        open_ended: false,
+                t.margin_mm.min(0.0)
+            },
+            band: 0.0,
+            state: if within { State::Within } else { State::Below },
+            source: "aircraft type: CG envelope".to_string(),
+            note: format!(
+                "{line}; tightest at {:.0} kg, where the envelope allows {:.0}–{:.0} mm: {:.0} mm {} the {} limit",
+                t.mass_kg,
+                t.fore_limit_mm,
+                t.aft_limit_mm,
+                t.margin_mm.abs(),
+                if t.margin_mm >= 0.0 { "inside" } else { "beyond" },
+                t.nearer.word()
+            ),
+            subject: String::new(),
+            open_ended: false,
+        },
+        None => LimitCheck {
+            kind: LimitKind::Envelope,
+            value: Some(takeoff.cg_mm),
+            limit: None,
+            unit: "mm",
+            margin: -1.0,
+            band: 0.0,
+            state: State::Below,
+            source: "aircraft type: CG envelope".to_string(),
+            note: format!("{line}: the envelope has no CG range at some mass of the line"),
+            subject: String::new(),
+            open_ended: false,
+        },
     });
     Some(MassBalance {
         rows,
@@ -443,6 +653,9 @@ pub fn compute(
         fuel_reserve_l: reserve_l,
         within_envelope: Some(within),
         envelope: mb.envelope.clone(),
+        takeoff_cg_range,
+        landing_cg_range,
+        cg_margin: tightest,
         checks,
     })
 }
@@ -465,6 +678,7 @@ pub fn fixed(takeoff_mass_kg: f64, landing_mass_kg: f64, mtow: f64, mlm: f64) ->
             state: verdict(margin, 0.0),
             source: source.to_string(),
             note: String::new(),
+            subject: String::new(),
             open_ended: false,
         }
     };
@@ -478,6 +692,9 @@ pub fn fixed(takeoff_mass_kg: f64, landing_mass_kg: f64, mtow: f64, mlm: f64) ->
         fuel_reserve_l: f64::NAN,
         within_envelope: None,
         envelope: Vec::new(),
+        takeoff_cg_range: None,
+        landing_cg_range: None,
+        cg_margin: None,
         checks: vec![
             check(
                 LimitKind::TakeoffMass,

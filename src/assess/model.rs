@@ -23,7 +23,7 @@ impl Origin {
     pub const fn word(self) -> &'static str {
         match self {
             Origin::Manual => "flight manual",
-            Origin::Policy => "operator policy (manual silent)",
+            Origin::Policy => "operator policy, the manual being silent",
         }
     }
 }
