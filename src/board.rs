@@ -23,7 +23,8 @@ pub mod signoff;
 pub mod theme;
 pub mod view;
 
-pub use app::{App, Effect, Msg, Pane, Replay, Settings, Sort};
+pub use app::{App, Msg, Pane, Replay, Settings, Sort};
+pub use effects::Effect;
 pub use keys::{Action, KEYMAP};
 pub use layout::{BoardLayout, LayoutSettings};
 pub use run::{Feeds, run};

@@ -483,7 +483,9 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
     // update did no I/O: the effect waits for the event loop, nothing changed yet.
     let effects = app.take_effects();
     assert_eq!(effects.len(), 1);
-    let rhoboard::board::Effect::SaveRunwayState { date, entry, .. } = &effects[0];
+    let rhoboard::board::Effect::SaveRunwayState { date, entry, .. } = &effects[0] else {
+        panic!("a runway-state save, not {:?}", effects[0]);
+    };
     assert_eq!(date.to_string(), "2026-06-14");
     assert_eq!(
         (entry.airfield.as_str(), entry.end.as_str()),
@@ -496,7 +498,7 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
         Some("27")
     );
     // The loop performs it with `rhoboard runway`'s code and answers.
-    let answer = rhoboard::board::run::perform(effects[0].clone());
+    let answer = rhoboard::board::effects::perform(&app, effects[0].clone(), demo_time(8, 0));
     let path = dir.join("runway-state/2026-06-14.json");
     let written: rhoboard::ops::runway_state::RunwayStateFile =
         serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
@@ -542,7 +544,7 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
     type_text(&mut app, "wet");
     app.update(key(KeyCode::Enter));
     for e in app.take_effects() {
-        let m = rhoboard::board::run::perform(e);
+        let m = rhoboard::board::effects::perform(&app, e, demo_time(8, 0));
         app.update(m);
     }
     let written: rhoboard::ops::runway_state::RunwayStateFile =
@@ -561,7 +563,7 @@ fn a_failed_write_shows_on_screen_and_changes_nothing() {
     app.settings.ops_dir = Some(dir.clone());
     close_l01_runway(&mut app);
     for e in app.take_effects() {
-        let m = rhoboard::board::run::perform(e);
+        let m = rhoboard::board::effects::perform(&app, e, demo_time(8, 0));
         app.update(m);
     }
     assert_eq!(

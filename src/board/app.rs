@@ -8,9 +8,9 @@ use std::time::Duration;
 use chrono::{DateTime, DurationRound, TimeDelta, Utc};
 use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
-use super::form::{FIELDS, Form};
+use super::form::{FieldKey, Form, field_key};
 use super::keys::{Action, action_for, is_ctrl_c};
-use super::runway_form::{RUNWAY_FIELDS, RunwayForm};
+use super::runway_form::RunwayForm;
 use crate::assess::{Assessment, Change, Context, DaySettings, LegResult, Model, State};
 use crate::observation::{FileReport, Insert, Report, Store};
 use crate::ops::runway_state::{EndState, RunwayStateFile};
@@ -57,35 +57,10 @@ pub enum Msg {
         /// What went wrong.
         error: String,
     },
-    /// The event loop performed an [`Effect::SaveRunwayState`]: the day's state as now
-    /// written (and where), or why it could not be.
-    RunwayStateSaved {
-        /// What was asked for, in words ("XSEA 27: closed").
-        what: String,
-        /// The file written and the day's whole state, or the error.
-        result: Result<(PathBuf, RunwayStateFile), String>,
-    },
     /// Quit (a signal, or the input thread ending).
     Quit,
     /// The event loop did an [`Effect`](super::effects::Effect): its result.
     Done(super::effects::Done),
-}
-
-/// I/O that `update` asks the event loop to do (it answers with a [`Msg`]).
-#[derive(Debug, Clone, PartialEq)]
-pub enum Effect {
-    /// Append `entry` to `dir/runway-state/<date>.json` (as `rhoboard runway` does);
-    /// answered by [`Msg::RunwayStateSaved`].
-    SaveRunwayState {
-        /// The operator folder.
-        dir: PathBuf,
-        /// The UTC date of the state.
-        date: chrono::NaiveDate,
-        /// The change.
-        entry: EndState,
-        /// The change in words, for the answer's note.
-        what: String,
-    },
 }
 
 /// The panes, in Tab order.
@@ -361,8 +336,6 @@ pub struct App {
     /// The UTC date whose legs are on the board.
     day: chrono::NaiveDate,
     bell_pending: bool,
-    /// I/O asked for by `update`, for the event loop.
-    effects: Vec<Effect>,
     /// Set when something visible changed since the last draw.
     dirty: bool,
     /// Sign-offs: the log, its chain, each leg's standing.
@@ -371,8 +344,9 @@ pub struct App {
     pub forecast: Vec<Option<crate::assess::lookahead::LookAhead>>,
     /// What-if changes pending, and how to save them.
     pub plan: super::replan::Plan,
-    /// Sign-off and legs-file work for the event loop (`update` does no I/O).
-    board_io: Vec<super::effects::Effect>,
+    /// I/O asked for by `update` (sign-offs, legs files, runway state), for the event
+    /// loop: `update` does none itself.
+    effects: Vec<super::effects::Effect>,
     /// The real clock at the last tick (a sign-off's `signed_at` preview).
     pub wall: DateTime<Utc>,
 }
@@ -444,12 +418,11 @@ impl App {
             last_refresh: clock,
             day: clock.date_naive(),
             bell_pending: false,
-            effects: Vec::new(),
             dirty: true,
             signoffs: Default::default(),
             forecast: Vec::new(),
             plan: Default::default(),
-            board_io: Vec::new(),
+            effects: Vec::new(),
             wall: clock,
         };
         if app.replay.is_some() {
@@ -477,12 +450,13 @@ impl App {
 
     /// Queues work for the event loop.
     pub(super) fn push_effect(&mut self, e: super::effects::Effect) {
-        self.board_io.push(e);
+        self.effects.push(e);
     }
 
-    /// Takes the queued work (the event loop performs it and sends back `Msg::Done`).
-    pub fn take_board_io(&mut self) -> Vec<super::effects::Effect> {
-        std::mem::take(&mut self.board_io)
+    /// Takes the queued work (the event loop performs each with
+    /// [`effects::perform`](super::effects::perform) and sends back its `Msg::Done`).
+    pub fn take_effects(&mut self) -> Vec<super::effects::Effect> {
+        std::mem::take(&mut self.effects)
     }
 
     /// After the assessment changed: the look-ahead, the sign-off standings, the what-if.
@@ -552,11 +526,6 @@ impl App {
     /// Takes the pending bell (the event loop rings it).
     pub fn take_bell(&mut self) -> bool {
         std::mem::take(&mut self.bell_pending)
-    }
-
-    /// Takes the I/O `update` asked for (the event loop performs it).
-    pub fn take_effects(&mut self) -> Vec<Effect> {
-        std::mem::take(&mut self.effects)
     }
 
     /// The compiled operator with today's runway state.
@@ -630,28 +599,35 @@ impl App {
                     self.note(NoteKind::Error, text);
                 }
             }
-            Msg::RunwayStateSaved { what, result } => match result {
-                Ok((path, state)) => {
-                    // The legs' changes first, so the line saying where it went is on top.
-                    self.apply_runway_state(state, &what);
-                    self.note(
-                        NoteKind::Info,
-                        format!("{what}: saved in {}", path.display()),
-                    );
-                }
-                Err(e) => self.note(
-                    NoteKind::Error,
-                    format!("{what}: not saved, nothing changed: {e}"),
-                ),
-            },
             Msg::Quit => self.quit = true,
             Msg::Done(done) => {
                 self.dirty = true;
                 match done {
                     super::effects::Done::Signed { outcome, chain } => self.signed(outcome, chain),
                     super::effects::Done::Saved(o) => self.saved(o),
+                    super::effects::Done::RunwayState { what, result } => {
+                        self.runway_saved(&what, result)
+                    }
                 }
             }
+        }
+    }
+
+    /// The event loop's answer to [`Effect::SaveRunwayState`](super::effects::Effect).
+    fn runway_saved(&mut self, what: &str, result: Result<(PathBuf, RunwayStateFile), String>) {
+        match result {
+            Ok((path, state)) => {
+                // The legs' changes first, so the line saying where it went is on top.
+                self.apply_runway_state(state, what);
+                self.note(
+                    NoteKind::Info,
+                    format!("{what}: saved in {}", path.display()),
+                );
+            }
+            Err(e) => self.note(
+                NoteKind::Error,
+                format!("{what}: not saved, nothing changed: {e}"),
+            ),
         }
     }
 
@@ -699,7 +675,7 @@ impl App {
         match self.settings.ops_dir.clone() {
             Some(dir) if !self.settings.demo => {
                 self.note(NoteKind::Info, format!("{what}: saving…"));
-                self.effects.push(Effect::SaveRunwayState {
+                self.push_effect(super::effects::Effect::SaveRunwayState {
                     dir,
                     date: self.day,
                     entry,
@@ -1072,62 +1048,42 @@ impl App {
                 return;
             }
             Mode::Form(form) => {
-                let n = FIELDS.len();
-                match key.code {
-                    KeyCode::Esc => self.ui.mode = Mode::Normal,
-                    KeyCode::Tab | KeyCode::Down => form.focus = (form.focus + 1) % n,
-                    KeyCode::BackTab | KeyCode::Up => form.focus = (form.focus + n - 1) % n,
-                    KeyCode::Backspace => {
-                        form.values[form.focus].pop();
-                    }
-                    KeyCode::Enter => {
-                        let mut f = std::mem::take(form);
-                        match f.submit(&self.ops, self.clock) {
-                            Some(report) => {
-                                self.ui.mode = Mode::Normal;
-                                let label = report.label();
-                                self.manual.push(report.clone());
-                                self.note(NoteKind::Info, format!("{label}: added by hand"));
-                                self.take_reports("by hand", vec![report]);
+                let done = field_key(&mut form.values, &mut form.focus, &key);
+                if done == FieldKey::Submit {
+                    let mut f = std::mem::take(form);
+                    match f.submit(&self.ops, self.clock) {
+                        Some(report) => {
+                            self.ui.mode = Mode::Normal;
+                            let label = report.label();
+                            self.manual.push(report.clone());
+                            self.note(NoteKind::Info, format!("{label}: added by hand"));
+                            self.take_reports("by hand", vec![report]);
+                        }
+                        None => {
+                            if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
+                                f.focus = first;
                             }
-                            None => {
-                                if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
-                                    f.focus = first;
-                                }
-                                self.ui.mode = Mode::Form(f);
-                            }
+                            self.ui.mode = Mode::Form(f);
                         }
                     }
-                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
-                        form.values[form.focus].push(ch);
-                    }
-                    _ => {}
+                } else if done == FieldKey::Cancel {
+                    self.ui.mode = Mode::Normal;
                 }
                 return;
             }
             Mode::Runway(form) => {
-                let n = RUNWAY_FIELDS.len();
-                match key.code {
-                    KeyCode::Esc => self.ui.mode = Mode::Normal,
-                    KeyCode::Tab | KeyCode::Down => form.focus = (form.focus + 1) % n,
-                    KeyCode::BackTab | KeyCode::Up => form.focus = (form.focus + n - 1) % n,
-                    KeyCode::Backspace => {
-                        form.values[form.focus].pop();
-                    }
-                    KeyCode::Enter => {
-                        let mut f = std::mem::take(form);
-                        match f.submit(&self.ops, self.day) {
-                            Some(entry) => {
-                                self.ui.mode = Mode::Normal;
-                                self.runway_entry(entry);
-                            }
-                            None => self.ui.mode = Mode::Runway(f),
+                let done = field_key(&mut form.values, &mut form.focus, &key);
+                if done == FieldKey::Submit {
+                    let mut f = std::mem::take(form);
+                    match f.submit(&self.ops, self.day) {
+                        Some(entry) => {
+                            self.ui.mode = Mode::Normal;
+                            self.runway_entry(entry);
                         }
+                        None => self.ui.mode = Mode::Runway(f),
                     }
-                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
-                        form.values[form.focus].push(ch);
-                    }
-                    _ => {}
+                } else if done == FieldKey::Cancel {
+                    self.ui.mode = Mode::Normal;
                 }
                 return;
             }
