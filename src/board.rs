@@ -8,8 +8,10 @@
 
 pub mod app;
 pub mod detail;
+pub mod display;
 pub mod effects;
 pub mod feed;
+pub mod fit;
 pub mod forecast;
 pub mod form;
 pub mod keys;

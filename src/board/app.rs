@@ -113,7 +113,8 @@ pub enum Sort {
     Time,
     /// Worst state first (below, no-data, thin, within), then time.
     State,
-    /// Smallest margin first, then time.
+    /// Smallest margin ÷ thin buffer first (a unit-free score, so %, kt and ft
+    /// compare), then time.
     Margin,
 }
 
@@ -123,7 +124,7 @@ impl Sort {
         match self {
             Sort::Time => "time",
             Sort::State => "state",
-            Sort::Margin => "margin",
+            Sort::Margin => "margin ÷ buffer",
         }
     }
 }
@@ -817,7 +818,7 @@ impl App {
             let why = if ch.why.is_empty() {
                 String::new()
             } else {
-                format!(": {}", ch.why)
+                format!(": {}", super::display::Show::of(&self.ops).in_text(&ch.why))
             };
             self.note(
                 NoteKind::Change(ch.to),
@@ -1031,11 +1032,11 @@ impl App {
             Mode::Help => {
                 match action_for(&key) {
                     Some(Action::Down) => {
-                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(1).min(60)
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(1).min(200)
                     }
                     Some(Action::Up) => self.ui.help_scroll = self.ui.help_scroll.saturating_sub(1),
                     Some(Action::PageDown) => {
-                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(10).min(60)
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(10).min(200)
                     }
                     Some(Action::PageUp) => {
                         self.ui.help_scroll = self.ui.help_scroll.saturating_sub(10)
@@ -1323,7 +1324,10 @@ impl App {
                 result.category.name().replace('_', " "),
                 result
                     .takeoff_mass_kg
-                    .map_or("no mass".to_string(), |m| format!("{m:.0} kg"))
+                    .map_or("no mass".to_string(), |m| super::display::Show::of(
+                        &self.ops
+                    )
+                    .mass(m))
             ),
             result,
         })

@@ -6,23 +6,21 @@ use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::style::Style;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Cell, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
 
 use super::app::{App, Mode};
 use super::replan::{Ask, Figures, ReplanUi, Typed};
 use super::signoff::{Mark, SIGN_FIELDS, SignForm};
 use super::theme::Theme;
-use crate::assess::{LegResult, State};
+use crate::assess::State;
 
 /// The help's line on the sign-off marks and the forecast column.
 pub const HELP_LEGEND: &str = "✎ signed off · ↻ sign-off needs a re-check · forecast: fails ~HHMMZ (a forecast, not an observation)";
 
-/// Which extra leg columns fit.
+/// How the sign-off shows in the legs table.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct LegColumns {
-    /// The forecast column ("fails ~1340Z").
-    pub forecast: bool,
-    /// The sign-off column with words (else the glyph alone).
+    /// The sign-off column with words (else the glyph beside the change mark).
     pub words: bool,
 }
 
@@ -30,7 +28,6 @@ impl LegColumns {
     /// For a legs pane `width` columns wide.
     pub fn for_width(width: u16) -> LegColumns {
         LegColumns {
-            forecast: width >= 100,
             words: width >= 130,
         }
     }
@@ -40,22 +37,17 @@ impl LegColumns {
         if self.words { " " } else { " ✎" }
     }
 
-    /// Its width.
-    pub fn first_width(&self) -> u16 {
-        if self.words { 1 } else { 2 }
-    }
-
     /// Its cell for leg `k`.
-    pub fn first_cell(&self, app: &App, k: usize, flash: bool, t: Theme) -> Cell<'static> {
+    pub fn first_line(&self, app: &App, k: usize, flash: bool, t: Theme) -> Line<'static> {
         let star = if flash { "*" } else { " " };
         if self.words {
-            return Cell::from(star);
+            return Line::from(star);
         }
         let m = app.mark(k);
-        Cell::from(Line::from(vec![
+        Line::from(vec![
             Span::raw(star),
             Span::styled(m.glyph(), mark_style(m, t)),
-        ]))
+        ])
     }
 
     /// The sign-off column's heading.
@@ -63,13 +55,8 @@ impl LegColumns {
         if self.words { "sign-off" } else { "✎" }
     }
 
-    /// The sign-off column's width.
-    pub fn mark_width(&self) -> u16 {
-        if self.words { 10 } else { 1 }
-    }
-
     /// The sign-off cell of leg `k`.
-    pub fn mark_cell(&self, app: &App, k: usize, t: Theme) -> Cell<'static> {
+    pub fn mark_line(&self, app: &App, k: usize, t: Theme) -> Line<'static> {
         let m = app.mark(k);
         let text = if self.words {
             match m {
@@ -80,12 +67,7 @@ impl LegColumns {
         } else {
             m.glyph().to_string()
         };
-        Cell::from(text).style(mark_style(m, t))
-    }
-
-    /// The forecast cell of leg `k`.
-    pub fn forecast_cell(&self, app: &App, k: usize, r: &LegResult) -> Cell<'static> {
-        Cell::from(super::forecast::cell(app.look(k), r.state))
+        Line::styled(text, mark_style(m, t))
     }
 }
 
@@ -276,6 +258,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         leg.map_or("—", |l| l.pilot.as_str()),
         r.category.name().replace('_', " ")
     )));
+    let show = super::display::Show::of(&app.ops);
     lines.push(Line::from(vec![
         Span::raw("Assessed at "),
         Span::styled(f.basis_at.format("%H:%MZ").to_string(), t.heading()),
@@ -288,7 +271,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             " · {} {} · headroom {}",
             fig.limiting_check.clone().unwrap_or_else(|| "—".into()),
             fig.limiting_margin.clone().unwrap_or_default(),
-            crate::commands::check::headroom_text(r)
+            super::view::headroom_cell(show, r)
         )),
     ]));
     for (name, e) in [("departure", &fig.departure), ("arrival", &fig.arrival)] {
@@ -298,7 +281,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             e.runway.clone().unwrap_or_else(|| "—".into()),
             opt(e.pressure_altitude_ft, " ft"),
             opt(e.density_altitude_ft, " ft"),
-            opt(e.oat_c, " °C"),
+            e.oat_c.map_or("—".to_string(), |c| show.temp(c)),
             opt(e.headwind_kt, " kt"),
             opt(e.crosswind_kt, " kt"),
         )));
@@ -321,11 +304,11 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         }
         for c in &e.checks {
             lines.push(Line::from(format!(
-                "  {} {}: {:.0} m required of {:.0} m ({})",
+                "  {} {}: {} required of {} ({})",
                 c.phase,
                 c.rule,
-                c.required_m,
-                c.available_m,
+                show.dist(c.required_m),
+                show.dist(c.available_m),
                 c.margin_percent
                     .map_or("—".into(), |m| format!("{m:+.0} %"))
             )));
