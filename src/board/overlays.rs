@@ -6,7 +6,7 @@ use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::style::Style;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Paragraph, Widget};
 
 use super::app::{App, Mode};
 use super::replan::{Ask, Figures, ReplanUi, Typed};
@@ -215,23 +215,24 @@ fn comparison(
     lines
 }
 
-fn centered(area: Rect, w: u16, h: u16) -> Rect {
-    let w = w.min(area.width);
-    let h = h.min(area.height);
-    Rect::new(
-        area.x + (area.width - w) / 2,
-        area.y + (area.height - h) / 2,
-        w,
-        h,
-    )
-}
-
-fn boxed(lines: Vec<Line<'static>>, title: String, area: Rect, buf: &mut Buffer, t: Theme, w: u16) {
-    // One spare row: the caution and long lines wrap.
-    let r = centered(area, w, lines.len() as u16 + 3);
+/// `lines` in a bordered box `w` wide centred in `area`, each line wrapped at words
+/// with a hanging indent (so a wrapped item still reads as one).
+pub(super) fn boxed(
+    lines: Vec<Line<'static>>,
+    title: String,
+    area: Rect,
+    buf: &mut Buffer,
+    t: Theme,
+    w: u16,
+) {
+    let inner_w = usize::from(w.min(area.width).saturating_sub(2));
+    let lines: Vec<Line<'static>> = lines
+        .into_iter()
+        .flat_map(|l| super::fit::wrap(l, inner_w, None))
+        .collect();
+    let r = super::view::centered(area, w, lines.len() as u16 + 2);
     Clear.render(r, buf);
     Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
         .block(Block::bordered().border_style(t.frame()).title(title))
         .render(r, buf);
 }

@@ -918,7 +918,8 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     Line::styled(fit::words(&text, w).into_owned(), t.dim()).render(area, buf);
 }
 
-fn centered(area: Rect, w: u16, h: u16) -> Rect {
+/// A `w`×`h` rectangle in the middle of `area` (clipped to it).
+pub(super) fn centered(area: Rect, w: u16, h: u16) -> Rect {
     let w = w.min(area.width);
     let h = h.min(area.height);
     Rect::new(
@@ -1017,6 +1018,41 @@ fn help(app: &App, area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
         .render(r, buf);
 }
 
+/// A form's fields, one line each — label (`label_w` wide, right-aligned), value
+/// (the cursor on the focused one), hint — and the field's error under it.
+fn field_lines<'a>(
+    specs: impl Iterator<Item = (&'static str, &'static str)>,
+    values: &[String],
+    focus: usize,
+    error: impl Fn(usize) -> Option<&'a str>,
+    label_w: usize,
+    t: Theme,
+) -> Vec<Line<'static>> {
+    let mut lines = Vec::new();
+    for (i, (label, hint)) in specs.enumerate() {
+        let v = values.get(i).map_or("", String::as_str);
+        let value = if i == focus {
+            format!("{v}▏")
+        } else {
+            v.to_string()
+        };
+        let label_style = if i == focus {
+            t.selected()
+        } else {
+            t.heading()
+        };
+        lines.push(Line::from(vec![
+            Span::styled(format!("{label:>label_w$}"), label_style),
+            Span::raw(format!(" {value:<14} ")),
+            Span::styled(hint, t.dim()),
+        ]));
+        if let Some(e) = error(i) {
+            lines.push(Line::styled(format!("{:>label_w$} ✗ {e}", ""), t.error()));
+        }
+    }
+    lines
+}
+
 /// A field's error without the "manual observation XSEA: " prefix the form makes plain.
 fn field_error(e: &str) -> &str {
     match e.strip_prefix("manual observation ") {
@@ -1033,26 +1069,14 @@ fn form(app: &App, f: &Form, area: Rect, buf: &mut Buffer, t: Theme) {
         ),
         Line::default(),
     ];
-    for (i, spec) in FIELDS.iter().enumerate() {
-        let focus = i == f.focus;
-        let value = if focus {
-            format!("{}▏", f.values[i])
-        } else {
-            f.values[i].clone()
-        };
-        let label_style = if focus { t.selected() } else { t.heading() };
-        lines.push(Line::from(vec![
-            Span::styled(format!("{:>17}", spec.label), label_style),
-            Span::raw(format!(" {value:<14} ")),
-            Span::styled(spec.hint, t.dim()),
-        ]));
-        if let Some(e) = f.error_for(i) {
-            lines.push(Line::styled(
-                format!("{:>17} ✗ {}", "", field_error(e)),
-                t.error(),
-            ));
-        }
-    }
+    lines.extend(field_lines(
+        FIELDS.iter().map(|s| (s.label, s.hint)),
+        &f.values,
+        f.focus,
+        |i| f.error_for(i).map(field_error),
+        17,
+        t,
+    ));
     let general: Vec<&str> = f
         .errors
         .iter()
@@ -1083,16 +1107,7 @@ fn form(app: &App, f: &Form, area: Rect, buf: &mut Buffer, t: Theme) {
         ),
         t.dim(),
     ));
-    let r = centered(area, 100, lines.len() as u16 + 4);
-    Clear.render(r, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .block(
-            Block::bordered()
-                .border_style(t.frame())
-                .title(" Report by hand (o) "),
-        )
-        .render(r, buf);
+    super::overlays::boxed(lines, " Report by hand (o) ".into(), area, buf, t, 100);
 }
 
 /// The ends of airfield `fi` today, one line each: designator, usable now or not,
@@ -1177,23 +1192,14 @@ fn runway_form(app: &App, f: &RunwayForm, area: Rect, buf: &mut Buffer, t: Theme
     if area.height >= 30 {
         lines.push(Line::default());
     }
-    for (i, spec) in RUNWAY_FIELDS.iter().enumerate() {
-        let focus = i == f.focus;
-        let value = if focus {
-            format!("{}▏", f.values[i])
-        } else {
-            f.values[i].clone()
-        };
-        let label_style = if focus { t.selected() } else { t.heading() };
-        lines.push(Line::from(vec![
-            Span::styled(format!("{:>10}", spec.label), label_style),
-            Span::raw(format!(" {value:<14} ")),
-            Span::styled(spec.hint, t.dim()),
-        ]));
-        if let Some(e) = f.error_for(i) {
-            lines.push(Line::styled(format!("{:>10} ✗ {e}", ""), t.error()));
-        }
-    }
+    lines.extend(field_lines(
+        RUNWAY_FIELDS.iter().map(|s| (s.label, s.hint)),
+        &f.values,
+        f.focus,
+        |i| f.error_for(i),
+        10,
+        t,
+    ));
     for (_, g) in f.errors.iter().filter(|(i, _)| i.is_none()) {
         lines.push(Line::styled(format!("✗ {g}"), t.error()));
     }
@@ -1207,16 +1213,14 @@ fn runway_form(app: &App, f: &RunwayForm, area: Rect, buf: &mut Buffer, t: Theme
             .to_string(),
     };
     lines.push(Line::styled(where_to, t.dim()));
-    let r = centered(area, 104, lines.len() as u16 + 4);
-    Clear.render(r, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .block(
-            Block::bordered()
-                .border_style(t.frame())
-                .title(" Runway state for the day (r) "),
-        )
-        .render(r, buf);
+    super::overlays::boxed(
+        lines,
+        " Runway state for the day (r) ".into(),
+        area,
+        buf,
+        t,
+        104,
+    );
 }
 
 /// A sun event as `1947Z`, or why there is none.
