@@ -398,7 +398,9 @@ fn legs_rows_are_whole(s: &str) {
             if !n.starts_with(|ch: char| ch.is_ascii_digit()) {
                 continue;
             }
-            let next = cells.get(i + 1).copied().unwrap_or("");
+            let next = cells
+                .get(i + 1)
+                .map_or("", |n| n.trim_end_matches([',', ';', ')']));
             let glued = UNITS.iter().any(|u| n.ends_with(u));
             assert!(
                 glued || (n.parse::<f64>().is_ok() && UNITS.contains(&next)),
@@ -408,69 +410,78 @@ fn legs_rows_are_whole(s: &str) {
     }
 }
 
+/// The afternoon at w×h, its legs rows checked whole.
+fn afternoon_whole(w: u16, h: u16) -> ratatui::Terminal<ratatui::backend::TestBackend> {
+    let mut app = demo_stepped_to(15);
+    legs_rows_are_whole(&screen(&mut app, w, h));
+    render(&mut app, w, h)
+}
+
 #[test]
 fn afternoon_60x20() {
-    let mut app = demo_stepped_to(15);
-    let s = screen(&mut app, 60, 20);
-    legs_rows_are_whole(&s);
-    insta::assert_snapshot!(render(&mut app, 60, 20).backend());
+    insta::assert_snapshot!(afternoon_whole(60, 20).backend());
 }
 
 #[test]
 fn afternoon_100x30() {
-    let mut app = demo_stepped_to(15);
-    let s = screen(&mut app, 100, 30);
-    legs_rows_are_whole(&s);
-    insta::assert_snapshot!(render(&mut app, 100, 30).backend());
+    insta::assert_snapshot!(afternoon_whole(100, 30).backend());
 }
 
 #[test]
 fn afternoon_160x50() {
-    let mut app = demo_stepped_to(15);
-    insta::assert_snapshot!(render(&mut app, 160, 50).backend());
+    insta::assert_snapshot!(afternoon_whole(160, 50).backend());
+}
+
+/// The screens of `make(w, h)` at each size, each under a `── w×h` line.
+fn screens_at(sizes: &[(u16, u16)], make: impl Fn(u16, u16) -> App) -> String {
+    let mut shots = String::new();
+    for &(w, h) in sizes {
+        let mut app = make(w, h);
+        shots.push_str(&format!("── {w}×{h}\n"));
+        shots.push_str(&screen(&mut app, w, h));
+    }
+    shots
 }
 
 #[test]
 fn detail_of_a_below_leg_at_60x20_100x30_and_160x50() {
-    let mut shots = String::new();
-    for (w, h, down) in [(60, 20, 12), (100, 30, 12), (160, 50, 0)] {
+    let shots = screens_at(&[(60, 20), (100, 30), (160, 50)], |w, _| {
         let mut app = demo_stepped_to(15);
         select_leg(&mut app, "L15");
         app.update(key(KeyCode::Enter));
-        for _ in 0..down {
+        // Narrow: scrolled to the air and the takeoff chain.
+        for _ in 0..if w < 140 { 12 } else { 0 } {
             app.update(key(KeyCode::Down));
         }
-        shots.push_str(&format!("── {w}×{h}\n"));
-        shots.push_str(&screen(&mut app, w, h));
-    }
+        app
+    });
     insta::assert_snapshot!(shots);
 }
 
 #[test]
 fn help_overlay_60x20_and_100x30() {
-    let mut shots = String::new();
-    for (w, h) in [(60, 20), (100, 30)] {
+    let shots = screens_at(&[(60, 20), (100, 30)], |_, _| {
         let mut app = demo_stepped_to(8);
         app.update(key(KeyCode::Char('?')));
-        shots.push_str(&format!("── {w}×{h}\n"));
-        shots.push_str(&screen(&mut app, w, h));
-    }
+        app
+    });
     insta::assert_snapshot!(shots);
 }
 
 #[test]
 fn airfields_fleet_reports_80x24_and_60x20() {
-    let mut shots = String::new();
-    for (w, h) in [(80, 24), (60, 20)] {
-        let mut app = demo_stepped_to(15);
-        app.update(key(KeyCode::Tab));
-        app.update(key(KeyCode::Tab));
-        for _ in 0..3 {
-            shots.push_str(&format!("── {w}×{h}\n"));
-            shots.push_str(&screen(&mut app, w, h));
-            app.update(key(KeyCode::Tab));
-        }
-    }
+    // Airfields, Fleet, Reports in turn, each at both sizes.
+    let shots: String = (2..5)
+        .map(|tabs| {
+            screens_at(&[(80, 24), (60, 20)], |_, _| {
+                let mut app = demo_stepped_to(15);
+                for _ in 0..tabs {
+                    app.update(key(KeyCode::Tab));
+                }
+                app
+            })
+        })
+        .collect();
     insta::assert_snapshot!(shots);
 }
 
@@ -490,6 +501,7 @@ fn display_units_ft_lb_inhg_f_everywhere_on_the_board() {
     imperial(&mut app);
     shots.push_str(&screen(&mut app, 120, 40));
     select_leg(&mut app, "L15");
+    let r = app.selected_leg().unwrap().clone();
     app.update(key(KeyCode::Enter));
     shots.push_str(&screen(&mut app, 120, 40));
     for _ in 0..22 {
@@ -501,13 +513,6 @@ fn display_units_ft_lb_inhg_f_everywhere_on_the_board() {
     app.update(key(KeyCode::Tab));
     shots.push_str(&screen(&mut app, 120, 40));
     // No metric unit left in the detail of L15 (altitudes stay in ft, wind in kt).
-    let r = app
-        .assessment
-        .legs
-        .iter()
-        .find(|r| r.id == "L15")
-        .unwrap()
-        .clone();
     let text: String = rhoboard::board::detail::lines(
         &app.ops,
         &r,

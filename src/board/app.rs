@@ -1048,50 +1048,56 @@ impl App {
                 }
                 return;
             }
-            Mode::Form(form) => {
-                let done = field_key(&mut form.values, &mut form.focus, &key);
-                if done == FieldKey::Submit {
-                    let mut f = std::mem::take(form);
-                    match f.submit(&self.ops, self.clock) {
-                        Some(report) => {
-                            self.ui.mode = Mode::Normal;
-                            let label = report.label();
-                            self.manual.push(report.clone());
-                            self.note(NoteKind::Info, format!("{label}: added by hand"));
-                            self.take_reports("by hand", vec![report]);
-                        }
-                        None => {
-                            if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
-                                f.focus = first;
-                            }
-                            self.ui.mode = Mode::Form(f);
-                        }
-                    }
-                } else if done == FieldKey::Cancel {
-                    self.ui.mode = Mode::Normal;
-                }
-                return;
-            }
-            Mode::Runway(form) => {
-                let done = field_key(&mut form.values, &mut form.focus, &key);
-                if done == FieldKey::Submit {
-                    let mut f = std::mem::take(form);
-                    match f.submit(&self.ops, self.day) {
-                        Some(entry) => {
-                            self.ui.mode = Mode::Normal;
-                            self.runway_entry(entry);
-                        }
-                        None => self.ui.mode = Mode::Runway(f),
-                    }
-                } else if done == FieldKey::Cancel {
-                    self.ui.mode = Mode::Normal;
-                }
-                return;
-            }
+            Mode::Form(_) | Mode::Runway(_) => return self.form_key(key),
             Mode::Normal => {}
         }
         if let Some(action) = action_for(&key) {
             self.act(action);
+        }
+    }
+
+    /// A key on the open form (the report by hand, the runway state).
+    fn form_key(&mut self, key: KeyEvent) {
+        let (values, focus) = match &mut self.ui.mode {
+            Mode::Form(f) => (&mut f.values[..], &mut f.focus),
+            Mode::Runway(f) => (&mut f.values[..], &mut f.focus),
+            _ => return,
+        };
+        match field_key(values, focus, &key) {
+            FieldKey::Edited => {}
+            FieldKey::Cancel => self.ui.mode = Mode::Normal,
+            FieldKey::Submit => match std::mem::replace(&mut self.ui.mode, Mode::Normal) {
+                Mode::Form(f) => self.submit_report(f),
+                Mode::Runway(f) => self.submit_runway(f),
+                other => self.ui.mode = other,
+            },
+        }
+    }
+
+    /// The report typed by hand: stored and assessed, or the form again with the
+    /// cursor on the first field in error.
+    fn submit_report(&mut self, mut f: Box<Form>) {
+        match f.submit(&self.ops, self.clock) {
+            Some(report) => {
+                let label = report.label();
+                self.manual.push(report.clone());
+                self.note(NoteKind::Info, format!("{label}: added by hand"));
+                self.take_reports("by hand", vec![report]);
+            }
+            None => {
+                if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
+                    f.focus = first;
+                }
+                self.ui.mode = Mode::Form(f);
+            }
+        }
+    }
+
+    /// The runway-state entry: saved (or kept, on the demo), or the form again.
+    fn submit_runway(&mut self, mut f: Box<RunwayForm>) {
+        match f.submit(&self.ops, self.day) {
+            Some(entry) => self.runway_entry(entry),
+            None => self.ui.mode = Mode::Runway(f),
         }
     }
 
