@@ -56,6 +56,34 @@ fn sort_cycles_time_state_margin_and_keeps_the_selected_leg() {
     assert_eq!(app.ui.sort, Sort::Margin);
     let first = &app.assessment.legs[app.rows()[0]];
     assert_eq!(first.state, State::Below);
+    // Sorted by the unit-free score, margin ÷ that check's thin buffer (DESIGN.md,
+    // "State"), never by the raw number: %, kt and ft compare.
+    let scores: Vec<f64> = app
+        .rows()
+        .iter()
+        .map(|&k| {
+            app.assessment.legs[k]
+                .limiting
+                .as_ref()
+                .map_or(f64::INFINITY, |l| l.score)
+        })
+        .map(|s| if s.is_nan() { f64::INFINITY } else { s })
+        .collect();
+    assert!(scores.windows(2).all(|w| w[0] <= w[1]), "{scores:?}");
+    // L12's crosswind misses by 10 kt against the policy's 2 kt buffer: score -5,
+    // so it comes before L16's -6 % (buffer 10 %: -0.6) though -6 > -10 says nothing.
+    let buffers = &app.ops.operator.policy.buffers;
+    let pos = |id: &str| {
+        app.rows()
+            .iter()
+            .position(|&k| app.assessment.legs[k].id == id)
+            .unwrap()
+    };
+    let l12 = &app.assessment.legs[app.rows()[pos("L12")]];
+    let l12_check = l12.limiting.as_ref().unwrap();
+    assert_eq!(l12_check.margin, "-10 kt");
+    assert!((l12_check.score - (-10.0 / buffers.wind_kt)).abs() < 0.5 / buffers.wind_kt);
+    assert!(pos("L12") < pos("L16"));
     app.update(key(KeyCode::Char('s')));
     assert_eq!(app.ui.sort, Sort::Time);
 }
