@@ -62,14 +62,27 @@ fn sort_cycles_time_state_margin_and_keeps_the_selected_leg() {
         .rows()
         .iter()
         .map(|&k| {
-            app.assessment.legs[k]
-                .limiting
-                .as_ref()
-                .map_or(f64::INFINITY, |l| l.score)
+            let r = &app.assessment.legs[k];
+            match (&r.limiting, r.state) {
+                // Not assessable: right after the below legs, not last.
+                (_, State::NoData) => 0.0,
+                (Some(l), _) if !l.score.is_nan() => l.score,
+                _ => f64::INFINITY,
+            }
         })
-        .map(|s| if s.is_nan() { f64::INFINITY } else { s })
         .collect();
     assert!(scores.windows(2).all(|w| w[0] <= w[1]), "{scores:?}");
+    let first_no_data = app
+        .rows()
+        .iter()
+        .position(|&k| app.assessment.legs[k].state == State::NoData)
+        .unwrap();
+    assert!(
+        app.rows()[..first_no_data]
+            .iter()
+            .all(|&k| app.assessment.legs[k].state == State::Below),
+        "only below legs before a no-data one"
+    );
     // L12's crosswind misses by 10 kt against the policy's 2 kt buffer: score -5,
     // so it comes before L16's -6 % (buffer 10 %: -0.6) though -6 > -10 says nothing.
     let buffers = &app.ops.operator.policy.buffers;

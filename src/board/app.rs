@@ -114,7 +114,7 @@ pub enum Sort {
     /// Worst state first (below, no-data, thin, within), then time.
     State,
     /// Smallest margin ÷ thin buffer first (a unit-free score, so %, kt and ft
-    /// compare), then time.
+    /// compare; no-data legs right after the below ones), then time.
     Margin,
 }
 
@@ -980,11 +980,14 @@ impl App {
             Sort::Time => rows.sort_by_key(|&k| (time(k), k)),
             Sort::State => rows.sort_by_key(|&k| (std::cmp::Reverse(legs[k].state), time(k), k)),
             Sort::Margin => rows.sort_by(|&a, &b| {
-                let s = |k: usize| legs[k].limiting.as_ref().map_or(f64::INFINITY, |l| l.score);
-                let (sa, sb) = (s(a), s(b));
-                let key = |x: f64| if x.is_nan() { f64::INFINITY } else { x };
-                key(sa)
-                    .total_cmp(&key(sb))
+                // A leg that cannot be assessed comes right after the below ones (score
+                // 0, the edge of missing), never last where it would be overlooked.
+                let s = |k: usize| match (&legs[k].limiting, legs[k].state) {
+                    (_, State::NoData) => 0.0,
+                    (Some(l), _) if !l.score.is_nan() => l.score,
+                    _ => f64::INFINITY,
+                };
+                s(a).total_cmp(&s(b))
                     .then_with(|| time(a).cmp(&time(b)))
                     .then(a.cmp(&b))
             }),

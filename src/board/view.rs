@@ -450,7 +450,8 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let visible_cols = usize::from(area.width.saturating_sub(REG_W) / CELL_W).max(1);
     let (cur_a, cur_f) = app.ui.pair;
     let col0 = scroll_offset(cur_f, visible_cols);
-    let height = usize::from(area.height.saturating_sub(3));
+    // Rows: the height less the header and the words under the table.
+    let height = usize::from(area.height.saturating_sub(5));
     let row0 = scroll_offset(cur_a, height);
     let fields: Vec<usize> = (col0..m.fields.min(col0 + visible_cols)).collect();
     let header =
@@ -481,11 +482,6 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let widths: Vec<Constraint> = std::iter::once(Constraint::Length(REG_W - 1))
         .chain(fields.iter().map(|_| Constraint::Length(CELL_W - 1)))
         .collect();
-    let table_h = area.height.saturating_sub(2);
-    Table::new(rows, widths)
-        .header(header)
-        .column_spacing(1)
-        .render(Rect::new(area.x, area.y, area.width, table_h), buf);
     // What the selected cell says, in words.
     let summary = if cur_a < m.aircraft.len() && cur_f < m.fields {
         let c = m.cell(cur_a, cur_f);
@@ -521,12 +517,22 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     } else {
         String::new()
     };
-    Paragraph::new(format!("{summary}{more}"))
-        .wrap(Wrap { trim: true })
-        .render(
-            Rect::new(area.x, area.y + table_h, area.width, area.height - table_h),
-            buf,
-        );
+    // The words under the table take the lines they need (wrapped, never cut).
+    let words: Vec<Line> = fit::wrap(
+        Line::from(format!("{summary}{more}")),
+        usize::from(area.width),
+        Some(0),
+    );
+    let words_h = (words.len() as u16).min(area.height / 2);
+    let table_h = area.height.saturating_sub(words_h);
+    Table::new(rows, widths)
+        .header(header)
+        .column_spacing(1)
+        .render(Rect::new(area.x, area.y, area.width, table_h), buf);
+    Paragraph::new(words).render(
+        Rect::new(area.x, area.y + table_h, area.width, area.height - table_h),
+        buf,
+    );
 }
 
 fn wind_text(r: &Report) -> String {
@@ -972,7 +978,8 @@ fn help(app: &App, area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
             "Sort by margin ÷ buffer: each leg's limiting margin divided by that check's \
              thin buffer ({:.0} % distances, {:.0} % climb, {:.0} kt wind, {:.0} ft density \
              altitude, {:.0} ft ceiling, {} visibility), so %, kt and ft compare: \
-             below 0 misses, 0 to 1 is thin; the smallest first.",
+             below 0 misses, 0 to 1 is thin; the smallest first, the no-data legs \
+             right after the below ones.",
             b.distance_percent,
             b.climb_percent,
             b.wind_kt,
