@@ -82,17 +82,6 @@ pub fn words(text: &str, w: usize) -> Cow<'_, str> {
     }
 }
 
-/// The first of `wordings` (richest first) that fits in `w`; else the last, shortened
-/// at a word boundary.
-pub fn first_fitting<'a>(wordings: &[Cow<'a, str>], w: usize) -> Cow<'a, str> {
-    match wordings.iter().find(|s| width(s) <= w) {
-        Some(s) => s.clone(),
-        None => wordings
-            .last()
-            .map_or(Cow::Borrowed(""), |s| Cow::Owned(words(s, w).into_owned())),
-    }
-}
-
 /// The first of `lines` (richest first) that fits in `w`, else the last.
 pub fn first_line(lines: Vec<Line<'static>>, w: usize) -> Line<'static> {
     let n = lines.len();
