@@ -530,6 +530,15 @@ fn display_units_ft_lb_inhg_f_everywhere_on_the_board() {
             "{metric:?} in the imperial detail: {hits:#?}"
         );
     }
+    // The what-if panel: the leg as planned, its loads in lb.
+    app.update(key(KeyCode::BackTab));
+    app.update(key(KeyCode::BackTab));
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    let panel = screen(&mut app, 120, 40);
+    assert!(panel.contains("front_seats 185 lb"), "{panel}");
+    assert!(!panel.contains(" kg"), "{panel}");
+    shots.push_str(&panel);
     insta::assert_snapshot!(shots);
 }
 
