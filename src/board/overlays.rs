@@ -329,27 +329,20 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         lines.push(Line::styled(format!("  - {why}"), t.state(r.state)));
     }
     lines.push(Line::default());
-    for (i, label) in SIGN_FIELDS.iter().enumerate() {
-        let focus = i == f.focus;
-        let value = if focus {
-            format!("{}▏", f.values[i])
-        } else {
-            f.values[i].clone()
-        };
-        let hint = match i {
-            0 => "who signs",
-            1 => "optional",
-            _ => "only to sign a below / no-data leg, where the policy allows it",
-        };
-        lines.push(Line::from(vec![
-            Span::styled(
-                format!("{label:>16} "),
-                if focus { t.selected() } else { t.heading() },
-            ),
-            Span::raw(format!("{value:<24} ")),
-            Span::styled(hint, t.dim()),
-        ]));
-    }
+    // The override reason is asked only where the policy lets a below leg be signed.
+    let hints = [
+        "who signs",
+        "optional",
+        "only for a below or no-data leg, if allowed",
+    ];
+    lines.extend(super::view::field_lines(
+        SIGN_FIELDS.iter().copied().zip(hints),
+        &f.values,
+        f.focus,
+        |_| None,
+        16,
+        t,
+    ));
     lines.push(Line::default());
     if f.busy {
         lines.push(Line::styled("Writing the record…", t.heading()));

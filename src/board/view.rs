@@ -1027,7 +1027,7 @@ fn help(app: &App, area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
 
 /// A form's fields, one line each — label (`label_w` wide, right-aligned), value
 /// (the cursor on the focused one), hint — and the field's error under it.
-fn field_lines<'a>(
+pub(super) fn field_lines<'a>(
     specs: impl Iterator<Item = (&'static str, &'static str)>,
     values: &[String],
     focus: usize,
