@@ -107,6 +107,8 @@ pub struct Column {
     /// The one column that takes the room left (and is shortened at words to fit),
     /// with the least width worth showing.
     pub flex: Option<u16>,
+    /// The least width, so the column does not shift as rows scroll by.
+    pub min: u16,
 }
 
 impl Column {
@@ -118,6 +120,7 @@ impl Column {
             cells: cells.into_iter().map(|c| vec![c]).collect(),
             drop,
             flex: None,
+            min: 0,
         }
     }
 
@@ -129,7 +132,14 @@ impl Column {
             cells,
             drop: 0,
             flex: Some(min),
+            min: 0,
         }
+    }
+
+    /// The same, at least `w` wide (the widest value it can hold).
+    pub fn at_least(mut self, w: u16) -> Column {
+        self.min = w;
+        self
     }
 
     /// The same with a shorter heading for narrow tables.
@@ -153,7 +163,7 @@ impl Column {
             .max()
             .unwrap_or(0);
         let head = width(&self.head).min(self.short.map_or(usize::MAX, width));
-        cells.max(head) as u16
+        (cells.max(head) as u16).max(self.min)
     }
 }
 

@@ -369,7 +369,9 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 .iter()
                 .map(|(_, _, r)| Line::styled(state_text(r.state), t.state(r.state)))
                 .collect(),
-        ),
+        )
+        // As wide as "? no-data", whichever rows are in view.
+        .at_least(9),
         Column::new(
             "margin",
             0,
