@@ -8,8 +8,10 @@
 
 pub mod app;
 pub mod detail;
+pub mod display;
 pub mod effects;
 pub mod feed;
+pub mod fit;
 pub mod forecast;
 pub mod form;
 pub mod keys;
@@ -23,7 +25,8 @@ pub mod signoff;
 pub mod theme;
 pub mod view;
 
-pub use app::{App, Effect, Msg, Pane, Replay, Settings, Sort};
+pub use app::{App, Msg, Pane, Replay, Settings, Sort};
+pub use effects::Effect;
 pub use keys::{Action, KEYMAP};
 pub use layout::{BoardLayout, LayoutSettings};
 pub use run::{Feeds, run};

@@ -210,7 +210,7 @@ fn the_demo_writes_in_memory_and_the_signoff_of_a_replanned_leg_needs_a_recheck(
     app.update(key(KeyCode::Char('S')));
     type_text(&mut app, "M. Ortiz");
     app.update(key(KeyCode::Enter));
-    for e in app.take_board_io() {
+    for e in app.take_effects() {
         let done = perform(&app, e, demo_time(19, 0));
         app.update(done);
     }
@@ -222,7 +222,7 @@ fn the_demo_writes_in_memory_and_the_signoff_of_a_replanned_leg_needs_a_recheck(
     app.update(key(KeyCode::Enter));
     app.update(key(KeyCode::Char('w')));
     assert!(
-        app.take_board_io().is_empty(),
+        app.take_effects().is_empty(),
         "the demo has no file to write"
     );
     assert!(!app.plan.pending());
@@ -318,7 +318,7 @@ fn backups(dir: &std::path::Path) -> Vec<String> {
 }
 
 fn run_io(app: &mut App) -> usize {
-    let io = app.take_board_io();
+    let io = app.take_effects();
     let n = io.len();
     for e in io {
         let done = perform(app, e, demo_time(19, 0));

@@ -33,7 +33,7 @@ fn with_log(app: &mut App, dir: &std::path::Path) {
 
 /// Runs what `update` queued, as the event loop does, with a fixed real clock.
 fn run_effects(app: &mut App) -> usize {
-    let effects = app.take_board_io();
+    let effects = app.take_effects();
     let n = effects.len();
     for e in effects {
         let done = perform(app, e, demo_time(19, 5));

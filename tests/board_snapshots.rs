@@ -160,7 +160,7 @@ fn airfields_fleet_reports_120x40() {
 #[test]
 fn too_small_message() {
     let mut app = demo(8, 0);
-    insta::assert_snapshot!(render(&mut app, 60, 20).backend());
+    insta::assert_snapshot!(render(&mut app, 59, 19).backend());
 }
 
 #[test]
@@ -171,6 +171,9 @@ fn tiny_terminals_do_not_panic() {
         (0, 0),
         (1, 30),
         (200, 1),
+        (59, 20),
+        (60, 19),
+        (60, 20),
         (79, 24),
         (80, 23),
         (80, 24),
@@ -380,4 +383,174 @@ fn mass_and_balance_follows_the_display_unit() {
     assert!(section.contains("72 lb must come off"), "{section}");
     let table = &section[..section.find("Checks").unwrap()];
     assert!(!table.contains(" kg "), "{table}");
+}
+
+/// Every signed number in the legs table (margins, headroom) carries its unit, so
+/// none was cut off its unit: `+5 kt`, `-6 %`, `+1095 ft`, `≥+23.0°C`.
+fn legs_rows_are_whole(s: &str) {
+    const UNITS: [&str; 6] = ["%", "kt", "ft", "m", "°C", "°F"];
+    for line in s.lines().filter(|l| l.contains(" L0") || l.contains(" L1")) {
+        let cells: Vec<&str> = line.split_whitespace().collect();
+        for (i, c) in cells.iter().enumerate() {
+            let Some(n) = c.trim_start_matches('≥').strip_prefix(['+', '-']) else {
+                continue;
+            };
+            if !n.starts_with(|ch: char| ch.is_ascii_digit()) {
+                continue;
+            }
+            let next = cells
+                .get(i + 1)
+                .map_or("", |n| n.trim_end_matches([',', ';', ')']));
+            let glued = UNITS.iter().any(|u| n.ends_with(u));
+            assert!(
+                glued || (n.parse::<f64>().is_ok() && UNITS.contains(&next)),
+                "{c:?} without its unit in {line:?}"
+            );
+        }
+    }
+}
+
+/// The afternoon at w×h, its legs rows checked whole.
+fn afternoon_whole(w: u16, h: u16) -> ratatui::Terminal<ratatui::backend::TestBackend> {
+    let mut app = demo_stepped_to(15);
+    legs_rows_are_whole(&screen(&mut app, w, h));
+    render(&mut app, w, h)
+}
+
+#[test]
+fn afternoon_60x20() {
+    insta::assert_snapshot!(afternoon_whole(60, 20).backend());
+}
+
+#[test]
+fn afternoon_100x30() {
+    insta::assert_snapshot!(afternoon_whole(100, 30).backend());
+}
+
+#[test]
+fn afternoon_160x50() {
+    insta::assert_snapshot!(afternoon_whole(160, 50).backend());
+}
+
+/// The screens of `make(w, h)` at each size, each under a `── w×h` line.
+fn screens_at(sizes: &[(u16, u16)], make: impl Fn(u16, u16) -> App) -> String {
+    let mut shots = String::new();
+    for &(w, h) in sizes {
+        let mut app = make(w, h);
+        shots.push_str(&format!("── {w}×{h}\n"));
+        shots.push_str(&screen(&mut app, w, h));
+    }
+    shots
+}
+
+#[test]
+fn detail_of_a_below_leg_at_60x20_100x30_and_160x50() {
+    let shots = screens_at(&[(60, 20), (100, 30), (160, 50)], |w, _| {
+        let mut app = demo_stepped_to(15);
+        select_leg(&mut app, "L15");
+        app.update(key(KeyCode::Enter));
+        // Narrow: scrolled to the air and the takeoff chain.
+        for _ in 0..if w < 140 { 12 } else { 0 } {
+            app.update(key(KeyCode::Down));
+        }
+        app
+    });
+    insta::assert_snapshot!(shots);
+}
+
+#[test]
+fn help_overlay_60x20_and_100x30() {
+    let shots = screens_at(&[(60, 20), (100, 30)], |_, _| {
+        let mut app = demo_stepped_to(8);
+        app.update(key(KeyCode::Char('?')));
+        app
+    });
+    insta::assert_snapshot!(shots);
+}
+
+#[test]
+fn airfields_fleet_reports_80x24_and_60x20() {
+    // Airfields, Fleet, Reports in turn, each at both sizes.
+    let shots: String = (2..5)
+        .map(|tabs| {
+            screens_at(&[(80, 24), (60, 20)], |_, _| {
+                let mut app = demo_stepped_to(15);
+                for _ in 0..tabs {
+                    app.update(key(KeyCode::Tab));
+                }
+                app
+            })
+        })
+        .collect();
+    insta::assert_snapshot!(shots);
+}
+
+fn imperial(app: &mut App) {
+    use rhoboard::ops::operator::{DistanceUnit, MassUnit, PressureUnit, TemperatureUnit};
+    let u = &mut app.ops.operator.display_units;
+    u.distance = DistanceUnit::Ft;
+    u.mass = MassUnit::Lb;
+    u.pressure = PressureUnit::InHg;
+    u.temperature = TemperatureUnit::F;
+}
+
+#[test]
+fn display_units_ft_lb_inhg_f_everywhere_on_the_board() {
+    let mut shots = String::new();
+    let mut app = demo_stepped_to(15);
+    imperial(&mut app);
+    shots.push_str(&screen(&mut app, 120, 40));
+    select_leg(&mut app, "L15");
+    let r = app.selected_leg().unwrap().clone();
+    app.update(key(KeyCode::Enter));
+    shots.push_str(&screen(&mut app, 120, 40));
+    for _ in 0..22 {
+        app.update(key(KeyCode::Down));
+    }
+    shots.push_str(&screen(&mut app, 120, 40));
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    shots.push_str(&screen(&mut app, 120, 40));
+    // No metric unit left in the detail of L15 (altitudes stay in ft, wind in kt).
+    let text: String = rhoboard::board::detail::lines(
+        &app.ops,
+        &r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        120,
+    )
+    .iter()
+    .map(|l| format!("{l}\n"))
+    .collect();
+    for metric in [" m ", " m,", " kg", " hPa", " °C"] {
+        let hits: Vec<&str> = text.lines().filter(|l| l.contains(metric)).collect();
+        assert!(
+            hits.is_empty(),
+            "{metric:?} in the imperial detail: {hits:#?}"
+        );
+    }
+    // The what-if panel: the leg as planned, its loads in lb.
+    app.update(key(KeyCode::BackTab));
+    app.update(key(KeyCode::BackTab));
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    let panel = screen(&mut app, 120, 40);
+    assert!(panel.contains("front_seats 185 lb"), "{panel}");
+    assert!(!panel.contains(" kg"), "{panel}");
+    shots.push_str(&panel);
+    insta::assert_snapshot!(shots);
+}
+
+#[test]
+fn display_units_m_kg_hpa_c_in_the_detail() {
+    let mut app = demo_stepped_to(15);
+    select_leg(&mut app, "L15");
+    app.update(key(KeyCode::Enter));
+    let mut shots = screen(&mut app, 120, 40);
+    for _ in 0..22 {
+        app.update(key(KeyCode::Down));
+    }
+    shots.push_str(&screen(&mut app, 120, 40));
+    insta::assert_snapshot!(shots);
 }

@@ -56,6 +56,47 @@ fn sort_cycles_time_state_margin_and_keeps_the_selected_leg() {
     assert_eq!(app.ui.sort, Sort::Margin);
     let first = &app.assessment.legs[app.rows()[0]];
     assert_eq!(first.state, State::Below);
+    // Sorted by the unit-free score, margin ÷ that check's thin buffer (DESIGN.md,
+    // "State"), never by the raw number: %, kt and ft compare.
+    let scores: Vec<f64> = app
+        .rows()
+        .iter()
+        .map(|&k| {
+            let r = &app.assessment.legs[k];
+            match (&r.limiting, r.state) {
+                // Not assessable: right after the below legs, not last.
+                (_, State::NoData) => 0.0,
+                (Some(l), _) if !l.score.is_nan() => l.score,
+                _ => f64::INFINITY,
+            }
+        })
+        .collect();
+    assert!(scores.windows(2).all(|w| w[0] <= w[1]), "{scores:?}");
+    let first_no_data = app
+        .rows()
+        .iter()
+        .position(|&k| app.assessment.legs[k].state == State::NoData)
+        .unwrap();
+    assert!(
+        app.rows()[..first_no_data]
+            .iter()
+            .all(|&k| app.assessment.legs[k].state == State::Below),
+        "only below legs before a no-data one"
+    );
+    // L12's crosswind misses by 10 kt against the policy's 2 kt buffer: score -5,
+    // so it comes before L16's -6 % (buffer 10 %: -0.6) though -6 > -10 says nothing.
+    let buffers = &app.ops.operator.policy.buffers;
+    let pos = |id: &str| {
+        app.rows()
+            .iter()
+            .position(|&k| app.assessment.legs[k].id == id)
+            .unwrap()
+    };
+    let l12 = &app.assessment.legs[app.rows()[pos("L12")]];
+    let l12_check = l12.limiting.as_ref().unwrap();
+    assert_eq!(l12_check.margin, "-10 kt");
+    assert!((l12_check.score - (-10.0 / buffers.wind_kt)).abs() < 0.5 / buffers.wind_kt);
+    assert!(pos("L12") < pos("L16"));
     app.update(key(KeyCode::Char('s')));
     assert_eq!(app.ui.sort, Sort::Time);
 }
@@ -483,7 +524,9 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
     // update did no I/O: the effect waits for the event loop, nothing changed yet.
     let effects = app.take_effects();
     assert_eq!(effects.len(), 1);
-    let rhoboard::board::Effect::SaveRunwayState { date, entry, .. } = &effects[0];
+    let rhoboard::board::Effect::SaveRunwayState { date, entry, .. } = &effects[0] else {
+        panic!("a runway-state save, not {:?}", effects[0]);
+    };
     assert_eq!(date.to_string(), "2026-06-14");
     assert_eq!(
         (entry.airfield.as_str(), entry.end.as_str()),
@@ -496,7 +539,7 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
         Some("27")
     );
     // The loop performs it with `rhoboard runway`'s code and answers.
-    let answer = rhoboard::board::run::perform(effects[0].clone());
+    let answer = rhoboard::board::effects::perform(&app, effects[0].clone(), demo_time(8, 0));
     let path = dir.join("runway-state/2026-06-14.json");
     let written: rhoboard::ops::runway_state::RunwayStateFile =
         serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
@@ -542,7 +585,7 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
     type_text(&mut app, "wet");
     app.update(key(KeyCode::Enter));
     for e in app.take_effects() {
-        let m = rhoboard::board::run::perform(e);
+        let m = rhoboard::board::effects::perform(&app, e, demo_time(8, 0));
         app.update(m);
     }
     let written: rhoboard::ops::runway_state::RunwayStateFile =
@@ -561,7 +604,7 @@ fn a_failed_write_shows_on_screen_and_changes_nothing() {
     app.settings.ops_dir = Some(dir.clone());
     close_l01_runway(&mut app);
     for e in app.take_effects() {
-        let m = rhoboard::board::run::perform(e);
+        let m = rhoboard::board::effects::perform(&app, e, demo_time(8, 0));
         app.update(m);
     }
     assert_eq!(

@@ -626,7 +626,8 @@ pub fn compute(
                 if t.margin_mm >= 0.0 { "inside" } else { "beyond" },
                 t.nearer.word()
             ),
-            subject: String::new(),
+            // Which limit the value and margin are against: "CG envelope fore".
+            subject: t.nearer.word().to_string(),
             open_ended: false,
         },
         None => LimitCheck {

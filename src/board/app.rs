@@ -8,9 +8,9 @@ use std::time::Duration;
 use chrono::{DateTime, DurationRound, TimeDelta, Utc};
 use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
-use super::form::{FIELDS, Form};
+use super::form::{FieldKey, Form, field_key};
 use super::keys::{Action, action_for, is_ctrl_c};
-use super::runway_form::{RUNWAY_FIELDS, RunwayForm};
+use super::runway_form::RunwayForm;
 use crate::assess::{Assessment, Change, Context, DaySettings, LegResult, Model, State};
 use crate::observation::{FileReport, Insert, Report, Store};
 use crate::ops::runway_state::{EndState, RunwayStateFile};
@@ -57,35 +57,10 @@ pub enum Msg {
         /// What went wrong.
         error: String,
     },
-    /// The event loop performed an [`Effect::SaveRunwayState`]: the day's state as now
-    /// written (and where), or why it could not be.
-    RunwayStateSaved {
-        /// What was asked for, in words ("XSEA 27: closed").
-        what: String,
-        /// The file written and the day's whole state, or the error.
-        result: Result<(PathBuf, RunwayStateFile), String>,
-    },
     /// Quit (a signal, or the input thread ending).
     Quit,
     /// The event loop did an [`Effect`](super::effects::Effect): its result.
     Done(super::effects::Done),
-}
-
-/// I/O that `update` asks the event loop to do (it answers with a [`Msg`]).
-#[derive(Debug, Clone, PartialEq)]
-pub enum Effect {
-    /// Append `entry` to `dir/runway-state/<date>.json` (as `rhoboard runway` does);
-    /// answered by [`Msg::RunwayStateSaved`].
-    SaveRunwayState {
-        /// The operator folder.
-        dir: PathBuf,
-        /// The UTC date of the state.
-        date: chrono::NaiveDate,
-        /// The change.
-        entry: EndState,
-        /// The change in words, for the answer's note.
-        what: String,
-    },
 }
 
 /// The panes, in Tab order.
@@ -138,7 +113,8 @@ pub enum Sort {
     Time,
     /// Worst state first (below, no-data, thin, within), then time.
     State,
-    /// Smallest margin first, then time.
+    /// Smallest margin ÷ thin buffer first (a unit-free score, so %, kt and ft
+    /// compare; no-data legs right after the below ones), then time.
     Margin,
 }
 
@@ -148,7 +124,7 @@ impl Sort {
         match self {
             Sort::Time => "time",
             Sort::State => "state",
-            Sort::Margin => "margin",
+            Sort::Margin => "margin ÷ buffer",
         }
     }
 }
@@ -361,8 +337,6 @@ pub struct App {
     /// The UTC date whose legs are on the board.
     day: chrono::NaiveDate,
     bell_pending: bool,
-    /// I/O asked for by `update`, for the event loop.
-    effects: Vec<Effect>,
     /// Set when something visible changed since the last draw.
     dirty: bool,
     /// Sign-offs: the log, its chain, each leg's standing.
@@ -371,8 +345,9 @@ pub struct App {
     pub forecast: Vec<Option<crate::assess::lookahead::LookAhead>>,
     /// What-if changes pending, and how to save them.
     pub plan: super::replan::Plan,
-    /// Sign-off and legs-file work for the event loop (`update` does no I/O).
-    board_io: Vec<super::effects::Effect>,
+    /// I/O asked for by `update` (sign-offs, legs files, runway state), for the event
+    /// loop: `update` does none itself.
+    effects: Vec<super::effects::Effect>,
     /// The real clock at the last tick (a sign-off's `signed_at` preview).
     pub wall: DateTime<Utc>,
 }
@@ -444,12 +419,11 @@ impl App {
             last_refresh: clock,
             day: clock.date_naive(),
             bell_pending: false,
-            effects: Vec::new(),
             dirty: true,
             signoffs: Default::default(),
             forecast: Vec::new(),
             plan: Default::default(),
-            board_io: Vec::new(),
+            effects: Vec::new(),
             wall: clock,
         };
         if app.replay.is_some() {
@@ -477,12 +451,13 @@ impl App {
 
     /// Queues work for the event loop.
     pub(super) fn push_effect(&mut self, e: super::effects::Effect) {
-        self.board_io.push(e);
+        self.effects.push(e);
     }
 
-    /// Takes the queued work (the event loop performs it and sends back `Msg::Done`).
-    pub fn take_board_io(&mut self) -> Vec<super::effects::Effect> {
-        std::mem::take(&mut self.board_io)
+    /// Takes the queued work (the event loop performs each with
+    /// [`effects::perform`](super::effects::perform) and sends back its `Msg::Done`).
+    pub fn take_effects(&mut self) -> Vec<super::effects::Effect> {
+        std::mem::take(&mut self.effects)
     }
 
     /// After the assessment changed: the look-ahead, the sign-off standings, the what-if.
@@ -552,11 +527,6 @@ impl App {
     /// Takes the pending bell (the event loop rings it).
     pub fn take_bell(&mut self) -> bool {
         std::mem::take(&mut self.bell_pending)
-    }
-
-    /// Takes the I/O `update` asked for (the event loop performs it).
-    pub fn take_effects(&mut self) -> Vec<Effect> {
-        std::mem::take(&mut self.effects)
     }
 
     /// The compiled operator with today's runway state.
@@ -630,28 +600,35 @@ impl App {
                     self.note(NoteKind::Error, text);
                 }
             }
-            Msg::RunwayStateSaved { what, result } => match result {
-                Ok((path, state)) => {
-                    // The legs' changes first, so the line saying where it went is on top.
-                    self.apply_runway_state(state, &what);
-                    self.note(
-                        NoteKind::Info,
-                        format!("{what}: saved in {}", path.display()),
-                    );
-                }
-                Err(e) => self.note(
-                    NoteKind::Error,
-                    format!("{what}: not saved, nothing changed: {e}"),
-                ),
-            },
             Msg::Quit => self.quit = true,
             Msg::Done(done) => {
                 self.dirty = true;
                 match done {
                     super::effects::Done::Signed { outcome, chain } => self.signed(outcome, chain),
                     super::effects::Done::Saved(o) => self.saved(o),
+                    super::effects::Done::RunwayState { what, result } => {
+                        self.runway_saved(&what, result)
+                    }
                 }
             }
+        }
+    }
+
+    /// The event loop's answer to [`Effect::SaveRunwayState`](super::effects::Effect).
+    fn runway_saved(&mut self, what: &str, result: Result<(PathBuf, RunwayStateFile), String>) {
+        match result {
+            Ok((path, state)) => {
+                // The legs' changes first, so the line saying where it went is on top.
+                self.apply_runway_state(state, what);
+                self.note(
+                    NoteKind::Info,
+                    format!("{what}: saved in {}", path.display()),
+                );
+            }
+            Err(e) => self.note(
+                NoteKind::Error,
+                format!("{what}: not saved, nothing changed: {e}"),
+            ),
         }
     }
 
@@ -699,7 +676,7 @@ impl App {
         match self.settings.ops_dir.clone() {
             Some(dir) if !self.settings.demo => {
                 self.note(NoteKind::Info, format!("{what}: saving…"));
-                self.effects.push(Effect::SaveRunwayState {
+                self.push_effect(super::effects::Effect::SaveRunwayState {
                     dir,
                     date: self.day,
                     entry,
@@ -841,7 +818,7 @@ impl App {
             let why = if ch.why.is_empty() {
                 String::new()
             } else {
-                format!(": {}", ch.why)
+                format!(": {}", super::display::Show::of(&self.ops).in_text(&ch.why))
             };
             self.note(
                 NoteKind::Change(ch.to),
@@ -1003,11 +980,14 @@ impl App {
             Sort::Time => rows.sort_by_key(|&k| (time(k), k)),
             Sort::State => rows.sort_by_key(|&k| (std::cmp::Reverse(legs[k].state), time(k), k)),
             Sort::Margin => rows.sort_by(|&a, &b| {
-                let s = |k: usize| legs[k].limiting.as_ref().map_or(f64::INFINITY, |l| l.score);
-                let (sa, sb) = (s(a), s(b));
-                let key = |x: f64| if x.is_nan() { f64::INFINITY } else { x };
-                key(sa)
-                    .total_cmp(&key(sb))
+                // A leg that cannot be assessed comes right after the below ones (score
+                // 0, the edge of missing), never last where it would be overlooked.
+                let s = |k: usize| match (&legs[k].limiting, legs[k].state) {
+                    (_, State::NoData) => 0.0,
+                    (Some(l), _) if !l.score.is_nan() => l.score,
+                    _ => f64::INFINITY,
+                };
+                s(a).total_cmp(&s(b))
                     .then_with(|| time(a).cmp(&time(b)))
                     .then(a.cmp(&b))
             }),
@@ -1055,11 +1035,11 @@ impl App {
             Mode::Help => {
                 match action_for(&key) {
                     Some(Action::Down) => {
-                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(1).min(60)
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(1).min(200)
                     }
                     Some(Action::Up) => self.ui.help_scroll = self.ui.help_scroll.saturating_sub(1),
                     Some(Action::PageDown) => {
-                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(10).min(60)
+                        self.ui.help_scroll = self.ui.help_scroll.saturating_add(10).min(200)
                     }
                     Some(Action::PageUp) => {
                         self.ui.help_scroll = self.ui.help_scroll.saturating_sub(10)
@@ -1071,70 +1051,56 @@ impl App {
                 }
                 return;
             }
-            Mode::Form(form) => {
-                let n = FIELDS.len();
-                match key.code {
-                    KeyCode::Esc => self.ui.mode = Mode::Normal,
-                    KeyCode::Tab | KeyCode::Down => form.focus = (form.focus + 1) % n,
-                    KeyCode::BackTab | KeyCode::Up => form.focus = (form.focus + n - 1) % n,
-                    KeyCode::Backspace => {
-                        form.values[form.focus].pop();
-                    }
-                    KeyCode::Enter => {
-                        let mut f = std::mem::take(form);
-                        match f.submit(&self.ops, self.clock) {
-                            Some(report) => {
-                                self.ui.mode = Mode::Normal;
-                                let label = report.label();
-                                self.manual.push(report.clone());
-                                self.note(NoteKind::Info, format!("{label}: added by hand"));
-                                self.take_reports("by hand", vec![report]);
-                            }
-                            None => {
-                                if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
-                                    f.focus = first;
-                                }
-                                self.ui.mode = Mode::Form(f);
-                            }
-                        }
-                    }
-                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
-                        form.values[form.focus].push(ch);
-                    }
-                    _ => {}
-                }
-                return;
-            }
-            Mode::Runway(form) => {
-                let n = RUNWAY_FIELDS.len();
-                match key.code {
-                    KeyCode::Esc => self.ui.mode = Mode::Normal,
-                    KeyCode::Tab | KeyCode::Down => form.focus = (form.focus + 1) % n,
-                    KeyCode::BackTab | KeyCode::Up => form.focus = (form.focus + n - 1) % n,
-                    KeyCode::Backspace => {
-                        form.values[form.focus].pop();
-                    }
-                    KeyCode::Enter => {
-                        let mut f = std::mem::take(form);
-                        match f.submit(&self.ops, self.day) {
-                            Some(entry) => {
-                                self.ui.mode = Mode::Normal;
-                                self.runway_entry(entry);
-                            }
-                            None => self.ui.mode = Mode::Runway(f),
-                        }
-                    }
-                    KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
-                        form.values[form.focus].push(ch);
-                    }
-                    _ => {}
-                }
-                return;
-            }
+            Mode::Form(_) | Mode::Runway(_) => return self.form_key(key),
             Mode::Normal => {}
         }
         if let Some(action) = action_for(&key) {
             self.act(action);
+        }
+    }
+
+    /// A key on the open form (the report by hand, the runway state).
+    fn form_key(&mut self, key: KeyEvent) {
+        let (values, focus) = match &mut self.ui.mode {
+            Mode::Form(f) => (&mut f.values[..], &mut f.focus),
+            Mode::Runway(f) => (&mut f.values[..], &mut f.focus),
+            _ => return,
+        };
+        match field_key(values, focus, &key) {
+            FieldKey::Edited => {}
+            FieldKey::Cancel => self.ui.mode = Mode::Normal,
+            FieldKey::Submit => match std::mem::replace(&mut self.ui.mode, Mode::Normal) {
+                Mode::Form(f) => self.submit_report(f),
+                Mode::Runway(f) => self.submit_runway(f),
+                other => self.ui.mode = other,
+            },
+        }
+    }
+
+    /// The report typed by hand: stored and assessed, or the form again with the
+    /// cursor on the first field in error.
+    fn submit_report(&mut self, mut f: Box<Form>) {
+        match f.submit(&self.ops, self.clock) {
+            Some(report) => {
+                let label = report.label();
+                self.manual.push(report.clone());
+                self.note(NoteKind::Info, format!("{label}: added by hand"));
+                self.take_reports("by hand", vec![report]);
+            }
+            None => {
+                if let Some(first) = f.errors.iter().find_map(|(i, _)| *i) {
+                    f.focus = first;
+                }
+                self.ui.mode = Mode::Form(f);
+            }
+        }
+    }
+
+    /// The runway-state entry: saved (or kept, on the demo), or the form again.
+    fn submit_runway(&mut self, mut f: Box<RunwayForm>) {
+        match f.submit(&self.ops, self.day) {
+            Some(entry) => self.runway_entry(entry),
+            None => self.ui.mode = Mode::Runway(f),
         }
     }
 
@@ -1367,7 +1333,10 @@ impl App {
                 result.category.name().replace('_', " "),
                 result
                     .takeoff_mass_kg
-                    .map_or("no mass".to_string(), |m| format!("{m:.0} kg"))
+                    .map_or("no mass".to_string(), |m| super::display::Show::of(
+                        &self.ops
+                    )
+                    .mass(m))
             ),
             result,
         })

@@ -9,6 +9,7 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::Widget;
 use ratatui::widgets::canvas::{Canvas, Line as CanvasLine};
 
+use super::display::Show;
 use super::theme::Theme;
 use crate::assess::leg::{ClimbResult, PhaseResult, Side};
 use crate::assess::mass::MassBalance;
@@ -32,6 +33,32 @@ fn pct(margin: f64) -> String {
 
 fn plain(text: impl Into<String>) -> Line<'static> {
     Line::from(text.into())
+}
+
+/// One limit's row: its label (on a line of its own when longer than the label
+/// column, e.g. a named station), value, limit, margin and state.
+fn limit_row(
+    out: &mut Vec<Line<'static>>,
+    t: Theme,
+    label: &str,
+    value: &str,
+    limit: &str,
+    margin: &str,
+    state: State,
+) {
+    const LABEL: usize = 16;
+    let label = if label.chars().count() > LABEL {
+        out.push(indented(1, label.to_string()));
+        ""
+    } else {
+        label
+    };
+    out.push(Line::from(vec![
+        Span::raw(format!(
+            "  {label:<LABEL$} {value:>10} limit {limit:>10}  margin {margin:>10}  "
+        )),
+        state_span(t, state),
+    ]));
 }
 
 fn indented(depth: usize, text: impl Into<String>) -> Line<'static> {
@@ -77,9 +104,10 @@ pub fn lines(
         .limiting
         .as_ref()
         .map_or("—".to_string(), |l| format!("{} ({})", l.check, l.margin));
+    let show = Show::of(ops);
     out.push(plain(format!(
         "Limiting: {limiting}   Headroom: {}",
-        headroom_words(r)
+        headroom_words(r, show)
     )));
     let unit = ops.operator.display_units.mass;
     out.push(plain(format!(
@@ -94,16 +122,19 @@ pub fn lines(
     if !r.reasons.is_empty() {
         out.push(Line::styled("Why:", t.heading()));
         for why in &r.reasons {
-            out.push(Line::styled(format!("  - {why}"), t.state(r.state)));
+            out.push(Line::styled(
+                format!("  - {}", show.in_text(why)),
+                t.state(r.state),
+            ));
         }
     }
-    side(&mut out, "Departure", &r.departure, t);
+    side(&mut out, "Departure", &r.departure, show, t);
     let same = r.arrival.airfield == r.departure.airfield
         && r.arrival.event_at == r.departure.event_at
         && r.arrival.takeoff.is_none()
         && r.arrival.landing.is_none();
     if !same {
-        side(&mut out, "Arrival", &r.arrival, t);
+        side(&mut out, "Arrival", &r.arrival, show, t);
     }
     if let Some(mb) = &r.mass_balance {
         mass_balance(&mut out, mb, r, unit, t, width);
@@ -112,7 +143,7 @@ pub fn lines(
         out.push(Line::default());
         out.push(Line::styled("Advice", t.heading()));
         for a in &r.advice {
-            out.push(plain(format!("  - {a}")));
+            out.push(plain(format!("  - {}", show.in_text(a))));
         }
     }
     out.push(Line::default());
@@ -298,16 +329,7 @@ fn mass_balance(
         } else {
             "—".to_string()
         };
-        out.push(Line::from(vec![
-            Span::raw(format!(
-                "  {:<16} {:>10} limit {:>10}  margin {:>10}  ",
-                c.kind.word(),
-                v,
-                lim,
-                margin
-            )),
-            state_span(t, c.state),
-        ]));
+        limit_row(out, t, &c.label(), &v, &lim, &margin, c.state);
         if !c.note.is_empty() && c.state != State::Within {
             out.push(indented(3, c.note.clone()));
         }
@@ -442,25 +464,30 @@ fn envelope_drawing(
 }
 
 /// Headroom in words for the detail.
-pub fn headroom_words(r: &LegResult) -> String {
+pub fn headroom_words(r: &LegResult, show: Show) -> String {
     match r.headroom {
         None => "— (no data)".to_string(),
         Some(h) if h.table_ends && h.warming_c >= 0.0 => format!(
-            "≥ {:+.1} °C of warming (the flight-manual table ends at {:.1} °C)",
-            h.warming_c, h.warmest_oat_c
+            "≥ {} of warming (the flight-manual table ends at {})",
+            show.warming(h.warming_c),
+            show.temp(h.warmest_oat_c)
         ),
         Some(h) if h.warming_c < 0.0 => format!(
-            "{:+.1} °C: below now; needs {:.1} °C cooler (below from {:.1} °C)",
-            h.warming_c, -h.warming_c, h.warmest_oat_c
+            "{}: below now; needs {:.1} {} cooler (below from {})",
+            show.warming(h.warming_c),
+            show.warming_value(-h.warming_c),
+            show.temp_unit(),
+            show.temp(h.warmest_oat_c)
         ),
         Some(h) => format!(
-            "{:+.1} °C of warming left (below from {:.1} °C)",
-            h.warming_c, h.warmest_oat_c
+            "{} of warming left (below from {})",
+            show.warming(h.warming_c),
+            show.temp(h.warmest_oat_c)
         ),
     }
 }
 
-fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
+fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, show: Show, t: Theme) {
     out.push(Line::default());
     let runway = s.runway.as_deref().map_or("no runway".to_string(), |r| {
         if s.runway_reason.is_empty() {
@@ -514,15 +541,17 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
     }
     if let Some(a) = s.air {
         out.push(plain(format!(
-            "Air: OAT {:.1} °C{}, QNH {:.1} hPa",
-            a.oat_c,
+            "Air: OAT {}{}, QNH {}",
+            show.temp(a.oat_c),
             a.dewpoint_c
-                .map_or(String::new(), |d| format!(", dew point {d:.1} °C")),
-            a.qnh_hpa,
+                .map_or(String::new(), |d| format!(", dew point {}", show.temp(d))),
+            show.pressure(a.qnh_hpa),
         )));
         out.push(plain(format!(
-            "     station pressure {:.1} hPa, pressure altitude {:.0} ft, ISA {:+.1} °C",
-            a.station_pressure_hpa, a.pressure_altitude_ft, a.isa_deviation_c
+            "     station pressure {}, pressure altitude {:.0} ft, ISA {}",
+            show.pressure(a.station_pressure_hpa),
+            a.pressure_altitude_ft,
+            show.warming(a.isa_deviation_c)
         )));
         let thumb =
             crate::atmosphere::density_altitude_rule_of_thumb_ft(a.pressure_altitude_ft, a.oat_c);
@@ -578,40 +607,37 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
         }
     }
     if let Some(p) = &s.takeoff {
-        phase(out, "Takeoff", p, t);
+        phase(out, "Takeoff", p, show, t);
     }
     if let Some(c) = &s.climb {
         climb(out, c, t);
     }
     if let Some(p) = &s.landing {
-        phase(out, "Landing", p, t);
+        phase(out, "Landing", p, show, t);
     }
     if !s.limits.is_empty() {
         out.push(plain("Limits:"));
         for l in &s.limits {
-            let v = l
-                .value
-                .map_or("—".to_string(), |v| format!("{v:.0} {}", l.unit));
-            let lim = l
-                .limit
-                .map_or("—".to_string(), |v| format!("{v:.0} {}", l.unit));
+            let vis = l.kind == crate::assess::limits::LimitKind::Visibility;
+            let fmt = |v: f64, sign: bool| {
+                let (v, unit) = show.limit_value(v, l.unit, vis);
+                let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
+                if sign {
+                    format!("{v:+.d$} {unit}")
+                } else {
+                    format!("{v:.d$} {unit}")
+                }
+            };
+            let v = l.value.map_or("—".to_string(), |v| fmt(v, false));
+            let lim = l.limit.map_or("—".to_string(), |v| fmt(v, false));
             let margin = if l.margin.is_finite() {
-                format!("{:+.0} {}", l.margin, l.unit)
+                fmt(l.margin, true)
             } else {
                 "—".to_string()
             };
-            out.push(Line::from(vec![
-                Span::raw(format!(
-                    "  {:<16} {:>10} limit {:>10}  margin {:>9}  ",
-                    l.kind.word(),
-                    v,
-                    lim,
-                    margin
-                )),
-                state_span(t, l.state),
-            ]));
+            limit_row(out, t, &l.label(), &v, &lim, &margin, l.state);
             if !l.note.is_empty() && l.state != State::Within {
-                out.push(indented(3, l.note.clone()));
+                out.push(indented(3, show.in_text(&l.note)));
             }
             if !l.source.is_empty() {
                 out.push(Line::styled(format!("      from {}", l.source), t.dim()));
@@ -620,24 +646,26 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, t: Theme) {
     }
     for g in &s.gaps {
         out.push(Line::styled(
-            format!("No data: {g}"),
+            format!("No data: {}", show.in_text(g)),
             t.state(State::NoData),
         ));
     }
 }
 
-fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, t: Theme) {
+fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, show: Show, t: Theme) {
     let c = &p.chain;
+    let d = |m: f64| show.dist(m);
     out.push(Line::from(vec![
-        Span::styled(format!("{what} at {:.0} kg  ", p.mass_kg), t.heading()),
+        Span::styled(format!("{what} at {}  ", show.mass(p.mass_kg)), t.heading()),
         state_span(t, p.state),
         Span::raw(format!("  margin {}", pct(p.margin))),
     ]));
     out.push(indented(
         1,
         format!(
-            "flight-manual table: ground roll {:.0} m, 50 ft {:.0} m",
-            c.table_ground_roll_m, c.table_distance_50ft_m
+            "flight-manual table: ground roll {}, 50 ft {}",
+            d(c.table_ground_roll_m),
+            d(c.table_distance_50ft_m)
         ),
     ));
     let wind = if c.wind_factoring_in_manual {
@@ -670,8 +698,9 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, t: Theme) {
     out.push(indented(
         2,
         format!(
-            "→ ground roll {:.0} m, 50 ft {:.0} m",
-            c.after_surface_ground_roll_m, c.after_surface_distance_50ft_m
+            "→ ground roll {}, 50 ft {}",
+            d(c.after_surface_ground_roll_m),
+            d(c.after_surface_distance_50ft_m)
         ),
     ));
     if c.adverse_slope_percent > 0.0 {
@@ -693,20 +722,21 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, t: Theme) {
     out.push(indented(
         1,
         format!(
-            "result: ground roll {:.0} m, 50 ft {:.0} m",
-            c.ground_roll_m, c.distance_50ft_m
+            "result: ground roll {}, 50 ft {}",
+            d(c.ground_roll_m),
+            d(c.distance_50ft_m)
         ),
     ));
     for ch in &p.checks {
         let r = &ch.result;
         out.push(Line::from(vec![
             Span::raw(format!(
-                "  check {}: {:.0} m × {} = {:.0} m needed of {:.0} m → {}  ",
+                "  check {}: {} × {} = {} needed of {} → {}  ",
                 ch.rule,
-                r.figure_m,
+                d(r.figure_m),
                 r.factor,
-                r.required_m,
-                r.available_m,
+                d(r.required_m),
+                d(r.available_m),
                 pct(r.margin)
             )),
             state_span(t, ch.state),

@@ -1,6 +1,7 @@
-//! Effects: what `update` asks the event loop to do (write a sign-off, save the legs),
-//! and the [`Done`] message each sends back. `update` only queues them; [`perform`] does
-//! the I/O, with the real clock passed in (tests pass a fixed one).
+//! Effects: what `update` asks the event loop to do (write a sign-off, save the legs,
+//! save the day's runway state), and the [`Done`] message each sends back. `update`
+//! only queues them, in one queue (`App::take_effects`); [`perform`] does the I/O, with
+//! the real clock passed in (tests pass a fixed one).
 
 use std::path::PathBuf;
 
@@ -9,6 +10,7 @@ use chrono::{DateTime, Utc};
 use super::app::{App, Msg};
 use crate::assess::LegResult;
 use crate::ops::legs::LegsFile;
+use crate::ops::runway_state::{EndState, RunwayStateFile};
 use crate::replan::{self, Saved};
 use crate::signoff::log::{AppendOptions, LogError};
 use crate::signoff::{self, Request};
@@ -31,6 +33,17 @@ pub enum Effect {
     },
     /// Save day legs files, each only if its content still hashes as loaded.
     SaveLegs(Vec<LegsSave>),
+    /// Append `entry` to `dir/runway-state/<date>.json` (as `rhoboard runway` does).
+    SaveRunwayState {
+        /// The operator folder.
+        dir: PathBuf,
+        /// The UTC date of the state.
+        date: chrono::NaiveDate,
+        /// The change.
+        entry: EndState,
+        /// The change in words, for the answer's note.
+        what: String,
+    },
 }
 
 /// One legs file to save.
@@ -76,6 +89,14 @@ pub enum Done {
     },
     /// Legs files were saved (or not), in the order asked.
     Saved(Vec<(String, SaveOutcome)>),
+    /// The day's runway state was written (and where, with the whole day's state), or
+    /// why it could not be.
+    RunwayState {
+        /// What was asked for, in words ("XSEA 27: closed").
+        what: String,
+        /// The file written and the day's whole state, or the error.
+        result: Result<(PathBuf, RunwayStateFile), String>,
+    },
 }
 
 /// Does one effect (I/O) and returns the message for `update`. `now` is the real clock.
@@ -144,6 +165,17 @@ pub fn perform(app: &App, effect: Effect, now: DateTime<Utc>) -> Msg {
                 })
                 .collect();
             Msg::Done(Done::Saved(out))
+        }
+        // The same code as `rhoboard runway` (written atomically).
+        Effect::SaveRunwayState {
+            dir,
+            date,
+            entry,
+            what,
+        } => {
+            let result = crate::commands::runway::append_entry(&dir, date, entry)
+                .map_err(|e| format!("{e:#}"));
+            Msg::Done(Done::RunwayState { what, result })
         }
     }
 }

@@ -2,6 +2,7 @@
 //! `observation::manual_observation`, each error shown beside its field.
 
 use chrono::{DateTime, NaiveTime, Utc};
+use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
 use crate::observation::{ManualError, ManualInput, Report, WindReference, manual_observation};
 use crate::ops::Ops;
@@ -76,6 +77,49 @@ pub const FIELDS: [FieldSpec; 11] = [
     },
 ];
 
+/// What a key did to a form's text fields.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FieldKey {
+    /// Esc: close the form.
+    Cancel,
+    /// Enter: submit it.
+    Submit,
+    /// Typed, deleted or moved (or nothing).
+    Edited,
+}
+
+/// One key on a form of text fields (every board form: the report by hand, the
+/// runway state): Tab/↓ and Shift-Tab/↑ move, Backspace deletes, characters type.
+pub fn field_key(values: &mut [String], focus: &mut usize, key: &KeyEvent) -> FieldKey {
+    let n = values.len().max(1);
+    match key.code {
+        KeyCode::Esc => return FieldKey::Cancel,
+        KeyCode::Enter => return FieldKey::Submit,
+        KeyCode::Tab | KeyCode::Down => *focus = (*focus + 1) % n,
+        KeyCode::BackTab | KeyCode::Up => *focus = (*focus + n - 1) % n,
+        KeyCode::Backspace => {
+            if let Some(v) = values.get_mut(*focus) {
+                v.pop();
+            }
+        }
+        KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
+            if let Some(v) = values.get_mut(*focus) {
+                v.push(ch);
+            }
+        }
+        _ => {}
+    }
+    FieldKey::Edited
+}
+
+/// The error beside field `i` among a form's `errors`, if any.
+pub fn error_at(errors: &[(Option<usize>, String)], i: usize) -> Option<&str> {
+    errors
+        .iter()
+        .find(|(f, _)| *f == Some(i))
+        .map(|(_, m)| m.as_str())
+}
+
 /// The form's state.
 #[derive(Debug, Clone, Default, PartialEq)]
 pub struct Form {
@@ -99,10 +143,7 @@ impl Form {
 
     /// The error shown beside field `i`, if any.
     pub fn error_for(&self, i: usize) -> Option<&str> {
-        self.errors
-            .iter()
-            .find(|(f, _)| *f == Some(i))
-            .map(|(_, m)| m.as_str())
+        error_at(&self.errors, i)
     }
 
     /// Builds the report, or fills `errors`. `clock` gives the date of the time field.

@@ -178,7 +178,7 @@ pub const KEYMAP: &[Binding] = &[
         keys: &[c('s')],
         label: "s",
         action: Action::Sort,
-        help: "sort the legs: by time, by state, by margin",
+        help: "sort the legs: by time, worst state first, or smallest margin ÷ buffer first",
     },
     Binding {
         keys: &[c('o')],

@@ -6,7 +6,7 @@ use ratatui::layout::{Constraint, Layout, Rect};
 use super::app::{App, Pane};
 
 /// The smallest terminal the board is laid out for.
-pub const MIN_SIZE: (u16, u16) = (80, 24);
+pub const MIN_SIZE: (u16, u16) = (60, 20);
 /// From this width the detail stands beside the legs.
 pub const WIDE_FROM: u16 = 140;
 
@@ -65,11 +65,13 @@ impl BoardLayout {
                 ..BoardLayout::default()
             };
         }
-        let caution_lines = if usize::from(area.width) >= crate::CAUTION.chars().count() + 2 {
-            1
-        } else {
-            2
-        };
+        // As many lines as the caution takes, wrapped at words.
+        let caution_lines = super::fit::wrap(
+            ratatui::text::Line::from(crate::CAUTION),
+            usize::from(area.width),
+            Some(0),
+        )
+        .len() as u16;
         let changes_lines = if area.height >= 40 { 7 } else { 4 };
         let [header, tabs, body, changes, hints, caution] = area.layout(&Layout::vertical([
             Constraint::Length(1),
@@ -125,10 +127,11 @@ mod tests {
 
     #[test]
     fn below_the_minimum_only_the_message() {
-        for (w, h) in [(1, 1), (79, 24), (80, 23), (0, 0)] {
+        for (w, h) in [(1, 1), (59, 24), (80, 19), (0, 0)] {
             let l = BoardLayout::build(Rect::new(0, 0, w, h), &legs(false));
             assert!(l.too_small, "{w}×{h}");
         }
+        assert!(!BoardLayout::build(Rect::new(0, 0, 60, 20), &legs(false)).too_small);
         assert!(!BoardLayout::build(Rect::new(0, 0, 80, 24), &legs(false)).too_small);
     }
 

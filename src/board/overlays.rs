@@ -6,23 +6,21 @@ use ratatui::buffer::Buffer;
 use ratatui::layout::Rect;
 use ratatui::style::Style;
 use ratatui::text::{Line, Span};
-use ratatui::widgets::{Block, Cell, Clear, Paragraph, Widget, Wrap};
+use ratatui::widgets::{Block, Clear, Paragraph, Widget};
 
 use super::app::{App, Mode};
 use super::replan::{Ask, Figures, ReplanUi, Typed};
 use super::signoff::{Mark, SIGN_FIELDS, SignForm};
 use super::theme::Theme;
-use crate::assess::{LegResult, State};
+use crate::assess::State;
 
 /// The help's line on the sign-off marks and the forecast column.
 pub const HELP_LEGEND: &str = "✎ signed off · ↻ sign-off needs a re-check · forecast: fails ~HHMMZ (a forecast, not an observation)";
 
-/// Which extra leg columns fit.
+/// How the sign-off shows in the legs table.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct LegColumns {
-    /// The forecast column ("fails ~1340Z").
-    pub forecast: bool,
-    /// The sign-off column with words (else the glyph alone).
+    /// The sign-off column with words (else the glyph beside the change mark).
     pub words: bool,
 }
 
@@ -30,7 +28,6 @@ impl LegColumns {
     /// For a legs pane `width` columns wide.
     pub fn for_width(width: u16) -> LegColumns {
         LegColumns {
-            forecast: width >= 100,
             words: width >= 130,
         }
     }
@@ -40,22 +37,17 @@ impl LegColumns {
         if self.words { " " } else { " ✎" }
     }
 
-    /// Its width.
-    pub fn first_width(&self) -> u16 {
-        if self.words { 1 } else { 2 }
-    }
-
     /// Its cell for leg `k`.
-    pub fn first_cell(&self, app: &App, k: usize, flash: bool, t: Theme) -> Cell<'static> {
+    pub fn first_line(&self, app: &App, k: usize, flash: bool, t: Theme) -> Line<'static> {
         let star = if flash { "*" } else { " " };
         if self.words {
-            return Cell::from(star);
+            return Line::from(star);
         }
         let m = app.mark(k);
-        Cell::from(Line::from(vec![
+        Line::from(vec![
             Span::raw(star),
             Span::styled(m.glyph(), mark_style(m, t)),
-        ]))
+        ])
     }
 
     /// The sign-off column's heading.
@@ -63,13 +55,8 @@ impl LegColumns {
         if self.words { "sign-off" } else { "✎" }
     }
 
-    /// The sign-off column's width.
-    pub fn mark_width(&self) -> u16 {
-        if self.words { 10 } else { 1 }
-    }
-
     /// The sign-off cell of leg `k`.
-    pub fn mark_cell(&self, app: &App, k: usize, t: Theme) -> Cell<'static> {
+    pub fn mark_line(&self, app: &App, k: usize, t: Theme) -> Line<'static> {
         let m = app.mark(k);
         let text = if self.words {
             match m {
@@ -80,12 +67,7 @@ impl LegColumns {
         } else {
             m.glyph().to_string()
         };
-        Cell::from(text).style(mark_style(m, t))
-    }
-
-    /// The forecast cell of leg `k`.
-    pub fn forecast_cell(&self, app: &App, k: usize, r: &LegResult) -> Cell<'static> {
-        Cell::from(super::forecast::cell(app.look(k), r.state))
+        Line::styled(text, mark_style(m, t))
     }
 }
 
@@ -233,23 +215,24 @@ fn comparison(
     lines
 }
 
-fn centered(area: Rect, w: u16, h: u16) -> Rect {
-    let w = w.min(area.width);
-    let h = h.min(area.height);
-    Rect::new(
-        area.x + (area.width - w) / 2,
-        area.y + (area.height - h) / 2,
-        w,
-        h,
-    )
-}
-
-fn boxed(lines: Vec<Line<'static>>, title: String, area: Rect, buf: &mut Buffer, t: Theme, w: u16) {
-    // One spare row: the caution and long lines wrap.
-    let r = centered(area, w, lines.len() as u16 + 3);
+/// `lines` in a bordered box `w` wide centred in `area`, each line wrapped at words
+/// with a hanging indent (so a wrapped item still reads as one).
+pub(super) fn boxed(
+    lines: Vec<Line<'static>>,
+    title: String,
+    area: Rect,
+    buf: &mut Buffer,
+    t: Theme,
+    w: u16,
+) {
+    let inner_w = usize::from(w.min(area.width).saturating_sub(2));
+    let lines: Vec<Line<'static>> = lines
+        .into_iter()
+        .flat_map(|l| super::fit::wrap(l, inner_w, None))
+        .collect();
+    let r = super::view::centered(area, w, lines.len() as u16 + 2);
     Clear.render(r, buf);
     Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
         .block(Block::bordered().border_style(t.frame()).title(title))
         .render(r, buf);
 }
@@ -276,6 +259,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         leg.map_or("—", |l| l.pilot.as_str()),
         r.category.name().replace('_', " ")
     )));
+    let show = super::display::Show::of(&app.ops);
     lines.push(Line::from(vec![
         Span::raw("Assessed at "),
         Span::styled(f.basis_at.format("%H:%MZ").to_string(), t.heading()),
@@ -288,7 +272,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             " · {} {} · headroom {}",
             fig.limiting_check.clone().unwrap_or_else(|| "—".into()),
             fig.limiting_margin.clone().unwrap_or_default(),
-            crate::commands::check::headroom_text(r)
+            super::view::headroom_cell(show, r)
         )),
     ]));
     for (name, e) in [("departure", &fig.departure), ("arrival", &fig.arrival)] {
@@ -298,7 +282,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             e.runway.clone().unwrap_or_else(|| "—".into()),
             opt(e.pressure_altitude_ft, " ft"),
             opt(e.density_altitude_ft, " ft"),
-            opt(e.oat_c, " °C"),
+            e.oat_c.map_or("—".to_string(), |c| show.temp(c)),
             opt(e.headwind_kt, " kt"),
             opt(e.crosswind_kt, " kt"),
         )));
@@ -321,11 +305,11 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         }
         for c in &e.checks {
             lines.push(Line::from(format!(
-                "  {} {}: {:.0} m required of {:.0} m ({})",
+                "  {} {}: {} required of {} ({})",
                 c.phase,
                 c.rule,
-                c.required_m,
-                c.available_m,
+                show.dist(c.required_m),
+                show.dist(c.available_m),
                 c.margin_percent
                     .map_or("—".into(), |m| format!("{m:+.0} %"))
             )));
@@ -345,27 +329,20 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         lines.push(Line::styled(format!("  - {why}"), t.state(r.state)));
     }
     lines.push(Line::default());
-    for (i, label) in SIGN_FIELDS.iter().enumerate() {
-        let focus = i == f.focus;
-        let value = if focus {
-            format!("{}▏", f.values[i])
-        } else {
-            f.values[i].clone()
-        };
-        let hint = match i {
-            0 => "who signs",
-            1 => "optional",
-            _ => "only to sign a below / no-data leg, where the policy allows it",
-        };
-        lines.push(Line::from(vec![
-            Span::styled(
-                format!("{label:>16} "),
-                if focus { t.selected() } else { t.heading() },
-            ),
-            Span::raw(format!("{value:<24} ")),
-            Span::styled(hint, t.dim()),
-        ]));
-    }
+    // The override reason is asked only where the policy lets a below leg be signed.
+    let hints = [
+        "who signs",
+        "optional",
+        "only for a below or no-data leg, if allowed",
+    ];
+    lines.extend(super::view::field_lines(
+        SIGN_FIELDS.iter().copied().zip(hints),
+        &f.values,
+        f.focus,
+        |_| None,
+        16,
+        t,
+    ));
     lines.push(Line::default());
     if f.busy {
         lines.push(Line::styled("Writing the record…", t.heading()));

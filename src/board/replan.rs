@@ -12,6 +12,7 @@ use chrono::NaiveTime;
 use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
 use super::app::{App, Mode, NoteKind};
+use super::display::Show;
 use super::effects::{Effect, LegsSave, SaveOutcome};
 use crate::assess::lookahead::LookAhead;
 use crate::assess::{Context, LegResult, State};
@@ -88,7 +89,7 @@ pub struct Figures {
 }
 
 impl Figures {
-    fn of(r: &LegResult, look: Option<&LookAhead>) -> Figures {
+    fn of(r: &LegResult, look: Option<&LookAhead>, show: Show) -> Figures {
         Figures {
             state: r.state,
             limiting: r.limiting.as_ref().map_or_else(
@@ -96,7 +97,7 @@ impl Figures {
                 |l| l.check.clone(),
             ),
             margin: r.limiting.as_ref().map_or("—".into(), |l| l.margin.clone()),
-            headroom: crate::commands::check::headroom_text(r),
+            headroom: super::view::headroom_cell(show, r),
             forecast: super::forecast::summary(look, r.state),
         }
     }
@@ -217,7 +218,12 @@ pub fn load_files(dir: &Path, rels: &[String]) -> (HashMap<String, LoadedFile>, 
     (files, errors)
 }
 
-fn leg_words(l: &Leg) -> String {
+fn leg_words(l: &Leg, show: Show) -> String {
+    show.in_text(&leg_words_kg(l))
+}
+
+/// A leg as its file has it (kg, L).
+fn leg_words_kg(l: &Leg) -> String {
     let loads = l.loads.as_ref().map_or_else(
         || {
             l.takeoff_mass_kg
@@ -257,8 +263,15 @@ fn leg_words(l: &Leg) -> String {
     )
 }
 
-/// What differs between two versions of a leg, in words.
-pub fn differences(old: &Leg, new: &Leg) -> Vec<String> {
+/// What differs between two versions of a leg, in words (masses in the display unit).
+pub fn differences(old: &Leg, new: &Leg, show: Show) -> Vec<String> {
+    differences_kg(old, new)
+        .iter()
+        .map(|d| show.in_text(d))
+        .collect()
+}
+
+fn differences_kg(old: &Leg, new: &Leg) -> Vec<String> {
     let mut out = Vec::new();
     if old.departs_at != new.departs_at {
         out.push(format!(
@@ -390,6 +403,7 @@ impl App {
     }
 
     fn compare(&mut self) {
+        let show = Show::of(&self.ops);
         let changed: Vec<usize> = (0..self.plan.slots.len())
             .filter(|&i| self.slot_changed(i))
             .collect();
@@ -427,19 +441,19 @@ impl App {
                     .legs
                     .iter()
                     .position(|r| r.index == o)
-                    .map(|k| Figures::of(&self.assessment.legs[k], self.look(k))),
+                    .map(|k| Figures::of(&self.assessment.legs[k], self.look(k), show)),
                 Origin::CopyOf(_) => None,
             };
             let new = results[n].as_ref().map(|r| {
                 let look = looks.next().flatten();
-                Figures::of(r, look.as_ref())
+                Figures::of(r, look.as_ref(), show)
             });
             let mut what = match s.origin {
                 Origin::Original(o) => self
                     .ops
                     .legs
                     .get(o)
-                    .map_or_else(Vec::new, |l| differences(l, &s.leg)),
+                    .map_or_else(Vec::new, |l| differences(l, &s.leg, Show::of(&self.ops))),
                 Origin::CopyOf(o) => vec![format!(
                     "new leg, a copy of {}",
                     self.ops.legs.get(o).map_or("—", |l| l.id.as_str())
@@ -513,7 +527,7 @@ impl App {
             Step::Edit(e) => {
                 let mut trial = s.leg.clone();
                 apply(&mut trial, e).map_err(|e| e.to_string())?;
-                let d = differences(&s.leg, &trial);
+                let d = differences(&s.leg, &trial, Show::of(&self.ops));
                 if d.is_empty() {
                     return Err(format!("{id}: that changes nothing"));
                 }
@@ -721,9 +735,10 @@ impl App {
             .find(|(r, _)| r == rel)
             .map(|(_, l)| l)
             .unwrap_or_default();
+        let show = Show::of(&self.ops);
         let find = |ls: Option<&Vec<Leg>>, id: &str| {
             ls.and_then(|ls| ls.iter().find(|l| l.id == id))
-                .map_or("— (not there)".to_string(), leg_words)
+                .map_or("— (not there)".to_string(), |l| leg_words(l, show))
         };
         let mut ids: Vec<String> = Vec::new();
         let base = loaded.as_ref().map(|f| &f.legs);
@@ -1142,10 +1157,9 @@ impl App {
 
     /// The leg in a slot as planned, in words.
     pub fn slot_words(&self, slot: usize) -> String {
-        self.plan
-            .slots
-            .get(slot)
-            .map_or("—".to_string(), |s| leg_words(&s.leg))
+        self.plan.slots.get(slot).map_or("—".to_string(), |s| {
+            leg_words(&s.leg, Show::of(&self.ops))
+        })
     }
 }
 

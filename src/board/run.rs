@@ -17,7 +17,7 @@ use ratatui::crossterm::event::{
 };
 use ratatui::crossterm::execute;
 
-use super::app::{App, Effect, Msg};
+use super::app::{App, Msg};
 use super::feed;
 
 /// The feeds to start beside the board.
@@ -29,23 +29,6 @@ pub struct Feeds {
     pub command: Option<(String, Duration)>,
     /// Added to the wall clock when dating reports (a live board run `--at`).
     pub clock_offset: chrono::TimeDelta,
-}
-
-/// Performs one effect `update` asked for and returns its answer. Runway state: the
-/// same code as `rhoboard runway` (`commands::runway::append_entry`, written atomically).
-pub fn perform(effect: Effect) -> Msg {
-    match effect {
-        Effect::SaveRunwayState {
-            dir,
-            date,
-            entry,
-            what,
-        } => {
-            let result = crate::commands::runway::append_entry(&dir, date, entry)
-                .map_err(|e| format!("{e:#}"));
-            Msg::RunwayStateSaved { what, result }
-        }
-    }
 }
 
 /// How often the folder is polled.
@@ -144,12 +127,10 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<()> {
             for m in first.into_iter().chain(rx.try_iter()) {
                 app.update(m);
             }
-            for e in app.take_effects() {
-                app.update(perform(e));
-            }
-            // Effects (a sign-off, a save) are done here, never in `update`.
+            // Effects (a sign-off, a save, the runway state) are done here, never in
+            // `update`; an answer may queue more.
             loop {
-                let effects = app.take_board_io();
+                let effects = app.take_effects();
                 if effects.is_empty() {
                     break;
                 }

@@ -1,7 +1,7 @@
 //! The runway-state form (key `r`): close an end (optionally until a time), reduce its
 //! declared distances, set the day's surface condition or the end in use. Checked by
 //! the same code as `rhoboard runway` (`commands::runway::entry`); writing the file is
-//! the event loop's job (an [`Effect`](super::app::Effect)), never `update`'s.
+//! the event loop's job (an [`Effect`](super::effects::Effect)), never `update`'s.
 
 use chrono::NaiveDate;
 
@@ -105,10 +105,7 @@ impl RunwayForm {
 
     /// The error shown under field `i`, if any.
     pub fn error_for(&self, i: usize) -> Option<&str> {
-        self.errors
-            .iter()
-            .find(|(f, _)| *f == Some(i))
-            .map(|(_, m)| m.as_str())
+        super::form::error_at(&self.errors, i)
     }
 
     /// The airfield typed, upper-cased.

@@ -2,8 +2,6 @@
 //! state is cloned per frame). They map states to glyphs, words and styles; they
 //! decide nothing.
 
-use std::borrow::Cow;
-
 use ratatui::buffer::Buffer;
 use ratatui::layout::{Constraint, Rect};
 use ratatui::style::Style;
@@ -11,6 +9,8 @@ use ratatui::text::{Line, Span};
 use ratatui::widgets::{Block, Borders, Cell, Clear, Paragraph, Row, Table, Widget, Wrap};
 
 use super::app::{App, DetailOf, Mode, NoteKind, Pane, category_short};
+use super::display::Show;
+use super::fit::{self, Column};
 use super::form::{FIELDS, Form};
 use super::keys::KEYMAP;
 use super::layout::{BoardLayout, LayoutSettings, MIN_SIZE};
@@ -71,7 +71,7 @@ impl Widget for &App {
             .wrap(Wrap { trim: true })
             .render(layout.caution, buf);
         match &self.ui.mode {
-            Mode::Help => help(area, buf, t, self.ui.help_scroll),
+            Mode::Help => help(self, area, buf, t, self.ui.help_scroll),
             Mode::Form(f) => form(self, f, area, buf, t),
             Mode::Sign(f) => super::overlays::sign(self, f, area, buf, t),
             Mode::Replan(r) => super::overlays::replan(self, r, area, buf, t),
@@ -103,62 +103,96 @@ fn too_small(area: Rect, buf: &mut Buffer, t: Theme) {
         );
 }
 
+/// The header line's parts, from the fullest wording to the sparest: the first that
+/// fits is shown, so nothing is cut (the clock and the counts always stay).
 fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
-    let mut spans: Vec<Span> = Vec::new();
-    let narrow = area.width < 110;
-    let clock = if narrow {
-        app.clock.format("%H:%MZ").to_string()
-    } else {
-        app.clock.format("%Y-%m-%d %H:%MZ").to_string()
+    let day_clock = app.clock.format("%Y-%m-%d %H:%MZ").to_string();
+    let clock = app.clock.format("%H:%MZ").to_string();
+    let replay = |long: bool| -> String {
+        match &app.replay {
+            Some(rp) => {
+                let speed = if (rp.speed - rp.speed.round()).abs() < 1e-9 {
+                    format!("{:.0}", rp.speed)
+                } else {
+                    format!("{}", rp.speed)
+                };
+                let state = match (rp.paused, long) {
+                    (true, true) => "‖ paused",
+                    (true, false) => "‖",
+                    (false, _) => "▶",
+                };
+                format!("replay {state} ×{speed}")
+            }
+            None => "live".to_string(),
+        }
     };
-    match &app.replay {
-        Some(rp) => {
-            spans.push(Span::styled(format!(" {clock} "), t.heading()));
-            let speed = if (rp.speed - rp.speed.round()).abs() < 1e-9 {
-                format!("{:.0}", rp.speed)
-            } else {
-                format!("{}", rp.speed)
-            };
-            let state = match (rp.paused, narrow) {
-                (true, true) => "‖",
-                (true, false) => "‖ paused",
-                (false, _) => "▶",
-            };
-            spans.push(Span::raw(format!("replay {state} ×{speed}")));
-        }
-        None => {
-            spans.push(Span::styled(format!(" {clock} "), t.heading()));
-            spans.push(Span::raw("live"));
-        }
-    }
-    spans.push(Span::styled(" │ ", t.frame()));
     let c = app.assessment.counts();
-    for (s, n) in [
-        (State::Within, c[0]),
-        (State::Thin, c[1]),
-        (State::Below, c[2]),
-        (State::NoData, c[3]),
-    ] {
-        spans.push(Span::styled(
-            format!("{} {} {n}", s.glyph(), s.word()),
-            t.state(s),
-        ));
-        spans.push(Span::raw("  "));
-    }
-    spans.pop();
-    spans.push(Span::styled(" │ ", t.frame()));
-    match app.newest_report() {
-        Some(r) => spans.push(Span::raw(format!(
+    let counts = |gap: &str| -> Vec<Span<'static>> {
+        let mut spans = Vec::new();
+        for (i, (s, n)) in [
+            (State::Within, c[0]),
+            (State::Thin, c[1]),
+            (State::Below, c[2]),
+            (State::NoData, c[3]),
+        ]
+        .into_iter()
+        .enumerate()
+        {
+            if i > 0 {
+                spans.push(Span::raw(gap.to_string()));
+            }
+            spans.push(Span::styled(
+                format!("{} {} {n}", s.glyph(), s.word()),
+                t.state(s),
+            ));
+        }
+        spans
+    };
+    let newest = |time: bool| match app.newest_report() {
+        Some(r) if time => format!(
             "newest {} {}",
             r.station,
             r.observed_at
                 .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
-        ))),
-        None => spans.push(Span::raw("no reports yet")),
-    }
-    spans.push(Span::styled(" │ ", t.frame()));
-    spans.push(Span::styled(app.ops.operator.name.clone(), t.dim()));
-    Line::from(spans).render(area, buf);
+        ),
+        Some(r) => format!("newest {}", r.station),
+        None => "no reports yet".to_string(),
+    };
+    let bar = || Span::styled(" │ ", t.frame());
+    // (clock, "‖ paused" in full, the word "replay", gap between counts, newest, operator)
+    let line =
+        |clock: &str, long: bool, word: bool, gap: &str, newest: Option<String>, op: bool| {
+            let mut mode = replay(long);
+            if !word {
+                mode = mode.trim_start_matches("replay ").to_string();
+            }
+            let mut spans = vec![
+                Span::styled(format!(" {clock} "), t.heading()),
+                Span::raw(mode),
+                bar(),
+            ];
+            spans.extend(counts(gap));
+            if let Some(n) = newest {
+                spans.push(bar());
+                spans.push(Span::raw(n));
+            }
+            if op {
+                spans.push(bar());
+                spans.push(Span::styled(app.ops.operator.name.clone(), t.dim()));
+            }
+            Line::from(spans)
+        };
+    let candidates = vec![
+        line(&day_clock, true, true, "  ", Some(newest(true)), true),
+        line(&day_clock, true, true, "  ", Some(newest(true)), false),
+        line(&clock, true, true, "  ", Some(newest(true)), false),
+        line(&clock, false, true, "  ", Some(newest(true)), false),
+        line(&clock, false, true, " ", Some(newest(true)), false),
+        line(&clock, false, true, " ", Some(newest(false)), false),
+        line(&clock, false, true, " ", None, false),
+        line(&clock, false, false, " ", None, false),
+    ];
+    fit::first_line(candidates, usize::from(area.width)).render(area, buf);
 }
 
 fn tabs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
@@ -194,46 +228,62 @@ fn tabs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     }
 }
 
-/// A leg row's cells (missing values are `—`, never 0).
-fn leg_cell<'a>(app: &'a App, r: &'a LegResult, col: usize) -> Cow<'a, str> {
-    let leg = app.ops.legs.get(r.index);
-    match col {
-        0 => leg.map_or("—".into(), |l| {
-            l.departs_utc().format("%H%MZ").to_string().into()
-        }),
-        1 => Cow::Borrowed(r.id.as_str()),
-        2 => leg.map_or("—".into(), |l| Cow::Borrowed(l.aircraft.as_str())),
-        3 => leg.map_or("—".into(), |l| format!("{}-{}", l.from, l.to).into()),
-        4 => Cow::Borrowed(category_short(r.category)),
-        5 => state_text(r.state).into(),
-        6 => r
-            .limiting
-            .as_ref()
-            .map_or("—".into(), |l| Cow::Borrowed(l.margin.as_str())),
-        7 => crate::commands::check::headroom_text(r).into(),
-        _ => r.limiting.as_ref().map_or_else(
-            || {
-                r.reasons
-                    .first()
-                    .map_or("—".into(), |s| Cow::Borrowed(s.as_str()))
+/// Headroom in the legs table: `≥+23.0°C` (the table ends first), `-6.3°C`, or `—`.
+pub fn headroom_cell(show: Show, r: &LegResult) -> String {
+    match r.headroom {
+        None => "—".to_string(),
+        Some(h) => format!(
+            "{}{:+.1}{}",
+            if h.table_ends && h.warming_c >= 0.0 {
+                "≥"
+            } else {
+                ""
             },
-            |l| Cow::Borrowed(l.check.as_str()),
+            show.warming_value(h.warming_c),
+            show.temp_unit()
         ),
     }
 }
 
-const LEG_HEADERS: [&str; 9] = [
-    "dep",
-    "leg",
-    "aircraft",
-    "route",
-    "category",
-    "state",
-    "margin",
-    "headroom",
-    "limiting check",
-];
-const LEG_WIDTHS: [u16; 8] = [5, 4, 8, 9, 8, 9, 8, 8];
+/// The limiting check in words, richest first: the whole rule, then what it is
+/// checked against, then the check alone (`XPIN 26 takeoff distance_50ft × 1.25 ≤
+/// TORA`, `XPIN 26 takeoff vs TORA`, `XPIN 26 takeoff`). With no limiting check, the
+/// first reason.
+pub fn limiting_wordings(r: &LegResult, show: Show) -> Vec<String> {
+    let Some(l) = &r.limiting else {
+        let Some(why) = r.reasons.first() else {
+            return vec!["—".to_string()];
+        };
+        // "arrival XSHT: report 141200Z is stale (105 min old, …)" → "arrival XSHT: stale report"
+        let mut out = vec![show.in_text(why)];
+        if let Some((place, rest)) = why.split_once(": ")
+            && rest.starts_with("report ")
+            && rest.contains(" is stale")
+        {
+            out.push(format!("{place}: stale report"));
+            if let Some(field) = place.split(' ').next_back() {
+                out.push(format!("{field}: stale report"));
+            }
+        }
+        return out;
+    };
+    let mut out = vec![l.check.clone()];
+    for phase in [" takeoff ", " landing "] {
+        if let Some(at) = l.check.find(phase) {
+            let head = &l.check[..at + phase.len() - 1];
+            if let Some((_, against)) = l.check.rsplit_once(" ≤ ") {
+                out.push(format!("{head} vs {against}"));
+            }
+            out.push(head.to_string());
+            break;
+        }
+    }
+    out
+}
+
+fn lines_of(v: Vec<String>) -> Vec<Line<'static>> {
+    v.into_iter().map(Line::from).collect()
+}
 
 fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let height = usize::from(area.height.saturating_sub(1));
@@ -255,61 +305,110 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     }
     let offset = scroll_offset(app.ui.leg_row, height);
     let cols = super::overlays::LegColumns::for_width(area.width);
-    let header = Row::new(
-        std::iter::once(Cell::from(cols.first_header()))
-            .chain(cols.words.then(|| Cell::from(cols.mark_header())))
-            .chain(LEG_HEADERS.iter().enumerate().flat_map(|(i, h)| {
-                std::iter::once(Cell::from(*h))
-                    .chain((i == 7 && cols.forecast).then(|| Cell::from("forecast")))
-            }))
-            .collect::<Vec<_>>(),
-    )
-    .style(t.heading());
-    let body = rows
+    let show = Show::of(&app.ops);
+    let shown: Vec<(usize, usize, &LegResult)> = rows
         .iter()
         .enumerate()
         .skip(offset)
         .take(height)
-        .filter_map(|(row, &k)| {
-            let r = app.assessment.legs.get(k)?;
-            let flash = app.flashing(r.index);
-            let mut cells: Vec<Cell> = vec![cols.first_cell(app, k, flash, t)];
-            if cols.words {
-                cells.push(cols.mark_cell(app, k, t));
-            }
-            for col in 0..9 {
-                let text = leg_cell(app, r, col).into_owned();
-                let cell = if col == 5 {
-                    Cell::from(text).style(t.state(r.state))
-                } else {
-                    Cell::from(text)
-                };
-                cells.push(cell);
-                if col == 7 && cols.forecast {
-                    cells.push(cols.forecast_cell(app, k, r));
-                }
-            }
+        .filter_map(|(row, &k)| Some((row, k, app.assessment.legs.get(k)?)))
+        .collect();
+    let leg = |r: &LegResult| app.ops.legs.get(r.index);
+    let text = |f: &dyn Fn(&LegResult) -> String| -> Vec<Line<'static>> {
+        shown.iter().map(|(_, _, r)| Line::from(f(r))).collect()
+    };
+    let mut table: Vec<Column> = vec![Column::new(
+        cols.first_header(),
+        0,
+        shown
+            .iter()
+            .map(|(_, k, r)| cols.first_line(app, *k, app.flashing(r.index), t))
+            .collect(),
+    )];
+    if cols.words {
+        table.push(Column::new(
+            cols.mark_header(),
+            7,
+            shown
+                .iter()
+                .map(|(_, k, _)| cols.mark_line(app, *k, t))
+                .collect(),
+        ));
+    }
+    table.extend([
+        Column::new(
+            "dep",
+            0,
+            text(&|r| {
+                leg(r).map_or("—".into(), |l| {
+                    l.departs_utc().format("%H%MZ").to_string()
+                })
+            }),
+        ),
+        Column::new("leg", 0, text(&|r| r.id.clone())),
+        Column::new(
+            "aircraft",
+            4,
+            text(&|r| leg(r).map_or("—".into(), |l| l.aircraft.clone())),
+        )
+        .short("a/c"),
+        Column::new(
+            "route",
+            2,
+            text(&|r| leg(r).map_or("—".into(), |l| format!("{}-{}", l.from, l.to))),
+        ),
+        Column::new(
+            "category",
+            6,
+            text(&|r| category_short(r.category).to_string()),
+        ),
+        Column::new(
+            "state",
+            0,
+            shown
+                .iter()
+                .map(|(_, _, r)| Line::styled(state_text(r.state), t.state(r.state)))
+                .collect(),
+        )
+        // As wide as "? no-data", whichever rows are in view.
+        .at_least(9),
+        Column::new(
+            "margin",
+            0,
+            text(&|r| r.limiting.as_ref().map_or("—".into(), |l| l.margin.clone())),
+        ),
+        Column::new("headroom", 3, text(&|r| headroom_cell(show, r))),
+        Column::new(
+            "forecast",
+            5,
+            shown
+                .iter()
+                .map(|(_, k, r)| Line::from(super::forecast::cell(app.look(*k), r.state)))
+                .collect(),
+        ),
+        Column::flex(
+            "limiting check",
+            21,
+            shown
+                .iter()
+                .map(|(_, _, r)| lines_of(limiting_wordings(r, show)))
+                .collect(),
+        ),
+    ]);
+    let styles: Vec<Style> = shown
+        .iter()
+        .map(|(row, _, r)| {
             let mut style = Style::new();
-            if flash {
+            if app.flashing(r.index) {
                 style = style.patch(t.changed());
             }
-            if row == app.ui.leg_row {
+            if *row == app.ui.leg_row {
                 style = style.patch(t.selected());
             }
-            Some(Row::new(cells).style(style))
-        });
-    let widths: Vec<Constraint> = std::iter::once(Constraint::Length(cols.first_width()))
-        .chain(cols.words.then_some(Constraint::Length(cols.mark_width())))
-        .chain(LEG_WIDTHS.iter().enumerate().flat_map(|(i, w)| {
-            std::iter::once(Constraint::Length(*w))
-                .chain((i == 7 && cols.forecast).then_some(Constraint::Length(12)))
-        }))
-        .chain(std::iter::once(Constraint::Min(10)))
+            style
+        })
         .collect();
-    Table::new(body, widths)
-        .header(header)
-        .column_spacing(1)
-        .render(area, buf);
+    fit::table(table, &styles, t.heading(), area, buf);
 }
 
 fn cell_text(c: &PairCell) -> String {
@@ -353,7 +452,8 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let visible_cols = usize::from(area.width.saturating_sub(REG_W) / CELL_W).max(1);
     let (cur_a, cur_f) = app.ui.pair;
     let col0 = scroll_offset(cur_f, visible_cols);
-    let height = usize::from(area.height.saturating_sub(3));
+    // Rows: the height less the header and the words under the table.
+    let height = usize::from(area.height.saturating_sub(5));
     let row0 = scroll_offset(cur_a, height);
     let fields: Vec<usize> = (col0..m.fields.min(col0 + visible_cols)).collect();
     let header =
@@ -384,11 +484,6 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let widths: Vec<Constraint> = std::iter::once(Constraint::Length(REG_W - 1))
         .chain(fields.iter().map(|_| Constraint::Length(CELL_W - 1)))
         .collect();
-    let table_h = area.height.saturating_sub(2);
-    Table::new(rows, widths)
-        .header(header)
-        .column_spacing(1)
-        .render(Rect::new(area.x, area.y, area.width, table_h), buf);
     // What the selected cell says, in words.
     let summary = if cur_a < m.aircraft.len() && cur_f < m.fields {
         let c = m.cell(cur_a, cur_f);
@@ -409,7 +504,7 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             limit_word(c.limiting),
             state_text(c.best_end_state),
             c.headroom_c
-                .map_or("—".to_string(), |h| format!("{h:+.1} °C"))
+                .map_or("—".to_string(), |h| Show::of(&app.ops).warming(h))
         )
     } else {
         String::new()
@@ -424,12 +519,22 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     } else {
         String::new()
     };
-    Paragraph::new(format!("{summary}{more}"))
-        .wrap(Wrap { trim: true })
-        .render(
-            Rect::new(area.x, area.y + table_h, area.width, area.height - table_h),
-            buf,
-        );
+    // The words under the table take the lines they need (wrapped, never cut).
+    let words: Vec<Line> = fit::wrap(
+        Line::from(format!("{summary}{more}")),
+        usize::from(area.width),
+        Some(0),
+    );
+    let words_h = (words.len() as u16).min(area.height / 2);
+    let table_h = area.height.saturating_sub(words_h);
+    Table::new(rows, widths)
+        .header(header)
+        .column_spacing(1)
+        .render(Rect::new(area.x, area.y, area.width, table_h), buf);
+    Paragraph::new(words).render(
+        Rect::new(area.x, area.y + table_h, area.width, area.height - table_h),
+        buf,
+    );
 }
 
 fn wind_text(r: &Report) -> String {
@@ -450,11 +555,6 @@ fn wind_text(r: &Report) -> String {
 }
 
 fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
-    let header = Row::new(vec![
-        "id", "name", "elev", "report", "age", "temp", "dens alt", "wind", "runway", "sunset",
-        "local", "today",
-    ])
-    .style(t.heading());
     // The selected airfield's sun and runway ends below the table, where there is room.
     let ends = app
         .ops
@@ -474,183 +574,164 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     } else {
         area
     };
+    let show = Show::of(&app.ops);
     let height = usize::from(area.height.saturating_sub(1));
     let off = scroll_offset(app.ui.field_row, height);
-    let rows = app
-        .ops
-        .airfields
+    let mut rows: Vec<[String; 12]> = Vec::new();
+    let mut styles: Vec<Style> = Vec::new();
+    for (fi, f) in app.ops.airfields.iter().enumerate().skip(off).take(height) {
+        let valid = app.store.valid_at(&f.id, app.clock);
+        let dash = || "—".to_string();
+        let (time, age, temp, da, wind) = match &valid {
+            None => (dash(), dash(), dash(), dash(), dash()),
+            Some(v) => {
+                let wx = FieldWx::from_report(v.report, f.elevation_ft);
+                (
+                    v.report
+                        .observed_at
+                        .map_or_else(dash, |t| t.format("%H%MZ").to_string()),
+                    format!(
+                        "{} min{}",
+                        v.age.num_minutes(),
+                        if v.stale { " STALE" } else { "" }
+                    ),
+                    v.report.temperature_c.map_or_else(dash, |c| show.temp0(c)),
+                    wx.map_or_else(dash, |w| format!("{:.0} ft", w.air.density_altitude_ft)),
+                    wind_text(v.report),
+                )
+            }
+        };
+        let runway = app
+            .field_end_in_use(fi)
+            .and_then(|k| f.runway_ends.get(k))
+            .map_or_else(dash, |e| e.designator.clone());
+        let sunset = crate::daylight::daylight(app.day(), f.latitude_deg, f.longitude_deg).sunset;
+        let local = sun_local(app, sunset).unwrap_or_else(dash);
+        let today: Vec<String> = app
+            .model()
+            .field_ends(fi)
+            .iter()
+            .filter_map(|e| {
+                let note = e.day_note.as_ref()?;
+                let id = f.runway_ends.get(e.index)?;
+                Some(format!("{} {note}", id.designator))
+            })
+            .collect();
+        let today = if today.is_empty() {
+            dash()
+        } else {
+            today.join("; ")
+        };
+        styles.push(if fi == app.ui.field_row {
+            t.selected()
+        } else if valid.as_ref().is_some_and(|v| v.stale) {
+            t.state(State::NoData)
+        } else {
+            Style::new()
+        });
+        rows.push([
+            f.id.clone(),
+            f.name.clone(),
+            format!("{:.0} ft", f.elevation_ft),
+            time,
+            age,
+            temp,
+            da,
+            wind,
+            runway,
+            sun_z(sunset),
+            local,
+            today,
+        ]);
+    }
+    // (heading, which goes first when narrow: higher sooner, 0 never)
+    const COLS: [(&str, u8); 11] = [
+        ("id", 0),
+        ("name", 6),
+        ("elev", 5),
+        ("report", 0),
+        ("age", 1),
+        ("temp", 3),
+        ("dens alt", 0),
+        ("wind", 0),
+        ("runway", 2),
+        ("sunset", 4),
+        ("local", 7),
+    ];
+    let mut cols: Vec<Column> = COLS
         .iter()
         .enumerate()
-        .skip(off)
-        .take(height)
-        .map(|(fi, f)| {
-            let valid = app.store.valid_at(&f.id, app.clock);
-            let (time, age, temp, da, wind) = match &valid {
-                None => ("—".into(), "—".into(), "—".into(), "—".into(), "—".into()),
-                Some(v) => {
-                    let wx = FieldWx::from_report(v.report, f.elevation_ft);
-                    (
-                        v.report
-                            .observed_at
-                            .map_or("—".to_string(), |t| t.format("%H%MZ").to_string()),
-                        format!(
-                            "{} min{}",
-                            v.age.num_minutes(),
-                            if v.stale { " STALE" } else { "" }
-                        ),
-                        v.report
-                            .temperature_c
-                            .map_or("—".to_string(), |c| format!("{c:.0} °C")),
-                        wx.map_or("—".to_string(), |w| {
-                            format!("{:.0} ft", w.air.density_altitude_ft)
-                        }),
-                        wind_text(v.report),
-                    )
-                }
-            };
-            let runway = app
-                .field_end_in_use(fi)
-                .and_then(|k| f.runway_ends.get(k))
-                .map_or("—".to_string(), |e| e.designator.clone());
-            let sunset =
-                crate::daylight::daylight(app.day(), f.latitude_deg, f.longitude_deg).sunset;
-            let local = sun_local(app, sunset).unwrap_or_else(|| "—".to_string());
-            let today: Vec<String> = app
-                .model()
-                .field_ends(fi)
-                .iter()
-                .filter_map(|e| {
-                    let note = e.day_note.as_ref()?;
-                    let id = f.runway_ends.get(e.index)?;
-                    Some(format!("{} {note}", id.designator))
-                })
-                .collect();
-            let today = if today.is_empty() {
-                "—".to_string()
-            } else {
-                today.join("; ")
-            };
-            let style = if fi == app.ui.field_row {
-                t.selected()
-            } else if valid.as_ref().is_some_and(|v| v.stale) {
-                t.state(State::NoData)
-            } else {
-                Style::new()
-            };
-            Row::new(vec![
-                f.id.clone(),
-                f.name.clone(),
-                format!("{:.0} ft", f.elevation_ft),
-                time,
-                age,
-                temp,
-                da,
-                wind,
-                runway,
-                sun_z(sunset),
-                local,
-                today,
-            ])
-            .style(style)
-        });
-    Table::new(
-        rows,
-        [
-            Constraint::Length(5),
-            Constraint::Min(12),
-            Constraint::Length(8),
-            Constraint::Length(6),
-            Constraint::Length(12),
-            Constraint::Length(6),
-            Constraint::Length(9),
-            Constraint::Length(11),
-            Constraint::Length(6),
-            Constraint::Length(6),
-            Constraint::Length(5),
-            Constraint::Min(10),
-        ],
-    )
-    .header(header)
-    .column_spacing(1)
-    .render(area, buf);
+        .map(|(i, (head, drop))| {
+            Column::new(
+                head,
+                *drop,
+                rows.iter().map(|r| Line::from(r[i].clone())).collect(),
+            )
+        })
+        .collect();
+    cols.push(Column::flex(
+        "today",
+        10,
+        rows.iter()
+            .map(|r| vec![Line::from(r[11].clone())])
+            .collect(),
+    ));
+    fit::table(cols, &styles, t.heading(), area, buf);
 }
 
 fn fleet(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
-    let header = Row::new(vec![
-        "registration",
-        "type",
-        "status",
-        "legs today",
-        "worst state",
-    ])
-    .style(t.heading());
     let height = usize::from(area.height.saturating_sub(1));
     let off = scroll_offset(app.ui.fleet_row, height);
-    let rows = app
-        .ops
-        .aircraft
-        .iter()
-        .enumerate()
-        .skip(off)
-        .take(height)
-        .map(|(i, a)| {
-            let mine: Vec<&LegResult> = app
-                .assessment
-                .legs
-                .iter()
-                .filter(|r| {
-                    app.ops
-                        .legs
-                        .get(r.index)
-                        .is_some_and(|l| l.aircraft == a.registration)
-                })
-                .collect();
-            let worst = mine.iter().map(|r| r.state).max();
-            let ty = app
-                .ops
+    let (mut reg, mut ty, mut status, mut n, mut worst) = (vec![], vec![], vec![], vec![], vec![]);
+    let mut styles = Vec::new();
+    for (i, a) in app.ops.aircraft.iter().enumerate().skip(off).take(height) {
+        let mine: Vec<&LegResult> = app
+            .assessment
+            .legs
+            .iter()
+            .filter(|r| {
+                app.ops
+                    .legs
+                    .get(r.index)
+                    .is_some_and(|l| l.aircraft == a.registration)
+            })
+            .collect();
+        reg.push(Line::from(a.registration.clone()));
+        ty.push(Line::from(
+            app.ops
                 .aircraft_type(&a.type_id)
                 .map_or(a.type_id.clone(), |ty| {
                     format!("{} ({})", ty.file.id, ty.file.name)
-                });
-            let status = match a.status {
-                crate::ops::fleet::Status::Available => "available".to_string(),
-                crate::ops::fleet::Status::Maintenance => format!(
-                    "maintenance{}",
-                    a.maintenance
-                        .as_ref()
-                        .map_or(String::new(), |m| format!(": {}", m.note))
-                ),
-            };
-            let worst_cell = match worst {
-                Some(s) => Cell::from(state_text(s)).style(t.state(s)),
-                None => Cell::from("—"),
-            };
-            let row = Row::new(vec![
-                Cell::from(a.registration.clone()),
-                Cell::from(ty),
-                Cell::from(status),
-                Cell::from(mine.len().to_string()),
-                worst_cell,
-            ]);
-            if i == app.ui.fleet_row {
-                row.style(t.selected())
-            } else {
-                row
-            }
+                }),
+        ));
+        status.push(vec![Line::from(match a.status {
+            crate::ops::fleet::Status::Available => "available".to_string(),
+            crate::ops::fleet::Status::Maintenance => format!(
+                "maintenance{}",
+                a.maintenance
+                    .as_ref()
+                    .map_or(String::new(), |m| format!(": {}", m.note))
+            ),
+        })]);
+        n.push(Line::from(mine.len().to_string()));
+        worst.push(match mine.iter().map(|r| r.state).max() {
+            Some(s) => Line::styled(state_text(s), t.state(s)),
+            None => Line::from("—"),
         });
-    Table::new(
-        rows,
-        [
-            Constraint::Length(12),
-            Constraint::Min(20),
-            Constraint::Length(24),
-            Constraint::Length(10),
-            Constraint::Length(11),
-        ],
-    )
-    .header(header)
-    .column_spacing(1)
-    .render(area, buf);
+        styles.push(if i == app.ui.fleet_row {
+            t.selected()
+        } else {
+            Style::new()
+        });
+    }
+    let cols = vec![
+        Column::new("registration", 0, reg),
+        Column::new("legs today", 1, n),
+        Column::new("worst state", 0, worst),
+        Column::new("type", 2, ty),
+        Column::flex("status", 12, status),
+    ];
+    fit::table(cols, &styles, t.heading(), area, buf);
 }
 
 fn reports(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
@@ -658,45 +739,32 @@ fn reports(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         Paragraph::new("No reports received yet.").render(area, buf);
         return;
     }
-    let header = Row::new(vec!["at", "from", "", "report"]).style(t.heading());
     let height = usize::from(area.height.saturating_sub(1));
     let off = scroll_offset(app.ui.report_row, height);
-    let rows = app
-        .received
-        .iter()
-        .enumerate()
-        .skip(off)
-        .take(height)
-        .map(|(i, r)| {
-            let (mark, text, style) = match &r.rejected {
-                None => ("stored", r.text.clone(), Style::new()),
-                Some(why) => ("REJECTED", format!("{why} — {}", r.text), t.error()),
-            };
-            let style = if i == app.ui.report_row {
-                style.patch(t.selected())
-            } else {
-                style
-            };
-            Row::new(vec![
-                r.at.format("%H%MZ").to_string(),
-                r.source.clone(),
-                mark.to_string(),
-                text,
-            ])
-            .style(style)
+    let (mut at, mut from, mut mark, mut text) = (vec![], vec![], vec![], vec![]);
+    let mut styles = Vec::new();
+    for (i, r) in app.received.iter().enumerate().skip(off).take(height) {
+        let (m, body, style) = match &r.rejected {
+            None => ("stored", r.text.clone(), Style::new()),
+            Some(why) => ("REJECTED", format!("{why} — {}", r.text), t.error()),
+        };
+        at.push(Line::from(r.at.format("%H%MZ").to_string()));
+        from.push(Line::from(r.source.clone()));
+        mark.push(Line::from(m));
+        text.push(vec![Line::from(body)]);
+        styles.push(if i == app.ui.report_row {
+            style.patch(t.selected())
+        } else {
+            style
         });
-    Table::new(
-        rows,
-        [
-            Constraint::Length(5),
-            Constraint::Length(14),
-            Constraint::Length(8),
-            Constraint::Min(20),
-        ],
-    )
-    .header(header)
-    .column_spacing(1)
-    .render(area, buf);
+    }
+    let cols = vec![
+        Column::new("at", 0, at),
+        Column::new("from", 1, from),
+        Column::new("", 0, mark),
+        Column::flex("report", 20, text),
+    ];
+    fit::table(cols, &styles, t.heading(), area, buf);
 }
 
 fn detail(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
@@ -726,8 +794,13 @@ fn detail(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         },
         None => vec![Line::from("No leg selected.")],
     };
+    // Each item wrapped on its own, continuations under a hanging indent.
+    let w = usize::from(inner.width);
+    let lines: Vec<Line> = lines
+        .into_iter()
+        .flat_map(|l| fit::wrap(l, w, None))
+        .collect();
     Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
         .scroll((app.ui.detail_scroll, 0))
         .render(inner, buf);
 }
@@ -767,14 +840,34 @@ fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 NoteKind::Error => "error: ",
                 _ => "",
             };
+            // Too long for the line: whole words and `…` (the values stay whole).
+            let room = usize::from(inner.width).saturating_sub(6);
             Line::from(vec![
                 Span::styled(format!("{} ", n.at.format("%H%MZ")), t.dim()),
-                Span::styled(format!("{tag}{}", n.text), style),
+                Span::styled(
+                    fit::words(&format!("{tag}{}", n.text), room).into_owned(),
+                    style,
+                ),
             ])
         })
         .collect();
     Paragraph::new(lines).render(inner, buf);
 }
+
+/// The keys in the hint line's short form, in order.
+const SHORT_KEYS: [&str; 11] = [
+    "?:help",
+    "Tab:pane",
+    "Enter:open",
+    "Esc:close",
+    "/:filter",
+    "s:sort",
+    "o:report",
+    "r:runway",
+    "space:pause",
+    "n/p:hour",
+    "q:quit",
+];
 
 fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let text = match &app.ui.mode {
@@ -786,50 +879,55 @@ fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         }
         Mode::Runway(_) => "Tab/↑↓ field · Enter sets the runway state · Esc cancels".to_string(),
         Mode::Normal => {
-            let replay = if app.replay.is_some() {
-                " · space pause · n/p next/prev hour"
-            } else {
-                ""
+            // The fullest wording that fits; keys give way from the end of the list
+            // (the help lists every key).
+            let replay = app.replay.is_some();
+            let open = matches!(app.ui.pane, Pane::Legs | Pane::Pairings);
+            let long: Vec<&str> = [
+                Some("? help"),
+                Some("Tab pane"),
+                Some("↑↓ select"),
+                open.then_some("Enter open · Esc close"),
+                Some("/ filter"),
+                Some("s sort"),
+                Some("o report"),
+                Some("r runway"),
+                replay.then_some("space pause · n/p next/prev hour"),
+                Some("q quit"),
+            ]
+            .into_iter()
+            .flatten()
+            .collect();
+            let short = |gone: &[&str]| -> String {
+                SHORT_KEYS
+                    .into_iter()
+                    .filter(|k| !gone.contains(k))
+                    .filter(|k| replay || !matches!(*k, "space:pause" | "n/p:hour"))
+                    .collect::<Vec<_>>()
+                    .join(" ")
             };
-            let narrow = area.width < 130;
-            if narrow {
-                let replay = if app.replay.is_some() {
-                    " space:pause n/p:hour"
-                } else {
-                    ""
-                };
-                // Under 100 columns Esc and r give way (the help lists every key).
-                let (esc, runway) = if area.width < 100 {
-                    ("", "")
-                } else {
-                    (" Esc:close", " r:runway")
-                };
-                let text = format!(
-                    "?:help Tab:pane Enter:open{esc} /:filter s:sort o:report{runway}{replay} q:quit"
-                );
-                Line::styled(text, t.dim()).render(area, buf);
-                return;
+            let mut wordings = vec![long.join(" · ")];
+            for gone in [
+                &[][..],
+                &["Esc:close", "r:runway"],
+                &["Esc:close", "r:runway", "Tab:pane"],
+                &["Esc:close", "r:runway", "Tab:pane", "o:report", "n/p:hour"],
+            ] {
+                wordings.push(short(gone));
             }
-            let replay = if narrow && app.replay.is_some() {
-                " · n/p hour"
-            } else {
-                replay
-            };
-            let open = match (app.ui.pane, narrow) {
-                (Pane::Legs | Pane::Pairings, false) => " · Enter open · Esc close",
-                (Pane::Legs | Pane::Pairings, true) => " · Enter open",
-                _ => "",
-            };
-            let select = if narrow { "" } else { " · ↑↓ select" };
-            format!(
-                "? help · Tab pane{select}{open} · / filter · s sort · o report · r runway{replay} · q quit"
-            )
+            let w = usize::from(area.width);
+            wordings
+                .into_iter()
+                .find(|s| fit::width(s) <= w)
+                .unwrap_or_else(|| "?:help q:quit".to_string())
         }
     };
-    Line::styled(text, t.dim()).render(area, buf);
+    let w = usize::from(area.width);
+    Line::styled(fit::words(&text, w).into_owned(), t.dim()).render(area, buf);
 }
 
-fn centered(area: Rect, w: u16, h: u16) -> Rect {
+/// A `w`×`h` rectangle in the middle of `area` (clipped to it).
+pub(super) fn centered(area: Rect, w: u16, h: u16) -> Rect {
     let w = w.min(area.width);
     let h = h.min(area.height);
     Rect::new(
@@ -840,12 +938,16 @@ fn centered(area: Rect, w: u16, h: u16) -> Rect {
     )
 }
 
-fn help(area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
+fn help(app: &App, area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
+    let b = &app.ops.operator.policy.buffers;
+    let show = Show::of(&app.ops);
     let mut lines: Vec<Line> = vec![
         Line::styled("What the board shows", t.heading()),
-        Line::from("Every leg of the day against the operator's minimums, re-checked as each"),
-        Line::from("report arrives. Enter on a leg opens its chain: observation, air, wind,"),
-        Line::from("takeoff, climb, landing, limits, headroom (°C of warming left) and advice."),
+        Line::from(
+            "Every leg of the day against the operator's minimums, re-checked as each \
+             report arrives. Enter on a leg opens its chain: observation, air, wind, \
+             takeoff, climb, landing, limits, headroom and advice.",
+        ),
         Line::from(vec![
             Span::styled("✓ within", t.state(State::Within)),
             Span::raw(" every minimum with the buffer to spare · "),
@@ -860,6 +962,37 @@ fn help(area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
         ]),
         Line::from(super::overlays::HELP_LEGEND),
         Line::default(),
+        Line::styled("The legs table", t.heading()),
+        Line::from(
+            "* in the first column: the leg's state changed with the latest report \
+             (marked for 30 s; the change list says from what to what).",
+        ),
+        Line::from(format!(
+            "margin: the limiting check's room to spare, in its own unit: % for \
+             distances and climb, kt for wind, ft for density altitude. headroom: \
+             {} of warming left before the leg is below (≥: the flight-manual table \
+             ends first). a/c: aircraft. A text ending in … is shortened at a word; the \
+             detail has it whole. Narrow terminals drop columns (category, forecast, \
+             aircraft, headroom, in that order).",
+            show.temp_unit()
+        )),
+        Line::from(format!(
+            "Sort by margin ÷ buffer: each leg's limiting margin divided by that check's \
+             thin buffer ({:.0} % distances, {:.0} % climb, {:.0} kt wind, {:.0} ft density \
+             altitude, {:.0} ft ceiling, {} visibility), so %, kt and ft compare: \
+             below 0 misses, 0 to 1 is thin; the smallest first, the no-data legs \
+             right after the below ones.",
+            b.distance_percent,
+            b.climb_percent,
+            b.wind_kt,
+            b.density_altitude_ft,
+            b.ceiling_ft,
+            match show.limit_value(b.visibility_m, "m", true) {
+                (v, "SM") => format!("{v:.1} SM"),
+                (v, u) => format!("{v:.0} {u}"),
+            }
+        )),
+        Line::default(),
         Line::styled("Keys", t.heading()),
     ];
     for b in KEYMAP {
@@ -870,9 +1003,17 @@ fn help(area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
     }
     lines.push(Line::default());
     lines.push(Line::styled(crate::CAUTION, t.caution()));
+    // Wrapped here, so each key's text stays in its column.
+    let inner_w = usize::from(area.width.min(80).saturating_sub(2));
+    let lines: Vec<Line> = lines
+        .into_iter()
+        .flat_map(|l| {
+            let key = l.spans.len() == 2 && l.spans[0].content.starts_with("  ");
+            fit::wrap(l, inner_w, key.then_some(13).or(Some(0)))
+        })
+        .collect();
     let r = centered(area, 80, lines.len() as u16 + 2);
-    // Wrapped lines take more rows than there are lines: leave some slack.
-    let hidden = (lines.len() as u16 + 5).saturating_sub(r.height);
+    let hidden = (lines.len() as u16 + 2).saturating_sub(r.height);
     let scroll = scroll.min(hidden);
     let title = if hidden > 0 {
         " Help — ↑↓ scroll, Esc closes "
@@ -881,10 +1022,44 @@ fn help(area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
     };
     Clear.render(r, buf);
     Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
         .scroll((scroll, 0))
         .block(Block::bordered().border_style(t.frame()).title(title))
         .render(r, buf);
+}
+
+/// A form's fields, one line each — label (`label_w` wide, right-aligned), value
+/// (the cursor on the focused one), hint — and the field's error under it.
+pub(super) fn field_lines<'a>(
+    specs: impl Iterator<Item = (&'static str, &'static str)>,
+    values: &[String],
+    focus: usize,
+    error: impl Fn(usize) -> Option<&'a str>,
+    label_w: usize,
+    t: Theme,
+) -> Vec<Line<'static>> {
+    let mut lines = Vec::new();
+    for (i, (label, hint)) in specs.enumerate() {
+        let v = values.get(i).map_or("", String::as_str);
+        let value = if i == focus {
+            format!("{v}▏")
+        } else {
+            v.to_string()
+        };
+        let label_style = if i == focus {
+            t.selected()
+        } else {
+            t.heading()
+        };
+        lines.push(Line::from(vec![
+            Span::styled(format!("{label:>label_w$}"), label_style),
+            Span::raw(format!(" {value:<14} ")),
+            Span::styled(hint, t.dim()),
+        ]));
+        if let Some(e) = error(i) {
+            lines.push(Line::styled(format!("{:>label_w$} ✗ {e}", ""), t.error()));
+        }
+    }
+    lines
 }
 
 /// A field's error without the "manual observation XSEA: " prefix the form makes plain.
@@ -903,26 +1078,14 @@ fn form(app: &App, f: &Form, area: Rect, buf: &mut Buffer, t: Theme) {
         ),
         Line::default(),
     ];
-    for (i, spec) in FIELDS.iter().enumerate() {
-        let focus = i == f.focus;
-        let value = if focus {
-            format!("{}▏", f.values[i])
-        } else {
-            f.values[i].clone()
-        };
-        let label_style = if focus { t.selected() } else { t.heading() };
-        lines.push(Line::from(vec![
-            Span::styled(format!("{:>17}", spec.label), label_style),
-            Span::raw(format!(" {value:<14} ")),
-            Span::styled(spec.hint, t.dim()),
-        ]));
-        if let Some(e) = f.error_for(i) {
-            lines.push(Line::styled(
-                format!("{:>17} ✗ {}", "", field_error(e)),
-                t.error(),
-            ));
-        }
-    }
+    lines.extend(field_lines(
+        FIELDS.iter().map(|s| (s.label, s.hint)),
+        &f.values,
+        f.focus,
+        |i| f.error_for(i).map(field_error),
+        17,
+        t,
+    ));
     let general: Vec<&str> = f
         .errors
         .iter()
@@ -953,16 +1116,7 @@ fn form(app: &App, f: &Form, area: Rect, buf: &mut Buffer, t: Theme) {
         ),
         t.dim(),
     ));
-    let r = centered(area, 100, lines.len() as u16 + 4);
-    Clear.render(r, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .block(
-            Block::bordered()
-                .border_style(t.frame())
-                .title(" Report by hand (o) "),
-        )
-        .render(r, buf);
+    super::overlays::boxed(lines, " Report by hand (o) ".into(), area, buf, t, 100);
 }
 
 /// The ends of airfield `fi` today, one line each: designator, usable now or not,
@@ -1047,23 +1201,14 @@ fn runway_form(app: &App, f: &RunwayForm, area: Rect, buf: &mut Buffer, t: Theme
     if area.height >= 30 {
         lines.push(Line::default());
     }
-    for (i, spec) in RUNWAY_FIELDS.iter().enumerate() {
-        let focus = i == f.focus;
-        let value = if focus {
-            format!("{}▏", f.values[i])
-        } else {
-            f.values[i].clone()
-        };
-        let label_style = if focus { t.selected() } else { t.heading() };
-        lines.push(Line::from(vec![
-            Span::styled(format!("{:>10}", spec.label), label_style),
-            Span::raw(format!(" {value:<14} ")),
-            Span::styled(spec.hint, t.dim()),
-        ]));
-        if let Some(e) = f.error_for(i) {
-            lines.push(Line::styled(format!("{:>10} ✗ {e}", ""), t.error()));
-        }
-    }
+    lines.extend(field_lines(
+        RUNWAY_FIELDS.iter().map(|s| (s.label, s.hint)),
+        &f.values,
+        f.focus,
+        |i| f.error_for(i),
+        10,
+        t,
+    ));
     for (_, g) in f.errors.iter().filter(|(i, _)| i.is_none()) {
         lines.push(Line::styled(format!("✗ {g}"), t.error()));
     }
@@ -1077,16 +1222,14 @@ fn runway_form(app: &App, f: &RunwayForm, area: Rect, buf: &mut Buffer, t: Theme
             .to_string(),
     };
     lines.push(Line::styled(where_to, t.dim()));
-    let r = centered(area, 104, lines.len() as u16 + 4);
-    Clear.render(r, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: false })
-        .block(
-            Block::bordered()
-                .border_style(t.frame())
-                .title(" Runway state for the day (r) "),
-        )
-        .render(r, buf);
+    super::overlays::boxed(
+        lines,
+        " Runway state for the day (r) ".into(),
+        area,
+        buf,
+        t,
+        104,
+    );
 }
 
 /// A sun event as `1947Z`, or why there is none.
@@ -1147,7 +1290,10 @@ fn field_panel(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let block = Block::new().borders(Borders::TOP).border_style(t.frame());
     let inner = block.inner(area);
     block.render(area, buf);
-    Paragraph::new(lines)
-        .wrap(Wrap { trim: true })
-        .render(inner, buf);
+    let w = usize::from(inner.width);
+    let lines: Vec<Line> = lines
+        .into_iter()
+        .flat_map(|l| fit::wrap(l, w, None))
+        .collect();
+    Paragraph::new(lines).render(inner, buf);
 }

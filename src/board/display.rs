@@ -1,0 +1,189 @@
+//! Quantities in the operator's display units (`operator.json` `display_units`), each
+//! with its unit in the text. The assessment works in kg, m, hPa and °C; only the
+//! board's words change. Altitudes stay in ft and wind in kt (the aviation units the
+//! limits are written in).
+
+use crate::ops::Ops;
+use crate::ops::operator::{DisplayUnits, DistanceUnit, MassUnit, PressureUnit, TemperatureUnit};
+use crate::units;
+
+/// The operator's display units.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Show(pub DisplayUnits);
+
+impl Show {
+    /// The display units of `ops`.
+    pub fn of(ops: &Ops) -> Show {
+        Show(ops.operator.display_units)
+    }
+
+    /// A distance: `721 m` or `2365 ft`.
+    pub fn dist(self, m: f64) -> String {
+        match self.0.distance {
+            DistanceUnit::M => format!("{m:.0} m"),
+            DistanceUnit::Ft => format!("{:.0} ft", units::m_to_ft(m)),
+        }
+    }
+
+    /// A mass: `986 kg` or `2174 lb`.
+    pub fn mass(self, kg: f64) -> String {
+        match self.0.mass {
+            MassUnit::Kg => format!("{kg:.0} kg"),
+            MassUnit::Lb => format!("{:.0} lb", units::kg_to_lb(kg)),
+        }
+    }
+
+    /// A pressure: `1014.0 hPa` or `29.94 inHg`.
+    pub fn pressure(self, hpa: f64) -> String {
+        match self.0.pressure {
+            PressureUnit::Hpa => format!("{hpa:.1} hPa"),
+            PressureUnit::InHg => format!("{:.2} inHg", units::hpa_to_inhg(hpa)),
+        }
+    }
+
+    /// The temperature unit's symbol, `°C` or `°F`.
+    pub fn temp_unit(self) -> &'static str {
+        match self.0.temperature {
+            TemperatureUnit::C => "°C",
+            TemperatureUnit::F => "°F",
+        }
+    }
+
+    fn temp_value(self, c: f64) -> f64 {
+        match self.0.temperature {
+            TemperatureUnit::C => c,
+            TemperatureUnit::F => units::c_to_f(c),
+        }
+    }
+
+    /// A temperature to a tenth: `29.0 °C` or `84.2 °F`.
+    pub fn temp(self, c: f64) -> String {
+        format!("{:.1} {}", self.temp_value(c), self.temp_unit())
+    }
+
+    /// A temperature to the degree: `29 °C` or `84 °F`.
+    pub fn temp0(self, c: f64) -> String {
+        format!("{:.0} {}", self.temp_value(c), self.temp_unit())
+    }
+
+    /// A temperature difference, signed: `+6.3 °C` or `+11.3 °F` (1 °C = 1.8 °F).
+    pub fn warming(self, dc: f64) -> String {
+        format!("{:+.1} {}", self.warming_value(dc), self.temp_unit())
+    }
+
+    /// A limit's value in the display unit: metres of visibility as statute miles
+    /// with distances in ft (the unit visibility is given in where runways are in
+    /// feet), other metres as distances, kg and mm as lb and in with masses in lb;
+    /// every other unit as it is. `(value, unit)`.
+    pub fn limit_value(self, v: f64, unit: &'static str, visibility: bool) -> (f64, &'static str) {
+        match (unit, self.0.distance, self.0.mass) {
+            ("m", DistanceUnit::Ft, _) if visibility => (units::m_to_sm(v), "SM"),
+            ("m", DistanceUnit::Ft, _) => (units::m_to_ft(v), "ft"),
+            // Masses in lb go with arms in inches (the weight-and-balance convention).
+            ("kg", _, MassUnit::Lb) => (units::kg_to_lb(v), "lb"),
+            ("mm", _, MassUnit::Lb) => (v / 25.4, "in"),
+            _ => (v, unit),
+        }
+    }
+
+    /// `text` (a sentence from the assessment) with each `<number> m`, `kg`, `hPa` and
+    /// `°C` in the display units; metres are statute miles in a sentence about
+    /// visibility (with distances in ft).
+    pub fn in_text(self, text: &str) -> String {
+        let visibility = text.contains("visibility");
+        let words: Vec<&str> = text.split(' ').collect();
+        let mut out: Vec<String> = Vec::with_capacity(words.len());
+        let mut i = 0;
+        while i < words.len() {
+            let w = words[i];
+            let next = words.get(i + 1).copied().unwrap_or("");
+            let unit = next.trim_end_matches([',', ';', ')', '.']);
+            let tail = &next[unit.len()..];
+            let (pre, num) = w.split_at(w.len() - w.trim_start_matches('(').len());
+            let plus = if num.starts_with('+') { "+" } else { "" };
+            let converted = num.parse::<f64>().ok().and_then(|v| {
+                let shown = match unit {
+                    "m" if visibility && self.0.distance == DistanceUnit::Ft => {
+                        format!("{:.1} SM", units::m_to_sm(v))
+                    }
+                    "m" => self.dist(v),
+                    "kg" => self.mass(v),
+                    "hPa" => self.pressure(v),
+                    "°C" => self.temp0(v),
+                    _ => return None,
+                };
+                Some(format!("{pre}{plus}{shown}{tail}"))
+            });
+            match converted {
+                Some(c) => {
+                    out.push(c);
+                    i += 2;
+                }
+                None => {
+                    out.push(w.to_string());
+                    i += 1;
+                }
+            }
+        }
+        out.join(" ")
+    }
+
+    /// A temperature difference in the display unit.
+    pub fn warming_value(self, dc: f64) -> f64 {
+        match self.0.temperature {
+            TemperatureUnit::C => dc,
+            TemperatureUnit::F => dc * 1.8,
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn imperial() -> Show {
+        Show(DisplayUnits {
+            distance: DistanceUnit::Ft,
+            mass: MassUnit::Lb,
+            pressure: PressureUnit::InHg,
+            temperature: TemperatureUnit::F,
+        })
+    }
+
+    #[test]
+    fn conversions_match_the_published_definitions() {
+        // Exact definitions: 1 ft = 0.3048 m, 1 lb = 0.453 592 37 kg (NIST SP 811,
+        // appendix B); 1 inHg = 33.8639 hPa (NIST SP 811); °F = °C × 1.8 + 32.
+        let s = imperial();
+        assert_eq!(s.dist(304.8), "1000 ft");
+        assert_eq!(s.mass(453.592_37), "1000 lb");
+        assert_eq!(s.pressure(1013.25), "29.92 inHg");
+        assert_eq!(s.temp(100.0), "212.0 °F");
+        assert_eq!(s.temp0(-40.0), "-40 °F");
+        assert_eq!(s.warming(5.0), "+9.0 °F");
+        let m = Show(DisplayUnits {
+            distance: DistanceUnit::M,
+            mass: MassUnit::Kg,
+            pressure: PressureUnit::Hpa,
+            temperature: TemperatureUnit::C,
+        });
+        assert_eq!(m.dist(721.4), "721 m");
+        assert_eq!(m.pressure(1013.0), "1013.0 hPa");
+        assert_eq!(m.warming(-3.24), "-3.2 °C");
+        // Sentences from the assessment, in the display units.
+        let why = "XPIN 26 takeoff: needs 1157 m, 1100 m available (-5 %)";
+        assert_eq!(m.in_text(why), why);
+        assert_eq!(
+            s.in_text(why),
+            "XPIN 26 takeoff: needs 3796 ft, 3609 ft available (-5 %)"
+        );
+        // 1 SM = 1609.344 m (NIST SP 811): 4828 m is 3.0 SM.
+        assert_eq!(
+            s.in_text("visibility 4828 m against 8047 m"),
+            "visibility 3.0 SM against 5.0 SM"
+        );
+        assert_eq!(s.limit_value(1609.344, "m", true), (1.0, "SM"));
+        assert_eq!(s.limit_value(20.0, "kt", false), (20.0, "kt"));
+        assert_eq!(s.limit_value(25.4, "mm", false), (1.0, "in"));
+    }
+}
