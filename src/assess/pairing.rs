@@ -20,7 +20,7 @@ use super::state::{State, verdict};
 use crate::atmosphere::{WarmAir, Warming};
 use crate::ops::operator::Buffers;
 use crate::ops::tables::Slice;
-use crate::ops::{Axis, Category, Leg, Ops, Performance, Status};
+use crate::ops::{Axis, Category, Cell, Leg, Ops, Performance, Status};
 
 /// What decided a pairing's state.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -340,6 +340,8 @@ struct Prepared {
     exception_start: Vec<usize>,
     /// The categories some row is assessed under, by [`cat_index`].
     categories: [bool; 4],
+    /// Per type, its five tables side by side ([`pack`]).
+    packed: Vec<Vec<[f64; 5]>>,
     dist_buf: f64,
     climb_buf: f64,
 }
@@ -395,6 +397,7 @@ impl Prepared {
             exceptions: Vec::new(),
             exception_start: Vec::new(),
             categories: [false; 4],
+            packed: ops.types.iter().map(|t| pack(&t.performance)).collect(),
             dist_buf: b.distance_percent / 100.0,
             climb_buf: b.climb_percent / 100.0,
         };
@@ -543,7 +546,7 @@ impl Prepared {
             climb_buffer: self.climb_buf,
         };
         // Mass and pressure altitude are located once; per temperature only the OAT.
-        let lookup = Lookup::new(&setup, wx.air.pressure_altitude_ft);
+        let lookup = Lookup::new(&setup, &self.packed[t], wx.air.pressure_altitude_ft);
         let eval = |k: usize, air: &WarmAir, tv: Option<&TableValues>| -> Outcome {
             evaluate(&setup, b, &field.ends[k], air, tv, &field.winds[k])
         };
@@ -559,6 +562,9 @@ impl Prepared {
         let now = eval(in_use, &air0, tv0.as_ref());
         let mut best = now.state;
         for k in 0..field.ends.len() {
+            if best == State::Within {
+                break; // No end can do better.
+            }
             if k != in_use && field.usable[k] {
                 best = best.min(eval(k, &air0, tv0.as_ref()).state);
             }
@@ -607,6 +613,7 @@ impl Prepared {
 /// the same point, bit for bit (a test below holds it to that).
 struct Lookup<'a> {
     perf: &'a Performance,
+    packed: &'a [[f64; 5]],
     conservative: bool,
     takeoff: Option<Slice>,
     /// `None` with a landing mass equal to the takeoff mass (the takeoff cell serves).
@@ -614,7 +621,7 @@ struct Lookup<'a> {
 }
 
 impl<'a> Lookup<'a> {
-    fn new(s: &Setup<'a>, pressure_altitude_ft: f64) -> Lookup<'a> {
+    fn new(s: &Setup<'a>, packed: &'a [[f64; 5]], pressure_altitude_ft: f64) -> Lookup<'a> {
         let grid = &s.perf.grid;
         let conservative = s.ty.conservative_below;
         let slice = |mass_kg: f64| {
@@ -631,6 +638,7 @@ impl<'a> Lookup<'a> {
         };
         Lookup {
             perf: s.perf,
+            packed,
             conservative,
             takeoff: slice(s.takeoff_mass_kg),
             landing: (s.landing_mass_kg != s.takeoff_mass_kg).then(|| slice(s.landing_mass_kg)),
@@ -640,25 +648,58 @@ impl<'a> Lookup<'a> {
     /// The five table values at `oat_c`; `None` outside the tables.
     #[inline]
     fn at(&self, oat_c: f64) -> Option<TableValues> {
-        let (perf, grid) = (self.perf, &self.perf.grid);
+        let grid = &self.perf.grid;
         let oat = if self.conservative {
             grid.hold_below(Axis::Oat, oat_c).0
         } else {
             oat_c
         };
         let t = self.takeoff?.at_oat(grid, oat).ok()?;
-        let l = match &self.landing {
-            None => t,
-            Some(l) => l.as_ref()?.at_oat(grid, oat).ok()?,
+        let vt = read_packed(self.packed, &t);
+        let vl = match &self.landing {
+            None => vt,
+            Some(l) => read_packed(self.packed, &l.as_ref()?.at_oat(grid, oat).ok()?),
         };
         Some(TableValues {
-            takeoff_ground_roll_m: perf.takeoff_ground_roll_m.at(&t),
-            takeoff_distance_50ft_m: perf.takeoff_distance_50ft_m.at(&t),
-            climb_rate_fpm: perf.climb_rate_fpm.at(&t),
-            landing_ground_roll_m: perf.landing_ground_roll_m.at(&l),
-            landing_distance_50ft_m: perf.landing_distance_50ft_m.at(&l),
+            takeoff_ground_roll_m: vt[0],
+            takeoff_distance_50ft_m: vt[1],
+            climb_rate_fpm: vt[2],
+            landing_ground_roll_m: vl[3],
+            landing_distance_50ft_m: vl[4],
         })
     }
+}
+
+/// A type's five tables side by side, one `[f64; 5]` per grid point (takeoff ground
+/// roll, takeoff distance to 50 ft, climb rate, landing ground roll, landing distance
+/// from 50 ft), so a cell's eight corners are eight reads instead of forty.
+fn pack(perf: &Performance) -> Vec<[f64; 5]> {
+    let tables = [
+        &perf.takeoff_ground_roll_m,
+        &perf.takeoff_distance_50ft_m,
+        &perf.climb_rate_fpm,
+        &perf.landing_ground_roll_m,
+        &perf.landing_distance_50ft_m,
+    ];
+    // A value a table lacks reads as zero, as `Table::at` reads it.
+    (0..perf.grid.len())
+        .map(|i| tables.map(|t| t.values().get(i).copied().unwrap_or(0.0)))
+        .collect()
+}
+
+/// The five tables at a cell: for each, `Σ value · weight` over the eight corners in
+/// order from zero, the sum [`crate::ops::Table::at`] forms.
+#[inline]
+fn read_packed(packed: &[[f64; 5]], cell: &Cell) -> [f64; 5] {
+    let (offsets, weights) = (cell.offsets(), cell.weights());
+    let mut sum = [0.0; 5];
+    for k in 0..8 {
+        let v = packed.get(offsets[k] as usize).copied().unwrap_or([0.0; 5]);
+        for j in 0..5 {
+            sum[j] += v[j] * weights[k];
+        }
+    }
+    sum
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -1099,7 +1140,8 @@ mod tests {
             let air = AirData::from_observation(0.0, 1013.25, oat_c, None);
             let air = AirData { pressure_altitude_ft: pa_ft, ..air };
             let want = table_values(&setup, &air).ok();
-            let got = Lookup::new(&setup, pa_ft).at(oat_c);
+            let packed = pack(perf);
+            let got = Lookup::new(&setup, &packed, pa_ft).at(oat_c);
             let bits = |v: Option<TableValues>| v.map(|v| [
                 v.takeoff_ground_roll_m.to_bits(), v.takeoff_distance_50ft_m.to_bits(),
                 v.climb_rate_fpm.to_bits(), v.landing_ground_roll_m.to_bits(),
