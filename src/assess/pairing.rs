@@ -584,12 +584,15 @@ impl Prepared {
         let headroom_c = match now.state {
             State::NoData => None,
             _ => super::headroom::search(
-                |dt| {
-                    if dt == 0.0 && zero_is_now {
-                        return now.temperature_score;
+                {
+                    let hot = HotEnd::new(&setup, b, &field.ends[in_use], &field.winds[in_use]);
+                    move |dt| {
+                        if dt == 0.0 && zero_is_now {
+                            return now.temperature_score;
+                        }
+                        let air = warming.at(wx.air.oat_c + dt);
+                        hot.temperature_score(&air, lookup.at(air.oat_c).as_ref())
                     }
-                    let air = warming.at(wx.air.oat_c + dt);
-                    eval(in_use, &air, lookup.at(air.oat_c).as_ref()).temperature_score
                 },
                 ty.oat_top_c - wx.air.oat_c,
                 ty.oat_bottom_c - wx.air.oat_c,
@@ -605,6 +608,83 @@ impl Prepared {
             end_in_use: u8::try_from(in_use).ok(),
             headroom_c,
         }
+    }
+}
+
+/// The runway in use of one pairing, for the headroom search: its distance corrections
+/// resolved once, then per temperature only what the temperature changes.
+struct HotEnd<'a> {
+    setup: &'a Setup<'a>,
+    buffers: &'a Buffers,
+    end: &'a EndModel,
+    wind: &'a EndWind,
+    /// `None`: a correction the manual lacks (no-data at every temperature).
+    takeoff: Option<perf::Corrections>,
+    landing: Option<perf::Corrections>,
+    landing_extra: f64,
+}
+
+impl<'a> HotEnd<'a> {
+    fn new(s: &'a Setup<'a>, b: &'a Buffers, end: &'a EndModel, w: &'a EndWind) -> HotEnd<'a> {
+        let wind = perf::WindInput {
+            headwind_kt: w.headwind_kt,
+            headwind_credit: s.model.headwind_credit,
+            tailwind_factor: s.model.tailwind_factor,
+        };
+        let wet = s.mins.wet_paved_landing_factor;
+        // As `leg::departure_with` and `leg::landing_with` resolve them (a downhill
+        // landing is the adverse one).
+        let takeoff = perf::corrections(&s.ty.takeoff, wind, end.surface, end.slope_percent).ok();
+        let landing = perf::corrections(
+            &perf::landing_rules(&s.ty.landing, wet),
+            wind,
+            end.surface,
+            -end.slope_percent,
+        )
+        .ok();
+        HotEnd {
+            setup: s,
+            buffers: b,
+            end,
+            wind: w,
+            takeoff,
+            landing_extra: landing.map_or(1.0, |c| c.landing_extra_factor(wet)),
+            landing,
+        }
+    }
+
+    /// [`Outcome::temperature_score`] of [`evaluate`] on this end, the same value by the
+    /// same operations in the same order, without the wind limits and the chains' other
+    /// figures.
+    #[inline]
+    fn temperature_score(&self, air: &WarmAir, tv: Option<&TableValues>) -> Option<f64> {
+        let (s, end, mins) = (self.setup, self.end, self.setup.mins);
+        // A check with a NaN margin is no-data, which ends the search's knowledge.
+        let step =
+            |t: f64, margin: f64, buffer: f64| (!margin.is_nan()).then(|| t.min(margin / buffer));
+        let tv = tv?;
+        let c = self.takeoff.as_ref()?;
+        let [_, _, gr, d50] = c.figures(tv.takeoff_ground_roll_m, tv.takeoff_distance_50ft_m);
+        let m = perf::min_margin_of(gr, d50, end, &mins.takeoff_checks, 1.0);
+        let t = step(f64::INFINITY, m, s.distance_buffer)?;
+        let climb = perf::climb(
+            tv.climb_rate_fpm,
+            s.ty.climb_speed_kias,
+            air.true_airspeed_factor,
+            self.wind.headwind_kt,
+            mins.min_climb_rate_fpm,
+            end.required_gradient_ft_per_nm,
+        );
+        let t = step(t, climb.margin(), s.climb_buffer)?;
+        let l = self.landing.as_ref()?;
+        let [_, _, gr, d50] = l.figures(tv.landing_ground_roll_m, tv.landing_distance_50ft_m);
+        let m = perf::min_margin_of(gr, d50, end, &mins.landing_checks, self.landing_extra);
+        let t = step(t, m, s.distance_buffer)?;
+        step(
+            t,
+            mins.max_density_altitude_ft - air.density_altitude_ft,
+            self.buffers.density_altitude_ft,
+        )
     }
 }
 
