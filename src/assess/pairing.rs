@@ -1195,6 +1195,50 @@ mod tests {
     }
 
     proptest! {
+        #![proptest_config(ProptestConfig::with_cases(3000))]
+        /// The headroom search's score on the runway in use (lean warming, slice lookup,
+        /// resolved corrections) equals, bit for bit, `evaluate`'s temperature score on
+        /// the full air of `with_oat` and `leg::table_values`, on every demo type, field,
+        /// end and category, in any wind, dry or moist, warming or cooling.
+        #[test]
+        fn hot_end_score_equals_the_full_evaluation(
+            t in 0usize..16, f in 0usize..64, k in 0usize..8, cat in 0usize..4,
+            fm in 0.0f64..1.1, fl in 0.0f64..1.1,
+            qnh_hpa in 980.0f64..1_045.0, oat_c in -25.0f64..45.0,
+            spread_c in 0.0f64..25.0, moist in proptest::bool::ANY,
+            wind_deg in 0.0f64..360.0, wind_kt in 0.0f64..30.0, dt_c in -40.0f64..40.0,
+        ) {
+            let (ops, model) = demo_model();
+            let t = t % model.types.len();
+            let fi = f % ops.airfields.len();
+            let ends = model.field_ends(fi);
+            let end = &ends[k % ends.len()];
+            let Some(mins) = ops.minimums(Category::ALL[cat]) else { return Ok(()); };
+            let (ty, perf) = (&model.types[t], &ops.types[t].performance);
+            let (lo, hi) = perf.grid.range(Axis::Mass);
+            let setup = Setup {
+                model, ty, perf, mins,
+                takeoff_mass_kg: lo + fm * (hi - lo),
+                landing_mass_kg: lo + fl * (hi - lo),
+                distance_buffer: 0.1, climb_buffer: 0.1,
+            };
+            let air = AirData::from_observation(
+                ops.airfields[fi].elevation_ft, qnh_hpa, oat_c, moist.then_some(oat_c - spread_c));
+            let wx = FieldWx { air, direction: crate::assess::wind::Direction::Steady(wind_deg), speed_kt: wind_kt, gust_kt: None };
+            let w = wx.on_end(end.heading_true_deg);
+            let b = &ops.operator.policy.buffers;
+            let warm = air.with_oat(oat_c + dt_c);
+            let want = evaluate_reference(&setup, b, end, &warm, &table_values(&setup, &warm), &w)
+                .temperature_score;
+            let packed = pack(perf);
+            let lookup = Lookup::new(&setup, &packed, air.pressure_altitude_ft);
+            let lean = Warming::new(&air).at(oat_c + dt_c);
+            let got = HotEnd::new(&setup, b, end, &w).temperature_score(&lean, lookup.at(lean.oat_c).as_ref());
+            prop_assert_eq!(got.map(f64::to_bits), want.map(f64::to_bits), "{:?} vs {:?}", got, want);
+        }
+    }
+
+    proptest! {
         #![proptest_config(ProptestConfig::with_cases(2000))]
         /// The per-pairing lookup equals `leg::table_values` bit for bit, on every demo
         /// type, at masses, pressure altitudes and temperatures in, below and above the
