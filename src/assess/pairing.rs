@@ -172,6 +172,8 @@ impl Matrix {
 /// Per airfield, computed once per report.
 struct FieldPrep<'a> {
     wx: Option<FieldWx>,
+    /// The report's air for other temperatures (headroom).
+    warming: Option<Warming>,
     winds: Vec<EndWind>,
     /// Whether each end is usable at the reference time.
     usable: Vec<bool>,
@@ -280,6 +282,7 @@ impl<'a> FieldPrep<'a> {
             }
         }
         FieldPrep {
+            warming: wx.as_ref().map(|wx| Warming::new(&wx.air)),
             wx,
             winds,
             usable,
@@ -520,7 +523,12 @@ impl Prepared {
     fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, class: &Class) -> PairCell {
         let ops = ctx.ops;
         let model = ctx.model;
-        let (Some(t), Some(wx), Some(in_use)) = (class.ty, field.wx.as_ref(), field.in_use) else {
+        let (Some(t), Some(wx), Some(warming), Some(in_use)) = (
+            class.ty,
+            field.wx.as_ref(),
+            field.warming.as_ref(),
+            field.in_use,
+        ) else {
             return PairCell::NO_DATA;
         };
         if field.stale {
@@ -579,7 +587,6 @@ impl Prepared {
         }
         // Wind limits do not change with temperature: the search judges only the rest.
         // With the dew point at or below the OAT, no warming at all is the air itself.
-        let warming = Warming::new(&wx.air);
         let zero_is_now = wx.air.dewpoint_c.is_none_or(|td| td <= wx.air.oat_c);
         let headroom_c = match now.state {
             State::NoData => None,
