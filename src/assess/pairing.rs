@@ -3,9 +3,14 @@
 //! limits for the aircraft's strictest category, and the headroom in degrees.
 //!
 //! This is the hot path. Each airfield's air and per-end winds are computed once per
-//! report; each pairing locates its table cell once and shares it across the takeoff,
-//! climb and (at equal mass) landing tables and every runway end. Nothing here
-//! allocates per pairing.
+//! report; rows alike in type, masses and category (a class) are computed once per
+//! airfield and the matrix is then written a row at a time. Each pairing locates its
+//! mass and pressure altitude in the tables once (`Lookup`); the cell at the report's
+//! OAT is shared by the takeoff, climb and landing tables and every runway end, and the
+//! headroom search asks only for the OAT again, with the runway in use's corrections
+//! resolved once (`HotEnd`) and only the warmed air's density figures
+//! ([`Warming`]). Nothing here allocates per pairing, and every result equals, bit for
+//! bit, the plain cell-by-cell computation kept in the tests.
 
 use serde_json::{Value, json};
 
