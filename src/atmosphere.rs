@@ -240,7 +240,16 @@ pub fn saturation_vapour_pressure_hpa(temperature_c: f64) -> f64 {
 /// Virtual temperature of moist air, K: the temperature dry air would need to have the
 /// same density at the same pressure. `Tv = T / (1 − (e/p)(1 − ε))`, ε = R_d / R_v.
 pub fn virtual_temperature_k(pressure_hpa: f64, temperature_c: f64, dewpoint_c: f64) -> f64 {
-    let e_hpa = saturation_vapour_pressure_hpa(dewpoint_c);
+    virtual_temperature_from_vapour_k(
+        pressure_hpa,
+        temperature_c,
+        saturation_vapour_pressure_hpa(dewpoint_c),
+    )
+}
+
+/// [`virtual_temperature_k`] from the vapour pressure `e_hpa` itself.
+#[inline]
+fn virtual_temperature_from_vapour_k(pressure_hpa: f64, temperature_c: f64, e_hpa: f64) -> f64 {
     let epsilon = R_DRY_J_KG_K / R_VAPOUR_J_KG_K;
     c_to_k(temperature_c) / (1.0 - (e_hpa / pressure_hpa) * (1.0 - epsilon))
 }
@@ -387,6 +396,69 @@ impl AirData {
     }
 }
 
+/// The figures of [`AirData::with_oat`] that performance needs, for many temperatures
+/// at one observation's station pressure: a headroom search asks for a dozen. The vapour
+/// pressure at the dew point is found once (it stays while the dew point is below the
+/// OAT); the dry-air and rule-of-thumb density altitudes are not computed. Every value is
+/// the one `with_oat` gives, bit for bit (the same operations in the same order).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Warming {
+    station_pressure_hpa: f64,
+    dewpoint_c: Option<f64>,
+    /// Saturation vapour pressure at the dew point, hPa (NaN without one).
+    vapour_at_dewpoint_hpa: f64,
+}
+
+/// The air of a [`Warming`] at one temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct WarmAir {
+    /// Outside air temperature, °C.
+    pub oat_c: f64,
+    /// Air density (with humidity when a dew point is given), kg/m³.
+    pub density_kg_m3: f64,
+    /// Density altitude, ft.
+    pub density_altitude_ft: f64,
+    /// 1/√σ.
+    pub true_airspeed_factor: f64,
+}
+
+impl Warming {
+    /// The warming of `air`: its station pressure held, its dew point capped at the OAT.
+    pub fn new(air: &AirData) -> Warming {
+        Warming {
+            station_pressure_hpa: air.station_pressure_hpa,
+            dewpoint_c: air.dewpoint_c,
+            vapour_at_dewpoint_hpa: air
+                .dewpoint_c
+                .map_or(f64::NAN, saturation_vapour_pressure_hpa),
+        }
+    }
+
+    /// The air at `oat_c`.
+    #[inline]
+    pub fn at(&self, oat_c: f64) -> WarmAir {
+        let p = self.station_pressure_hpa;
+        let density = match self.dewpoint_c {
+            Some(td) => {
+                let capped = td.min(oat_c);
+                let e_hpa = if capped == td {
+                    self.vapour_at_dewpoint_hpa
+                } else {
+                    saturation_vapour_pressure_hpa(capped)
+                };
+                p * 100.0 / (R_DRY_J_KG_K * virtual_temperature_from_vapour_k(p, oat_c, e_hpa))
+            }
+            None => density_kg_m3(p, oat_c, None),
+        };
+        WarmAir {
+            oat_c,
+            density_kg_m3: density,
+            density_altitude_ft: density_altitude_ft(density),
+            true_airspeed_factor: true_airspeed_factor(density),
+        }
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -401,6 +473,26 @@ mod tests {
             assert!((t - pair[1].base_temperature_k).abs() < 1e-9);
         }
         assert!((SEA_LEVEL_DENSITY_KG_M3 - 1.225).abs() < 1e-6);
+    }
+
+    proptest! {
+        /// The lean warming path gives exactly what `AirData::with_oat` gives, for dry
+        /// and moist air, warming and cooling (also below the dew point, where the dew
+        /// point is capped).
+        #[test]
+        fn warming_equals_with_oat(
+            elevation_ft in -1_000.0f64..14_000.0, qnh_hpa in 950.0f64..1_060.0,
+            oat_c in -30.0f64..45.0, spread_c in 0.0f64..30.0, moist in proptest::bool::ANY,
+            dt_c in -40.0f64..40.0,
+        ) {
+            let air = AirData::from_observation(elevation_ft, qnh_hpa, oat_c, moist.then_some(oat_c - spread_c));
+            let want = air.with_oat(oat_c + dt_c);
+            let got = Warming::new(&air).at(oat_c + dt_c);
+            prop_assert_eq!(got.oat_c.to_bits(), want.oat_c.to_bits());
+            prop_assert_eq!(got.density_kg_m3.to_bits(), want.density_kg_m3.to_bits());
+            prop_assert_eq!(got.density_altitude_ft.to_bits(), want.density_altitude_ft.to_bits());
+            prop_assert_eq!(got.true_airspeed_factor.to_bits(), want.true_airspeed_factor.to_bits());
+        }
     }
 
     proptest! {

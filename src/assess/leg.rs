@@ -263,6 +263,18 @@ pub fn departure_with(
     air: &AirData,
     headwind_kt: f64,
 ) -> Result<(DistanceChain, ClimbChain), Gap> {
+    departure_at(s, tv, end, air.true_airspeed_factor, headwind_kt)
+}
+
+/// [`departure_with`] given only the air's true-airspeed factor, the one figure of the
+/// air it reads (the pairing matrix's headroom search has no full `AirData`).
+pub fn departure_at(
+    s: &Setup<'_>,
+    tv: &TableValues,
+    end: &EndModel,
+    true_airspeed_factor: f64,
+    headwind_kt: f64,
+) -> Result<(DistanceChain, ClimbChain), Gap> {
     let chain = perf::distances(
         &s.ty.takeoff,
         tv.takeoff_ground_roll_m,
@@ -275,7 +287,7 @@ pub fn departure_with(
     let climb = perf::climb(
         tv.climb_rate_fpm,
         s.ty.climb_speed_kias,
-        air.true_airspeed_factor,
+        true_airspeed_factor,
         headwind_kt,
         s.mins.min_climb_rate_fpm,
         end.required_gradient_ft_per_nm,

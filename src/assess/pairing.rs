@@ -3,24 +3,29 @@
 //! limits for the aircraft's strictest category, and the headroom in degrees.
 //!
 //! This is the hot path. Each airfield's air and per-end winds are computed once per
-//! report; each pairing locates its table cell once and shares it across the takeoff,
-//! climb and (at equal mass) landing tables and every runway end. Nothing here
-//! allocates per pairing.
+//! report; rows alike in type, masses and category (a class) are computed once per
+//! airfield and the matrix is then written a row at a time. Each pairing locates its
+//! mass and pressure altitude in the tables once (`Lookup`); the cell at the report's
+//! OAT is shared by the takeoff, climb and landing tables and every runway end, and the
+//! headroom search asks only for the OAT again, with the runway in use's corrections
+//! resolved once (`HotEnd`) and only the warmed air's density figures
+//! ([`Warming`]). Nothing here allocates per pairing, and every result equals, bit for
+//! bit, the plain cell-by-cell computation kept in the tests.
 
 use serde_json::{Value, json};
 
 use super::leg::LegResult;
 use super::leg::{
-    Context, EndWind, FieldWx, Gap, Setup, TableValues, departure_with, landing_with,
-    observation_for, table_values,
+    Context, EndWind, FieldWx, Setup, TableValues, departure_at, landing_with, observation_for,
 };
 use super::limits::{self, Who};
 use super::model::{EndModel, Model};
 use super::perf;
 use super::state::{State, verdict};
-use crate::atmosphere::AirData;
+use crate::atmosphere::{WarmAir, Warming};
 use crate::ops::operator::Buffers;
-use crate::ops::{Category, Leg, Ops, Status};
+use crate::ops::tables::Slice;
+use crate::ops::{Axis, Category, Cell, Leg, Ops, Performance, Status};
 
 /// What decided a pairing's state.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -164,21 +169,33 @@ impl Matrix {
     pub fn update_field(&mut self, ctx: &Context<'_>, fi: usize) {
         if fi < self.fields {
             self.prep
-                .fill_column(ctx, &self.aircraft, self.fields, fi, &mut self.cells);
+                .fill_column(ctx, &self.aircraft, fi, &mut self.cells);
         }
     }
 }
 
 /// Per airfield, computed once per report.
 struct FieldPrep<'a> {
-    index: usize,
     wx: Option<FieldWx>,
+    /// The report's air for other temperatures (headroom).
+    warming: Option<Warming>,
     winds: Vec<EndWind>,
+    /// Whether each end is usable at the reference time.
+    usable: Vec<bool>,
     ends: &'a [EndModel],
     in_use: Option<usize>,
-    /// Field-level weather state per category (ceiling, visibility, wind, hazards).
+    /// Field-level weather state per category (ceiling, visibility, wind, hazards);
+    /// only the categories some row of the matrix is assessed under.
     weather: [(State, f64); 4],
     stale: bool,
+}
+
+/// Buffers reused from one airfield to the next.
+#[derive(Default)]
+struct Scratch {
+    winds: Vec<EndWind>,
+    usable: Vec<bool>,
+    limits: Vec<limits::LimitCheck>,
 }
 
 fn cat_index(c: Category) -> usize {
@@ -191,7 +208,12 @@ fn cat_index(c: Category) -> usize {
 }
 
 impl<'a> FieldPrep<'a> {
-    fn new(ctx: &Context<'a>, fi: usize) -> FieldPrep<'a> {
+    fn new(
+        ctx: &Context<'a>,
+        fi: usize,
+        categories: &[bool; 4],
+        scratch: &mut Scratch,
+    ) -> FieldPrep<'a> {
         let ops = ctx.ops;
         let model = ctx.model;
         let field = &ops.airfields[fi];
@@ -201,21 +223,25 @@ impl<'a> FieldPrep<'a> {
             .as_ref()
             .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
         let stale = found.as_ref().is_some_and(|(_, u)| u.stale);
-        let winds: Vec<EndWind> = match &wx {
-            Some(wx) => ends.iter().map(|e| wx.on_end(e.heading_true_deg)).collect(),
-            None => Vec::new(),
-        };
-        let usable = |k: &usize| ends.get(*k).is_some_and(|e| e.usable_at(ctx.at));
-        let in_use = model.set_in_use[fi].filter(usable).or_else(|| {
+        let mut winds = std::mem::take(&mut scratch.winds);
+        winds.clear();
+        if let Some(wx) = &wx {
+            winds.extend(ends.iter().map(|e| wx.on_end(e.heading_true_deg)));
+        }
+        let mut usable = std::mem::take(&mut scratch.usable);
+        usable.clear();
+        usable.extend(ends.iter().map(|e| e.usable_at(ctx.at)));
+        let is_usable = |k: &usize| usable.get(*k).copied().unwrap_or(false);
+        let in_use = model.set_in_use[fi].filter(is_usable).or_else(|| {
             let wx = wx.as_ref()?;
             if wx.calm() {
                 model.fields[fi]
                     .preferential_end
-                    .filter(usable)
-                    .or_else(|| (0..ends.len()).find(usable))
+                    .filter(is_usable)
+                    .or_else(|| (0..ends.len()).find(is_usable))
             } else {
                 (0..ends.len())
-                    .filter(usable)
+                    .filter(is_usable)
                     .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
             }
         });
@@ -223,6 +249,9 @@ impl<'a> FieldPrep<'a> {
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
             let sun = limits::sun(field, ctx.at);
             for c in Category::ALL {
+                if !categories[cat_index(c)] {
+                    continue;
+                }
                 let Some(mins) = ops.minimums(c) else {
                     continue;
                 };
@@ -233,7 +262,8 @@ impl<'a> FieldPrep<'a> {
                     regime: ops.operator.regime,
                     buffers: &ops.operator.policy.buffers,
                 };
-                let mut lim = Vec::new();
+                let lim = &mut scratch.limits;
+                lim.clear();
                 limits::field_limits(
                     &who,
                     report,
@@ -241,7 +271,7 @@ impl<'a> FieldPrep<'a> {
                     &sun,
                     ctx.at,
                     true,
-                    &mut lim,
+                    lim,
                 );
                 let mut st = (State::Within, f64::INFINITY);
                 for l in lim
@@ -257,19 +287,42 @@ impl<'a> FieldPrep<'a> {
             }
         }
         FieldPrep {
-            index: fi,
+            warming: wx.as_ref().map(|wx| Warming::new(&wx.air)),
             wx,
             winds,
+            usable,
             ends,
             in_use,
             weather,
             stale,
         }
     }
+
+    /// Hands the reusable buffers back.
+    fn recycle(self, scratch: &mut Scratch) {
+        scratch.winds = self.winds;
+        scratch.usable = self.usable;
+    }
 }
 
 /// Type, takeoff and landing mass (bits) and category: what a cell depends on.
 type CellKey = (Option<usize>, u64, u64, Category);
+
+/// What a cell depends on besides the field, resolved: equal classes give equal cells.
+#[derive(Debug, Clone, Copy)]
+struct Class {
+    ty: Option<usize>,
+    category: Category,
+    /// Takeoff and landing mass, kg; `None` when the type is unknown.
+    masses: Option<(f64, f64)>,
+}
+
+impl Class {
+    fn key(&self) -> CellKey {
+        let (tom, lm) = self.masses.unwrap_or((f64::NAN, f64::NAN));
+        (self.ty, tom.to_bits(), lm.to_bits(), self.category)
+    }
+}
 
 /// Per aircraft, computed once per matrix.
 #[derive(Debug, Clone)]
@@ -285,12 +338,24 @@ struct AircraftPrep {
 #[derive(Debug, Clone)]
 struct Prepared {
     aircraft: Vec<AircraftPrep>,
+    /// The distinct classes of the rows away from their legs' airfields.
+    classes: Vec<Class>,
+    /// The class of each row (index into `classes`).
+    row_class: Vec<usize>,
+    /// (airfield, row) where a row's leg gives other masses than its class, sorted by
+    /// airfield; `exception_start[fi]..exception_start[fi + 1]` are field `fi`'s.
+    exceptions: Vec<(usize, usize)>,
+    exception_start: Vec<usize>,
+    /// The categories some row is assessed under, by [`cat_index`].
+    categories: [bool; 4],
+    /// Per type, its five tables side by side ([`pack`]).
+    packed: Vec<Vec<[f64; 5]>>,
     dist_buf: f64,
     climb_buf: f64,
 }
 
 impl Prepared {
-    fn new(ctx: &Context<'_>) -> Prepared {
+    fn new(ctx: &Context<'_>, rows: &[usize]) -> Prepared {
         let ops = ctx.ops;
         let model = ctx.model;
         let day = ctx.at.date_naive();
@@ -333,11 +398,48 @@ impl Prepared {
             }
         }
         let b: &Buffers = &ops.operator.policy.buffers;
-        Prepared {
+        let mut prep = Prepared {
             aircraft,
+            classes: Vec::new(),
+            row_class: Vec::with_capacity(rows.len()),
+            exceptions: Vec::new(),
+            exception_start: Vec::new(),
+            categories: [false; 4],
+            packed: ops.types.iter().map(|t| pack(&t.performance)).collect(),
             dist_buf: b.distance_percent / 100.0,
             climb_buf: b.climb_percent / 100.0,
+        };
+        // Each row's class away from its legs' fields (`usize::MAX`: no such field).
+        for (ai, &a) in rows.iter().enumerate() {
+            let class = prep.class(model, a, usize::MAX);
+            let key = class.key();
+            let c = match prep.classes.iter().position(|k| k.key() == key) {
+                Some(c) => c,
+                None => {
+                    prep.classes.push(class);
+                    prep.categories[cat_index(class.category)] = true;
+                    prep.classes.len() - 1
+                }
+            };
+            prep.row_class.push(c);
+            let ap = &prep.aircraft[a];
+            for &(fi, _) in ap.legs_from.iter().chain(&ap.legs_to) {
+                if prep.class(model, a, fi).key() != key {
+                    prep.exceptions.push((fi, ai));
+                }
+            }
         }
+        prep.exceptions.sort_unstable();
+        prep.exceptions.dedup();
+        let fields = ops.airfields.len();
+        let mut k = 0;
+        for fi in 0..=fields {
+            while k < prep.exceptions.len() && prep.exceptions[k].0 < fi {
+                k += 1;
+            }
+            prep.exception_start.push(k);
+        }
+        prep
     }
 
     /// Takeoff and landing mass of aircraft `a` at field `fi`: its leg's where it has
@@ -358,55 +460,91 @@ impl Prepared {
         Some((tom, lm))
     }
 
-    /// What a cell depends on besides the field: equal keys give equal cells.
-    fn key(&self, model: &Model, a: usize, fi: usize) -> CellKey {
+    /// What aircraft `a`'s cell at field `fi` depends on besides the field.
+    fn class(&self, model: &Model, a: usize, fi: usize) -> Class {
         let ap = &self.aircraft[a];
-        let (tom, lm) = self.masses(model, a, fi).unwrap_or((f64::NAN, f64::NAN));
-        (ap.ty, tom.to_bits(), lm.to_bits(), ap.category)
+        Class {
+            ty: ap.ty,
+            category: ap.category,
+            masses: self.masses(model, a, fi),
+        }
     }
 
-    /// Fills field `fi`'s column; aircraft alike in type, masses and category share
-    /// one computation.
-    fn fill_column(
+    /// Field `fi`'s cells: one per class into `per_class`, and the rows whose legs give
+    /// other masses there into `exceptions` (rows alike in type, masses and category
+    /// share one computation).
+    fn column(
         &self,
         ctx: &Context<'_>,
-        aircraft: &[usize],
-        fields: usize,
+        rows: &[usize],
         fi: usize,
-        cells: &mut [PairCell],
+        scratch: &mut Scratch,
+        per_class: &mut [PairCell],
+        exceptions: &mut Vec<(usize, PairCell)>,
     ) {
-        let field = FieldPrep::new(ctx, fi);
+        let field = FieldPrep::new(ctx, fi, &self.categories, scratch);
+        for (c, out) in self.classes.iter().zip(per_class.iter_mut()) {
+            *out = self.pair(ctx, &field, c);
+        }
         let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
-        for (ai, &a) in aircraft.iter().enumerate() {
-            let key = self.key(ctx.model, a, fi);
+        let span = self.exception_start[fi]..self.exception_start[fi + 1];
+        for &(_, ai) in &self.exceptions[span] {
+            let class = self.class(ctx.model, rows[ai], fi);
+            let key = class.key();
             let cell = match seen.iter().find(|(k, _)| *k == key) {
                 Some((_, c)) => *c,
                 None => {
-                    let c = self.pair(ctx, &field, a);
+                    let c = self.pair(ctx, &field, &class);
                     seen.push((key, c));
                     c
                 }
             };
+            exceptions.push((ai, cell));
+        }
+        field.recycle(scratch);
+    }
+
+    /// Fills field `fi`'s column of `cells`.
+    fn fill_column(&self, ctx: &Context<'_>, rows: &[usize], fi: usize, cells: &mut [PairCell]) {
+        let fields = ctx.ops.airfields.len();
+        let mut per_class = vec![PairCell::NO_DATA; self.classes.len()];
+        let mut exceptions = Vec::new();
+        self.column(
+            ctx,
+            rows,
+            fi,
+            &mut Scratch::default(),
+            &mut per_class,
+            &mut exceptions,
+        );
+        for (ai, &c) in self.row_class.iter().enumerate() {
+            cells[ai * fields + fi] = per_class[c];
+        }
+        for (ai, cell) in exceptions {
             cells[ai * fields + fi] = cell;
         }
     }
 
-    fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, a: usize) -> PairCell {
+    fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, class: &Class) -> PairCell {
         let ops = ctx.ops;
         let model = ctx.model;
-        let ap = &self.aircraft[a];
-        let (Some(t), Some(wx), Some(in_use)) = (ap.ty, field.wx.as_ref(), field.in_use) else {
+        let (Some(t), Some(wx), Some(warming), Some(in_use)) = (
+            class.ty,
+            field.wx.as_ref(),
+            field.warming.as_ref(),
+            field.in_use,
+        ) else {
             return PairCell::NO_DATA;
         };
         if field.stale {
             return PairCell::NO_DATA;
         }
-        let Some(mins) = ops.minimums(ap.category) else {
+        let Some(mins) = ops.minimums(class.category) else {
             return PairCell::NO_DATA;
         };
         let ty = &model.types[t];
         let perf = &ops.types[t].performance;
-        let Some((tom, lm)) = self.masses(model, a, field.index) else {
+        let Some((tom, lm)) = class.masses else {
             return PairCell::NO_DATA;
         };
         let b = &ops.operator.policy.buffers;
@@ -420,17 +558,28 @@ impl Prepared {
             distance_buffer: self.dist_buf,
             climb_buffer: self.climb_buf,
         };
-        // One cell lookup for this air, shared by every runway end.
-        let eval = |k: usize, air: &AirData, tv: &Result<TableValues, Gap>| -> Outcome {
+        // Mass and pressure altitude are located once; per temperature only the OAT.
+        let lookup = Lookup::new(&setup, &self.packed[t], wx.air.pressure_altitude_ft);
+        let eval = |k: usize, air: &WarmAir, tv: Option<&TableValues>| -> Outcome {
             evaluate(&setup, b, &field.ends[k], air, tv, &field.winds[k])
         };
-        let tv0 = table_values(&setup, &wx.air);
-        let weather = field.weather[cat_index(ap.category)];
-        let now = eval(in_use, &wx.air, &tv0);
+        let air0 = WarmAir {
+            oat_c: wx.air.oat_c,
+            density_kg_m3: wx.air.density_kg_m3,
+            density_altitude_ft: wx.air.density_altitude_ft,
+            true_airspeed_factor: wx.air.true_airspeed_factor,
+        };
+        // One cell lookup for this air, shared by every runway end.
+        let tv0 = lookup.at(wx.air.oat_c);
+        let weather = field.weather[cat_index(class.category)];
+        let now = eval(in_use, &air0, tv0.as_ref());
         let mut best = now.state;
         for k in 0..field.ends.len() {
-            if k != in_use && field.ends[k].usable_at(ctx.at) {
-                best = best.min(eval(k, &wx.air, &tv0).state);
+            if best == State::Within {
+                break; // No end can do better.
+            }
+            if k != in_use && field.usable[k] {
+                best = best.min(eval(k, &air0, tv0.as_ref()).state);
             }
         }
         let (mut state, mut score, mut limiting, mut margin) =
@@ -442,12 +591,20 @@ impl Prepared {
             margin = f64::NAN;
         }
         // Wind limits do not change with temperature: the search judges only the rest.
+        // With the dew point at or below the OAT, no warming at all is the air itself.
+        let zero_is_now = wx.air.dewpoint_c.is_none_or(|td| td <= wx.air.oat_c);
         let headroom_c = match now.state {
             State::NoData => None,
             _ => super::headroom::search(
-                |dt| {
-                    let air = wx.air.with_oat(wx.air.oat_c + dt);
-                    eval(in_use, &air, &table_values(&setup, &air)).temperature_score
+                {
+                    let hot = HotEnd::new(&setup, b, &field.ends[in_use], &field.winds[in_use]);
+                    move |dt| {
+                        if dt == 0.0 && zero_is_now {
+                            return now.temperature_score;
+                        }
+                        let air = warming.at(wx.air.oat_c + dt);
+                        hot.temperature_score(&air, lookup.at(air.oat_c).as_ref())
+                    }
                 },
                 ty.oat_top_c - wx.air.oat_c,
                 ty.oat_bottom_c - wx.air.oat_c,
@@ -464,6 +621,177 @@ impl Prepared {
             headroom_c,
         }
     }
+}
+
+/// The runway in use of one pairing, for the headroom search: its distance corrections
+/// resolved once, then per temperature only what the temperature changes.
+struct HotEnd<'a> {
+    setup: &'a Setup<'a>,
+    buffers: &'a Buffers,
+    end: &'a EndModel,
+    wind: &'a EndWind,
+    /// `None`: a correction the manual lacks (no-data at every temperature).
+    takeoff: Option<perf::Corrections>,
+    landing: Option<perf::Corrections>,
+    landing_extra: f64,
+}
+
+impl<'a> HotEnd<'a> {
+    fn new(s: &'a Setup<'a>, b: &'a Buffers, end: &'a EndModel, w: &'a EndWind) -> HotEnd<'a> {
+        let wind = perf::WindInput {
+            headwind_kt: w.headwind_kt,
+            headwind_credit: s.model.headwind_credit,
+            tailwind_factor: s.model.tailwind_factor,
+        };
+        let wet = s.mins.wet_paved_landing_factor;
+        // As `leg::departure_with` and `leg::landing_with` resolve them (a downhill
+        // landing is the adverse one).
+        let takeoff = perf::corrections(&s.ty.takeoff, wind, end.surface, end.slope_percent).ok();
+        let landing = perf::corrections(
+            &perf::landing_rules(&s.ty.landing, wet),
+            wind,
+            end.surface,
+            -end.slope_percent,
+        )
+        .ok();
+        HotEnd {
+            setup: s,
+            buffers: b,
+            end,
+            wind: w,
+            takeoff,
+            landing_extra: landing.map_or(1.0, |c| c.landing_extra_factor(wet)),
+            landing,
+        }
+    }
+
+    /// [`Outcome::temperature_score`] of [`evaluate`] on this end, the same value by the
+    /// same operations in the same order, without the wind limits and the chains' other
+    /// figures.
+    #[inline]
+    fn temperature_score(&self, air: &WarmAir, tv: Option<&TableValues>) -> Option<f64> {
+        let (s, end, mins) = (self.setup, self.end, self.setup.mins);
+        // A check with a NaN margin is no-data, which ends the search's knowledge.
+        let step =
+            |t: f64, margin: f64, buffer: f64| (!margin.is_nan()).then(|| t.min(margin / buffer));
+        let tv = tv?;
+        let c = self.takeoff.as_ref()?;
+        let [_, _, gr, d50] = c.figures(tv.takeoff_ground_roll_m, tv.takeoff_distance_50ft_m);
+        let m = perf::min_margin_of(gr, d50, end, &mins.takeoff_checks, 1.0);
+        let t = step(f64::INFINITY, m, s.distance_buffer)?;
+        let climb = perf::climb(
+            tv.climb_rate_fpm,
+            s.ty.climb_speed_kias,
+            air.true_airspeed_factor,
+            self.wind.headwind_kt,
+            mins.min_climb_rate_fpm,
+            end.required_gradient_ft_per_nm,
+        );
+        let t = step(t, climb.margin(), s.climb_buffer)?;
+        let l = self.landing.as_ref()?;
+        let [_, _, gr, d50] = l.figures(tv.landing_ground_roll_m, tv.landing_distance_50ft_m);
+        let m = perf::min_margin_of(gr, d50, end, &mins.landing_checks, self.landing_extra);
+        let t = step(t, m, s.distance_buffer)?;
+        step(
+            t,
+            mins.max_density_altitude_ft - air.density_altitude_ft,
+            self.buffers.density_altitude_ft,
+        )
+    }
+}
+
+/// [`table_values`] for one setup at one pressure altitude and any OAT: the mass and
+/// pressure-altitude axes located once, the OAT per call. Equal to `table_values` for
+/// the same point, bit for bit (a test below holds it to that).
+struct Lookup<'a> {
+    perf: &'a Performance,
+    packed: &'a [[f64; 5]],
+    conservative: bool,
+    takeoff: Option<Slice>,
+    /// `None` with a landing mass equal to the takeoff mass (the takeoff cell serves).
+    landing: Option<Option<Slice>>,
+}
+
+impl<'a> Lookup<'a> {
+    fn new(s: &Setup<'a>, packed: &'a [[f64; 5]], pressure_altitude_ft: f64) -> Lookup<'a> {
+        let grid = &s.perf.grid;
+        let conservative = s.ty.conservative_below;
+        let slice = |mass_kg: f64| {
+            let (m, p) = if conservative {
+                (
+                    grid.hold_below(Axis::Mass, mass_kg).0,
+                    grid.hold_below(Axis::PressureAltitude, pressure_altitude_ft)
+                        .0,
+                )
+            } else {
+                (mass_kg, pressure_altitude_ft)
+            };
+            grid.locate_slice(m, p).ok()
+        };
+        Lookup {
+            perf: s.perf,
+            packed,
+            conservative,
+            takeoff: slice(s.takeoff_mass_kg),
+            landing: (s.landing_mass_kg != s.takeoff_mass_kg).then(|| slice(s.landing_mass_kg)),
+        }
+    }
+
+    /// The five table values at `oat_c`; `None` outside the tables.
+    #[inline]
+    fn at(&self, oat_c: f64) -> Option<TableValues> {
+        let grid = &self.perf.grid;
+        let oat = if self.conservative {
+            grid.hold_below(Axis::Oat, oat_c).0
+        } else {
+            oat_c
+        };
+        let t = self.takeoff?.at_oat(grid, oat).ok()?;
+        let vt = read_packed(self.packed, &t);
+        let vl = match &self.landing {
+            None => vt,
+            Some(l) => read_packed(self.packed, &l.as_ref()?.at_oat(grid, oat).ok()?),
+        };
+        Some(TableValues {
+            takeoff_ground_roll_m: vt[0],
+            takeoff_distance_50ft_m: vt[1],
+            climb_rate_fpm: vt[2],
+            landing_ground_roll_m: vl[3],
+            landing_distance_50ft_m: vl[4],
+        })
+    }
+}
+
+/// A type's five tables side by side, one `[f64; 5]` per grid point (takeoff ground
+/// roll, takeoff distance to 50 ft, climb rate, landing ground roll, landing distance
+/// from 50 ft), so a cell's eight corners are eight reads instead of forty.
+fn pack(perf: &Performance) -> Vec<[f64; 5]> {
+    let tables = [
+        &perf.takeoff_ground_roll_m,
+        &perf.takeoff_distance_50ft_m,
+        &perf.climb_rate_fpm,
+        &perf.landing_ground_roll_m,
+        &perf.landing_distance_50ft_m,
+    ];
+    // A value a table lacks reads as zero, as `Table::at` reads it.
+    (0..perf.grid.len())
+        .map(|i| tables.map(|t| t.values().get(i).copied().unwrap_or(0.0)))
+        .collect()
+}
+
+/// The five tables at a cell: for each, `Σ value · weight` over the eight corners in
+/// order from zero, the sum [`crate::ops::Table::at`] forms.
+#[inline]
+fn read_packed(packed: &[[f64; 5]], cell: &Cell) -> [f64; 5] {
+    let (offsets, weights) = (cell.offsets(), cell.weights());
+    let mut sum = [0.0; 5];
+    for k in 0..8 {
+        let v = packed.get(offsets[k] as usize).copied().unwrap_or([0.0; 5]);
+        for j in 0..5 {
+            sum[j] += v[j] * weights[k];
+        }
+    }
+    sum
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -507,8 +835,8 @@ fn evaluate(
     s: &Setup<'_>,
     b: &Buffers,
     end: &EndModel,
-    air: &AirData,
-    tv: &Result<TableValues, Gap>,
+    air: &WarmAir,
+    tv: Option<&TableValues>,
     w: &EndWind,
 ) -> Outcome {
     let (ty, mins) = (s.ty, s.mins);
@@ -520,14 +848,10 @@ fn evaluate(
         limiting: PairLimit::None,
         temperature_score: Some(f64::INFINITY),
     };
-    let tv = match tv {
-        Ok(tv) => Some(tv),
-        Err(_) => {
-            o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table);
-            None
-        }
-    };
-    match tv.map(|tv| departure_with(s, tv, end, air, w.headwind_kt)) {
+    if tv.is_none() {
+        o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table);
+    }
+    match tv.map(|tv| departure_at(s, tv, end, air.true_airspeed_factor, w.headwind_kt)) {
         Some(Ok((chain, climb))) => {
             let m = perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0);
             o.add(
@@ -579,19 +903,387 @@ fn evaluate(
 /// The whole matrix.
 pub fn matrix(ctx: &Context<'_>) -> Matrix {
     let ops = ctx.ops;
-    let prep = Prepared::new(ctx);
     let aircraft: Vec<usize> = (0..ops.aircraft.len())
         .filter(|&i| ops.aircraft[i].status == Status::Available)
         .collect();
+    let prep = Prepared::new(ctx, &aircraft);
     let fields = ops.airfields.len();
-    let mut cells = vec![PairCell::NO_DATA; aircraft.len() * fields];
+    // Field by field, one cell per class (class-major, so that each row's cells are
+    // then one contiguous copy) and the rows whose legs differ.
+    let n_classes = prep.classes.len();
+    let mut by_class = vec![PairCell::NO_DATA; n_classes * fields];
+    let mut per_class = vec![PairCell::NO_DATA; n_classes];
+    let mut exceptions: Vec<(usize, PairCell)> = Vec::new();
+    let mut at_field: Vec<usize> = Vec::with_capacity(fields + 1);
+    let mut scratch = Scratch::default();
     for fi in 0..fields {
-        prep.fill_column(ctx, &aircraft, fields, fi, &mut cells);
+        at_field.push(exceptions.len());
+        prep.column(
+            ctx,
+            &aircraft,
+            fi,
+            &mut scratch,
+            &mut per_class,
+            &mut exceptions,
+        );
+        for (c, cell) in per_class.iter().enumerate() {
+            by_class[c * fields + fi] = *cell;
+        }
+    }
+    at_field.push(exceptions.len());
+    let mut cells = Vec::with_capacity(aircraft.len() * fields);
+    for &c in &prep.row_class {
+        cells.extend_from_slice(&by_class[c * fields..(c + 1) * fields]);
+    }
+    for fi in 0..fields {
+        for &(ai, cell) in &exceptions[at_field[fi]..at_field[fi + 1]] {
+            cells[ai * fields + fi] = cell;
+        }
     }
     Matrix {
         aircraft,
         fields,
         cells,
         prep,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    //! The matrix against the way it was computed before the fast path: every cell on
+    //! its own, with the full air of `AirData::with_oat`, `leg::table_values` and
+    //! `leg::departure_with` at every step of the headroom search. Cells must agree bit
+    //! for bit (the fast path changes the arithmetic's route, never its operations).
+    use super::*;
+    use crate::assess::leg::{Gap, departure_with, table_values};
+    use crate::assess::model::DaySettings;
+    use crate::atmosphere::AirData;
+    use crate::observation::{Store, decode_all};
+    use crate::ops::synthetic::{self, Size};
+    use crate::ops::{demo, load_files};
+    use chrono::{DateTime, TimeZone, Utc};
+    use proptest::prelude::*;
+
+    fn evaluate_reference(
+        s: &Setup<'_>,
+        b: &Buffers,
+        end: &EndModel,
+        air: &AirData,
+        tv: &Result<TableValues, Gap>,
+        w: &EndWind,
+    ) -> Outcome {
+        let (ty, mins) = (s.ty, s.mins);
+        let (dist_buf, climb_buf) = (s.distance_buffer, s.climb_buffer);
+        let mut o = Outcome {
+            state: State::Within,
+            score: f64::INFINITY,
+            margin_percent: f64::INFINITY,
+            limiting: PairLimit::None,
+            temperature_score: Some(f64::INFINITY),
+        };
+        let tv = match tv {
+            Ok(tv) => Some(tv),
+            Err(_) => {
+                o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table);
+                None
+            }
+        };
+        match tv.map(|tv| departure_with(s, tv, end, air, w.headwind_kt)) {
+            Some(Ok((chain, climb))) => {
+                let m = perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0);
+                o.add(
+                    verdict(m, dist_buf),
+                    m / dist_buf,
+                    m * 100.0,
+                    PairLimit::Takeoff,
+                );
+                let c = climb.margin();
+                o.add(
+                    verdict(c, climb_buf),
+                    c / climb_buf,
+                    c * 100.0,
+                    PairLimit::Climb,
+                );
+            }
+            Some(Err(_)) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+            None => {}
+        }
+        match tv.map(|tv| landing_with(s, tv, end, w.headwind_kt)) {
+            Some(Ok(chain)) => {
+                let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
+                let m = perf::min_margin(&chain, end, &mins.landing_checks, extra);
+                o.add(
+                    verdict(m, dist_buf),
+                    m / dist_buf,
+                    m * 100.0,
+                    PairLimit::Landing,
+                );
+            }
+            Some(Err(_)) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+            None => {}
+        }
+        let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
+        o.limit(max_x - w.crosswind_kt, b.wind_kt, PairLimit::Crosswind);
+        o.limit(
+            mins.max_tailwind_kt - w.tailwind_limit_kt,
+            b.wind_kt,
+            PairLimit::Tailwind,
+        );
+        o.limit(
+            mins.max_density_altitude_ft - air.density_altitude_ft,
+            b.density_altitude_ft,
+            PairLimit::DensityAltitude,
+        );
+        o
+    }
+
+    /// One cell the old way: aircraft `a` at field `fi`.
+    fn cell_reference(
+        ctx: &Context<'_>,
+        prep: &Prepared,
+        field: &FieldPrep<'_>,
+        a: usize,
+        fi: usize,
+    ) -> PairCell {
+        let (ops, model) = (ctx.ops, ctx.model);
+        let ap = &prep.aircraft[a];
+        let (Some(t), Some(wx), Some(in_use)) = (ap.ty, field.wx.as_ref(), field.in_use) else {
+            return PairCell::NO_DATA;
+        };
+        if field.stale {
+            return PairCell::NO_DATA;
+        }
+        let Some(mins) = ops.minimums(ap.category) else {
+            return PairCell::NO_DATA;
+        };
+        let ty = &model.types[t];
+        let Some((tom, lm)) = prep.masses(model, a, fi) else {
+            return PairCell::NO_DATA;
+        };
+        let b = &ops.operator.policy.buffers;
+        let setup = Setup {
+            model,
+            ty,
+            perf: &ops.types[t].performance,
+            mins,
+            takeoff_mass_kg: tom,
+            landing_mass_kg: lm,
+            distance_buffer: prep.dist_buf,
+            climb_buffer: prep.climb_buf,
+        };
+        let eval = |k: usize, air: &AirData, tv: &Result<TableValues, Gap>| {
+            evaluate_reference(&setup, b, &field.ends[k], air, tv, &field.winds[k])
+        };
+        let tv0 = table_values(&setup, &wx.air);
+        let weather = field.weather[cat_index(ap.category)];
+        let now = eval(in_use, &wx.air, &tv0);
+        let mut best = now.state;
+        for k in 0..field.ends.len() {
+            if k != in_use && field.ends[k].usable_at(ctx.at) {
+                best = best.min(eval(k, &wx.air, &tv0).state);
+            }
+        }
+        let (mut state, mut score, mut limiting, mut margin) =
+            (now.state, now.score, now.limiting, now.margin_percent);
+        if weather.0 > state || (weather.0 == state && weather.1 < score) {
+            state = weather.0;
+            score = weather.1;
+            limiting = PairLimit::Weather;
+            margin = f64::NAN;
+        }
+        let headroom_c = match now.state {
+            State::NoData => None,
+            _ => super::super::headroom::search(
+                |dt| {
+                    let air = wx.air.with_oat(wx.air.oat_c + dt);
+                    eval(in_use, &air, &table_values(&setup, &air)).temperature_score
+                },
+                ty.oat_top_c - wx.air.oat_c,
+                ty.oat_bottom_c - wx.air.oat_c,
+            )
+            .map(|f| f.warming_c),
+        };
+        PairCell {
+            state,
+            score,
+            margin_percent: margin,
+            limiting,
+            best_end_state: best.and(weather.0),
+            end_in_use: u8::try_from(in_use).ok(),
+            headroom_c,
+        }
+    }
+
+    fn same(a: &PairCell, b: &PairCell) -> bool {
+        a.state == b.state
+            && a.score.to_bits() == b.score.to_bits()
+            && a.margin_percent.to_bits() == b.margin_percent.to_bits()
+            && a.limiting == b.limiting
+            && a.best_end_state == b.best_end_state
+            && a.end_in_use == b.end_in_use
+            && a.headroom_c.map(f64::to_bits) == b.headroom_c.map(f64::to_bits)
+    }
+
+    fn check_against_reference(ops: &Ops, store: &Store, at: DateTime<Utc>) -> usize {
+        let model = Model::new(ops, &DaySettings::default());
+        let ctx = Context {
+            ops,
+            model: &model,
+            store,
+            at,
+        };
+        let mut m = matrix(&ctx);
+        let mut checked = 0;
+        for fi in 0..m.fields {
+            // Every category's weather, as before only the rows' categories were.
+            let field = FieldPrep::new(&ctx, fi, &[true; 4], &mut Scratch::default());
+            for (ai, &a) in m.aircraft.iter().enumerate() {
+                let want = cell_reference(&ctx, &m.prep, &field, a, fi);
+                let got = m.cell(ai, fi);
+                assert!(
+                    same(got, &want),
+                    "{} at {}: {got:?} vs {want:?}",
+                    ops.aircraft[a].registration,
+                    ops.airfields[fi].id
+                );
+                checked += usize::from(want.headroom_c.is_some());
+            }
+        }
+        // A column recomputed in place gives the same cells.
+        let before = m.cells.clone();
+        for fi in 0..m.fields {
+            m.update_field(&ctx, fi);
+        }
+        assert!(before.iter().zip(&m.cells).all(|(a, b)| same(a, b)));
+        checked
+    }
+
+    fn store_of(ops: &Ops, at: DateTime<Utc>) -> Store {
+        let mut store = Store::default();
+        for (_, text) in &ops.observations {
+            for r in decode_all(text, at) {
+                store.insert(r.report);
+            }
+        }
+        store
+    }
+
+    #[test]
+    fn matrix_equals_the_cell_by_cell_reference_on_a_synthetic_operator() {
+        let size = Size {
+            types: 10,
+            aircraft: 40,
+            airfields: 120,
+            legs: 160,
+            hours: 12,
+        };
+        let ops = load_files(&synthetic::operator(size)).ops.expect("loads");
+        for h in [7, 12, 17] {
+            let at = Utc.with_ymd_and_hms(2026, 6, 14, h, 0, 0).unwrap();
+            let checked = check_against_reference(&ops, &store_of(&ops, at), at);
+            assert!(
+                checked > 1_000,
+                "only {checked} cells with a headroom at {h}Z"
+            );
+        }
+    }
+
+    #[test]
+    fn matrix_equals_the_cell_by_cell_reference_on_the_demo() {
+        let ops = demo::load().ops.expect("the demo loads");
+        for h in [6, 8, 11, 14, 16] {
+            let at = Utc.with_ymd_and_hms(2026, 6, 14, h, 0, 0).unwrap();
+            check_against_reference(&ops, &store_of(&ops, at), at);
+        }
+    }
+
+    fn demo_model() -> &'static (Ops, Model) {
+        static DEMO: std::sync::OnceLock<(Ops, Model)> = std::sync::OnceLock::new();
+        DEMO.get_or_init(|| {
+            let ops = demo::load().ops.expect("the demo loads");
+            let model = Model::new(&ops, &DaySettings::default());
+            (ops, model)
+        })
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(3000))]
+        /// The headroom search's score on the runway in use (lean warming, slice lookup,
+        /// resolved corrections) equals, bit for bit, `evaluate`'s temperature score on
+        /// the full air of `with_oat` and `leg::table_values`, on every demo type, field,
+        /// end and category, in any wind, dry or moist, warming or cooling.
+        #[test]
+        fn hot_end_score_equals_the_full_evaluation(
+            t in 0usize..16, f in 0usize..64, k in 0usize..8, cat in 0usize..4,
+            fm in 0.0f64..1.1, fl in 0.0f64..1.1,
+            qnh_hpa in 980.0f64..1_045.0, oat_c in -25.0f64..45.0,
+            spread_c in 0.0f64..25.0, moist in proptest::bool::ANY,
+            wind_deg in 0.0f64..360.0, wind_kt in 0.0f64..30.0, dt_c in -40.0f64..40.0,
+        ) {
+            let (ops, model) = demo_model();
+            let t = t % model.types.len();
+            let fi = f % ops.airfields.len();
+            let ends = model.field_ends(fi);
+            let end = &ends[k % ends.len()];
+            let Some(mins) = ops.minimums(Category::ALL[cat]) else { return Ok(()); };
+            let (ty, perf) = (&model.types[t], &ops.types[t].performance);
+            let (lo, hi) = perf.grid.range(Axis::Mass);
+            let setup = Setup {
+                model, ty, perf, mins,
+                takeoff_mass_kg: lo + fm * (hi - lo),
+                landing_mass_kg: lo + fl * (hi - lo),
+                distance_buffer: 0.1, climb_buffer: 0.1,
+            };
+            let air = AirData::from_observation(
+                ops.airfields[fi].elevation_ft, qnh_hpa, oat_c, moist.then_some(oat_c - spread_c));
+            let wx = FieldWx { air, direction: crate::assess::wind::Direction::Steady(wind_deg), speed_kt: wind_kt, gust_kt: None };
+            let w = wx.on_end(end.heading_true_deg);
+            let b = &ops.operator.policy.buffers;
+            let warm = air.with_oat(oat_c + dt_c);
+            let want = evaluate_reference(&setup, b, end, &warm, &table_values(&setup, &warm), &w)
+                .temperature_score;
+            let packed = pack(perf);
+            let lookup = Lookup::new(&setup, &packed, air.pressure_altitude_ft);
+            let lean = Warming::new(&air).at(oat_c + dt_c);
+            let got = HotEnd::new(&setup, b, end, &w).temperature_score(&lean, lookup.at(lean.oat_c).as_ref());
+            prop_assert_eq!(got.map(f64::to_bits), want.map(f64::to_bits), "{:?} vs {:?}", got, want);
+        }
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(2000))]
+        /// The per-pairing lookup equals `leg::table_values` bit for bit, on every demo
+        /// type, at masses, pressure altitudes and temperatures in, below and above the
+        /// tables (`None` exactly where `table_values` is an error).
+        #[test]
+        fn lookup_equals_table_values(
+            t in 0usize..16, fm in -0.3f64..1.3, fl in -0.3f64..1.3, same_mass in proptest::bool::ANY,
+            pa_ft in -3_000.0f64..14_000.0, oat_c in -50.0f64..60.0,
+        ) {
+            let (ops, model) = demo_model();
+            let t = t % model.types.len();
+            let ty = &model.types[t];
+            let perf = &ops.types[t].performance;
+            let (lo, hi) = perf.grid.range(Axis::Mass);
+            let tom = lo + fm * (hi - lo);
+            let lm = if same_mass { tom } else { lo + fl * (hi - lo) };
+            let mins = ops.minimums(Category::Dual).expect("dual");
+            let setup = Setup {
+                model, ty, perf, mins,
+                takeoff_mass_kg: tom, landing_mass_kg: lm,
+                distance_buffer: 0.1, climb_buffer: 0.1,
+            };
+            let air = AirData::from_observation(0.0, 1013.25, oat_c, None);
+            let air = AirData { pressure_altitude_ft: pa_ft, ..air };
+            let want = table_values(&setup, &air).ok();
+            let packed = pack(perf);
+            let got = Lookup::new(&setup, &packed, pa_ft).at(oat_c);
+            let bits = |v: Option<TableValues>| v.map(|v| [
+                v.takeoff_ground_roll_m.to_bits(), v.takeoff_distance_50ft_m.to_bits(),
+                v.climb_rate_fpm.to_bits(), v.landing_ground_roll_m.to_bits(),
+                v.landing_distance_50ft_m.to_bits(),
+            ]);
+            prop_assert_eq!(bits(got), bits(want));
+        }
     }
 }

@@ -94,6 +94,33 @@ pub fn distances(
     surface: SurfaceCase,
     adverse_slope_percent: f64,
 ) -> Result<DistanceChain, PerfGap> {
+    Ok(corrections(rules, wind, surface, adverse_slope_percent)?
+        .chain(table_ground_roll_m, table_distance_50ft_m))
+}
+
+/// The corrections of a distance chain on one end in one wind: everything in it but
+/// the table values, which do not depend on them. Resolved once, they are applied to the
+/// table values at any temperature ([`Corrections::chain`], [`Corrections::figures`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Corrections {
+    headwind_reported_kt: f64,
+    headwind_used_kt: f64,
+    wind_factoring_in_manual: bool,
+    wind_factor: f64,
+    surface: SurfaceCase,
+    surface_rule: Option<Rule>,
+    adverse_slope_percent: f64,
+    slope_factor: f64,
+    slope_origin: Origin,
+}
+
+/// Resolves the corrections of [`distances`].
+pub fn corrections(
+    rules: &PhaseRules,
+    wind: WindInput,
+    surface: SurfaceCase,
+    adverse_slope_percent: f64,
+) -> Result<Corrections, PerfGap> {
     let headwind_kt = wind.headwind_kt;
     match surface {
         SurfaceCase::Contaminated => return Err(PerfGap::Contaminated),
@@ -120,35 +147,65 @@ pub fn distances(
             None => return Err(PerfGap::NoTailwindRule),
         }
     };
-    let (gr, d50) = (
-        table_ground_roll_m * wind_factor,
-        table_distance_50ft_m * wind_factor,
-    );
-    let surface_rule = rules.surface_rule(surface);
-    let (gr, d50) = match surface_rule {
-        Some(r) => r.rule.apply(gr, d50),
-        None => (gr, d50),
-    };
     let adverse = adverse_slope_percent.max(0.0);
     let (k, slope_origin) = rules.slope_percent_per_percent;
-    let slope_factor = 1.0 + k * adverse / 100.0;
-    Ok(DistanceChain {
-        table_ground_roll_m,
-        table_distance_50ft_m,
+    Ok(Corrections {
         headwind_reported_kt: headwind_kt,
         headwind_used_kt: used,
         wind_factoring_in_manual: rules.wind_factoring_included,
         wind_factor,
         surface,
-        surface_rule,
-        after_surface_ground_roll_m: gr,
-        after_surface_distance_50ft_m: d50,
+        surface_rule: rules.surface_rule(surface),
         adverse_slope_percent: adverse,
-        slope_factor,
+        slope_factor: 1.0 + k * adverse / 100.0,
         slope_origin,
-        ground_roll_m: gr * slope_factor,
-        distance_50ft_m: d50 * slope_factor,
     })
+}
+
+impl Corrections {
+    /// Ground roll and distance to/from 50 ft after wind and surface, then after the
+    /// slope, m.
+    #[inline]
+    pub fn figures(&self, table_ground_roll_m: f64, table_distance_50ft_m: f64) -> [f64; 4] {
+        let (gr, d50) = (
+            table_ground_roll_m * self.wind_factor,
+            table_distance_50ft_m * self.wind_factor,
+        );
+        let (gr, d50) = match self.surface_rule {
+            Some(r) => r.rule.apply(gr, d50),
+            None => (gr, d50),
+        };
+        [gr, d50, gr * self.slope_factor, d50 * self.slope_factor]
+    }
+
+    /// The whole chain for table values.
+    pub fn chain(&self, table_ground_roll_m: f64, table_distance_50ft_m: f64) -> DistanceChain {
+        let [gr, d50, ground_roll_m, distance_50ft_m] =
+            self.figures(table_ground_roll_m, table_distance_50ft_m);
+        DistanceChain {
+            table_ground_roll_m,
+            table_distance_50ft_m,
+            headwind_reported_kt: self.headwind_reported_kt,
+            headwind_used_kt: self.headwind_used_kt,
+            wind_factoring_in_manual: self.wind_factoring_in_manual,
+            wind_factor: self.wind_factor,
+            surface: self.surface,
+            surface_rule: self.surface_rule,
+            after_surface_ground_roll_m: gr,
+            after_surface_distance_50ft_m: d50,
+            adverse_slope_percent: self.adverse_slope_percent,
+            slope_factor: self.slope_factor,
+            slope_origin: self.slope_origin,
+            ground_roll_m,
+            distance_50ft_m,
+        }
+    }
+
+    /// The extra factor on a landing check with these corrections
+    /// ([`landing_extra_factor`]).
+    pub fn landing_extra_factor(&self, wet_paved_landing_factor: Option<f64>) -> f64 {
+        extra_factor(self.surface, self.surface_rule, wet_paved_landing_factor)
+    }
 }
 
 /// One check `required × factor ≤ available`, evaluated.
@@ -182,9 +239,21 @@ pub fn available_m(end: &EndModel, a: Available) -> f64 {
 
 /// Evaluates one check.
 pub fn check(chain: &DistanceChain, end: &EndModel, c: &DistanceCheck, extra: f64) -> CheckResult {
+    check_figures(chain.ground_roll_m, chain.distance_50ft_m, end, c, extra)
+}
+
+/// [`check`] on a chain's final ground roll and distance to/from 50 ft, m.
+#[inline]
+fn check_figures(
+    ground_roll_m: f64,
+    distance_50ft_m: f64,
+    end: &EndModel,
+    c: &DistanceCheck,
+    extra: f64,
+) -> CheckResult {
     let figure_m = match c.required {
-        Required::GroundRoll => chain.ground_roll_m,
-        Required::Distance50ft => chain.distance_50ft_m,
+        Required::GroundRoll => ground_roll_m,
+        Required::Distance50ft => distance_50ft_m,
     };
     let factor = c.factor * extra;
     let required_m = figure_m * factor;
@@ -207,17 +276,43 @@ pub fn min_margin(
     checks: &[DistanceCheck],
     extra: f64,
 ) -> f64 {
+    min_margin_of(
+        chain.ground_roll_m,
+        chain.distance_50ft_m,
+        end,
+        checks,
+        extra,
+    )
+}
+
+/// [`min_margin`] on a chain's final ground roll and distance to/from 50 ft, m.
+#[inline]
+pub fn min_margin_of(
+    ground_roll_m: f64,
+    distance_50ft_m: f64,
+    end: &EndModel,
+    checks: &[DistanceCheck],
+    extra: f64,
+) -> f64 {
     checks
         .iter()
-        .map(|c| check(chain, end, c, extra).margin)
+        .map(|c| check_figures(ground_roll_m, distance_50ft_m, end, c, extra).margin)
         .fold(f64::INFINITY, f64::min)
 }
 
 /// The extra factor on a landing check: the category's wet paved factor, where the
 /// manual gives no wet paved figure (the chain then applied no surface rule).
 pub fn landing_extra_factor(chain: &DistanceChain, wet_paved_landing_factor: Option<f64>) -> f64 {
-    match (chain.surface, wet_paved_landing_factor) {
-        (SurfaceCase::PavedWet, Some(f)) if chain.surface_rule.is_none() => f,
+    extra_factor(chain.surface, chain.surface_rule, wet_paved_landing_factor)
+}
+
+fn extra_factor(
+    surface: SurfaceCase,
+    surface_rule: Option<Rule>,
+    wet_paved_landing_factor: Option<f64>,
+) -> f64 {
+    match (surface, wet_paved_landing_factor) {
+        (SurfaceCase::PavedWet, Some(f)) if surface_rule.is_none() => f,
         _ => 1.0,
     }
 }

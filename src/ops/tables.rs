@@ -247,36 +247,79 @@ impl Grid {
         pressure_altitude_ft: f64,
         oat_c: f64,
     ) -> Result<Cell, OutsideTable> {
+        self.locate_slice(mass_kg, pressure_altitude_ft)?
+            .at_oat(self, oat_c)
+    }
+
+    /// Locates a point on the mass and pressure-altitude axes only: a headroom search
+    /// holds both and varies the OAT, so it locates them once and then calls
+    /// [`Slice::at_oat`] per temperature, which gives exactly the [`Cell`] (bit for bit)
+    /// that [`Grid::locate`] gives for the whole point.
+    #[inline]
+    pub fn locate_slice(
+        &self,
+        mass_kg: f64,
+        pressure_altitude_ft: f64,
+    ) -> Result<Slice, OutsideTable> {
         let (mi, md, mf) = locate_axis(Axis::Mass, &self.mass_kg, mass_kg)?;
         let (pi, pd, pf) = locate_axis(
             Axis::PressureAltitude,
             &self.pressure_altitude_ft,
             pressure_altitude_ft,
         )?;
-        let (ti, td, tf) = locate_axis(Axis::Oat, &self.oat_c, oat_c)?;
         let n_t = self.oat_c.len();
         let n_p = self.pressure_altitude_ft.len();
-        let base = (mi * n_p + pi) * n_t + ti;
+        let base = (mi * n_p + pi) * n_t;
         let sm = md * n_p * n_t;
         let sp = pd * n_t;
-        let st = td;
-        let mut offsets = [0u32; 8];
-        let mut weights = [0.0; 8];
+        let mut bases = [0u32; 4];
+        let mut weights = [0.0; 4];
         let mut k = 0;
         for (dm, wm) in [(0, 1.0 - mf), (sm, mf)] {
             for (dp, wp) in [(0, 1.0 - pf), (sp, pf)] {
-                for (dt, wt) in [(0, 1.0 - tf), (st, tf)] {
-                    // Grids are capped at 1,000,000 points, so offsets fit in u32.
-                    offsets[k] = (base + dm + dp + dt) as u32;
-                    weights[k] = wm * wp * wt;
-                    k += 1;
-                }
+                // Grids are capped at 1,000,000 points, so offsets fit in u32.
+                bases[k] = (base + dm + dp) as u32;
+                weights[k] = wm * wp;
+                k += 1;
             }
+        }
+        Ok(Slice {
+            bases,
+            weights,
+            grid_len: self.len() as u32,
+        })
+    }
+}
+
+/// A point located on a [`Grid`]'s mass and pressure-altitude axes: four corner rows and
+/// their weights, waiting for an OAT ([`Slice::at_oat`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Slice {
+    bases: [u32; 4],
+    weights: [f64; 4],
+    grid_len: u32,
+}
+
+impl Slice {
+    /// The cell at `oat_c` on this slice of `grid` (the grid it was located on); outside
+    /// the OAT axis is [`OutsideTable`]. The weights are `(w_mass · w_pa) · w_oat`, the
+    /// same products in the same order as a whole-point lookup.
+    #[inline]
+    pub fn at_oat(&self, grid: &Grid, oat_c: f64) -> Result<Cell, OutsideTable> {
+        let (ti, td, tf) = locate_axis(Axis::Oat, &grid.oat_c, oat_c)?;
+        let mut offsets = [0u32; 8];
+        let mut weights = [0.0; 8];
+        for j in 0..4 {
+            let base = self.bases[j] as usize + ti;
+            offsets[2 * j] = base as u32;
+            offsets[2 * j + 1] = (base + td) as u32;
+            weights[2 * j] = self.weights[j] * (1.0 - tf);
+            weights[2 * j + 1] = self.weights[j] * tf;
         }
         Ok(Cell {
             offsets,
             weights,
-            grid_len: self.len() as u32,
+            grid_len: self.grid_len,
         })
     }
 }
@@ -316,10 +359,9 @@ impl Grid {
         pressure_altitude_ft: f64,
         oat_c: f64,
     ) -> Result<(Cell, Clamped), OutsideTable> {
-        let clamp = |v: &[f64], x: f64| if x < v[0] { (v[0], true) } else { (x, false) };
-        let (m, cm) = clamp(&self.mass_kg, mass_kg);
-        let (p, cp) = clamp(&self.pressure_altitude_ft, pressure_altitude_ft);
-        let (t, ct) = clamp(&self.oat_c, oat_c);
+        let (m, cm) = self.hold_below(Axis::Mass, mass_kg);
+        let (p, cp) = self.hold_below(Axis::PressureAltitude, pressure_altitude_ft);
+        let (t, ct) = self.hold_below(Axis::Oat, oat_c);
         let cell = self.locate(m, p, t)?;
         Ok((
             cell,
@@ -329,6 +371,21 @@ impl Grid {
                 oat: ct,
             },
         ))
+    }
+}
+
+impl Grid {
+    /// A value below an axis's lowest point held at that point, and whether it was:
+    /// the clamp of [`Grid::locate_conservative`], for callers that locate a
+    /// [`Slice`] and then an OAT.
+    #[inline]
+    pub fn hold_below(&self, axis: Axis, x: f64) -> (f64, bool) {
+        let lowest = self.range(axis).0;
+        if x < lowest {
+            (lowest, true)
+        } else {
+            (x, false)
+        }
     }
 }
 
@@ -448,5 +505,85 @@ impl Table {
             sum += v * cell.weights[k];
         }
         sum
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use proptest::prelude::*;
+
+    /// The whole-point lookup as it was before [`Slice`] (three axes and eight weights
+    /// `wm · wp · wt` in one pass): the reference the split lookup must equal bit for bit.
+    fn locate_reference(
+        g: &Grid,
+        mass_kg: f64,
+        pa_ft: f64,
+        oat_c: f64,
+    ) -> Result<Cell, OutsideTable> {
+        let (mi, md, mf) = locate_axis(Axis::Mass, &g.mass_kg, mass_kg)?;
+        let (pi, pd, pf) = locate_axis(Axis::PressureAltitude, &g.pressure_altitude_ft, pa_ft)?;
+        let (ti, td, tf) = locate_axis(Axis::Oat, &g.oat_c, oat_c)?;
+        let n_t = g.oat_c.len();
+        let n_p = g.pressure_altitude_ft.len();
+        let base = (mi * n_p + pi) * n_t + ti;
+        let (sm, sp, st) = (md * n_p * n_t, pd * n_t, td);
+        let mut offsets = [0u32; 8];
+        let mut weights = [0.0; 8];
+        let mut k = 0;
+        for (dm, wm) in [(0, 1.0 - mf), (sm, mf)] {
+            for (dp, wp) in [(0, 1.0 - pf), (sp, pf)] {
+                for (dt, wt) in [(0, 1.0 - tf), (st, tf)] {
+                    offsets[k] = (base + dm + dp + dt) as u32;
+                    weights[k] = wm * wp * wt;
+                    k += 1;
+                }
+            }
+        }
+        Ok(Cell {
+            offsets,
+            weights,
+            grid_len: g.len() as u32,
+        })
+    }
+
+    fn axis(start: f64, steps: &[f64]) -> Vec<f64> {
+        let mut v = vec![start];
+        for s in steps {
+            let last = *v.last().unwrap();
+            v.push(last + s);
+        }
+        v
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(2000))]
+        /// The split lookup (slice, then OAT) equals the whole-point reference, bit for
+        /// bit, on random grids (one to six points an axis) and points in and around them.
+        #[test]
+        fn slice_then_oat_equals_the_whole_point_lookup(
+            m0 in 500.0f64..1500.0, m_steps in proptest::collection::vec(10.0f64..300.0, 0..3),
+            p0 in -1000.0f64..2000.0, p_steps in proptest::collection::vec(100.0f64..3000.0, 0..5),
+            t0 in -40.0f64..0.0, t_steps in proptest::collection::vec(1.0f64..20.0, 0..5),
+            fm in -0.2f64..1.2, fp in -0.2f64..1.2, ft in -0.2f64..1.2,
+        ) {
+            let g = Grid::new(axis(m0, &m_steps), axis(p0, &p_steps), axis(t0, &t_steps)).unwrap();
+            let at = |v: &[f64], f: f64| v[0] + f * (v[v.len() - 1] - v[0]);
+            let (m, p, t) = (at(&g.mass_kg, fm), at(&g.pressure_altitude_ft, fp), at(&g.oat_c, ft));
+            let want = locate_reference(&g, m, p, t);
+            let got = g.locate(m, p, t);
+            match (&want, &got) {
+                (Ok(w), Ok(c)) => {
+                    prop_assert_eq!(w.offsets, c.offsets);
+                    for k in 0..8 {
+                        prop_assert_eq!(w.weights[k].to_bits(), c.weights[k].to_bits());
+                    }
+                }
+                _ => prop_assert_eq!(want, got),
+            }
+            // On the grid's own points too (single-point axes accept only their value).
+            let exact = g.locate(g.mass_kg[0], g.pressure_altitude_ft[0], g.oat_c[0]);
+            prop_assert_eq!(exact, locate_reference(&g, g.mass_kg[0], g.pressure_altitude_ft[0], g.oat_c[0]));
+        }
     }
 }
