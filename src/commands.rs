@@ -5,6 +5,7 @@ pub mod board;
 pub mod calc;
 pub mod check;
 pub mod metar;
+pub mod output;
 pub mod overview;
 pub mod runway;
 pub mod taf;

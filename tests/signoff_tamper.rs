@@ -345,7 +345,11 @@ fn a_mistyped_or_unknown_head_says_it_matches_no_record_and_names_the_file() {
     // A short prefix with its last digit mistyped: no record has that hash.
     let short = &hash[..10];
     let last = short.chars().last().expect("digit");
-    let typo = format!("{seq}:{}{}", &short[..9], if last == '0' { '1' } else { '0' });
+    let typo = format!(
+        "{seq}:{}{}",
+        &short[..9],
+        if last == '0' { '1' } else { '0' }
+    );
     let (code, out) = verify(dir.path(), Some(&typo));
     assert_eq!(code, Some(1), "{out}");
     assert!(

@@ -252,7 +252,10 @@ impl Chain {
                         "the given head {given} does not match record {}: its hash is that of record {} at {} line {} (is the sequence number mistyped?)",
                         e.record.seq, o.record.seq, o.file, o.line
                     ),
-                    None => format!("{no_match}: record {} has sha256 {}", e.record.seq, e.sha256),
+                    None => format!(
+                        "{no_match}: record {} has sha256 {}",
+                        e.record.seq, e.sha256
+                    ),
                 },
             }),
             None => Some(Problem {
