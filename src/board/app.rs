@@ -65,6 +65,14 @@ pub enum Msg {
         /// The file written and the day's whole state, or the error.
         result: Result<(PathBuf, RunwayStateFile), String>,
     },
+    /// The folder feed read a runway-state file that changed on disk (another process,
+    /// e.g. `rhoboard runway`): the day's whole state.
+    RunwayStateRead {
+        /// The file, for the note.
+        source: String,
+        /// The state it now holds.
+        state: RunwayStateFile,
+    },
     /// Quit (a signal, or the input thread ending).
     Quit,
     /// The event loop did an [`Effect`](super::effects::Effect): its result.
@@ -644,6 +652,16 @@ impl App {
                     format!("{what}: not saved, nothing changed: {e}"),
                 ),
             },
+            // What the board holds already (its own save, read back) changes nothing.
+            Msg::RunwayStateRead { source, state } => {
+                if !self.ops.runway_states.contains(&state)
+                    && (!state.entries.is_empty()
+                        || self.ops.runway_states.iter().any(|s| s.date == state.date))
+                {
+                    self.note(NoteKind::Info, format!("{source}: changed on disk, read"));
+                    self.apply_runway_state(state, &source);
+                }
+            }
             Msg::Quit => self.quit = true,
             Msg::Done(done) => {
                 self.dirty = true;
