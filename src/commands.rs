@@ -47,12 +47,52 @@ impl From<Outcome> for ExitCode {
     }
 }
 
-/// Writes a decoded report's groups in column order, each with its meaning, aligned;
-/// a group longer than 24 characters gets its meaning on the next line.
-pub(crate) fn write_groups(
-    mut lines: Vec<(usize, String, String)>,
+/// One decoded group line: its column (from 1), its text, its meaning.
+pub(crate) type GroupLine = (usize, String, String);
+
+/// The readable head of a decoded report or forecast, the same for METAR and TAF: the
+/// text (control characters escaped), then every group — decoded (`groups`, given as
+/// byte start, text and meaning), not understood, or a needed group that is malformed
+/// (`malformed`, already as lines) — in report order.
+pub(crate) fn write_decoded(
+    text: &str,
+    groups: impl IntoIterator<Item = (usize, String, String)>,
+    not_understood: &[crate::observation::NotUnderstood],
+    malformed: impl IntoIterator<Item = GroupLine>,
     out: &mut dyn std::io::Write,
 ) -> std::io::Result<()> {
+    let shown: String = text
+        .chars()
+        .flat_map(|c| -> Vec<char> {
+            if c.is_control() {
+                c.escape_default().collect()
+            } else {
+                vec![c]
+            }
+        })
+        .collect();
+    writeln!(out, "{shown}")?;
+    let mut lines: Vec<GroupLine> = groups
+        .into_iter()
+        .map(|(start, group, meaning)| {
+            let column = text.get(..start).map_or(0, |p| p.chars().count()) + 1;
+            (column, group, meaning)
+        })
+        .collect();
+    lines.extend(not_understood.iter().map(|n| {
+        (
+            n.column,
+            n.group.clone(),
+            format!("not understood: {}", n.reason),
+        )
+    }));
+    lines.extend(malformed);
+    write_groups(lines, out)
+}
+
+/// Writes a decoded report's groups in column order, each with its meaning, aligned;
+/// a group longer than 24 characters gets its meaning on the next line.
+fn write_groups(mut lines: Vec<GroupLine>, out: &mut dyn std::io::Write) -> std::io::Result<()> {
     lines.sort_by_key(|(column, _, _)| *column);
     let width = lines
         .iter()

@@ -181,44 +181,20 @@ pub fn to_json(r: &Report) -> Value {
 
 /// The readable decode: the report, then each group on its own line.
 pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Result<()> {
-    let shown: String = r
-        .text
-        .chars()
-        .flat_map(|c| {
-            let esc: Vec<char> = if c.is_control() {
-                c.escape_default().collect()
-            } else {
-                vec![c]
-            };
-            esc
-        })
-        .collect();
-    writeln!(out, "{shown}")?;
-    // Decoded groups, groups not understood and malformed needed groups, in report order.
-    let mut lines: Vec<(usize, String, String)> = Vec::new();
-    for g in &r.groups {
-        let column = r.text.get(..g.start).map_or(0, |p| p.chars().count()) + 1;
-        lines.push((column, r.group_text(g).to_string(), describe(r, g)));
-    }
-    for n in &r.not_understood {
-        lines.push((
-            n.column,
-            n.group.clone(),
-            format!("not understood: {}", n.reason),
-        ));
-    }
-    for e in &r.errors {
-        if let DecodeError::Malformed {
+    let groups = r
+        .groups
+        .iter()
+        .map(|g| (g.start, r.group_text(g).to_string(), describe(r, g)));
+    let malformed = r.errors.iter().filter_map(|e| match e {
+        DecodeError::Malformed {
             group,
             text,
             column,
             problem,
-        } = e
-        {
-            lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
-        }
-    }
-    crate::commands::write_groups(lines, out)?;
+        } => Some((*column, text.clone(), format!("✗ {group}: {problem}"))),
+        _ => None,
+    });
+    crate::commands::write_decoded(&r.text, groups, &r.not_understood, malformed, out)?;
     let ceiling = match r.ceiling {
         Ceiling::None => "none".to_string(),
         Ceiling::Known(ft) => format!("{ft:.0} ft"),

@@ -285,42 +285,20 @@ fn summary(f: &ForecastConditions) -> String {
 /// The readable decode: the text, each group on its own line, the periods in time
 /// order, and the forecast hour by hour.
 pub fn write_readable(t: &Taf, out: &mut dyn std::io::Write) -> std::io::Result<()> {
-    let shown: String = t
-        .text
-        .chars()
-        .flat_map(|c| -> Vec<char> {
-            if c.is_control() {
-                c.escape_default().collect()
-            } else {
-                vec![c]
-            }
-        })
-        .collect();
-    writeln!(out, "{shown}")?;
-    let mut lines: Vec<(usize, String, String)> = Vec::new();
-    for g in &t.groups {
-        let column = t.text.get(..g.start).map_or(0, |p| p.chars().count()) + 1;
-        lines.push((column, t.group_text(g).to_string(), taf::describe(t, g)));
-    }
-    for n in &t.not_understood {
-        lines.push((
-            n.column,
-            n.group.clone(),
-            format!("not understood: {}", n.reason),
-        ));
-    }
-    for e in &t.errors {
-        if let TafError::Malformed {
+    let groups = t
+        .groups
+        .iter()
+        .map(|g| (g.start, t.group_text(g).to_string(), taf::describe(t, g)));
+    let malformed = t.errors.iter().filter_map(|e| match e {
+        TafError::Malformed {
             group,
             text,
             column,
             problem,
-        } = e
-        {
-            lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
-        }
-    }
-    crate::commands::write_groups(lines, out)?;
+        } => Some((*column, text.clone(), format!("✗ {group}: {problem}"))),
+        _ => None,
+    });
+    crate::commands::write_decoded(&t.text, groups, &t.not_understood, malformed, out)?;
     let periods = forecast::periods(t);
     if !periods.is_empty() {
         writeln!(out, "  periods:")?;
