@@ -81,13 +81,21 @@ fn sign_l09_at_0800_see_the_recheck_at_1300_and_replan_l16() {
     assert_l09_kept(&s);
 }
 
+/// A board on the demo with L09 just signed from it; `None` (skipped) without tmux.
+fn signed_board(tag: &str) -> Option<Session> {
+    if !have_tmux("sign-off") {
+        return None;
+    }
+    let s = Session::start(tag, "", SIZE);
+    sign_l09_at_0800(&s);
+    Some(s)
+}
+
 #[test]
 fn sighup_right_after_a_sign_off_restores_the_terminal_and_keeps_the_record() {
-    if !have_tmux("sign-off") {
+    let Some(s) = signed_board("so-hup") else {
         return;
-    }
-    let s = Session::start("so-hup", "", SIZE);
-    sign_l09_at_0800(&s);
+    };
     // The terminal hangs up (SIGHUP to the board): it quits like `q` on a clean board,
     // gives the terminal back, and the record signed just before is in the log.
     if s.signal_board("-HUP").is_none() {
@@ -101,11 +109,9 @@ fn sighup_right_after_a_sign_off_restores_the_terminal_and_keeps_the_record() {
 
 #[test]
 fn a_killed_tmux_session_hangs_the_board_up_and_the_record_stays() {
-    if !have_tmux("sign-off") {
+    let Some(s) = signed_board("so-kill") else {
         return;
-    }
-    let s = Session::start("so-kill", "", SIZE);
-    sign_l09_at_0800(&s);
+    };
     let Some(pid) = s.board_pid() else {
         println!("skipping the hang-up check: cannot find the board's process id");
         return;

@@ -144,6 +144,14 @@ fn the_afternoon_charter_is_re_planned_to_the_morning_and_saved() {
     let _ = std::fs::remove_dir_all(&dir);
 }
 
+/// `rhoboard leg set L16 EDITS --ops DIR` at 14Z on the demo day.
+fn set_l16(home: &std::path::Path, dir: &str, edits: &[&str]) -> (i32, String, String) {
+    let mut args = vec!["leg", "set", "L16"];
+    args.extend_from_slice(edits);
+    args.extend(["--ops", dir, "--at", "2026-06-14T14:00:00Z"]);
+    rhoboard(home, &args)
+}
+
 #[test]
 fn a_saved_change_leaves_every_other_byte_of_the_legs_file_as_it_was() {
     let dir = tempfile::tempdir().unwrap();
@@ -153,22 +161,7 @@ fn a_saved_change_leaves_every_other_byte_of_the_legs_file_as_it_was() {
     assert_eq!(rhoboard(&home, &["init", d]).0, 0);
     let legs = ops.join("legs/2026-06-14.json");
     let original = std::fs::read_to_string(&legs).unwrap();
-    let (code, out, err) = rhoboard(
-        &home,
-        &[
-            "leg",
-            "set",
-            "L16",
-            "--load",
-            "baggage=15kg",
-            "--fuel",
-            "110L",
-            "--ops",
-            d,
-            "--at",
-            "2026-06-14T14:00:00Z",
-        ],
-    );
+    let (code, out, err) = set_l16(&home, d, &["--load", "baggage=15kg", "--fuel", "110L"]);
     assert!(code == 0 || code == 1, "{err}");
     assert!(out.contains("Saved"), "{out}");
     let now = std::fs::read_to_string(&legs).unwrap();
@@ -198,20 +191,7 @@ fn a_saved_change_leaves_every_other_byte_of_the_legs_file_as_it_was() {
     assert_eq!(std::fs::read_to_string(backup).unwrap(), original);
     assert_eq!(rhoboard(&home, &["validate", "--ops", d]).0, 0);
     // A departure time typed as 06:30Z is written in the file's UTC style.
-    let (code, _, err) = rhoboard(
-        &home,
-        &[
-            "leg",
-            "set",
-            "L16",
-            "--etd",
-            "06:30Z",
-            "--ops",
-            d,
-            "--at",
-            "2026-06-14T14:00:00Z",
-        ],
-    );
+    let (code, _, err) = set_l16(&home, d, &["--etd", "06:30Z"]);
     assert!(code == 0 || code == 1, "{err}");
     let later = std::fs::read_to_string(&legs).unwrap();
     assert!(

@@ -90,60 +90,56 @@ impl Scanner<'_> {
         }
     }
 
+    /// From an opening bracket to past its `close`: each item read by `item`, commas
+    /// skipped; where it ended.
+    fn list(&mut self, close: u8, mut item: impl FnMut(&mut Self) -> Option<()>) -> Option<usize> {
+        self.at += 1;
+        loop {
+            self.ws();
+            match self.peek()? {
+                b if b == close => break,
+                b',' => self.at += 1,
+                _ => item(self)?,
+            }
+        }
+        self.at += 1;
+        Some(self.at)
+    }
+
     fn value(&mut self) -> Option<Node> {
         self.ws();
         let start = self.at;
         match self.peek()? {
             b'{' => {
-                self.at += 1;
                 let mut members = Vec::new();
-                loop {
-                    self.ws();
-                    match self.peek()? {
-                        b'}' => break,
-                        b',' => self.at += 1,
-                        b'"' => {
-                            let key_start = self.at;
-                            self.string_end()?;
-                            let key: String =
-                                serde_json::from_slice(&self.text[key_start..self.at]).ok()?;
-                            self.ws();
-                            (self.peek()? == b':').then_some(())?;
-                            self.at += 1;
-                            let value = self.value()?;
-                            members.push(Member {
-                                key,
-                                key_start,
-                                value,
-                            });
-                        }
-                        _ => return None,
-                    }
-                }
-                self.at += 1;
+                let end = self.list(b'}', |s| {
+                    let key_start = s.at;
+                    s.string_end()?;
+                    let key: String = serde_json::from_slice(&s.text[key_start..s.at]).ok()?;
+                    s.ws();
+                    (s.peek()? == b':').then_some(())?;
+                    s.at += 1;
+                    let value = s.value()?;
+                    members.push(Member {
+                        key,
+                        key_start,
+                        value,
+                    });
+                    Some(())
+                })?;
                 Some(Node::Object {
                     start,
-                    end: self.at,
+                    end,
                     members,
                 })
             }
             b'[' => {
-                self.at += 1;
                 let mut items = Vec::new();
-                loop {
-                    self.ws();
-                    match self.peek()? {
-                        b']' => break,
-                        b',' => self.at += 1,
-                        _ => items.push(self.value()?),
-                    }
-                }
-                self.at += 1;
-                Some(Node::Array {
-                    start,
-                    end: self.at,
-                    items,
-                })
+                let end = self.list(b']', |s| {
+                    items.push(s.value()?);
+                    Some(())
+                })?;
+                Some(Node::Array { start, end, items })
             }
             b'"' => {
                 self.string_end()?;
