@@ -47,6 +47,41 @@ impl From<Outcome> for ExitCode {
     }
 }
 
+/// Standard input as text, for `metar -` and `taf -`: garbled bytes become U+FFFD and
+/// are reported as groups not understood.
+pub(crate) fn read_stdin(what: &str) -> anyhow::Result<String> {
+    use anyhow::Context as _;
+    use std::io::Read as _;
+    let mut bytes = Vec::new();
+    std::io::stdin()
+        .read_to_end(&mut bytes)
+        .with_context(|| format!("reading {what} from standard input"))?;
+    Ok(String::from_utf8_lossy(&bytes).into_owned())
+}
+
+/// Prints decoded reports or forecasts: one pretty JSON array, or each readable decode
+/// with a blank line between.
+pub(crate) fn print_decoded<T>(
+    items: &[T],
+    json: bool,
+    to_json: fn(&T) -> serde_json::Value,
+    readable: fn(&T, &mut dyn std::io::Write) -> std::io::Result<()>,
+    out: &mut dyn std::io::Write,
+) -> anyhow::Result<()> {
+    if json {
+        let v: Vec<serde_json::Value> = items.iter().map(to_json).collect();
+        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
+    } else {
+        for (k, item) in items.iter().enumerate() {
+            if k > 0 {
+                writeln!(out)?;
+            }
+            readable(item, out)?;
+        }
+    }
+    Ok(())
+}
+
 /// One decoded group line: its column (from 1), its text, its meaning.
 pub(crate) type GroupLine = (usize, String, String);
 

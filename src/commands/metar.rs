@@ -1,8 +1,6 @@
 //! `rhoboard metar TEXT` / `rhoboard metar -`: decodes METAR and SPECI reports, group by
 //! group in plain words, or as JSON.
 
-use std::io::Read;
-
 use anyhow::Context;
 use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
@@ -32,12 +30,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         None => Utc::now(),
     };
     let input = if args.text.len() == 1 && args.text.first().is_some_and(|t| t == "-") {
-        let mut bytes = Vec::new();
-        std::io::stdin()
-            .read_to_end(&mut bytes)
-            .context("reading reports from standard input")?;
-        // Garbled bytes become U+FFFD and are reported as groups not understood.
-        String::from_utf8_lossy(&bytes).into_owned()
+        super::read_stdin("reports")?
     } else if looks_unquoted(&args.text) {
         args.text.join(" ")
     } else {
@@ -55,17 +48,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         .iter()
         .map(|(_, t)| crate::observation::decode(t, reference))
         .collect();
-    if args.json {
-        let v: Vec<Value> = reports.iter().map(to_json).collect();
-        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
-    } else {
-        for (k, r) in reports.iter().enumerate() {
-            if k > 0 {
-                writeln!(out)?;
-            }
-            write_readable(r, out)?;
-        }
-    }
+    super::print_decoded(&reports, args.json, to_json, write_readable, out)?;
     Ok(if reports.iter().all(Report::usable_for_performance) {
         Outcome::Success
     } else {

@@ -2,8 +2,6 @@
 //! then the periods in time order and the forecast hour by hour; or as JSON (the keys
 //! are documented in docs/forecast.md).
 
-use std::io::Read;
-
 use anyhow::Context;
 use chrono::{DateTime, Duration, NaiveDate, SecondsFormat, Utc};
 use serde_json::{Value, json};
@@ -42,11 +40,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         None => Utc::now(),
     };
     let input = if args.text.len() == 1 && args.text.first().is_some_and(|t| t == "-") {
-        let mut bytes = Vec::new();
-        std::io::stdin()
-            .read_to_end(&mut bytes)
-            .context("reading forecasts from standard input")?;
-        String::from_utf8_lossy(&bytes).into_owned()
+        super::read_stdin("forecasts")?
     } else if args.text.iter().any(|a| a.contains(char::is_whitespace)) {
         args.text.join("\n\n")
     } else {
@@ -64,17 +58,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         .iter()
         .map(|(_, t)| taf::decode(t, reference))
         .collect();
-    if args.json {
-        let v: Vec<Value> = tafs.iter().map(to_json).collect();
-        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
-    } else {
-        for (k, t) in tafs.iter().enumerate() {
-            if k > 0 {
-                writeln!(out)?;
-            }
-            write_readable(t, out)?;
-        }
-    }
+    super::print_decoded(&tafs, args.json, to_json, write_readable, out)?;
     Ok(if tafs.iter().all(Taf::usable) {
         Outcome::Success
     } else {
