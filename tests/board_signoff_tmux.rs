@@ -68,7 +68,11 @@ fn sign_l09_at_0800_see_the_recheck_at_1300_and_replan_l16() {
     // Re-plan L16: move it to 06:30 and see it within.
     s.keys(&["/", "L16", "Enter", "e", "t", "0630", "Enter"]);
     s.wait_for_all("old → new", &["→ ✓ within", "✗ below"]);
-    s.keys(&["Escape", "q"]);
+    s.keys(&["Escape"]);
+    s.wait_for("the re-plan closed, its edit pending", |t| {
+        !t.contains("→ ✓ within") && t.contains("what-if: 1 pending")
+    });
+    s.keys(&["q"]);
     s.wait_for_all("the question", &["pending and not written"]);
     s.keys(&["y"]);
     s.wait_for_all("exit", &["rhoboard exited 0"]);

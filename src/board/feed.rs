@@ -79,8 +79,14 @@ impl RunwayStateWatch {
     /// A runway-state file's text read as the day's state, or what is wrong with it,
     /// naming the line and field.
     fn read(&self, path: &Path, text: &str) -> Result<RunwayStateFile, String> {
-        let state: RunwayStateFile = serde_json::from_str(text)
-            .map_err(|e| format!("line {}, column {}: {e}", e.line(), e.column()))?;
+        let state: RunwayStateFile = serde_json::from_str(text).map_err(|e| {
+            // serde_json ends its message with the place; it goes first here, as in
+            // every other message naming a file's line.
+            let place = format!(" at line {} column {}", e.line(), e.column());
+            let full = e.to_string();
+            let what = full.strip_suffix(&place).unwrap_or(&full).to_string();
+            format!("line {}, column {}: {what}", e.line(), e.column())
+        })?;
         if state.schema_version != 1 {
             return Err(format!(
                 "schema_version: {} is not a version this build reads (1)",

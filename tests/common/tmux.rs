@@ -90,10 +90,15 @@ impl Session {
         tmux(&["capture-pane", "-p", "-t", &self.name])
     }
 
-    /// Sends each of `keys` (tmux key names, or `-l TEXT`).
+    /// Sends each of `keys` (tmux key names, or `-l TEXT`). After an Escape it pauses:
+    /// an Escape read together with the next key is that key with Alt, as a terminal
+    /// would have it, and a loaded machine can read them together.
     pub fn keys(&self, keys: &[&str]) {
         for k in keys {
             tmux(&["send-keys", "-t", &self.name, k]);
+            if *k == "Escape" {
+                std::thread::sleep(Duration::from_millis(300));
+            }
         }
     }
 
