@@ -5,6 +5,7 @@ pub mod board;
 pub mod calc;
 pub mod check;
 pub mod metar;
+pub mod output;
 pub mod overview;
 pub mod runway;
 pub mod taf;
@@ -46,12 +47,87 @@ impl From<Outcome> for ExitCode {
     }
 }
 
-/// Writes a decoded report's groups in column order, each with its meaning, aligned;
-/// a group longer than 24 characters gets its meaning on the next line.
-pub(crate) fn write_groups(
-    mut lines: Vec<(usize, String, String)>,
+/// Standard input as text, for `metar -` and `taf -`: garbled bytes become U+FFFD and
+/// are reported as groups not understood.
+pub(crate) fn read_stdin(what: &str) -> anyhow::Result<String> {
+    use anyhow::Context as _;
+    use std::io::Read as _;
+    let mut bytes = Vec::new();
+    std::io::stdin()
+        .read_to_end(&mut bytes)
+        .with_context(|| format!("reading {what} from standard input"))?;
+    Ok(String::from_utf8_lossy(&bytes).into_owned())
+}
+
+/// Prints decoded reports or forecasts: one pretty JSON array, or each readable decode
+/// with a blank line between.
+pub(crate) fn print_decoded<T>(
+    items: &[T],
+    json: bool,
+    to_json: fn(&T) -> serde_json::Value,
+    readable: fn(&T, &mut dyn std::io::Write) -> std::io::Result<()>,
+    out: &mut dyn std::io::Write,
+) -> anyhow::Result<()> {
+    if json {
+        let v: Vec<serde_json::Value> = items.iter().map(to_json).collect();
+        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
+    } else {
+        for (k, item) in items.iter().enumerate() {
+            if k > 0 {
+                writeln!(out)?;
+            }
+            readable(item, out)?;
+        }
+    }
+    Ok(())
+}
+
+/// One decoded group line: its column (from 1), its text, its meaning.
+pub(crate) type GroupLine = (usize, String, String);
+
+/// The readable head of a decoded report or forecast, the same for METAR and TAF: the
+/// text (control characters escaped), then every group — decoded (`groups`, given as
+/// byte start, text and meaning), not understood, or a needed group that is malformed
+/// (`malformed`, already as lines) — in report order.
+pub(crate) fn write_decoded(
+    text: &str,
+    groups: impl IntoIterator<Item = (usize, String, String)>,
+    not_understood: &[crate::observation::NotUnderstood],
+    malformed: impl IntoIterator<Item = GroupLine>,
     out: &mut dyn std::io::Write,
 ) -> std::io::Result<()> {
+    let shown: String = text
+        .chars()
+        .flat_map(|c| -> Vec<char> {
+            if c.is_control() {
+                c.escape_default().collect()
+            } else {
+                vec![c]
+            }
+        })
+        .collect();
+    writeln!(out, "{shown}")?;
+    let mut lines: Vec<GroupLine> = groups
+        .into_iter()
+        .map(|(start, group, meaning)| {
+            let column = text.get(..start).map_or(0, |p| p.chars().count()) + 1;
+            (column, group, meaning)
+        })
+        .collect();
+    lines.extend(not_understood.iter().map(|n| {
+        (
+            n.column,
+            n.group.clone(),
+            format!("not understood: {}", n.reason),
+        )
+    }));
+    lines.extend(malformed);
+    write_groups(lines, out)
+}
+
+/// Writes a decoded report's groups in column order, each with its meaning, aligned;
+/// a group longer than 24 characters gets its meaning on the next line.
+fn write_groups(mut lines: Vec<GroupLine>, out: &mut dyn std::io::Write) -> std::io::Result<()> {
     lines.sort_by_key(|(column, _, _)| *column);
     let width = lines
         .iter()

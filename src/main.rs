@@ -1,7 +1,7 @@
 //! The `rhoboard` binary: parses arguments, runs one command, maps the result to an
 //! exit status (0 success, 1 findings, 2 bad usage or input).
 
-use std::io::IsTerminal;
+use std::io::{IsTerminal, Write};
 use std::process::ExitCode;
 
 use clap::{Parser, Subcommand};
@@ -63,7 +63,9 @@ fn main() -> ExitCode {
             }
         };
     }
-    let mut out = std::io::stdout().lock();
+    // Every printing command writes through the one pipe-safe path: a reader that
+    // stops early (`| head -1`) cuts the output, never the verdict.
+    let mut out = commands::output::PipeSafe::new(std::io::stdout().lock());
     let result: anyhow::Result<Outcome> = match cli.command {
         None | Some(Command::Board(_)) => commands::overview::run(&mut out),
         Some(Command::Calc(args)) => commands::calc::run(&args, &mut out),
@@ -78,20 +80,14 @@ fn main() -> ExitCode {
         Some(Command::Log(args)) => commands::log::run(&args, &mut out),
         Some(Command::Report(args)) => commands::report::run(&args, &mut out),
     };
+    // What is still buffered goes out now, so a failing flush is reported, not lost.
+    let result = result.and_then(|outcome| {
+        out.flush()
+            .map_err(|e| anyhow::Error::new(e).context("writing standard output"))?;
+        Ok(outcome)
+    });
     match result {
         Ok(outcome) => outcome.into(),
-        // A reader that stopped early (`| head`) is not an error of ours.
-        Err(err)
-            if err.chain().any(|c| {
-                c.downcast_ref::<std::io::Error>()
-                    .is_some_and(|e| e.kind() == std::io::ErrorKind::BrokenPipe)
-                    || c.downcast_ref::<serde_json::Error>()
-                        .and_then(serde_json::Error::io_error_kind)
-                        == Some(std::io::ErrorKind::BrokenPipe)
-            }) =>
-        {
-            ExitCode::SUCCESS
-        }
         Err(err) => {
             drop(out);
             eprintln!("rhoboard: {err:#}");

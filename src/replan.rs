@@ -3,7 +3,9 @@
 //! before anything is written; and the safe save of a day's legs file — a temporary
 //! file in the same folder, synced, renamed over the original, the previous version kept
 //! as a hidden backup, and never over a file that changed on disk since it was read
-//! (detected by content hash, not modification time).
+//! (detected by content hash, not modification time). The save changes only the spans
+//! of the values that changed (`json_edit`): key order, spacing and number style of
+//! the rest of the file are the operator's and stay.
 
 use std::io::Write as _;
 use std::path::{Path, PathBuf};
@@ -13,6 +15,9 @@ use sha2::{Digest, Sha256};
 
 use crate::ops::Leg;
 use crate::ops::legs::{LegsFile, StationLoad};
+
+mod json_edit;
+pub use json_edit::edit_in_place;
 
 /// One change to a leg.
 #[derive(Debug, Clone, PartialEq)]
@@ -145,7 +150,12 @@ pub fn save_legs(path: &Path, expected_hash: &str, file: &LegsFile) -> std::io::
     if serde_json::from_str::<LegsFile>(&now).is_ok_and(|old| &old == file) {
         return Ok(Saved::Unchanged);
     }
-    let text = serde_json::to_string_pretty(file).map_err(std::io::Error::other)? + "\n";
+    // Only what changed: every other byte of the operator's file stays as it was. A
+    // file that cannot be edited faithfully in place is written whole, as before.
+    let text = match edit_in_place(&now, file) {
+        Some(t) => t,
+        None => serde_json::to_string_pretty(file).map_err(std::io::Error::other)? + "\n",
+    };
     let dir = path.parent().unwrap_or(Path::new("."));
     let name = path
         .file_name()

@@ -400,9 +400,11 @@ pub enum Refusal {
         /// The categories whose overrides the policy allows.
         allowed: String,
     },
-    /// An override was given, but the policy does not allow one for the category.
+    /// The leg is `below` or `no-data` and the policy allows no override for its
+    /// category, so it cannot be signed: said whether or not an override was given, so
+    /// nobody is sent to write a reason that would be refused anyway.
     #[error(
-        "leg {leg} is {state}: {why}; the policy allows no override for {category} legs (policy.sign_off.override_categories: {allowed})"
+        "leg {leg} is {state}: {why}; it cannot be signed: the policy allows no override for {category} legs (policy.sign_off.override_categories: {allowed})"
     )]
     OverrideNotAllowed {
         /// Leg id.
@@ -504,20 +506,22 @@ pub fn draft(ops: &Ops, r: &LegResult, req: &Request<'_>) -> Result<Record, Refu
             .first()
             .cloned()
             .unwrap_or_else(|| "no reason given".to_string());
-        if override_reason.is_none() {
-            return Err(Refusal::NotMet {
-                leg: r.id.clone(),
-                state: r.state,
-                why,
-                allowed: allowed_text(policy),
-            });
-        }
+        // The category first: where no override is allowed, `--override` is no way out
+        // and the refusal must not suggest it.
         if !policy.override_categories.contains(&r.category) {
             return Err(Refusal::OverrideNotAllowed {
                 leg: r.id.clone(),
                 state: r.state,
                 why,
                 category: r.category.name(),
+                allowed: allowed_text(policy),
+            });
+        }
+        if override_reason.is_none() {
+            return Err(Refusal::NotMet {
+                leg: r.id.clone(),
+                state: r.state,
+                why,
                 allowed: allowed_text(policy),
             });
         }

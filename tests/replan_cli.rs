@@ -143,3 +143,64 @@ fn the_afternoon_charter_is_re_planned_to_the_morning_and_saved() {
     assert!(err.contains("--dry-run"), "{err}");
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// `rhoboard leg set L16 EDITS --ops DIR` at 14Z on the demo day.
+fn set_l16(home: &std::path::Path, dir: &str, edits: &[&str]) -> (i32, String, String) {
+    let mut args = vec!["leg", "set", "L16"];
+    args.extend_from_slice(edits);
+    args.extend(["--ops", dir, "--at", "2026-06-14T14:00:00Z"]);
+    rhoboard(home, &args)
+}
+
+#[test]
+fn a_saved_change_leaves_every_other_byte_of_the_legs_file_as_it_was() {
+    let dir = tempfile::tempdir().unwrap();
+    let home = dir.path().join("home");
+    let ops = dir.path().join("ops");
+    let d = ops.to_str().unwrap();
+    assert_eq!(rhoboard(&home, &["init", d]).0, 0);
+    let legs = ops.join("legs/2026-06-14.json");
+    let original = std::fs::read_to_string(&legs).unwrap();
+    let (code, out, err) = set_l16(&home, d, &["--load", "baggage=15kg", "--fuel", "110L"]);
+    assert!(code == 0 || code == 1, "{err}");
+    assert!(out.contains("Saved"), "{out}");
+    let now = std::fs::read_to_string(&legs).unwrap();
+    let (before, after): (Vec<_>, Vec<_>) = (original.lines().collect(), now.lines().collect());
+    assert_eq!(before.len(), after.len(), "{now}");
+    let changed: Vec<(&str, &str)> = before
+        .iter()
+        .zip(&after)
+        .filter(|(a, b)| a != b)
+        .map(|(a, b)| (a.trim(), b.trim()))
+        .collect();
+    // The two values typed, as typed (whole numbers stay whole); nothing else moves.
+    assert_eq!(
+        changed,
+        [
+            ("\"mass_kg\": 10", "\"mass_kg\": 15"),
+            ("\"fuel_at_start_l\": 125,", "\"fuel_at_start_l\": 110,"),
+        ],
+        "{now}"
+    );
+    assert_eq!(original.ends_with('\n'), now.ends_with('\n'));
+    // The backup holds the original and the folder still validates.
+    let backup = ops.join(format!(
+        "legs/.2026-06-14.json.{}.bak",
+        &rhoboard::replan::content_hash(&original)[..12]
+    ));
+    assert_eq!(std::fs::read_to_string(backup).unwrap(), original);
+    assert_eq!(rhoboard(&home, &["validate", "--ops", d]).0, 0);
+    // A departure time typed as 06:30Z is written in the file's UTC style.
+    let (code, _, err) = set_l16(&home, d, &["--etd", "06:30Z"]);
+    assert!(code == 0 || code == 1, "{err}");
+    let later = std::fs::read_to_string(&legs).unwrap();
+    assert!(
+        later.contains("\"departs_at\": \"2026-06-14T06:30:00Z\""),
+        "{later}"
+    );
+    assert!(
+        later.contains("\"arrives_at\": \"2026-06-14T07:25:00Z\""),
+        "{later}"
+    );
+    assert_eq!(later.lines().count(), now.lines().count());
+}

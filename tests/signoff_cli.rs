@@ -136,20 +136,28 @@ fn a_within_leg_is_signed_with_its_basis() {
 #[test]
 fn below_and_no_data_legs_are_refused_unless_the_policy_allows_an_override() {
     let dir = demo_folder();
-    // L09 (solo) is below at 13Z; no override given.
-    let o = sign(dir.path(), "L09", AFTERNOON, &[]);
+    // L09 (solo) is below at 13Z and the demo policy allows overrides for dual only:
+    // with or without an override, the refusal says up front that none is allowed and
+    // does not send the instructor to `--override`.
+    for extra in [&[][..], &["--override", "ferry home"][..]] {
+        let o = sign(dir.path(), "L09", AFTERNOON, extra);
+        assert_eq!(o.status.code(), Some(1), "{}", text(&o));
+        let t = text(&o);
+        assert!(t.contains("refused: leg L09 is ✗ below"), "{t}");
+        assert!(
+            t.contains(
+                "it cannot be signed: the policy allows no override for solo legs \
+                 (policy.sign_off.override_categories: dual)"
+            ),
+            "{t}"
+        );
+        assert!(!t.contains("needs --override"), "{t}");
+    }
+    // L15 (dual) is below at 13Z with no override given: the refusal names the way.
+    let o = sign(dir.path(), "L15", AFTERNOON, &[]);
     assert_eq!(o.status.code(), Some(1), "{}", text(&o));
     assert!(
-        text(&o).contains("refused: leg L09 is ✗ below"),
-        "{}",
-        text(&o)
-    );
-    assert!(text(&o).contains("--override REASON"), "{}", text(&o));
-    // The demo policy allows overrides for dual only.
-    let o = sign(dir.path(), "L09", AFTERNOON, &["--override", "ferry home"]);
-    assert_eq!(o.status.code(), Some(1), "{}", text(&o));
-    assert!(
-        text(&o).contains("allows no override for solo legs"),
+        text(&o).contains("signing it needs --override REASON (allowed for: dual)"),
         "{}",
         text(&o)
     );

@@ -327,10 +327,60 @@ fn a_head_that_disagrees_is_named() {
     let (code, out) = verify(dir.path(), Some(&head));
     assert_eq!(code, Some(1), "{out}");
     assert!(
-        out.contains("2026-08.jsonl line 2: record 7 has sha256"),
+        out.contains("2026-08.jsonl line 2: the given head 7:"),
         "{out}"
     );
-    assert!(out.contains("the log was rewritten"), "{out}");
+    assert!(
+        out.contains(
+            "does not match any record (mistyped, or the log was rewritten since that head was printed): record 7 has sha256"
+        ),
+        "{out}"
+    );
+}
+
+#[test]
+fn a_mistyped_or_unknown_head_says_it_matches_no_record_and_names_the_file() {
+    let (dir, head) = log_of_seven();
+    let (seq, hash) = head.split_once(':').expect("SEQ:HASH");
+    // A short prefix with its last digit mistyped: no record has that hash.
+    let short = &hash[..10];
+    let last = short.chars().last().expect("digit");
+    let typo = format!(
+        "{seq}:{}{}",
+        &short[..9],
+        if last == '0' { '1' } else { '0' }
+    );
+    let (code, out) = verify(dir.path(), Some(&typo));
+    assert_eq!(code, Some(1), "{out}");
+    assert!(
+        out.contains(&format!(
+            "✗ 2026-08.jsonl line 2: the given head {typo} does not match any record (mistyped, or the log was rewritten since that head was printed): record 7 has sha256 {hash}"
+        )),
+        "{out}"
+    );
+    assert!(out.contains("✗ broken: 1 problem(s)"), "{out}");
+    // An unknown record number with an unknown hash.
+    let (code, out) = verify(dir.path(), Some("3:0123456789abcdef"));
+    assert_eq!(code, Some(1), "{out}");
+    assert!(
+        out.contains("2026-06.jsonl line 3: the given head 3:0123456789abcdef does not match any record (mistyped, or the log was rewritten since that head was printed)"),
+        "{out}"
+    );
+    // The right hash with the wrong sequence number: the record it belongs to is named.
+    let (code, out) = verify(dir.path(), Some(&format!("6:{short}")));
+    assert_eq!(code, Some(1), "{out}");
+    assert!(
+        out.contains(&format!(
+            "2026-08.jsonl line 1: the given head 6:{short} does not match record 6: its hash is that of record 7 at 2026-08.jsonl line 2 (is the sequence number mistyped?)"
+        )),
+        "{out}"
+    );
+    let (code, out) = verify(dir.path(), Some(&format!("9:{short}")));
+    assert_eq!(code, Some(1), "{out}");
+    assert!(
+        out.contains("names record 9, which the log does not hold; its hash is that of record 7 at 2026-08.jsonl line 2"),
+        "{out}"
+    );
 }
 
 #[test]

@@ -57,6 +57,14 @@ pub enum Msg {
         /// What went wrong.
         error: String,
     },
+    /// The folder feed read a runway-state file that changed on disk (another process,
+    /// e.g. `rhoboard runway`): the day's whole state.
+    RunwayStateRead {
+        /// The file, for the note.
+        source: String,
+        /// The state it now holds.
+        state: RunwayStateFile,
+    },
     /// Quit (a signal, or the input thread ending).
     Quit,
     /// The event loop did an [`Effect`](super::effects::Effect): its result.
@@ -598,6 +606,16 @@ impl App {
                 // A feed that keeps failing the same way says so once.
                 if self.notes.front().is_none_or(|n| n.text != text) {
                     self.note(NoteKind::Error, text);
+                }
+            }
+            // What the board holds already (its own save, read back) changes nothing.
+            Msg::RunwayStateRead { source, state } => {
+                if !self.ops.runway_states.contains(&state)
+                    && (!state.entries.is_empty()
+                        || self.ops.runway_states.iter().any(|s| s.date == state.date))
+                {
+                    self.note(NoteKind::Info, format!("{source}: changed on disk, read"));
+                    self.apply_runway_state(state, &source);
                 }
             }
             Msg::Quit => self.quit = true,

@@ -13,6 +13,7 @@ use chrono::{DateTime, TimeDelta, Utc};
 
 use super::app::Msg;
 use crate::observation::{ObservationFile, decode_all};
+use crate::ops::runway_state::RunwayStateFile;
 
 /// How long a feed command may run before it is stopped.
 pub const FEED_COMMAND_TIMEOUT: Duration = Duration::from_secs(60);
@@ -20,7 +21,15 @@ pub const FEED_COMMAND_TIMEOUT: Duration = Duration::from_secs(60);
 /// Watches `dir` by polling every `every`: new `*.txt` files and lines appended to
 /// known ones are read with [`ObservationFile::read_new`] and sent as reports.
 /// `offset` shifts the wall clock used to date the reports (a live board run `--at`).
-pub fn spawn_folder_watch(dir: PathBuf, every: Duration, offset: TimeDelta, tx: Sender<Msg>) {
+/// On the same pass, `runway` (when given) looks at the operator's runway-state files,
+/// so a change made by another process (`rhoboard runway`) reaches the board too.
+pub fn spawn_folder_watch(
+    dir: PathBuf,
+    every: Duration,
+    offset: TimeDelta,
+    mut runway: Option<RunwayStateWatch>,
+    tx: Sender<Msg>,
+) {
     thread::Builder::new()
         .name("rhoboard-folder-feed".into())
         .spawn(move || {
@@ -29,10 +38,155 @@ pub fn spawn_folder_watch(dir: PathBuf, every: Duration, offset: TimeDelta, tx: 
                 if !poll_folder(&dir, &mut files, Utc::now() + offset, &tx) {
                     return;
                 }
+                if let Some(w) = runway.as_mut()
+                    && !poll_runway_state(w, &tx)
+                {
+                    return;
+                }
                 thread::sleep(every);
             }
         })
         .ok();
+}
+
+/// The operator's `runway-state/` folder as last seen by the feed.
+#[derive(Debug, Clone)]
+pub struct RunwayStateWatch {
+    dir: PathBuf,
+    /// Each airfield's runway ends, to check a changed file against.
+    known_ends: BTreeMap<String, Vec<String>>,
+    /// Each file's text as last seen (good or not), so a change is read once.
+    seen: BTreeMap<PathBuf, String>,
+}
+
+impl RunwayStateWatch {
+    /// Watches `ops_dir/runway-state/`, checking entries against the airfields of `ops`.
+    pub fn new(ops_dir: &Path, ops: &crate::ops::Ops) -> Self {
+        Self {
+            dir: ops_dir.join("runway-state"),
+            known_ends: ops
+                .airfields
+                .iter()
+                .map(|a| {
+                    let ends = a.runway_ends.iter().map(|r| r.designator.clone());
+                    (a.id.clone(), ends.collect())
+                })
+                .collect(),
+            seen: BTreeMap::new(),
+        }
+    }
+
+    /// A runway-state file's text read as the day's state, or what is wrong with it,
+    /// naming the line and field.
+    fn read(&self, path: &Path, text: &str) -> Result<RunwayStateFile, String> {
+        let state: RunwayStateFile = serde_json::from_str(text).map_err(|e| {
+            // serde_json ends its message with the place; it goes first here, as in
+            // every other message naming a file's line.
+            let place = format!(" at line {} column {}", e.line(), e.column());
+            let full = e.to_string();
+            let what = full.strip_suffix(&place).unwrap_or(&full).to_string();
+            format!("line {}, column {}: {what}", e.line(), e.column())
+        })?;
+        if state.schema_version != 1 {
+            return Err(format!(
+                "schema_version: {} is not a version this build reads (1)",
+                state.schema_version
+            ));
+        }
+        let stem = path.file_stem().and_then(|s| s.to_str()).unwrap_or("");
+        if state.date.to_string() != stem {
+            return Err(format!(
+                "date: {} differs from the file name; name the file {}.json",
+                state.date, state.date
+            ));
+        }
+        for (i, e) in state.entries.iter().enumerate() {
+            let Some(ends) = self.known_ends.get(&e.airfield) else {
+                return Err(format!(
+                    "entries[{i}].airfield: unknown airfield '{}'",
+                    e.airfield
+                ));
+            };
+            if !ends.contains(&e.end) {
+                return Err(format!(
+                    "entries[{i}].end: {} has no runway end '{}' (it has: {})",
+                    e.airfield,
+                    e.end,
+                    ends.join(", ")
+                ));
+            }
+        }
+        Ok(state)
+    }
+}
+
+/// One pass over the runway-state folder: each file that changed since the last pass
+/// is read and sent as the day's state ([`Msg::RunwayStateRead`]); a file that does not
+/// read is a [`Msg::FeedError`] naming it (the board keeps the last good state); a file
+/// that went away empties that day's state. False when the board has gone.
+pub fn poll_runway_state(w: &mut RunwayStateWatch, tx: &Sender<Msg>) -> bool {
+    let mut now: BTreeMap<PathBuf, String> = BTreeMap::new();
+    if let Ok(entries) = std::fs::read_dir(&w.dir) {
+        for p in entries.filter_map(Result::ok).map(|e| e.path()) {
+            let name = p.file_name().and_then(|n| n.to_str()).unwrap_or("");
+            // Hidden files are `rhoboard runway`'s temporaries mid-write.
+            if name.starts_with('.') || p.extension().is_none_or(|x| x != "json") {
+                continue;
+            }
+            match std::fs::read_to_string(&p) {
+                Ok(text) => {
+                    now.insert(p, text);
+                }
+                Err(e) => {
+                    let msg = Msg::FeedError {
+                        source: shown(&p),
+                        error: format!("cannot read: {e}; the last good runway state stays"),
+                    };
+                    if tx.send(msg).is_err() {
+                        return false;
+                    }
+                }
+            }
+        }
+    }
+    let mut msgs = Vec::new();
+    for (p, text) in &now {
+        if w.seen.get(p) == Some(text) {
+            continue;
+        }
+        msgs.push(match w.read(p, text) {
+            Ok(state) => Msg::RunwayStateRead {
+                source: shown(p),
+                state,
+            },
+            Err(error) => Msg::FeedError {
+                source: shown(p),
+                error: format!("{error}; the last good runway state stays"),
+            },
+        });
+    }
+    for p in w.seen.keys().filter(|p| !now.contains_key(*p)) {
+        let date = p
+            .file_stem()
+            .and_then(|s| s.to_str())
+            .and_then(|s| s.parse().ok());
+        if let Some(date) = date {
+            msgs.push(Msg::RunwayStateRead {
+                source: shown(p),
+                state: RunwayStateFile::new(date),
+            });
+        }
+    }
+    w.seen = now;
+    msgs.into_iter().all(|m| tx.send(m).is_ok())
+}
+
+/// `runway-state/<name>` for notes: the folder and the file, as the operator knows it.
+fn shown(p: &Path) -> String {
+    let name = p
+        .file_name()
+        .map_or_else(String::new, |n| n.to_string_lossy().into_owned());
+    format!("runway-state/{name}")
 }
 
 /// One pass over the folder, dating reports against `reference`; false when the

@@ -25,6 +25,8 @@ use super::feed;
 pub struct Feeds {
     /// The operator's `observations/` folder to watch, and how often to look.
     pub folder: Option<(PathBuf, Duration)>,
+    /// The operator's runway-state files, watched on the folder's polling pass.
+    pub runway_state: Option<feed::RunwayStateWatch>,
     /// A command whose output is read as reports, and how often to run it.
     pub command: Option<(String, Duration)>,
     /// Added to the wall clock when dating reports (a live board run `--at`).
@@ -103,7 +105,8 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<()> {
         let stop = Arc::new(AtomicBool::new(false));
         spawn_input(tx.clone(), stop.clone());
         if let Some((dir, every)) = feeds.folder {
-            feed::spawn_folder_watch(dir, every, feeds.clock_offset, tx.clone());
+            let runway = feeds.runway_state;
+            feed::spawn_folder_watch(dir, every, feeds.clock_offset, runway, tx.clone());
         }
         if let Some((cmd, every)) = feeds.command {
             feed::spawn_feed_command(cmd, every, feeds.clock_offset, tx.clone());

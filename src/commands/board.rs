@@ -129,6 +129,7 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         }
         if let Choice::Explicit(dir) | Choice::Configured(dir) = &choice {
             feeds.folder = Some((dir.join("observations"), crate::board::run::FOLDER_POLL));
+            feeds.runway_state = Some(crate::board::feed::RunwayStateWatch::new(dir, &loaded.ops));
         }
         App::new(loaded.ops, loaded.store, loaded.at, None, settings)
     };

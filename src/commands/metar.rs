@@ -1,8 +1,6 @@
 //! `rhoboard metar TEXT` / `rhoboard metar -`: decodes METAR and SPECI reports, group by
 //! group in plain words, or as JSON.
 
-use std::io::Read;
-
 use anyhow::Context;
 use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
@@ -32,12 +30,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         None => Utc::now(),
     };
     let input = if args.text.len() == 1 && args.text.first().is_some_and(|t| t == "-") {
-        let mut bytes = Vec::new();
-        std::io::stdin()
-            .read_to_end(&mut bytes)
-            .context("reading reports from standard input")?;
-        // Garbled bytes become U+FFFD and are reported as groups not understood.
-        String::from_utf8_lossy(&bytes).into_owned()
+        super::read_stdin("reports")?
     } else if looks_unquoted(&args.text) {
         args.text.join(" ")
     } else {
@@ -55,17 +48,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         .iter()
         .map(|(_, t)| crate::observation::decode(t, reference))
         .collect();
-    if args.json {
-        let v: Vec<Value> = reports.iter().map(to_json).collect();
-        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
-    } else {
-        for (k, r) in reports.iter().enumerate() {
-            if k > 0 {
-                writeln!(out)?;
-            }
-            write_readable(r, out)?;
-        }
-    }
+    super::print_decoded(&reports, args.json, to_json, write_readable, out)?;
     Ok(if reports.iter().all(Report::usable_for_performance) {
         Outcome::Success
     } else {
@@ -181,44 +164,20 @@ pub fn to_json(r: &Report) -> Value {
 
 /// The readable decode: the report, then each group on its own line.
 pub fn write_readable(r: &Report, out: &mut dyn std::io::Write) -> std::io::Result<()> {
-    let shown: String = r
-        .text
-        .chars()
-        .flat_map(|c| {
-            let esc: Vec<char> = if c.is_control() {
-                c.escape_default().collect()
-            } else {
-                vec![c]
-            };
-            esc
-        })
-        .collect();
-    writeln!(out, "{shown}")?;
-    // Decoded groups, groups not understood and malformed needed groups, in report order.
-    let mut lines: Vec<(usize, String, String)> = Vec::new();
-    for g in &r.groups {
-        let column = r.text.get(..g.start).map_or(0, |p| p.chars().count()) + 1;
-        lines.push((column, r.group_text(g).to_string(), describe(r, g)));
-    }
-    for n in &r.not_understood {
-        lines.push((
-            n.column,
-            n.group.clone(),
-            format!("not understood: {}", n.reason),
-        ));
-    }
-    for e in &r.errors {
-        if let DecodeError::Malformed {
+    let groups = r
+        .groups
+        .iter()
+        .map(|g| (g.start, r.group_text(g).to_string(), describe(r, g)));
+    let malformed = r.errors.iter().filter_map(|e| match e {
+        DecodeError::Malformed {
             group,
             text,
             column,
             problem,
-        } = e
-        {
-            lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
-        }
-    }
-    crate::commands::write_groups(lines, out)?;
+        } => Some((*column, text.clone(), format!("✗ {group}: {problem}"))),
+        _ => None,
+    });
+    crate::commands::write_decoded(&r.text, groups, &r.not_understood, malformed, out)?;
     let ceiling = match r.ceiling {
         Ceiling::None => "none".to_string(),
         Ceiling::Known(ft) => format!("{ft:.0} ft"),

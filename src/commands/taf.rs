@@ -2,8 +2,6 @@
 //! then the periods in time order and the forecast hour by hour; or as JSON (the keys
 //! are documented in docs/forecast.md).
 
-use std::io::Read;
-
 use anyhow::Context;
 use chrono::{DateTime, Duration, NaiveDate, SecondsFormat, Utc};
 use serde_json::{Value, json};
@@ -42,11 +40,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         None => Utc::now(),
     };
     let input = if args.text.len() == 1 && args.text.first().is_some_and(|t| t == "-") {
-        let mut bytes = Vec::new();
-        std::io::stdin()
-            .read_to_end(&mut bytes)
-            .context("reading forecasts from standard input")?;
-        String::from_utf8_lossy(&bytes).into_owned()
+        super::read_stdin("forecasts")?
     } else if args.text.iter().any(|a| a.contains(char::is_whitespace)) {
         args.text.join("\n\n")
     } else {
@@ -64,17 +58,7 @@ pub fn run(args: &Args, out: &mut dyn std::io::Write) -> anyhow::Result<Outcome>
         .iter()
         .map(|(_, t)| taf::decode(t, reference))
         .collect();
-    if args.json {
-        let v: Vec<Value> = tafs.iter().map(to_json).collect();
-        writeln!(out, "{}", serde_json::to_string_pretty(&v)?)?;
-    } else {
-        for (k, t) in tafs.iter().enumerate() {
-            if k > 0 {
-                writeln!(out)?;
-            }
-            write_readable(t, out)?;
-        }
-    }
+    super::print_decoded(&tafs, args.json, to_json, write_readable, out)?;
     Ok(if tafs.iter().all(Taf::usable) {
         Outcome::Success
     } else {
@@ -285,42 +269,20 @@ fn summary(f: &ForecastConditions) -> String {
 /// The readable decode: the text, each group on its own line, the periods in time
 /// order, and the forecast hour by hour.
 pub fn write_readable(t: &Taf, out: &mut dyn std::io::Write) -> std::io::Result<()> {
-    let shown: String = t
-        .text
-        .chars()
-        .flat_map(|c| -> Vec<char> {
-            if c.is_control() {
-                c.escape_default().collect()
-            } else {
-                vec![c]
-            }
-        })
-        .collect();
-    writeln!(out, "{shown}")?;
-    let mut lines: Vec<(usize, String, String)> = Vec::new();
-    for g in &t.groups {
-        let column = t.text.get(..g.start).map_or(0, |p| p.chars().count()) + 1;
-        lines.push((column, t.group_text(g).to_string(), taf::describe(t, g)));
-    }
-    for n in &t.not_understood {
-        lines.push((
-            n.column,
-            n.group.clone(),
-            format!("not understood: {}", n.reason),
-        ));
-    }
-    for e in &t.errors {
-        if let TafError::Malformed {
+    let groups = t
+        .groups
+        .iter()
+        .map(|g| (g.start, t.group_text(g).to_string(), taf::describe(t, g)));
+    let malformed = t.errors.iter().filter_map(|e| match e {
+        TafError::Malformed {
             group,
             text,
             column,
             problem,
-        } = e
-        {
-            lines.push((*column, text.clone(), format!("✗ {group}: {problem}")));
-        }
-    }
-    crate::commands::write_groups(lines, out)?;
+        } => Some((*column, text.clone(), format!("✗ {group}: {problem}"))),
+        _ => None,
+    });
+    crate::commands::write_decoded(&t.text, groups, &t.not_understood, malformed, out)?;
     let periods = forecast::periods(t);
     if !periods.is_empty() {
         writeln!(out, "  periods:")?;

@@ -613,26 +613,65 @@ pub(super) fn normalise<'s>(
     (norm, spans)
 }
 
-/// The text of group `i` ("" past the end).
-pub(super) fn token<'a>(text: &'a str, spans: &[(usize, usize)], i: usize) -> &'a str {
-    spans
-        .get(i)
-        .and_then(|&(s, e)| text.get(s..e))
-        .unwrap_or("")
+/// A normalised report's groups: the text and each group's byte span in it, as
+/// [`normalise`] makes them. What the METAR and TAF decoders ask of their input.
+#[derive(Debug, Clone, Copy)]
+pub(super) struct Tokens<'a> {
+    /// The normalised text.
+    pub text: &'a str,
+    /// Byte (start, end) of each group.
+    pub spans: &'a [(usize, usize)],
 }
 
-/// Byte start of group `i` (the text's end past the last).
-pub(super) fn token_start(text: &str, spans: &[(usize, usize)], i: usize) -> usize {
-    spans.get(i).map_or(text.len(), |&(s, _)| s)
-}
+impl<'a> Tokens<'a> {
+    /// How many groups.
+    pub fn len(self) -> usize {
+        self.spans.len()
+    }
 
-/// Byte end of group `i` (the text's end past the last).
-pub(super) fn token_end(text: &str, spans: &[(usize, usize)], i: usize) -> usize {
-    spans.get(i).map_or(text.len(), |&(_, e)| e)
-}
+    /// The text of group `i` ("" past the end).
+    pub fn tok(self, i: usize) -> &'a str {
+        self.spans
+            .get(i)
+            .and_then(|&(s, e)| self.text.get(s..e))
+            .unwrap_or("")
+    }
 
-/// 1-based character column of group `i`.
-pub(super) fn token_column(text: &str, spans: &[(usize, usize)], i: usize) -> usize {
-    let s = token_start(text, spans, i);
-    text.get(..s).map_or(s, |p| p.chars().count()) + 1
+    /// Byte start of group `i` (the text's end past the last).
+    pub fn start(self, i: usize) -> usize {
+        self.spans.get(i).map_or(self.text.len(), |&(s, _)| s)
+    }
+
+    /// Byte end of group `i` (the text's end past the last).
+    pub fn end(self, i: usize) -> usize {
+        self.spans.get(i).map_or(self.text.len(), |&(_, e)| e)
+    }
+
+    /// 1-based character column of group `i`.
+    pub fn column(self, i: usize) -> usize {
+        let s = self.start(i);
+        self.text.get(..s).map_or(s, |p| p.chars().count()) + 1
+    }
+
+    /// Byte start and length of the `ntok` groups from `i`, taken as one.
+    pub fn span(self, i: usize, ntok: usize) -> (usize, usize) {
+        let start = self.start(i);
+        let end = self.end(i + ntok.saturating_sub(1));
+        (start, end.saturating_sub(start))
+    }
+
+    /// Group `i` quoted for a message, and its column.
+    pub fn quoted(self, i: usize) -> (String, usize) {
+        (quote(self.tok(i)), self.column(i))
+    }
+
+    /// Group `i`, not understood for `reason`.
+    pub fn not_understood(self, i: usize, reason: impl Into<String>) -> super::NotUnderstood {
+        let (group, column) = self.quoted(i);
+        super::NotUnderstood {
+            group,
+            column,
+            reason: reason.into(),
+        }
+    }
 }

@@ -16,8 +16,7 @@ use super::groups::{
     quote, weather_body,
 };
 use super::{
-    Bound, DIRECTIONS, Group, GroupKind, Intensity, Kind, NotUnderstood, Report, Rvr, Visibility,
-    Wind, WindShear,
+    Bound, DIRECTIONS, Group, GroupKind, Intensity, Kind, Report, Rvr, Visibility, Wind, WindShear,
 };
 use crate::units::{HPA_PER_INHG, M_PER_FT};
 
@@ -150,8 +149,10 @@ pub fn decode(text: &str, reference: DateTime<Utc>) -> Report {
         };
     }
     let mut d = Decoder {
-        text: &norm,
-        spans: &spans,
+        toks: groups::Tokens {
+            text: &norm,
+            spans: &spans,
+        },
         reference,
         r: Report::default(),
         wind_done: false,
@@ -239,8 +240,7 @@ const STAGES: [Stage; 12] = [
 ];
 
 struct Decoder<'a> {
-    text: &'a str,
-    spans: &'a [(usize, usize)],
+    toks: groups::Tokens<'a>,
     reference: DateTime<Utc>,
     r: Report,
     wind_done: bool,
@@ -290,36 +290,13 @@ fn remark_temperature(tok: &str) -> Option<(f64, Option<f64>)> {
 }
 
 impl<'a> Decoder<'a> {
-    fn tok(&self, i: usize) -> &'a str {
-        groups::token(self.text, self.spans, i)
-    }
-
-    fn start(&self, i: usize) -> usize {
-        groups::token_start(self.text, self.spans, i)
-    }
-
-    fn end(&self, i: usize) -> usize {
-        groups::token_end(self.text, self.spans, i)
-    }
-
-    /// 1-based character column of token `i`.
-    fn column(&self, i: usize) -> usize {
-        groups::token_column(self.text, self.spans, i)
-    }
-
     fn group(&mut self, kind: GroupKind, i: usize, ntok: usize) {
-        let start = self.start(i);
-        let end = self.end(i + ntok.saturating_sub(1));
-        self.r.groups.push(Group {
-            kind,
-            start,
-            len: end.saturating_sub(start),
-        });
+        let (start, len) = self.toks.span(i, ntok);
+        self.r.groups.push(Group { kind, start, len });
     }
 
     fn error(&mut self, group: GroupName, i: usize, problem: String) {
-        let text = quote(self.tok(i));
-        let column = self.column(i);
+        let (text, column) = self.toks.quoted(i);
         self.r.errors.push(DecodeError::Malformed {
             group,
             text,
@@ -329,19 +306,14 @@ impl<'a> Decoder<'a> {
     }
 
     fn not_understood(&mut self, i: usize, reason: impl Into<String>) {
-        let group = quote(self.tok(i));
-        let column = self.column(i);
-        self.r.not_understood.push(NotUnderstood {
-            group,
-            column,
-            reason: reason.into(),
-        });
+        let n = self.toks.not_understood(i, reason);
+        self.r.not_understood.push(n);
     }
 
     fn run(&mut self) {
-        let n = self.spans.len();
+        let n = self.toks.len();
         let mut i = 0;
-        match self.tok(0) {
+        match self.toks.tok(0) {
             "METAR" => {
                 self.r.kind = Some(Kind::Metar);
                 self.group(GroupKind::ReportType, 0, 1);
@@ -354,7 +326,7 @@ impl<'a> Decoder<'a> {
             }
             _ => self.r.kind = Some(Kind::Metar),
         }
-        if self.tok(i) == "COR" {
+        if self.toks.tok(i) == "COR" {
             self.r.corrected = true;
             self.group(GroupKind::Correction, i, 1);
             i += 1;
@@ -364,19 +336,20 @@ impl<'a> Decoder<'a> {
 
         let mut stage = Stage::Modifier;
         while i < n {
-            let tok = self.tok(i);
+            let tok = self.toks.tok(i);
             if tok == "RMK" {
                 self.remarks(i);
                 break;
             }
             if matches!(tok, "NOSIG" | "BECMG" | "TEMPO") {
                 let mut j = i;
-                while j < n && self.tok(j) != "RMK" {
+                while j < n && self.toks.tok(j) != "RMK" {
                     j += 1;
                 }
                 self.r.trend = self
+                    .toks
                     .text
-                    .get(self.start(i)..self.end(j.saturating_sub(1)))
+                    .get(self.toks.start(i)..self.toks.end(j.saturating_sub(1)))
                     .map(str::to_string);
                 self.group(GroupKind::Trend, i, j - i);
                 i = j;
@@ -480,7 +453,7 @@ impl<'a> Decoder<'a> {
     fn finish(&mut self) {
         if self.r.groups.is_empty() {
             self.r.errors = vec![DecodeError::NotMetar {
-                start: quote(self.tok(0)),
+                start: quote(self.toks.tok(0)),
             }];
             return;
         }
@@ -522,7 +495,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn station(&mut self, i: usize) -> usize {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let b = tok.as_bytes();
         let ok = b.len() == 4
             && b.first().is_some_and(u8::is_ascii_uppercase)
@@ -533,7 +506,7 @@ impl<'a> Decoder<'a> {
             self.group(GroupKind::Station, i, 1);
             return i + 1;
         }
-        if i >= self.spans.len() || Self::looks_like_time(tok) {
+        if i >= self.toks.len() || Self::looks_like_time(tok) {
             self.r.errors.push(DecodeError::Missing {
                 group: GroupName::Station,
             });
@@ -548,7 +521,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn time(&mut self, i: usize) -> usize {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         if !Self::looks_like_time(tok) {
             self.r.errors.push(DecodeError::Missing {
                 group: GroupName::Time,
@@ -591,7 +564,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn modifier(&mut self, i: usize) -> Parsed {
-        match self.tok(i) {
+        match self.toks.tok(i) {
             "AUTO" => {
                 self.r.auto = true;
                 self.group(GroupKind::Auto, i, 1);
@@ -612,7 +585,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn wind(&mut self, i: usize) -> Parsed {
-        match groups::wind(self.tok(i)) {
+        match groups::wind(self.toks.tok(i)) {
             GroupParse::No => Parsed::No,
             GroupParse::Bad(p) => Parsed::Bad(p),
             GroupParse::Ok(w, _) => {
@@ -625,7 +598,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn sector(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let Some((a, b)) = tok.split_once('V') else {
             return Parsed::No;
         };
@@ -658,8 +631,8 @@ impl<'a> Decoder<'a> {
     }
 
     fn visibility(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
-        match groups::visibility(tok, self.tok(i + 1)) {
+        let tok = self.toks.tok(i);
+        match groups::visibility(tok, self.toks.tok(i + 1)) {
             GroupParse::No => Parsed::No,
             GroupParse::Bad(p) => {
                 if tok == "////" || tok == "////SM" {
@@ -683,7 +656,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn min_visibility(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let (Some(digits), Some(dir)) = (tok.get(..4), tok.get(4..)) else {
             return Parsed::No;
         };
@@ -703,7 +676,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn rvr(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let Some(body) = tok.strip_prefix('R') else {
             return Parsed::No;
         };
@@ -779,7 +752,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn weather(&mut self, i: usize) -> Parsed {
-        match groups::weather(self.tok(i)) {
+        match groups::weather(self.toks.tok(i)) {
             GroupParse::No => Parsed::No,
             GroupParse::Bad(p) => Parsed::Bad(p),
             GroupParse::Ok(w, _) => {
@@ -792,7 +765,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn cloud(&mut self, i: usize) -> Parsed {
-        match groups::cloud(self.tok(i)) {
+        match groups::cloud(self.toks.tok(i)) {
             GroupParse::No => Parsed::No,
             GroupParse::Bad(p) => Parsed::Bad(p),
             GroupParse::Ok(SkyGroup::Clear(c), _) => {
@@ -810,7 +783,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn temperature(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         if !tok.contains('/') || tok.len() > 9 || tok == "//" {
             return Parsed::No;
         }
@@ -859,7 +832,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn altimeter(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let (unit, body) = if let Some(b) = tok.strip_prefix('Q') {
             ('Q', b)
         } else if let Some(b) = tok.strip_prefix('A') {
@@ -913,7 +886,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn recent(&mut self, i: usize) -> Parsed {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let Some(body) = tok.strip_prefix("RE") else {
             return Parsed::No;
         };
@@ -932,11 +905,11 @@ impl<'a> Decoder<'a> {
     }
 
     fn wind_shear(&mut self, i: usize) -> Parsed {
-        if self.tok(i) != "WS" {
+        if self.toks.tok(i) != "WS" {
             return Parsed::No;
         }
-        let next = self.tok(i + 1);
-        if next == "ALL" && self.tok(i + 2) == "RWY" {
+        let next = self.toks.tok(i + 1);
+        if next == "ALL" && self.toks.tok(i + 2) == "RWY" {
             self.r.wind_shear.push(WindShear::AllRunways);
             let n = u16::try_from(self.r.wind_shear.len() - 1).unwrap_or(u16::MAX);
             self.group(GroupKind::WindShear(n), i, 3);
@@ -965,10 +938,11 @@ impl<'a> Decoder<'a> {
     }
 
     fn remarks(&mut self, i: usize) {
-        let n = self.spans.len();
+        let n = self.toks.len();
         let text = if i + 1 < n {
-            self.text
-                .get(self.start(i + 1)..self.end(n - 1))
+            self.toks
+                .text
+                .get(self.toks.start(i + 1)..self.toks.end(n - 1))
                 .unwrap_or("")
         } else {
             ""
@@ -976,7 +950,7 @@ impl<'a> Decoder<'a> {
         self.r.remarks = Some(text.to_string());
         self.group(GroupKind::Remarks, i, n - i);
         for j in i + 1..n {
-            if let Some((t, d)) = remark_temperature(self.tok(j)) {
+            if let Some((t, d)) = remark_temperature(self.toks.tok(j)) {
                 self.r.temperature_c = Some(t);
                 if d.is_some() {
                     self.r.dewpoint_c = d;

@@ -532,8 +532,10 @@ pub fn decode(text: &str, reference: DateTime<Utc>) -> Taf {
         };
     }
     let mut d = Decoder {
-        text: &norm,
-        spans: &spans,
+        toks: groups::Tokens {
+            text: &norm,
+            spans: &spans,
+        },
         reference,
         t: Taf::default(),
     };
@@ -544,8 +546,7 @@ pub fn decode(text: &str, reference: DateTime<Utc>) -> Taf {
 }
 
 struct Decoder<'a> {
-    text: &'a str,
-    spans: &'a [(usize, usize)],
+    toks: groups::Tokens<'a>,
     reference: DateTime<Utc>,
     t: Taf,
 }
@@ -594,35 +595,13 @@ fn is_temperature_group(tok: &str) -> bool {
 }
 
 impl<'a> Decoder<'a> {
-    fn tok(&self, i: usize) -> &'a str {
-        groups::token(self.text, self.spans, i)
-    }
-
-    fn start(&self, i: usize) -> usize {
-        groups::token_start(self.text, self.spans, i)
-    }
-
-    fn end(&self, i: usize) -> usize {
-        groups::token_end(self.text, self.spans, i)
-    }
-
-    fn column(&self, i: usize) -> usize {
-        groups::token_column(self.text, self.spans, i)
-    }
-
     fn group(&mut self, kind: TafGroupKind, i: usize, ntok: usize) {
-        let start = self.start(i);
-        let end = self.end(i + ntok.saturating_sub(1));
-        self.t.groups.push(TafGroup {
-            kind,
-            start,
-            len: end.saturating_sub(start),
-        });
+        let (start, len) = self.toks.span(i, ntok);
+        self.t.groups.push(TafGroup { kind, start, len });
     }
 
     fn error(&mut self, group: TafGroupName, i: usize, problem: impl Into<String>) {
-        let text = quote(self.tok(i));
-        let column = self.column(i);
+        let (text, column) = self.toks.quoted(i);
         self.t.errors.push(TafError::Malformed {
             group,
             text,
@@ -632,13 +611,8 @@ impl<'a> Decoder<'a> {
     }
 
     fn not_understood(&mut self, i: usize, reason: impl Into<String>) {
-        let group = quote(self.tok(i));
-        let column = self.column(i);
-        self.t.not_understood.push(NotUnderstood {
-            group,
-            column,
-            reason: reason.into(),
-        });
+        let n = self.toks.not_understood(i, reason);
+        self.t.not_understood.push(n);
     }
 
     /// The instant against which day-hour groups inside the TAF are resolved.
@@ -710,16 +684,16 @@ impl<'a> Decoder<'a> {
     }
 
     fn run(&mut self) {
-        let n = self.spans.len();
+        let n = self.toks.len();
         let mut i = 0;
         let mut recognised = false;
-        if self.tok(0) == "TAF" {
+        if self.toks.tok(0) == "TAF" {
             self.group(TafGroupKind::ReportType, 0, 1);
             recognised = true;
             i = 1;
         }
         loop {
-            match self.tok(i) {
+            match self.toks.tok(i) {
                 "AMD" => {
                     self.t.amended = true;
                     self.group(TafGroupKind::Amendment, i, 1);
@@ -733,7 +707,7 @@ impl<'a> Decoder<'a> {
             i += 1;
         }
         // Station.
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let b = tok.as_bytes();
         let station_ok = b.len() == 4
             && b.first().is_some_and(u8::is_ascii_uppercase)
@@ -761,12 +735,12 @@ impl<'a> Decoder<'a> {
             });
         }
         // Issue time (optional in some bulletins; the validity then resolves on its own).
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         if tok.ends_with('Z') && tok.len() >= 2 && all_digits(&tok[..tok.len() - 1]) {
             self.issue_time(i);
             i += 1;
         }
-        if self.tok(i) == "NIL" {
+        if self.toks.tok(i) == "NIL" {
             self.t.nil = true;
             self.group(TafGroupKind::Nil, i, 1);
             self.t.errors.push(TafError::Nil);
@@ -776,7 +750,7 @@ impl<'a> Decoder<'a> {
             return;
         }
         // Validity.
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         if is_period(tok)
             || (tok.contains('/') && tok.len() <= 11 && all_digits(&tok.replace('/', "")))
         {
@@ -793,7 +767,7 @@ impl<'a> Decoder<'a> {
         } else {
             if !recognised && self.t.station.is_empty() {
                 self.t.errors = vec![TafError::NotTaf {
-                    start: quote(self.tok(0)),
+                    start: quote(self.toks.tok(0)),
                 }];
                 return;
             }
@@ -802,7 +776,7 @@ impl<'a> Decoder<'a> {
                 part: String::new(),
             });
         }
-        if self.tok(i) == "CNL" {
+        if self.toks.tok(i) == "CNL" {
             self.t.cancelled = true;
             self.group(TafGroupKind::Cancelled, i, 1);
             self.t.errors.push(TafError::Cancelled);
@@ -816,11 +790,12 @@ impl<'a> Decoder<'a> {
         let mut conditions = Conditions::default();
         let mut seen = Seen::default();
         while i < n {
-            let tok = self.tok(i);
+            let tok = self.toks.tok(i);
             if tok == "RMK" {
                 let text = self
+                    .toks
                     .text
-                    .get(self.start(i + 1).min(self.text.len())..self.end(n - 1))
+                    .get(self.toks.start(i + 1).min(self.toks.text.len())..self.toks.end(n - 1))
                     .unwrap_or("");
                 self.t.remarks = Some(text.to_string());
                 self.group(TafGroupKind::Remarks, i, n - i);
@@ -876,9 +851,9 @@ impl<'a> Decoder<'a> {
     /// Reads a change-group header at `i`: (tokens consumed, the change with empty
     /// conditions). A malformed time is an error and gives no change.
     fn change_header(&mut self, i: usize) -> (usize, Option<Change>) {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let reference = self.inner_reference();
-        let column = self.column(i);
+        let column = self.toks.column(i);
         let end_of_validity = self.t.valid_to.unwrap_or(reference);
         let make = |kind, from, to, label: String| Change {
             kind,
@@ -929,14 +904,14 @@ impl<'a> Decoder<'a> {
                     return (1, None);
                 }
                 let percent = u8::try_from(percent).unwrap_or(30);
-                if self.tok(i + 1) == "TEMPO" {
+                if self.toks.tok(i + 1) == "TEMPO" {
                     (ChangeKind::ProbabilityTempo { percent }, 2)
                 } else {
                     (ChangeKind::Probability { percent }, 1)
                 }
             }
         };
-        let ptok = self.tok(i + consumed);
+        let ptok = self.toks.tok(i + consumed);
         let looks = ptok.contains('/') && ptok.bytes().all(|c| c.is_ascii_digit() || c == b'/');
         if !looks {
             self.error(
@@ -954,8 +929,9 @@ impl<'a> Decoder<'a> {
             Ok((a, b)) => {
                 consumed += 1;
                 let label = self
+                    .toks
                     .text
-                    .get(self.start(i)..self.end(i + consumed - 1))
+                    .get(self.toks.start(i)..self.toks.end(i + consumed - 1))
                     .unwrap_or("")
                     .to_string();
                 (consumed, Some(make(kind, a, b, label)))
@@ -975,7 +951,7 @@ impl<'a> Decoder<'a> {
         c: &mut Conditions,
         seen: &mut Seen,
     ) -> usize {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         if tok == "NSW" {
             c.no_significant_weather = true;
             self.group(TafGroupKind::Nsw(part), i, 1);
@@ -1001,7 +977,7 @@ impl<'a> Decoder<'a> {
             }
         }
         if !seen.visibility {
-            match groups::visibility(tok, self.tok(i + 1)) {
+            match groups::visibility(tok, self.toks.tok(i + 1)) {
                 GroupParse::No => {}
                 GroupParse::Bad(p) => {
                     seen.visibility = true;
@@ -1078,7 +1054,7 @@ impl<'a> Decoder<'a> {
         c: &mut Conditions,
         seen: &mut Seen,
     ) -> Option<usize> {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let body = tok.strip_prefix("WS")?;
         let (h, w) = body.split_once('/')?;
         if seen.wind_shear {
@@ -1113,7 +1089,7 @@ impl<'a> Decoder<'a> {
 
     /// `TX25/1415Z`, `TNM02/1506Z`.
     fn temperature(&mut self, i: usize) {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         let extreme = if tok.starts_with("TX") {
             Extreme::Max
         } else {
@@ -1243,7 +1219,7 @@ impl<'a> Decoder<'a> {
     }
 
     fn issue_time(&mut self, i: usize) {
-        let tok = self.tok(i);
+        let tok = self.toks.tok(i);
         self.t.issued_text = quote(tok);
         self.group(TafGroupKind::IssueTime, i, 1);
         let body = &tok[..tok.len() - 1];

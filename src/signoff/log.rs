@@ -227,28 +227,47 @@ impl Chain {
         current
     }
 
-    /// Compares the chain with a head printed earlier (a sheet, the board).
+    /// Compares the chain with a head printed earlier (a sheet, the board). A hash that
+    /// matches no record is said so plainly — a typo and a rewritten log look alike
+    /// from here — and a hash that belongs to another record names that record.
     pub fn check_head(&self, given: &Head) -> Option<Problem> {
         let last = self.entries.last();
         let (file, line) = last.map_or(("(log)".to_string(), None), |e| {
             (e.file.clone(), Some(e.line))
         });
+        let owner = self
+            .entries
+            .iter()
+            .find(|e| e.sha256.starts_with(&given.sha256));
+        let no_match = format!(
+            "the given head {given} does not match any record (mistyped, or the log was rewritten since that head was printed)"
+        );
         match self.entries.iter().find(|e| e.record.seq == given.seq) {
             Some(e) if e.sha256.starts_with(&given.sha256) => None,
             Some(e) => Some(Problem {
                 file: e.file.clone(),
                 line: Some(e.line),
-                message: format!(
-                    "record {} has sha256 {}, but the given head says {}: the log was rewritten since that head was printed",
-                    e.record.seq, e.sha256, given.sha256
-                ),
+                message: match owner {
+                    Some(o) => format!(
+                        "the given head {given} does not match record {}: its hash is that of record {} at {} line {} (is the sequence number mistyped?)",
+                        e.record.seq, o.record.seq, o.file, o.line
+                    ),
+                    None => format!(
+                        "{no_match}: record {} has sha256 {}",
+                        e.record.seq, e.sha256
+                    ),
+                },
             }),
             None => Some(Problem {
                 file,
                 line,
-                message: match last {
-                    Some(e) if e.record.seq < given.seq => format!(
-                        "the log ends at record {}, but the given head is record {}: {} from the end",
+                message: match (last, owner) {
+                    (_, Some(o)) => format!(
+                        "the given head {given} names record {}, which the log does not hold; its hash is that of record {} at {} line {} (is the sequence number mistyped?)",
+                        given.seq, o.record.seq, o.file, o.line
+                    ),
+                    (Some(e), None) if e.record.seq < given.seq => format!(
+                        "the log ends at record {}, but the given head is record {}: {} from the end, or the head is mistyped",
                         e.record.seq,
                         given.seq,
                         if e.record.seq + 1 == given.seq {
@@ -257,8 +276,8 @@ impl Chain {
                             format!("records {}–{} are missing", e.record.seq + 1, given.seq)
                         }
                     ),
-                    Some(_) => format!("no record {} in the log", given.seq),
-                    None => format!(
+                    (Some(_), None) => format!("{no_match}: no record {} in the log", given.seq),
+                    (None, None) => format!(
                         "the log is empty, but the given head is record {}",
                         given.seq
                     ),
