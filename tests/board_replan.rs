@@ -452,3 +452,31 @@ fn keeping_theirs_reloads_their_legs() {
     run_io(&mut app);
     assert!(!matches!(app.ui.mode, Mode::Conflict));
 }
+
+/// With masses shown in lb, the loads menu's bag steps read in lb (10 kg = 22 lb, by
+/// the exact 0.45359237 kg/lb of the international pound) and still step the file's kg.
+#[test]
+fn the_loads_menu_follows_the_display_mass_unit() {
+    let mut app = demo_stepped_to(13);
+    app.ops.operator.display_units.mass = rhoboard::ops::operator::MassUnit::Lb;
+    let slot = select_leg(&mut app, "L16");
+    let bag_kg = app.ops.legs[slot]
+        .loads
+        .as_ref()
+        .and_then(|l| l.stations.iter().find(|s| s.station == "baggage"))
+        .and_then(|s| s.mass_kg)
+        .expect("L16 carries baggage");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('l')));
+    let lb = |kg: f64| format!("{:.0} lb", kg / 0.453_592_37);
+    let label = format!(
+        "baggage: 22 lb less ({} → {})",
+        lb(bag_kg),
+        lb(bag_kg - 10.0)
+    );
+    pick(&mut app, &label);
+    let Step::Edit(Edit::Load { mass_kg, .. }) = &app.plan.steps[0].step else {
+        panic!("{:?}", app.plan.steps)
+    };
+    assert_eq!(*mass_kg, Some(bag_kg - 10.0));
+}

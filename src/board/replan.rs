@@ -1086,6 +1086,9 @@ impl App {
                     .map(|s| (s.station.clone(), s.station.clone()))
                     .collect()
             });
+        // A bag's mass moves in steps of 10 kg (shown in the display unit).
+        const STEP_KG: f64 = 10.0;
+        let show = Show::of(&self.ops);
         let mut options = Vec::new();
         for (id, name) in stations {
             let cur = loads.stations.iter().find(|s| s.station == id);
@@ -1119,19 +1122,29 @@ impl App {
                 let m = mass.unwrap_or(0.0);
                 if m > 0.0 {
                     options.push((
-                        format!("{id}: 10 kg less ({m:.0} → {:.0} kg)", (m - 10.0).max(0.0)),
+                        format!(
+                            "{id}: {} less ({} → {})",
+                            show.mass(STEP_KG),
+                            show.mass(m),
+                            show.mass((m - STEP_KG).max(0.0))
+                        ),
                         Step::Edit(Edit::Load {
                             station: id.clone(),
-                            mass_kg: Some((m - 10.0).max(0.0)),
+                            mass_kg: Some((m - STEP_KG).max(0.0)),
                             adults,
                         }),
                     ));
                 }
                 options.push((
-                    format!("{id}: 10 kg more ({m:.0} → {:.0} kg)", m + 10.0),
+                    format!(
+                        "{id}: {} more ({} → {})",
+                        show.mass(STEP_KG),
+                        show.mass(m),
+                        show.mass(m + STEP_KG)
+                    ),
                     Step::Edit(Edit::Load {
                         station: id.clone(),
-                        mass_kg: Some(m + 10.0),
+                        mass_kg: Some(m + STEP_KG),
                         adults,
                     }),
                 ));
