@@ -3,34 +3,20 @@
 //! real log — a changed byte, a deleted or repeated inner line, swapped lines, an
 //! inserted line of garbage — is found (the chain is not sound).
 
-use std::path::Path;
+#[path = "common/signoff.rs"]
+mod signoff_common;
+
 use std::sync::OnceLock;
 
-use chrono::{DateTime, Utc};
 use proptest::prelude::*;
-use rhoboard::assess::{Context, DaySettings, Model, assess_leg};
-use rhoboard::commands::check;
-use rhoboard::commands::signoff::{data_hashes, leg_index, sign};
-use rhoboard::ops::demo;
-use rhoboard::signoff::Request;
-use rhoboard::signoff::log::{AppendOptions, Log};
-
-fn utc(s: &str) -> DateTime<Utc> {
-    DateTime::parse_from_rfc3339(s)
-        .expect("time")
-        .with_timezone(&Utc)
-}
+use rhoboard::signoff::log::Log;
+use signoff_common::{demo_folder, sign_at};
 
 /// A real log of five sign-offs on the demo morning, one monthly file: its lines.
 fn real_lines() -> &'static [Vec<u8>] {
     static LINES: OnceLock<Vec<Vec<u8>>> = OnceLock::new();
     LINES.get_or_init(|| {
-        let dir = tempfile::tempdir().expect("temp dir");
-        for (rel, text) in demo::FILES {
-            let p = dir.path().join(rel);
-            std::fs::create_dir_all(p.parent().expect("parent")).expect("mkdir");
-            std::fs::write(&p, text).expect("write");
-        }
+        let dir = demo_folder();
         for (leg, t) in [
             ("L01", "2026-06-14T06:40:00Z"),
             ("L03", "2026-06-14T07:45:00Z"),
@@ -45,38 +31,6 @@ fn real_lines() -> &'static [Vec<u8>] {
             .map(<[u8]>::to_vec)
             .collect()
     })
-}
-
-fn sign_at(dir: &Path, leg: &str, signed_at: &str) {
-    let loaded =
-        check::load(Some(dir), &[], Some("2026-06-14T08:00:00Z"), utc(signed_at)).expect("load");
-    let ops = &loaded.ops;
-    let model = Model::new(ops, &DaySettings::default());
-    let ctx = Context {
-        ops,
-        model: &model,
-        store: &loaded.store,
-        at: loaded.at,
-    };
-    let i = leg_index(ops, leg, loaded.at).expect("leg");
-    let r = assess_leg(&ctx, i).expect("assessed");
-    let data = data_hashes(Some(dir)).expect("hashes");
-    let req = Request {
-        instructor: "Mara Greyling",
-        note: "",
-        override_reason: None,
-        signed_at: utc(signed_at),
-        basis_at: loaded.at,
-        data: &data,
-    };
-    sign(
-        &Log::of_operator(dir),
-        ops,
-        &r,
-        &req,
-        &AppendOptions::default(),
-    )
-    .expect("signed");
 }
 
 /// Reads `files` (name, bytes) as a log folder; never panics.

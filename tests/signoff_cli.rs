@@ -2,21 +2,14 @@
 //! operator folder: what a record keeps, the refusal rules and their exit codes,
 //! override, revocation, supersession, and the demo's log in the data dir.
 
+#[path = "common/signoff.rs"]
+mod signoff_common;
+
 use std::path::Path;
 use std::process::{Command, Output};
 
-use rhoboard::ops::demo;
 use rhoboard::signoff::{Kind, Log, sha256_hex};
-
-fn demo_folder() -> tempfile::TempDir {
-    let dir = tempfile::tempdir().expect("temp dir");
-    for (rel, text) in demo::FILES {
-        let p = dir.path().join(rel);
-        std::fs::create_dir_all(p.parent().expect("parent")).expect("mkdir");
-        std::fs::write(&p, text).expect("write");
-    }
-    dir
-}
+use signoff_common::demo_folder;
 
 fn rhoboard(args: &[&str], data_dir: &Path) -> Output {
     Command::new(env!("CARGO_BIN_EXE_rhoboard"))

@@ -5,22 +5,15 @@
 //! each write its line in two halves with a pause between, so a kill can land mid-line
 //! (and so that, without the lock, two writers would interleave).
 
+#[path = "common/signoff.rs"]
+mod signoff_common;
+
 use std::path::Path;
 use std::process::{Child, Command, Stdio};
 use std::time::{Duration, Instant, SystemTime};
 
-use rhoboard::ops::demo;
 use rhoboard::signoff::Log;
-
-fn demo_folder() -> tempfile::TempDir {
-    let dir = tempfile::tempdir().expect("temp dir");
-    for (rel, text) in demo::FILES {
-        let p = dir.path().join(rel);
-        std::fs::create_dir_all(p.parent().expect("parent")).expect("mkdir");
-        std::fs::write(&p, text).expect("write");
-    }
-    dir
-}
+use signoff_common::demo_folder;
 
 /// A small xorshift generator; the seed is printed so a failing run can be repeated.
 struct Rng(u64);
