@@ -293,25 +293,11 @@ fn a_cross_country_solo_needs_its_endorsement() {
 /// `rhoboard runway` keeps the day's state in the operator folder; `check` uses it.
 #[test]
 fn the_runway_command_writes_a_state_that_check_uses() {
-    use std::process::Command;
-    let bin = env!("CARGO_BIN_EXE_rhoboard");
     let dir = std::env::temp_dir().join(format!("rhoboard-runway-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&dir);
     let home = dir.join("home");
     let ops_dir = dir.join("ops");
-    let cmd = |args: &[&str]| {
-        let o = Command::new(bin)
-            .args(args)
-            .env("XDG_CONFIG_HOME", &home)
-            .env("HOME", &home)
-            .output()
-            .unwrap();
-        (
-            o.status.code().unwrap(),
-            String::from_utf8_lossy(&o.stdout).into_owned(),
-            String::from_utf8_lossy(&o.stderr).into_owned(),
-        )
-    };
+    let cmd = |args: &[&str]| rhoboard_in(&home, args);
     let d = ops_dir.to_str().unwrap();
     assert_eq!(cmd(&["init", d]).0, 0);
     let (code, out, err) = cmd(&[
@@ -539,24 +525,13 @@ fn a_dawn_solo_and_a_lapsed_or_wrong_type_night_endorsement() {
 /// the fleet does not have, and accepts one for a known type.
 #[test]
 fn validate_points_at_a_night_endorsement_for_an_unknown_type() {
-    use std::process::Command;
-    let bin = env!("CARGO_BIN_EXE_rhoboard");
     let dir = std::env::temp_dir().join(format!("rhoboard-night-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&dir);
     let home = dir.join("home");
     let ops_dir = dir.join("ops");
     let cmd = |args: &[&str]| {
-        let o = Command::new(bin)
-            .args(args)
-            .env("XDG_CONFIG_HOME", &home)
-            .env("HOME", &home)
-            .env("RHOBOARD_DATA_DIR", &home)
-            .output()
-            .unwrap();
-        (
-            o.status.code().unwrap(),
-            String::from_utf8_lossy(&o.stdout).into_owned(),
-        )
+        let (code, out, _) = rhoboard_in(&home, args);
+        (code, out)
     };
     let d = ops_dir.to_str().unwrap();
     assert_eq!(cmd(&["init", d]).0, 0);
@@ -604,4 +579,21 @@ fn a_night_solo_without_a_report_is_still_below_for_the_endorsement() {
             .iter()
             .any(|w| w.contains("night solo endorsement"))
     );
+}
+
+/// Runs the binary with `home` as its home, config and data folder: (exit code, stdout,
+/// stderr).
+fn rhoboard_in(home: &std::path::Path, args: &[&str]) -> (i32, String, String) {
+    let o = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(args)
+        .env("XDG_CONFIG_HOME", home)
+        .env("HOME", home)
+        .env("RHOBOARD_DATA_DIR", home)
+        .output()
+        .unwrap();
+    (
+        o.status.code().unwrap(),
+        String::from_utf8_lossy(&o.stdout).into_owned(),
+        String::from_utf8_lossy(&o.stderr).into_owned(),
+    )
 }
