@@ -13,8 +13,9 @@ use std::path::{Path, PathBuf};
 use chrono::{DateTime, FixedOffset};
 use sha2::{Digest, Sha256};
 
-use crate::ops::Leg;
 use crate::ops::legs::{LegsFile, StationLoad};
+use crate::ops::load::{Collector, Diagnostic, OpsFiles};
+use crate::ops::{Leg, Ops};
 
 mod json_edit;
 pub use json_edit::edit_in_place;
@@ -114,6 +115,83 @@ pub fn apply(leg: &mut Leg, edit: &Edit) -> Result<(), EditError> {
         }
     }
     Ok(())
+}
+
+/// What the operator-data checks say about a changed leg, before it is written.
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct Vetting {
+    /// What `validate` would call an error and the leg did not already have: the change
+    /// must not be written.
+    pub refusals: Vec<String>,
+    /// New warnings (the aircraft or pilot on an overlapping leg, a broken chain of
+    /// positions): written only with the warning shown.
+    pub warnings: Vec<String>,
+}
+
+impl Vetting {
+    /// Whether the change may be written.
+    pub fn allowed(&self) -> bool {
+        self.refusals.is_empty()
+    }
+}
+
+/// Everything `validate` says about the legs: the per-file checks (with the leg's own
+/// day as the file's date) and the cross-file ones.
+fn leg_diagnostics(ops: &Ops, day: chrono::NaiveDate, index: usize) -> Vec<Diagnostic> {
+    let files = OpsFiles::default();
+    let mut c = Collector::new(&files);
+    let file = ops
+        .leg_files
+        .get(index)
+        .map_or_else(|| format!("legs/{day}.json"), |(f, _)| f.clone());
+    let lf = LegsFile {
+        schema_version: crate::ops::load::SCHEMA_VERSION,
+        replace_before_use: None,
+        date: day,
+        legs: ops.legs.get(index).cloned().into_iter().collect(),
+    };
+    crate::ops::validate::check_legs_file(&file, &lf, &mut c);
+    crate::ops::validate::check_cross(ops, &mut c);
+    let mut all = c.report.errors;
+    all.extend(c.report.warnings);
+    all
+}
+
+/// Checks the leg at `index` of `ops` changed to `changed`, the way `validate` would:
+/// an error the change brings in (an aircraft in maintenance, a loading station its
+/// type does not have, the aircraft on two legs at once, a departure moved to another
+/// day…) is a refusal; a new warning is passed on. Shared by `leg set` and the board.
+pub fn vet(ops: &Ops, index: usize, changed: &Leg) -> Vetting {
+    let Some(old) = ops.legs.get(index) else {
+        return Vetting {
+            refusals: vec![format!("no leg at position {index}")],
+            warnings: Vec::new(),
+        };
+    };
+    let day = old.departs_utc().date_naive();
+    let before = leg_diagnostics(ops, day, index);
+    let mut after_ops = ops.clone();
+    after_ops.legs[index] = changed.clone();
+    let after = leg_diagnostics(&after_ops, day, index);
+    let mut v = Vetting::default();
+    // Matched on file, field and message: the positions are those of the file on disk.
+    let key = |d: &Diagnostic| {
+        (
+            d.severity,
+            d.file.clone(),
+            d.path.clone(),
+            d.message.clone(),
+        )
+    };
+    let old: std::collections::HashSet<_> = before.iter().map(key).collect();
+    for d in after.iter().filter(|d| !old.contains(&key(d))) {
+        let text = format!("{} {}: {}", d.file, d.path, d.message);
+        match d.severity {
+            crate::ops::Severity::Error => v.refusals.push(text),
+            crate::ops::Severity::Warning => v.warnings.push(text),
+        }
+    }
+    v
 }
 
 /// SHA-256 of a file's text, hex.

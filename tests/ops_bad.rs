@@ -265,7 +265,7 @@ fn leg_overlap_and_position() {
     1 error(s):
       legs/2026-06-14.json:7:32: legs[1].departs_at: aircraft X-TINA is on leg T1 until 0900Z, which overlaps leg T2
     1 warning(s):
-      legs/2026-06-14.json:10:53: legs[2].from: aircraft X-TINA departs XBBB but its previous leg T2 landed at XAAA
+      legs/2026-06-14.json:10:53: legs[2].from: aircraft X-TINA departs XBBB on leg T3 at 1200Z but its previous leg T2 landed at XAAA
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);

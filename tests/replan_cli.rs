@@ -204,3 +204,132 @@ fn a_saved_change_leaves_every_other_byte_of_the_legs_file_as_it_was() {
     );
     assert_eq!(later.lines().count(), now.lines().count());
 }
+
+/// A fresh `init` folder under a per-test temporary directory.
+fn init_folder(tag: &str) -> (std::path::PathBuf, std::path::PathBuf, String) {
+    let dir = std::env::temp_dir().join(format!("rhoboard-leg-{tag}-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let home = dir.join("home");
+    let ops = dir.join("ops");
+    assert_eq!(rhoboard(&home, &["init", ops.to_str().unwrap()]).0, 0);
+    (dir, home, ops.to_str().unwrap().to_string())
+}
+
+#[test]
+fn what_validate_calls_an_error_is_refused_and_never_written() {
+    let (dir, home, d) = init_folder("refuse");
+    let legs = dir.join("ops/legs/2026-06-14.json");
+    let original = std::fs::read_to_string(&legs).unwrap();
+    // X-TRND is in maintenance in the init folder.
+    let (code, out, err) = rhoboard(
+        &home,
+        &["leg", "set", "L01", "--aircraft", "X-TRND", "--ops", &d],
+    );
+    assert_eq!(code, 2, "{out}{err}");
+    assert!(
+        err.contains("X-TRND is in maintenance") && err.contains("not changed"),
+        "{err}"
+    );
+    // L16's six-seat loads on a two-seat trainer: the stations the type has are named.
+    let (code, _, err) = rhoboard(
+        &home,
+        &["leg", "set", "L16", "--aircraft", "X-TRNA", "--ops", &d],
+    );
+    assert_eq!(code, 2);
+    assert!(
+        err.contains("has no loading station 'front_seats' (it has: seats, baggage)"),
+        "{err}"
+    );
+    // A station the type does not have, given directly (refused even on a dry run).
+    let (code, _, err) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L16",
+            "--load",
+            "cargo_pod=20kg",
+            "--dry-run",
+            "--ops",
+            &d,
+        ],
+    );
+    assert_eq!(code, 2);
+    assert!(err.contains("no loading station 'cargo_pod'"), "{err}");
+    // The aircraft on two legs at once: L09 holds X-TOUA 1200–1300Z, L16 is 1230Z.
+    let (code, _, err) = rhoboard(
+        &home,
+        &["leg", "set", "L16", "--aircraft", "X-TOUA", "--ops", &d],
+    );
+    assert_eq!(code, 2);
+    assert!(err.contains("X-TOUA is on leg L09 until 1300Z"), "{err}");
+    assert_eq!(
+        std::fs::read_to_string(&legs).unwrap(),
+        original,
+        "nothing written"
+    );
+    // And the folder still validates.
+    assert_eq!(rhoboard(&home, &["validate", "--ops", &d]).0, 0);
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn an_overlapping_pilot_or_a_broken_chain_is_warned_on_stderr_and_in_the_json() {
+    let (dir, home, d) = init_folder("warn");
+    let at = "2026-06-14T14:00:00Z";
+    // X-UTLA lands L07 at XMES and flies L11 from XMES at 1330Z: L16 (XPIN→XSEA) between.
+    let (code, out, err) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L16",
+            "--aircraft",
+            "X-UTLA",
+            "--ops",
+            &d,
+            "--at",
+            at,
+            "--json",
+        ],
+    );
+    assert!(code == 0 || code == 1, "{err}");
+    assert!(
+        err.contains("warning:")
+            && err.contains("on leg L11 at 1330Z but its previous leg L16 landed at XSEA"),
+        "{err}"
+    );
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    let w = v["warnings"].as_array().unwrap();
+    assert!(w.iter().any(|w| w.as_str().unwrap().contains("L11")), "{v}");
+    assert!(v["saved"]["backup"].is_string(), "{v}");
+    // pil-juno flies L09 until 1300Z; naming her on L16 (1230Z) is warned, not refused.
+    let (code, out, err) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L16",
+            "--pilot",
+            "pil-juno",
+            "--dry-run",
+            "--json",
+            "--ops",
+            &d,
+            "--at",
+            at,
+        ],
+    );
+    assert!(code == 0 || code == 1, "{err}");
+    assert!(
+        err.contains("pilot pil-juno is on leg L09 until 1300Z, which overlaps leg L16"),
+        "{err}"
+    );
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    assert!(
+        v["warnings"][0].as_str().unwrap().contains("pil-juno"),
+        "{v}"
+    );
+    assert!(v["saved"].is_null());
+    let _ = std::fs::remove_dir_all(&dir);
+}

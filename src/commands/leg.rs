@@ -9,7 +9,7 @@ use chrono::{DateTime, NaiveTime, Utc};
 
 use crate::assess::{Context, DaySettings, LegResult, Model, assess_leg};
 use crate::commands::Outcome;
-use crate::commands::check::{headroom_text, load};
+use crate::commands::check::{headroom_text, leg_json, load};
 use crate::ops::config::{self, Choice};
 use crate::ops::legs::LegsFile;
 use crate::replan::{self, Edit, Saved};
@@ -65,6 +65,9 @@ pub struct SetArgs {
     /// Show the re-assessment, write nothing.
     #[arg(long)]
     pub dry_run: bool,
+    /// Print the before/after assessment, warnings and what was saved as JSON.
+    #[arg(long)]
+    pub json: bool,
     /// The operator folder (default: the configured one, else the built-in demo).
     #[arg(long, value_name = "DIR")]
     pub ops: Option<PathBuf>,
@@ -198,6 +201,24 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     for e in &edits {
         replan::apply(&mut leg, e)?;
     }
+    // What `validate` would call an error is never written (nor shown as a plan); its
+    // new warnings go to standard error and into the JSON.
+    let vetting = replan::vet(&ops, index, &leg);
+    if !vetting.allowed() {
+        bail!(
+            "leg {} not changed:\n{}",
+            a.leg,
+            vetting
+                .refusals
+                .iter()
+                .map(|r| format!("  - {r}"))
+                .collect::<Vec<_>>()
+                .join("\n")
+        );
+    }
+    for w in &vetting.warnings {
+        eprintln!("rhoboard: warning: {w}");
+    }
     ops.legs[index] = leg.clone();
     let after = {
         let model = Model::new(&ops, &DaySettings::for_date(&ops, day));
@@ -209,33 +230,33 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         };
         assess_leg(&ctx, index).context("assessing the changed leg")?
     };
-    writeln!(
-        out,
-        "{} as of {}:",
-        a.leg,
-        loaded.at.format("%Y-%m-%d %H%MZ")
-    )?;
-    writeln!(out, "  before: {}", summary(&before))?;
-    writeln!(out, "  after:  {}", summary(&after))?;
-    if let Some(p) = &after.payload_headroom {
-        writeln!(
-            out,
-            "  payload: {} {:.0} kg at {}",
-            if p.kg >= 0.0 { "room for" } else { "remove" },
-            p.kg.abs(),
-            p.station
-        )?;
-    }
-    for why in &after.reasons {
-        writeln!(out, "    - {why}")?;
-    }
-    writeln!(out, "{}", crate::CAUTION)?;
-
     let outcome = if after.state.meets_minimums() {
         Outcome::Success
     } else {
         Outcome::Findings
     };
+    let mut json = a.json.then(|| {
+        serde_json::json!({
+            "leg": a.leg,
+            "at": loaded.at.to_rfc3339(),
+            "before": leg_json(&ops, &before),
+            "after": leg_json(&ops, &after),
+            "warnings": vetting.warnings,
+            "dry_run": a.dry_run,
+            "saved": serde_json::Value::Null,
+        })
+    });
+    if let Some(j) = &json
+        && a.dry_run
+    {
+        writeln!(out, "{}", serde_json::to_string_pretty(j)?)?;
+        return Ok(outcome);
+    }
+    if json.is_some() {
+        // Printed once the save is known.
+    } else {
+        print_plain(a, &loaded.at, &before, &after, out)?;
+    }
     if a.dry_run {
         writeln!(out, "Dry run: nothing written.")?;
         return Ok(outcome);
@@ -263,24 +284,58 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         bail!("{} no longer holds leg {}", path.display(), a.leg);
     };
     *slot = leg;
-    match replan::save_legs(&path, &hash, &file)
+    let line = match replan::save_legs(&path, &hash, &file)
         .with_context(|| format!("saving {}", path.display()))?
     {
-        Saved::Written { backup, .. } => writeln!(
-            out,
-            "Saved {} (previous version kept as {}).",
-            path.display(),
-            backup.display()
-        )?,
-        Saved::Unchanged => writeln!(
-            out,
-            "{} already holds this; nothing written.",
-            path.display()
-        )?,
+        Saved::Written { backup, .. } => {
+            if let Some(j) = &mut json {
+                j["saved"] = serde_json::json!({
+                    "file": path.display().to_string(),
+                    "backup": backup.display().to_string(),
+                });
+            }
+            format!(
+                "Saved {} (previous version kept as {}).",
+                path.display(),
+                backup.display()
+            )
+        }
+        Saved::Unchanged => format!("{} already holds this; nothing written.", path.display()),
         Saved::Conflict { .. } => bail!(
             "{} changed on disk while this ran; nothing was written — run the command again",
             path.display()
         ),
+    };
+    match &json {
+        Some(j) => writeln!(out, "{}", serde_json::to_string_pretty(j)?)?,
+        None => writeln!(out, "{line}")?,
     }
     Ok(outcome)
+}
+
+/// The readable before/after of `leg set`.
+fn print_plain(
+    a: &SetArgs,
+    at: &DateTime<Utc>,
+    before: &LegResult,
+    after: &LegResult,
+    out: &mut dyn Write,
+) -> anyhow::Result<()> {
+    writeln!(out, "{} as of {}:", a.leg, at.format("%Y-%m-%d %H%MZ"))?;
+    writeln!(out, "  before: {}", summary(before))?;
+    writeln!(out, "  after:  {}", summary(after))?;
+    if let Some(p) = &after.payload_headroom {
+        writeln!(
+            out,
+            "  payload: {} {:.0} kg at {}",
+            if p.kg >= 0.0 { "room for" } else { "remove" },
+            p.kg.abs(),
+            p.station
+        )?;
+    }
+    for why in &after.reasons {
+        writeln!(out, "    - {why}")?;
+    }
+    writeln!(out, "{}", crate::CAUTION)?;
+    Ok(())
 }

@@ -1222,8 +1222,41 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                     file,
                     &format!("legs[{k}].from"),
                     format!(
-                        "aircraft {} departs {} but its previous leg {} landed at {}",
-                        b.aircraft, b.from, a.id, a.to
+                        "aircraft {} departs {} on leg {} at {} but its previous leg {} landed at {}",
+                        b.aircraft,
+                        b.from,
+                        b.id,
+                        b.departs_utc().format("%H%MZ"),
+                        a.id,
+                        a.to
+                    ),
+                );
+            }
+        }
+    }
+    // Per pilot: two legs at once (a warning: an instructor may be named on a dual leg
+    // while supervising, but it is worth a look).
+    let mut by_pilot: HashMap<&str, Vec<usize>> = HashMap::new();
+    for (i, leg) in ops.legs.iter().enumerate() {
+        by_pilot.entry(leg.pilot.as_str()).or_default().push(i);
+    }
+    let mut pilots: Vec<_> = by_pilot.into_iter().collect();
+    pilots.sort();
+    for (_, mut idx) in pilots {
+        idx.sort_by_key(|&i| ops.legs[i].departs_utc());
+        for w in idx.windows(2) {
+            let (a, b) = (&ops.legs[w[0]], &ops.legs[w[1]]);
+            let (file, k) = &ops.leg_files[w[1]];
+            if b.departs_utc() < a.arrives_utc() {
+                c.warn(
+                    file,
+                    &format!("legs[{k}].pilot"),
+                    format!(
+                        "pilot {} is on leg {} until {}, which overlaps leg {}",
+                        b.pilot,
+                        a.id,
+                        a.arrives_utc().format("%H%MZ"),
+                        b.id
                     ),
                 );
             }
