@@ -115,6 +115,7 @@ const CASES: &[&str] = &[
     "distance-decreases",
     "duplicate-ids",
     "envelope-crossing",
+    "every-problem-in-one-run",
     "ground-roll-above-50ft",
     "irregular-ok",
     "json-syntax",
@@ -150,6 +151,10 @@ fn axes_not_increasing() {
     insta::assert_snapshot!(validate_case("axes-not-increasing"), @r#"
     1 error(s):
       fleet/types/tiny.json:11:68: performance.axes.pressure_altitude_ft[1]: axis pressure_altitude_ft must be strictly increasing, but 0 follows 8000
+    3 warning(s):
+      fleet/aircraft.json:4:43: aircraft[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
+      fleet/aircraft.json:5:43: aircraft[1].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
+      pilots.json:5:44: pilots[0].endorsements.solo[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -223,6 +228,9 @@ fn json_syntax() {
     insta::assert_snapshot!(validate_case("json-syntax"), @r#"
     1 error(s):
       airfields/XAAA.json:5:24: JSON syntax: key must be a string
+    2 warning(s):
+      legs/2026-06-14.json:6:62: legs[0].from: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
+      legs/2026-06-14.json:8:67: legs[1].to: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -275,9 +283,9 @@ fn leg_overlap_and_position() {
 fn leg_unknown_refs() {
     insta::assert_snapshot!(validate_case("leg-unknown-refs"), @r#"
     3 error(s):
-      legs/2026-06-14.json:5:106: legs[0].aircraft: unknown aircraft 'X-TINZ'; it is not in fleet/aircraft.json
-      legs/2026-06-14.json:6:15: legs[0].pilot: unknown pilot 'stu-ashe'; it is not in pilots.json
-      legs/2026-06-14.json:6:63: legs[0].from: unknown airfield 'XAAB'; add airfields/XAAB.json or fix the id
+      legs/2026-06-14.json:5:106: legs[0].aircraft: unknown aircraft 'X-TINZ'; it is not in fleet/aircraft.json; did you mean X-TINA?
+      legs/2026-06-14.json:6:15: legs[0].pilot: unknown pilot 'stu-ashe'; it is not in pilots.json; did you mean stu-ash?
+      legs/2026-06-14.json:6:63: legs[0].from: unknown airfield 'XAAB'; add airfields/XAAB.json or fix the id; did you mean XAAA?
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -372,6 +380,9 @@ fn schema_errors_top_and_list() {
     2 error(s):
       airfields/XBBB.json:5:25: elevation_ft: invalid type: string "1200", expected a number (the unit is in the field name)
       airfields/XBBB.json:10:127: runway_ends[0].surface: unknown variant `gras`, expected `paved` or `grass`
+    2 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -382,6 +393,9 @@ fn schema_version() {
     insta::assert_snapshot!(validate_case("schema-version"), @r#"
     1 error(s):
       airfields/XBBB.json:2:21: schema_version: schema_version 2 is not one this build reads (1)
+    2 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -402,6 +416,10 @@ fn table_shape() {
     insta::assert_snapshot!(validate_case("table-shape"), @r#"
     1 error(s):
       fleet/types/tiny.json:13:38: performance.takeoff.ground_roll_m[0][1]: expected 2 columns (one per oat_c value), found 1
+    3 warning(s):
+      fleet/aircraft.json:4:43: aircraft[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
+      fleet/aircraft.json:5:43: aircraft[1].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
+      pilots.json:5:44: pilots[0].endorsements.solo[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -446,6 +464,9 @@ fn unknown_fields() {
     2 error(s):
       airfields/XAAA.json:10:50: runway_ends[0].tora: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
       airfields/XAAA.json:11:130: runway_ends[1].surface: unknown variant `asphalt`, expected `paved` or `grass`
+    2 warning(s):
+      legs/2026-06-14.json:6:62: legs[0].from: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
+      legs/2026-06-14.json:8:67: legs[1].to: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -467,6 +488,9 @@ fn wrong_type() {
     insta::assert_snapshot!(validate_case("wrong-type"), @r#"
     1 error(s):
       airfields/XBBB.json:5:27: elevation_ft: invalid type: string "1200ft", expected a number (the unit is in the field name)
+    2 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -504,4 +528,21 @@ fn runway_state_unknown_end() {
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     ");
+}
+
+/// Finding 10: an unparseable airfield file no longer hides the cross-file checks. A
+/// leg naming the airfield in the broken file is not called unknown (its file failed);
+/// a truly unknown airfield is still named, with the nearest known id.
+#[test]
+fn every_problem_in_one_run() {
+    insta::assert_snapshot!(validate_case("every-problem-in-one-run"), @r#"
+    2 error(s):
+      airfields/XBBB.json:5:25: colour: unknown field `colour`, expected one of `schema_version`, `replace_before_use`, `id`, `name`, `elevation_ft`, `latitude_deg`, `longitude_deg`, `magnetic_variation_deg`, `preferential_end`, `runway_ends`, `remarks`
+      legs/2026-06-14.json:8:67: legs[1].to: unknown airfield 'XAAX'; add airfields/XAAX.json or fix the id; did you mean XAAA?
+    2 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
+    exit 2
+    "#);
 }

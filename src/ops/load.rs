@@ -241,6 +241,9 @@ pub struct Collector<'a> {
     spans: HashMap<String, Spans>,
     seen: std::collections::HashSet<Diagnostic>,
     per_file: HashMap<String, usize>,
+    /// Files that failed to parse: the cross-file checks, run on what did load, say so
+    /// instead of calling what they hold unknown.
+    pub unparsed: std::collections::BTreeSet<String>,
     /// What was found so far.
     pub report: Report,
 }
@@ -253,8 +256,29 @@ impl<'a> Collector<'a> {
             spans: HashMap::new(),
             seen: Default::default(),
             per_file: HashMap::new(),
+            unparsed: Default::default(),
             report: Report::default(),
         }
+    }
+
+    /// The file under `folder` that failed to parse and would have held `id`: the one
+    /// named `<id>.json`, else one whose text names `"<id>"`.
+    pub fn unparsed_holding(&self, folder: &str, id: &str) -> Option<&str> {
+        let named = format!("{folder}/{id}.json");
+        if self.unparsed.contains(&named) {
+            return self.unparsed.get(&named).map(String::as_str);
+        }
+        let quoted = format!("\"{id}\"");
+        self.unparsed
+            .iter()
+            .filter(|f| f.strip_prefix(folder).is_some_and(|r| r.starts_with('/')))
+            .find(|f| {
+                self.files
+                    .files
+                    .get(*f)
+                    .is_some_and(|t| t.contains(&quoted))
+            })
+            .map(String::as_str)
     }
 
     fn spans(&mut self, file: &str) -> &Spans {
@@ -436,6 +460,7 @@ impl<'a> Collector<'a> {
                 "schema_version",
                 format!("schema_version {v} is not one this build reads ({SCHEMA_VERSION})"),
             );
+            self.unparsed.insert(file.to_string());
             return None;
         }
         match serde_json::from_str::<T>(text) {
@@ -459,6 +484,7 @@ impl<'a> Collector<'a> {
                 if !covered {
                     self.serde_error(file, &e, 0);
                 }
+                self.unparsed.insert(file.to_string());
                 None
             }
         }
@@ -538,7 +564,6 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
     use super::legs::Leg;
     use super::pilots::Pilot;
 
-    let mut complete = true;
     let operator = if files.files.contains_key("operator.json") {
         c.parse::<OperatorFile>(
             "operator.json",
@@ -562,42 +587,39 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
     };
     let mut types = Vec::new();
     for (file, _) in files.under("fleet/types", ".json") {
-        match c.parse::<AircraftTypeFile>(file, &[]) {
-            Some(t) => match Performance::from_file(&t.performance) {
-                Ok(performance) => types.push((
-                    file.to_string(),
-                    AircraftType {
-                        file: t,
-                        performance,
-                    },
-                )),
-                Err((path, msg)) => {
-                    c.error(file, &path, msg);
-                    complete = false;
-                }
-            },
-            None => complete = false,
+        let Some(t) = c.parse::<AircraftTypeFile>(file, &[]) else {
+            continue;
+        };
+        match Performance::from_file(&t.performance) {
+            Ok(performance) => types.push((
+                file.to_string(),
+                AircraftType {
+                    file: t,
+                    performance,
+                },
+            )),
+            Err((path, msg)) => {
+                c.error(file, &path, msg);
+                c.unparsed.insert(file.to_string());
+            }
         }
     }
     let mut airfields = Vec::new();
     for (file, _) in files.under("airfields", ".json") {
-        match c.parse::<Airfield>(file, &[("runway_ends", element::<RunwayEnd>)]) {
-            Some(a) => airfields.push((file.to_string(), a)),
-            None => complete = false,
+        if let Some(a) = c.parse::<Airfield>(file, &[("runway_ends", element::<RunwayEnd>)]) {
+            airfields.push((file.to_string(), a));
         }
     }
     let mut legs = Vec::new();
     for (file, _) in files.under("legs", ".json") {
-        match c.parse::<LegsFile>(file, &[("legs", element::<Leg>)]) {
-            Some(l) => legs.push((file.to_string(), l)),
-            None => complete = false,
+        if let Some(l) = c.parse::<LegsFile>(file, &[("legs", element::<Leg>)]) {
+            legs.push((file.to_string(), l));
         }
     }
     let mut runway_states = Vec::new();
     for (file, _) in files.under("runway-state", ".json") {
-        match c.parse::<super::runway_state::RunwayStateFile>(file, &[]) {
-            Some(r) => runway_states.push((file.to_string(), r)),
-            None => complete = false,
+        if let Some(r) = c.parse::<super::runway_state::RunwayStateFile>(file, &[]) {
+            runway_states.push((file.to_string(), r));
         }
     }
     let observations = files
@@ -629,11 +651,9 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
     let (Some(operator), Some(pilots), Some(aircraft)) = (operator, pilots, aircraft) else {
         return None;
     };
-    if !complete {
-        // Cross-file checks on a partial picture would report knock-on errors (a leg
-        // naming an airfield whose file did not parse); fix the files first.
-        return None;
-    }
+    // The cross-file checks run on what did load, so one run lists every problem;
+    // a reference into a file that failed to parse is reported as such
+    // (`Collector::unparsed_holding`), not as unknown.
     let mut ops = Ops::new(
         operator,
         pilots,

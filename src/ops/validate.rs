@@ -924,14 +924,63 @@ fn max_reported_temperature(text: &str) -> Option<f64> {
         .reduce(f64::max)
 }
 
+/// The closest of `known` to a mistyped `word` (edit distance at most 2, a swap of
+/// two neighbours counting one (optimal string alignment, `strsim`), ignoring
+/// case), for "did you mean …?".
+pub fn did_you_mean<'a>(word: &str, known: impl IntoIterator<Item = &'a str>) -> Option<&'a str> {
+    let w = word.to_uppercase();
+    known
+        .into_iter()
+        .map(|k| (strsim::osa_distance(&w, &k.to_uppercase()), k))
+        .filter(|&(d, k)| d > 0 && d <= 2 && d < k.len().max(w.len()))
+        .min_by_key(|&(d, _)| d)
+        .map(|(_, k)| k)
+}
+
+/// " — did you mean X?" or nothing.
+pub fn suggestion<'a>(word: &str, known: impl IntoIterator<Item = &'a str>) -> String {
+    did_you_mean(word, known).map_or(String::new(), |k| format!("; did you mean {k}?"))
+}
+
+/// Reports `id`, referred to at `file`/`path`, as not among the loaded `folder` files:
+/// when the file that would hold it failed to parse, a warning saying so (the error is
+/// that file's own, reported there); otherwise the error `unknown`, with a "did you
+/// mean".
+#[allow(clippy::too_many_arguments)]
+fn missing_ref<'a>(
+    c: &mut Collector<'_>,
+    file: &str,
+    path: &str,
+    folder: &str,
+    id: &str,
+    known: impl IntoIterator<Item = &'a str>,
+    unknown: String,
+) {
+    match c.unparsed_holding(folder, id).map(str::to_string) {
+        Some(f) => c.warn(
+            file,
+            path,
+            format!("'{id}' is in {f}, which failed to load (see its error); not checked until that file is fixed"),
+        ),
+        None => {
+            let m = format!("{unknown}{}", suggestion(id, known));
+            c.error(file, path, m)
+        }
+    }
+}
+
 /// Checks across files: references, duplicates, overlaps, coverage.
 pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
     let af = "fleet/aircraft.json";
     for (i, a) in ops.aircraft.iter().enumerate() {
         match ops.aircraft_type(&a.type_id) {
-            None => c.error(
+            None => missing_ref(
+                c,
                 af,
                 &format!("aircraft[{i}].type_id"),
+                "fleet/types",
+                &a.type_id,
+                ops.types.iter().map(|t| t.file.id.as_str()),
                 format!(
                     "unknown aircraft type '{}'; add fleet/types/{}.json or fix the id",
                     a.type_id, a.type_id
@@ -975,9 +1024,13 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
         ] {
             for (k, e) in list.iter().enumerate() {
                 if ops.aircraft_type(&e.type_id).is_none() {
-                    c.error(
+                    missing_ref(
+                        c,
                         "pilots.json",
                         &format!("pilots[{i}].endorsements.{kind}[{k}].type_id"),
+                        "fleet/types",
+                        &e.type_id,
+                        ops.types.iter().map(|t| t.file.id.as_str()),
                         format!("unknown aircraft type '{}'", e.type_id),
                     );
                 }
@@ -987,9 +1040,13 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
     for (i, p) in ops.pilots.iter().enumerate() {
         for (k, id) in p.limitations.airfields.iter().enumerate() {
             if ops.airfield(id).is_none() {
-                c.error(
+                missing_ref(
+                    c,
                     "pilots.json",
                     &format!("pilots[{i}].limitations.airfields[{k}]"),
+                    "airfields",
+                    id,
+                    ops.airfields.iter().map(|a| a.id.as_str()),
                     format!("unknown airfield '{id}' in the pilot's written limitations"),
                 );
             }
@@ -1012,8 +1069,12 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                 file,
                 &format!("{p}.aircraft"),
                 format!(
-                    "unknown aircraft '{}'; it is not in fleet/aircraft.json",
-                    leg.aircraft
+                    "unknown aircraft '{}'; it is not in fleet/aircraft.json{}",
+                    leg.aircraft,
+                    suggestion(
+                        &leg.aircraft,
+                        ops.aircraft.iter().map(|a| a.registration.as_str())
+                    )
                 ),
             ),
             Some(a) => {
@@ -1152,7 +1213,11 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
             None => c.error(
                 file,
                 &format!("{p}.pilot"),
-                format!("unknown pilot '{}'; it is not in pilots.json", leg.pilot),
+                format!(
+                    "unknown pilot '{}'; it is not in pilots.json{}",
+                    leg.pilot,
+                    suggestion(&leg.pilot, ops.pilots.iter().map(|p| p.id.as_str()))
+                ),
             ),
             Some(pl) => {
                 if (leg.category == Category::StudentSolo) != (pl.category == Category::StudentSolo)
@@ -1172,9 +1237,13 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
         }
         for (field, id) in [("from", &leg.from), ("to", &leg.to)] {
             if ops.airfield(id).is_none() {
-                c.error(
+                missing_ref(
+                    c,
                     file,
                     &format!("{p}.{field}"),
+                    "airfields",
+                    id,
+                    ops.airfields.iter().map(|a| a.id.as_str()),
                     format!("unknown airfield '{id}'; add airfields/{id}.json or fix the id"),
                 );
             }
@@ -1347,9 +1416,13 @@ pub fn check_runway_states(
         for (i, e) in st.entries.iter().enumerate() {
             let p = format!("entries[{i}]");
             let Some(a) = ops.airfield(&e.airfield) else {
-                c.error(
+                missing_ref(
+                    c,
                     file,
                     &format!("{p}.airfield"),
+                    "airfields",
+                    &e.airfield,
+                    ops.airfields.iter().map(|a| a.id.as_str()),
                     format!("unknown airfield '{}'", e.airfield),
                 );
                 continue;
