@@ -170,3 +170,25 @@ fn the_demo_operators_observation_day_decodes() {
             .all(|r| r["not_understood"].as_array().is_some_and(Vec::is_empty))
     );
 }
+
+/// Finding 8: without `--date`, a report whose day is later than today's is from the
+/// previous month (or earlier, if that month lacks the day), never in the future.
+#[test]
+fn without_a_date_a_later_day_is_a_past_month() {
+    use chrono::{Datelike, Utc};
+    let today = Utc::now().date_naive();
+    // Tomorrow's day number, unless tomorrow is the 1st (then the 28th, later than today
+    // on every last day of a month).
+    let day = if today.day() >= 28 { 28 } else { today.day() + 1 };
+    if day <= today.day() {
+        return; // today is the 28th: no later day this test can pick
+    }
+    let text = format!("XQAB {day:02}0600Z 27010KT 9999 NSC 20/10 Q1013");
+    let (_, out) = rhoboard(&["metar", "--json", &text], None);
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    let at = v[0]["observed_at"].as_str().unwrap();
+    let at = chrono::DateTime::parse_from_rfc3339(at).unwrap();
+    assert!(at.date_naive() < today, "{at} is not before {today}");
+    assert_eq!(at.day(), day);
+    assert!((today - at.date_naive()).num_days() <= 92);
+}

@@ -268,13 +268,59 @@ fn day_hour_minute_resolves_to_the_nearest_utc_time() {
         resolve_time(29, 12, 0, utc(2028, 3, 1, 6, 0)),
         Some(utc(2028, 2, 29, 12, 0))
     );
-    // A day 31 read on 1 March: February has no 31st; 31 March is 30 days ahead.
-    assert_eq!(resolve_time(31, 12, 0, utc(2026, 3, 1, 6, 0)), None);
+    // A day 31 read on 1 March: February has no 31st, so back to 31 January (Gregorian
+    // calendar: February has 28 days in 2026).
+    assert_eq!(
+        resolve_time(31, 12, 0, utc(2026, 3, 1, 6, 0)),
+        Some(utc(2026, 1, 31, 12, 0))
+    );
     let r = decode(
         "XQAB 311200Z 27010KT 9999 NSC 20/10 Q1013",
         utc(2026, 3, 1, 6, 0),
     );
-    insta::assert_snapshot!(r.error_lines().join("\n"), @"observation XQAB 311200Z: time group '311200Z' at column 6: day 31 does not fall within 16 days of the reference date 2026-03-01");
+    assert_eq!(r.observed_at, Some(utc(2026, 1, 31, 12, 0)));
+}
+
+/// Finding 8: a report's day later than today's is the previous month, never two weeks
+/// ahead; month lengths from the Gregorian calendar (30 days hath November…).
+#[test]
+fn a_day_after_today_is_the_previous_month_around_month_and_year_ends() {
+    // Day 14 read on 1 December: 14 November, not 14 December.
+    assert_eq!(
+        resolve_time(14, 13, 50, utc(2026, 12, 1, 22, 5)),
+        Some(utc(2026, 11, 14, 13, 50))
+    );
+    // Day 31 read on 1 December: November has 30 days, so 31 October.
+    assert_eq!(
+        resolve_time(31, 9, 0, utc(2026, 12, 1, 8, 0)),
+        Some(utc(2026, 10, 31, 9, 0))
+    );
+    // Across the year end: day 31 read on 5 January is 31 December of the year before.
+    assert_eq!(
+        resolve_time(31, 23, 50, utc(2027, 1, 5, 10, 0)),
+        Some(utc(2026, 12, 31, 23, 50))
+    );
+    // Day 30 read on 15 March: February has no 30th, so 30 January.
+    assert_eq!(
+        resolve_time(30, 6, 0, utc(2026, 3, 15, 6, 0)),
+        Some(utc(2026, 1, 30, 6, 0))
+    );
+    // Day 29 read on 1 March 2027 (not a leap year): 29 January.
+    assert_eq!(
+        resolve_time(29, 6, 0, utc(2027, 3, 1, 6, 0)),
+        Some(utc(2027, 1, 29, 6, 0))
+    );
+    // Today's day, later in the day than now: still today (a report read with a
+    // reference at noon, or a clock a little behind).
+    assert_eq!(
+        resolve_time(1, 18, 0, utc(2026, 12, 1, 12, 0)),
+        Some(utc(2026, 12, 1, 18, 0))
+    );
+    // Tomorrow's day well ahead of a clock before midnight: a month back instead.
+    assert_eq!(
+        resolve_time(2, 6, 0, utc(2026, 12, 1, 12, 0)),
+        Some(utc(2026, 11, 2, 6, 0))
+    );
 }
 
 #[test]

@@ -256,3 +256,26 @@ fn split_reads_multi_line_tafs() {
     assert!(v[1].1.ends_with("24010KT"));
     assert!(v[2].1.starts_with("XBOV"));
 }
+
+/// Finding 8: the issue day of a TAF read on the 1st of a month that is later than the
+/// 1st is the previous month (November has 30 days), while its validity, which may run
+/// into the reading day, is resolved from the issue.
+#[test]
+fn a_taf_issued_on_the_last_day_of_last_month_resolves_there() {
+    let t = taf::decode(
+        "TAF XQAB 301700Z 3018/0118 27010KT 9999 SCT030",
+        utc(2026, 12, 1, 9, 0),
+    );
+    assert!(t.usable(), "{:?}", t.errors);
+    assert_eq!(t.issued_at, Some(utc(2026, 11, 30, 17, 0)));
+    assert_eq!(t.valid_from, Some(utc(2026, 11, 30, 18, 0)));
+    assert_eq!(t.valid_to, Some(utc(2026, 12, 1, 18, 0)));
+    // Across the year end: issued 31 December, read on 1 January.
+    let t = taf::decode(
+        "TAF XQAB 312300Z 0100/0124 27010KT 9999 SCT030",
+        utc(2027, 1, 1, 6, 0),
+    );
+    assert_eq!(t.issued_at, Some(utc(2026, 12, 31, 23, 0)));
+    assert_eq!(t.valid_from, Some(utc(2027, 1, 1, 0, 0)));
+    assert_eq!(t.valid_to, Some(utc(2027, 1, 2, 0, 0)));
+}

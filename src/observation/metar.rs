@@ -119,7 +119,7 @@ impl DecodeError {
 }
 
 /// Decodes one METAR or SPECI. `reference` is the instant the day-hour-minute is resolved
-/// against (the nearest matching UTC time within [`MAX_TIME_DISTANCE_DAYS`]).
+/// against (the latest matching UTC time not after it, see [`resolve_time`]).
 ///
 /// The text may start with `METAR`/`SPECI`, end with `=`, and use any whitespace between
 /// groups; lower case is read as upper case.
@@ -169,9 +169,45 @@ pub fn decode(text: &str, reference: DateTime<Utc>) -> Report {
     r
 }
 
-/// Resolves a day-hour-minute to the UTC instant nearest `reference` (this month, the one
-/// before or the one after), or `None` when none lies within [`MAX_TIME_DISTANCE_DAYS`].
+/// How far after the reference instant an observation or issue time may lie and still
+/// be taken as just now (a clock a little behind across midnight), minutes.
+pub const MAX_AHEAD_MINUTES: i64 = 120;
+
+/// Resolves the day-hour-minute of an observation or a forecast's issue, which lie in
+/// the past: a day up to the reference's own is this month, a later day the month
+/// before — or further back until the month has that day (day 31 read on 1 March is
+/// 31 January). Only a time at most [`MAX_AHEAD_MINUTES`] ahead of `reference`, across
+/// midnight, is taken as the next day. `None` for an hour or minute out of range.
 pub fn resolve_time(
+    day: u32,
+    hour: u32,
+    minute: u32,
+    reference: DateTime<Utc>,
+) -> Option<DateTime<Utc>> {
+    let r = reference.date_naive();
+    let at = |date: NaiveDate| date.and_hms_opt(hour, minute, 0).map(|t| t.and_utc());
+    if let Some(next) = r.succ_opt()
+        && next.day() == day
+        && let Some(t) = at(next)
+        && t - reference <= Duration::minutes(MAX_AHEAD_MINUTES)
+    {
+        return Some(t);
+    }
+    // Three months back always reaches a month with any day 1–31.
+    (0..=3).find_map(|back: i32| {
+        if back == 0 && day > r.day() {
+            return None;
+        }
+        let months = r.year() * 12 + r.month0() as i32 - back;
+        let (y, m0) = (months.div_euclid(12), months.rem_euclid(12));
+        NaiveDate::from_ymd_opt(y, m0 as u32 + 1, day).and_then(at)
+    })
+}
+
+/// Resolves a day-hour-minute to the UTC instant nearest `reference` (this month, the one
+/// before or the one after), or `None` when none lies within [`MAX_TIME_DISTANCE_DAYS`]:
+/// for a forecast's periods, which may lie ahead of its issue.
+pub fn resolve_nearest(
     day: u32,
     hour: u32,
     minute: u32,

@@ -20,7 +20,7 @@ use super::groups::{
     self, GroupParse, SkyGroup, VisibilityGroup, all_digits, describe_cloud, describe_sky_clear,
     describe_visibility, describe_weather, describe_wind, num, quote,
 };
-use super::metar::{MAX_TIME_DISTANCE_DAYS, resolve_time};
+use super::metar::{MAX_TIME_DISTANCE_DAYS, resolve_nearest, resolve_time};
 use super::{
     Bound, Ceiling, CloudLayer, Hazards, NotUnderstood, Report, SkyClear, Visibility, Weather, Wind,
 };
@@ -502,8 +502,8 @@ pub fn select<'a>(
     (!cancelled_later).then_some(best)
 }
 
-/// Decodes one TAF. `reference` resolves the issue day (the nearest matching UTC time
-/// within [`MAX_TIME_DISTANCE_DAYS`]). The text may start with `TAF`, end with `=`, span
+/// Decodes one TAF. `reference` resolves the issue day (the latest matching UTC time not
+/// after it, see [`resolve_time`]; the periods then the nearest to the issue). The text may start with `TAF`, end with `=`, span
 /// lines, and be in lower case.
 pub fn decode(text: &str, reference: DateTime<Utc>) -> Taf {
     let trimmed = text
@@ -635,10 +635,10 @@ impl<'a> Decoder<'a> {
             if minute != 0 {
                 return None;
             }
-            return resolve_time(day, 0, 0, reference - Duration::days(1))
+            return resolve_nearest(day, 0, 0, reference - Duration::days(1))
                 .map(|t| t + Duration::days(1));
         }
-        resolve_time(day, hour, minute, reference)
+        resolve_nearest(day, hour, minute, reference)
     }
 
     /// `DDHH/DDHH` → (start, end); an error message when malformed.
