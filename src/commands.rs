@@ -118,7 +118,7 @@ pub(crate) fn write_decoded(
         (
             n.column,
             n.group.clone(),
-            format!("not understood: {}", n.reason),
+            format!("not understood (column {}): {}", n.column, n.reason),
         )
     }));
     lines.extend(malformed);

@@ -179,7 +179,11 @@ fn without_a_date_a_later_day_is_a_past_month() {
     let today = Utc::now().date_naive();
     // Tomorrow's day number, unless tomorrow is the 1st (then the 28th, later than today
     // on every last day of a month).
-    let day = if today.day() >= 28 { 28 } else { today.day() + 1 };
+    let day = if today.day() >= 28 {
+        28
+    } else {
+        today.day() + 1
+    };
     if day <= today.day() {
         return; // today is the 28th: no later day this test can pick
     }
@@ -191,4 +195,23 @@ fn without_a_date_a_later_day_is_a_past_month() {
     assert!(at.date_naive() < today, "{at} is not before {today}");
     assert_eq!(at.day(), day);
     assert!((today - at.date_naive()).num_days() <= 92);
+}
+
+/// Finding 7: the readable decode gives the column of a group not understood, as the
+/// JSON does.
+#[test]
+fn readable_output_gives_the_column_of_a_group_not_understood() {
+    let (_, out) = rhoboard(
+        &[
+            "metar",
+            "--date",
+            "2026-06-14",
+            "XQAB 141250Z 27015KT 9999 FOO BKN012 21/12 Q1015",
+        ],
+        None,
+    );
+    assert!(
+        out.contains("FOO      not understood (column 27): not a group of a METAR"),
+        "{out}"
+    );
 }

@@ -387,3 +387,26 @@ fn bad_inputs_give_a_clear_message() {
     ");
     insta::assert_snapshot!(all_errors("METAR XQAB 141250Z NIL=", at), @"observation XQAB 141250Z: NIL: the station sent no observation");
 }
+
+/// Finding 7: a mistyped temperature group is named with its text and column (the
+/// README's promise), not reported as missing.
+#[test]
+fn a_mistyped_temperature_group_is_quoted_with_its_column() {
+    let r = decode(
+        "XQAB 141250Z 27015KT 9999 BKN012 3O/12 Q1015",
+        utc(2026, 6, 14, 13, 0),
+    );
+    assert!(!r.usable_for_performance());
+    assert_eq!(
+        r.error_lines(),
+        vec![
+            "observation XQAB 141250Z: temperature/dew point group '3O/12' at column 34: expected TT/DD in whole °C with M for minus, e.g. 15/08 or M02/M05"
+        ]
+    );
+    // Other slash groups are not taken for a temperature: RVR, US fractions.
+    let r = decode(
+        "XQAB 141250Z 27015KT 1/2SM R26/0600 FG VV002 12/12 A2992",
+        utc(2026, 6, 14, 13, 0),
+    );
+    assert!(r.usable_for_performance(), "{:?}", r.errors);
+}

@@ -823,13 +823,29 @@ impl<'a> Decoder<'a> {
         if !tok.contains('/') || tok.len() > 9 || tok == "//" {
             return Parsed::No;
         }
+        let bad = "expected TT/DD in whole °C with M for minus, e.g. 15/08 or M02/M05";
         if !tok
             .bytes()
             .all(|c| c.is_ascii_digit() || c == b'M' || c == b'/')
         {
-            return Parsed::No;
+            // A mistyped temperature group (`3O/12`, a letter O for a zero): short sides
+            // of letters and digits around one slash, with a digit. Named as the
+            // temperature group, quoted with its column, not reported as missing.
+            let garbled = tok.split_once('/').is_some_and(|(t, d)| {
+                !d.contains('/')
+                    && (1..=3).contains(&t.len())
+                    && d.len() <= 3
+                    && tok.bytes().any(|c| c.is_ascii_digit())
+                    && tok
+                        .bytes()
+                        .all(|c| c.is_ascii_uppercase() || c.is_ascii_digit() || c == b'/')
+            });
+            return if garbled {
+                Parsed::Bad(bad.into())
+            } else {
+                Parsed::No
+            };
         }
-        let bad = "expected TT/DD in whole °C with M for minus, e.g. 15/08 or M02/M05";
         let Some((t, d)) = tok.split_once('/') else {
             return Parsed::No;
         };
