@@ -373,3 +373,41 @@ fn json_says_signed_or_refused() {
         "{v}"
     );
 }
+
+/// Finding 13: `log show` says a sign-off in force needs a re-check when the report and
+/// the board do (the same `signoff::standing`), with the reasons; not at its basis.
+#[test]
+fn log_show_marks_a_sign_off_in_force_that_needs_a_re_check() {
+    let dir = demo_folder();
+    let d = dir.path().to_str().expect("utf-8");
+    assert_eq!(sign(dir.path(), "L09", MORNING, &[]).status.code(), Some(0));
+    let later = "2026-06-14T14:00:00Z";
+    let report = rhoboard(&["report", "--ops", d, "--at", later], dir.path());
+    let sheet = text(&report);
+    assert!(sheet.contains("↻"), "the report marks a re-check: {sheet}");
+    let o = rhoboard(&["log", "show", "--ops", d, "--at", later], dir.path());
+    let shown = text(&o);
+    assert_eq!(o.status.code(), Some(0), "{shown}");
+    assert!(
+        shown.contains("re-check") && shown.contains("↻ needs a re-check:"),
+        "{shown}"
+    );
+    assert!(!shown.contains("in force"), "{shown}");
+    let o = rhoboard(
+        &["log", "show", "--ops", d, "--at", later, "--json"],
+        dir.path(),
+    );
+    let v: serde_json::Value = serde_json::from_slice(&o.stdout).expect("json");
+    assert_eq!(v[0]["status"], "re-check");
+    assert!(
+        v[0]["recheck"].as_array().is_some_and(|a| !a.is_empty()),
+        "{v}"
+    );
+    // At its own basis nothing has changed: in force, no re-check.
+    let o = rhoboard(&["log", "show", "--ops", d, "--at", MORNING], dir.path());
+    let shown = text(&o);
+    assert!(
+        shown.contains("in force") && !shown.contains("re-check"),
+        "{shown}"
+    );
+}

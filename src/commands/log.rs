@@ -6,9 +6,12 @@ use std::path::PathBuf;
 use chrono::NaiveDate;
 use serde_json::json;
 
+use std::collections::HashMap;
+
+use crate::assess::{Context, DaySettings, Model, assess_leg};
 use crate::commands::Outcome;
-use crate::commands::signoff::{log_for, operator_dir};
-use crate::signoff::{Head, Kind};
+use crate::commands::signoff::{load_operator, log_for, operator_dir};
+use crate::signoff::{Head, Kind, Standing, standing};
 
 /// Arguments of `rhoboard log`.
 #[derive(Debug, Clone, clap::Args)]
@@ -41,6 +44,9 @@ pub enum Action {
         /// Only this leg.
         #[arg(long, value_name = "ID")]
         leg: Option<String>,
+        /// Reference time for the re-check of sign-offs in force (as for `check`).
+        #[arg(long, value_name = "TIME")]
+        at: Option<String>,
         /// Print JSON.
         #[arg(long)]
         json: bool,
@@ -99,6 +105,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             ops,
             date,
             leg,
+            at,
             json,
         } => {
             let date: Option<NaiveDate> = date
@@ -117,10 +124,61 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 .filter(|e| date.is_none_or(|d| e.record.leg_date == d))
                 .filter(|e| leg.as_ref().is_none_or(|l| &e.record.leg == l))
                 .collect();
+            // A sign-off in force is re-checked the way the board and the report do
+            // (`signoff::standing` on the leg assessed now): its reasons by seq.
+            let mut rechecks: HashMap<u64, Vec<String>> = HashMap::new();
+            let mut recheck_note = None;
+            let in_force: Vec<_> = shown
+                .iter()
+                .filter(|e| {
+                    e.record.kind == Kind::SignOff
+                        && chain
+                            .in_force(&e.record.leg, e.record.leg_date)
+                            .is_some_and(|c| c.record.seq == e.record.seq)
+                })
+                .collect();
+            if !in_force.is_empty() {
+                match load_operator(ops.as_deref(), at.as_deref()) {
+                    Ok((_, loaded)) => {
+                        let o = &loaded.ops;
+                        for e in in_force {
+                            let Some(i) = o.legs.iter().position(|l| {
+                                l.id == e.record.leg
+                                    && l.departs_utc().date_naive() == e.record.leg_date
+                            }) else {
+                                continue;
+                            };
+                            let model = Model::new(o, &DaySettings::for_date(o, e.record.leg_date));
+                            let ctx = Context {
+                                ops: o,
+                                model: &model,
+                                store: &loaded.store,
+                                at: loaded.at,
+                            };
+                            if let Some(r) = assess_leg(&ctx, i)
+                                && let Standing::Recheck(_, why) = standing(&chain, o, &r)
+                            {
+                                rechecks.insert(e.record.seq, why);
+                            }
+                        }
+                    }
+                    Err(err) => {
+                        recheck_note = Some(format!(
+                            "note: sign-offs in force not re-checked: the operator data did not load ({err:#})"
+                        ));
+                    }
+                }
+            }
             let status = |e: &crate::signoff::Entry| match e.record.kind {
                 Kind::Revocation => "revocation",
                 Kind::SignOff => match chain.in_force(&e.record.leg, e.record.leg_date) {
-                    Some(c) if c.record.seq == e.record.seq => "in force",
+                    Some(c) if c.record.seq == e.record.seq => {
+                        if rechecks.contains_key(&e.record.seq) {
+                            "re-check"
+                        } else {
+                            "in force"
+                        }
+                    }
                     _ => {
                         if chain.entries.iter().any(|x| {
                             x.record.kind == Kind::Revocation
@@ -142,6 +200,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                             "line": e.line,
                             "sha256": e.sha256,
                             "status": status(e),
+                            "recheck": rechecks.get(&e.record.seq),
                             "record": e.record,
                         })
                     })
@@ -174,6 +233,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                     if !r.note.is_empty() {
                         who.push_str(&format!(" — {}", r.note));
                     }
+                    if let Some(why) = rechecks.get(&r.seq) {
+                        who.push_str(&format!(" — ↻ needs a re-check: {}", why.join("; ")));
+                    }
                     writeln!(
                         out,
                         "{:>4}  {:<17}  {:<5} {:<10}  {:<12} {:<10} {:<12} {:<10}  {}",
@@ -190,6 +252,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 }
                 if shown.is_empty() {
                     writeln!(out, "(no records)")?;
+                }
+                if let Some(n) = &recheck_note {
+                    writeln!(out, "{n}")?;
                 }
                 if !chain.is_sound() {
                     writeln!(
