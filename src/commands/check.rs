@@ -61,11 +61,11 @@ pub struct Loaded {
 
 /// Parses `--at`.
 pub fn parse_at(text: &str) -> anyhow::Result<DateTime<Utc>> {
-    DateTime::parse_from_rfc3339(text)
+    DateTime::parse_from_rfc3339(text.trim())
         .map(|t| t.with_timezone(&Utc))
-        .map_err(|e| {
+        .map_err(|_| {
             anyhow::anyhow!(
-                "--at '{text}': {e}; expected an RFC 3339 time such as 2026-06-14T15:00:00Z"
+                "--at '{text}': expected an RFC 3339 date and time with its zone, such as 2026-06-14T14:00:00Z (the date, a T, the UTC time, and Z or an offset like +02:00)"
             )
         })
 }
@@ -138,6 +138,43 @@ pub fn day_of_file(path: &str) -> Option<DateTime<Utc>> {
 }
 
 /// The legs assessed by default: those departing on T's UTC date.
+/// "no such leg", listing the leg ids of `at`'s day (or, with none that day, of every
+/// day). No guess: short ids like L09 and L99 are one keystroke apart.
+pub fn unknown_leg(ops: &Ops, id: &str, at: DateTime<Utc>) -> String {
+    let day = legs_of_day(ops, at);
+    let (ids, whose): (Vec<&str>, String) = if day.is_empty() {
+        (
+            ops.legs.iter().map(|l| l.id.as_str()).collect(),
+            "the operator's legs".to_string(),
+        )
+    } else {
+        (
+            day.iter().map(|&i| ops.legs[i].id.as_str()).collect(),
+            format!("the legs of {}", at.date_naive()),
+        )
+    };
+    if ids.is_empty() {
+        return format!("leg '{id}': no such leg; the operator has no legs");
+    }
+    format!("leg '{id}': no such leg ({whose}: {})", ids.join(", "))
+}
+
+/// "unknown airfield", with "did you mean" when an airfield id is close.
+pub fn unknown_airfield(ops: &Ops, id: &str) -> String {
+    format!(
+        "unknown airfield '{id}'; it needs airfields/{id}.json{}",
+        crate::ops::validate::suggestion(id, ops.airfields.iter().map(|a| a.id.as_str()))
+    )
+}
+
+/// "not in fleet/aircraft.json", with "did you mean" when a registration is close.
+pub fn unknown_aircraft(ops: &Ops, reg: &str) -> String {
+    format!(
+        "not in fleet/aircraft.json{}",
+        crate::ops::validate::suggestion(reg, ops.aircraft.iter().map(|a| a.registration.as_str()))
+    )
+}
+
 pub fn legs_of_day(ops: &Ops, at: DateTime<Utc>) -> Vec<usize> {
     let day = at.date_naive();
     (0..ops.legs.len())
@@ -482,9 +519,11 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     };
     let indices: Vec<usize> = match &args.leg {
         Some(id) => {
-            let i = ops.legs.iter().position(|l| &l.id == id).ok_or_else(|| {
-                anyhow::anyhow!("--leg '{id}': no such leg in the operator's legs")
-            })?;
+            let i = ops
+                .legs
+                .iter()
+                .position(|l| &l.id == id)
+                .ok_or_else(|| anyhow::anyhow!("--{}", unknown_leg(ops, id, loaded.at)))?;
             vec![i]
         }
         None => legs_of_day(ops, loaded.at),

@@ -9,7 +9,9 @@ use chrono::{DateTime, NaiveTime, Utc};
 
 use crate::assess::{Context, DaySettings, LegResult, Model, assess_leg};
 use crate::commands::Outcome;
-use crate::commands::check::{headroom_text, leg_json, load};
+use crate::commands::check::{
+    headroom_text, leg_json, load, unknown_aircraft, unknown_airfield, unknown_leg,
+};
 use crate::ops::config::{self, Choice};
 use crate::ops::legs::LegsFile;
 use crate::replan::{self, Edit, Saved};
@@ -124,12 +126,12 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         .legs
         .iter()
         .position(|l| l.id == a.leg)
-        .ok_or_else(|| anyhow::anyhow!("no leg '{}' in the operator's legs", a.leg))?;
+        .ok_or_else(|| anyhow::anyhow!("{}", unknown_leg(&ops, &a.leg, loaded.at)))?;
     let day = ops.legs[index].departs_utc().date_naive();
     let mut edits = Vec::new();
     if let Some(r) = &a.aircraft {
         if ops.aircraft(r).is_none() {
-            bail!("--aircraft '{r}': not in fleet/aircraft.json");
+            bail!("--aircraft '{r}': {}", unknown_aircraft(&ops, r));
         }
         edits.push(Edit::Aircraft(r.clone()));
     }
@@ -154,14 +156,17 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     ] {
         if let Some(f) = v {
             if ops.airfield(f).is_none() {
-                bail!("--{flag} '{f}': unknown airfield; it needs airfields/{f}.json");
+                bail!("--{flag}: {}", unknown_airfield(&ops, f));
             }
             edits.push(make(f.clone()));
         }
     }
     if let Some(p) = &a.pilot {
         if ops.pilot(p).is_none() {
-            bail!("--pilot '{p}': not in pilots.json");
+            bail!(
+                "--pilot '{p}': not in pilots.json{}",
+                crate::ops::validate::suggestion(p, ops.pilots.iter().map(|x| x.id.as_str()))
+            );
         }
         edits.push(Edit::Pilot(p.clone()));
     }

@@ -154,7 +154,7 @@ pub fn entry(
         let id = field.trim();
         match names {
             Names::Flags => {
-                anyhow::anyhow!("unknown airfield '{id}'; it needs airfields/{id}.json")
+                anyhow::anyhow!("{}", crate::commands::check::unknown_airfield(ops, id))
             }
             Names::Labels => {
                 let known: Vec<&str> = ops.airfields.iter().map(|a| a.id.as_str()).collect();

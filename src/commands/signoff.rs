@@ -103,7 +103,7 @@ pub fn leg_index(ops: &Ops, id: &str, at: DateTime<Utc>) -> anyhow::Result<usize
         return Ok(i);
     }
     match all.as_slice() {
-        [] => anyhow::bail!("leg '{id}': no such leg in the operator's legs"),
+        [] => anyhow::bail!("{}", crate::commands::check::unknown_leg(ops, id, at)),
         [i] => Ok(*i),
         _ => anyhow::bail!(
             "leg '{id}' is planned on {} days and none on {}; give --at on the leg's day",

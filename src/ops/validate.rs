@@ -924,7 +924,8 @@ fn max_reported_temperature(text: &str) -> Option<f64> {
         .reduce(f64::max)
 }
 
-/// The closest of `known` to a mistyped `word` (edit distance at most 2, a swap of
+/// The closest of `known` to a mistyped `word` (edit distance at most 1 for an id of up
+/// to four characters, else 2; a swap of
 /// two neighbours counting one (optimal string alignment, `strsim`), ignoring
 /// case), for "did you mean …?".
 pub fn did_you_mean<'a>(word: &str, known: impl IntoIterator<Item = &'a str>) -> Option<&'a str> {
@@ -932,7 +933,7 @@ pub fn did_you_mean<'a>(word: &str, known: impl IntoIterator<Item = &'a str>) ->
     known
         .into_iter()
         .map(|k| (strsim::osa_distance(&w, &k.to_uppercase()), k))
-        .filter(|&(d, k)| d > 0 && d <= 2 && d < k.len().max(w.len()))
+        .filter(|&(d, k)| d > 0 && d <= if w.len() <= 4 { 1 } else { 2 } && d < k.len())
         .min_by_key(|&(d, _)| d)
         .map(|(_, k)| k)
 }
