@@ -307,3 +307,36 @@ fn the_envelope_row_has_its_limit_and_margin() {
     assert!((cg["margin_mm"].as_f64().unwrap() - (aft - at_cg)).abs() < 1e-9);
     assert_eq!(cg["mass_kg"], leg["mass_balance"]["landing_mass_kg"]);
 }
+
+/// Finding 27: a day with no legs says so and prints no empty table header (nor an
+/// empty forecast section).
+#[test]
+fn a_day_without_legs_prints_no_empty_table() {
+    let (code, out, _) = rhoboard(&["check", "--at", "2026-06-15T10:00:00Z", "--forecast"]);
+    assert_eq!(code, 0);
+    assert!(out.contains("No legs depart on 2026-06-15."), "{out}");
+    assert!(!out.contains("limiting check"), "{out}");
+    assert!(!out.contains("Forecast look-ahead"), "{out}");
+}
+
+/// Finding 27: a folder written by `init` does not carry the built-in demo's operator
+/// name, so its listings cannot be taken for the demo's.
+#[test]
+fn an_init_folder_is_headed_as_a_copy_to_replace() {
+    let dir = std::env::temp_dir().join(format!("rhoboard-check-init-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let ops = dir.join("ops");
+    let d = ops.to_str().unwrap();
+    assert_eq!(rhoboard(&["init", d]).0, 0);
+    let at = "2026-06-14T08:00:00Z";
+    let (_, demo, _) = rhoboard(&["check", "--at", at]);
+    let (_, copy, _) = rhoboard(&["check", "--ops", d, "--at", at]);
+    let head = |s: &str| s.lines().next().unwrap_or("").to_string();
+    assert!(head(&demo).contains("(demo — invented operator)"), "{demo}");
+    assert!(
+        head(&copy).starts_with(rhoboard::ops::demo::TEMPLATE_NAME),
+        "{copy}"
+    );
+    assert_ne!(head(&demo), head(&copy));
+    let _ = std::fs::remove_dir_all(&dir);
+}

@@ -586,8 +586,11 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 None => writeln!(out, "No legs depart on {}.", loaded.at.format("%Y-%m-%d"))?,
             }
         }
-        write_table(ops, &results, out)?;
-        if args.forecast {
+        // No legs, no table: the message above says why, an empty header says nothing.
+        if !results.is_empty() {
+            write_table(ops, &results, out)?;
+        }
+        if args.forecast && !results.is_empty() {
             write_forecast(&results, &looks, out)?;
         }
         if let Some(m) = &matrix {

@@ -117,6 +117,20 @@ pub fn template() -> OpsFiles {
                 text.insert_str(at, &line);
             }
         }
+        // The operator's name, which heads every listing, says it is a copy to replace:
+        // a folder from `init` cannot be taken for the built-in demo.
+        if path == "operator.json"
+            && let Some(i) = text.find("\"name\": \"")
+        {
+            let start = i + "\"name\": \"".len();
+            if let Some(len) = text[start..].find('"') {
+                text.replace_range(start..start + len, TEMPLATE_NAME);
+            }
+        }
     }
     f
 }
+
+/// The operator name in a folder written by `rhoboard init`.
+pub const TEMPLATE_NAME: &str =
+    "Copy of the demo from rhoboard init (fictional; replace with your operator's name)";
