@@ -340,3 +340,56 @@ fn an_init_folder_is_headed_as_a_copy_to_replace() {
     assert_ne!(head(&demo), head(&copy));
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// Findings 15 and 16: README's `check` example is what the `--at` it names prints, and
+/// its list of pairings keys is the JSON's.
+#[test]
+fn the_readme_check_example_and_pairings_keys_match_the_output() {
+    let readme = include_str!("../README.md");
+    let section = readme
+        .split("## `rhoboard check`")
+        .nth(1)
+        .and_then(|s| s.split("\n## ").next())
+        .expect("the check section");
+    assert!(section.contains("`rhoboard check --at 2026-06-14T14:00:00Z`"));
+    let example: Vec<&str> = section
+        .split("\n```\ndep ")
+        .nth(1)
+        .and_then(|s| s.split("\n```").next())
+        .expect("the example table")
+        .lines()
+        .skip(1)
+        .collect();
+    assert!(!example.is_empty());
+    let (_, out, _) = rhoboard(&["check", "--at", "2026-06-14T14:00:00Z"]);
+    for line in &example {
+        assert!(
+            out.lines().any(|l| l == *line),
+            "README line not printed: {line}\n{out}"
+        );
+    }
+    let keys_text = section
+        .split("`pairings` lists {")
+        .nth(1)
+        .and_then(|s| s.split('}').next())
+        .expect("the pairings keys");
+    let mut documented: Vec<String> = keys_text
+        .split(',')
+        .map(|k| k.trim().trim_matches('`').to_string())
+        .collect();
+    documented.sort();
+    let v = check_json_pairings("2026-06-14T14:00:00Z");
+    let mut actual: Vec<String> = v["pairings"][0]
+        .as_object()
+        .expect("a pairing")
+        .keys()
+        .cloned()
+        .collect();
+    actual.sort();
+    assert_eq!(documented, actual);
+}
+
+fn check_json_pairings(at: &str) -> Value {
+    let (_, out, err) = rhoboard(&["check", "--pairings", "--json", "--at", at]);
+    serde_json::from_str(&out).unwrap_or_else(|e| panic!("{e}: {err}"))
+}
