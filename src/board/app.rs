@@ -152,7 +152,7 @@ pub enum Mode {
     Sign(Box<super::signoff::SignForm>),
     /// The what-if panel of a leg (`e`).
     Replan(Box<super::replan::ReplanUi>),
-    /// A save met a legs file changed on disk: keep theirs or overwrite.
+    /// A save met a legs file changed on disk: keep theirs or apply ours onto theirs.
     Conflict,
     /// Quit asked with changes pending.
     ConfirmQuit,
