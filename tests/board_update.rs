@@ -398,9 +398,14 @@ fn help_opens_and_closes_and_q_and_ctrl_c_quit() {
         KeyModifiers::CONTROL,
     )));
     assert!(app.quit, "Ctrl-C quits from any mode");
+    assert!(app.interrupted, "Ctrl-C is an interrupt: exit 130");
     let mut app = demo(8, 0);
     app.update(Msg::Quit);
     assert!(app.quit);
+    assert!(!app.interrupted, "SIGTERM, SIGHUP: a clean quit, exit 0");
+    let mut app = demo(8, 0);
+    app.update(Msg::Interrupt);
+    assert!(app.quit && app.interrupted, "SIGINT: exit 130");
 }
 
 #[test]

@@ -65,8 +65,10 @@ pub enum Msg {
         /// The state it now holds.
         state: RunwayStateFile,
     },
-    /// Quit (a signal, or the input thread ending).
+    /// Quit (SIGTERM, SIGHUP, or the input thread ending): exit 0.
     Quit,
+    /// The user interrupted (SIGINT): quit, exit 130.
+    Interrupt,
     /// The event loop did an [`Effect`](super::effects::Effect): its result.
     Done(super::effects::Done),
 }
@@ -337,6 +339,8 @@ pub struct App {
     pub size: (u16, u16),
     /// Set when the board should end.
     pub quit: bool,
+    /// The user interrupted (Ctrl-C, SIGINT): the board exits 130, not 0.
+    pub interrupted: bool,
     /// Hand-entered reports (kept across a replay step back).
     manual: Vec<Report>,
     /// Visible legs: indices into `assessment.legs`, filtered and sorted.
@@ -422,6 +426,7 @@ impl App {
             settings,
             size: (80, 24),
             quit: false,
+            interrupted: false,
             manual: Vec::new(),
             rows: Vec::new(),
             last_refresh: clock,
@@ -619,6 +624,10 @@ impl App {
                 }
             }
             Msg::Quit => self.quit = true,
+            Msg::Interrupt => {
+                self.interrupted = true;
+                self.quit = true;
+            }
             Msg::Done(done) => {
                 self.dirty = true;
                 match done {
@@ -1023,6 +1032,9 @@ impl App {
 
     fn on_key(&mut self, key: KeyEvent) {
         if is_ctrl_c(&key) {
+            // An interrupt, even when it first asks about pending changes: a quit
+            // that follows it exits 130.
+            self.interrupted = true;
             self.ask_quit();
             return;
         }

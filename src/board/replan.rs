@@ -965,8 +965,11 @@ impl App {
         self.ui.mode = Mode::Normal;
         match key.code {
             KeyCode::Char('y') | KeyCode::Char('Y') => self.quit = true,
-            KeyCode::Char('w') => self.plan_write(),
-            _ => {}
+            KeyCode::Char('w') => {
+                self.interrupted = false;
+                self.plan_write();
+            }
+            _ => self.interrupted = false,
         }
     }
 
