@@ -1091,13 +1091,19 @@ impl App {
 
     /// A key on the open form (the report by hand, the runway state).
     fn form_key(&mut self, key: KeyEvent) {
-        let (values, focus) = match &mut self.ui.mode {
-            Mode::Form(f) => (&mut f.values[..], &mut f.focus),
-            Mode::Runway(f) => (&mut f.values[..], &mut f.focus),
+        let (values, focus, errors) = match &mut self.ui.mode {
+            Mode::Form(f) => (&mut f.values[..], &mut f.focus, &mut f.errors),
+            Mode::Runway(f) => (&mut f.values[..], &mut f.focus, &mut f.errors),
             _ => return,
         };
+        let at = *focus;
+        let before = values.get(at).cloned();
         match field_key(values, focus, &key) {
-            FieldKey::Edited => {}
+            FieldKey::Edited => {
+                if values.get(at) != before.as_ref() {
+                    super::form::clear_stale(errors, at);
+                }
+            }
             FieldKey::Cancel => self.ui.mode = Mode::Normal,
             FieldKey::Submit => match std::mem::replace(&mut self.ui.mode, Mode::Normal) {
                 Mode::Form(f) => self.submit_report(f),
