@@ -554,3 +554,47 @@ fn display_units_m_kg_hpa_c_in_the_detail() {
     shots.push_str(&screen(&mut app, 120, 40));
     insta::assert_snapshot!(shots);
 }
+
+/// Finding 5: hidden rows are told on the tab line — "14 of 16 ↓" at the top, "↑ 3–16
+/// of 16" at the bottom — and finding 6: a kept filter shows at 80 and at 60 columns.
+#[test]
+fn legs_scrolled_to_the_end_80x24() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::End));
+    insta::assert_snapshot!(render(&mut app, 80, 24).backend());
+}
+
+#[test]
+fn kept_filter_80x24_and_60x20() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('/')));
+    type_text(&mut app, "XSEA");
+    app.update(key(KeyCode::Enter));
+    let wide = screen(&mut app, 80, 24);
+    let narrow = screen(&mut app, 60, 20);
+    insta::assert_snapshot!(format!("{wide}\n{narrow}"));
+    let tab_line = |s: &str| s.lines().nth(1).unwrap_or_default().to_string();
+    assert!(tab_line(&wide).contains("filter: XSEA"), "{wide}");
+    assert!(tab_line(&narrow).contains("XSEA"), "{narrow}");
+}
+
+/// A filter too long for a 60-column tab line is cut with "…", never left out.
+#[test]
+fn a_long_kept_filter_is_cut_not_dropped_at_60_columns() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('/')));
+    type_text(&mut app, "density altitude over the ridge");
+    app.update(key(KeyCode::Enter));
+    let text = screen(&mut app, 60, 20);
+    let tabs = text.lines().nth(1).unwrap_or_default();
+    assert!(tabs.contains("/density") && tabs.contains('…'), "{text}");
+}
+
+#[test]
+fn rows_shown_names_what_is_hidden() {
+    use rhoboard::board::view::rows_shown;
+    assert_eq!(rows_shown(0, 16, 16), None, "all shown");
+    assert_eq!(rows_shown(0, 14, 16).as_deref(), Some("14 of 16 ↓"));
+    assert_eq!(rows_shown(15, 14, 16).as_deref(), Some("↑ 3–16 of 16"));
+    assert_eq!(rows_shown(12, 10, 20).as_deref(), Some("↑ 4–13 of 20 ↓"));
+}

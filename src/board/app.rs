@@ -109,6 +109,30 @@ impl Pane {
         }
     }
 
+    /// The pane's name on a narrow terminal's tab (below [`Pane::SHORT_BELOW`]
+    /// columns), leaving room for the filter and the row count.
+    pub const fn short_title(self) -> &'static str {
+        match self {
+            Pane::Legs => "Legs",
+            Pane::Pairings => "Pairs",
+            Pane::Airfields => "Fields",
+            Pane::Fleet => "Fleet",
+            Pane::Reports => "Reps",
+        }
+    }
+
+    /// Terminals narrower than this show the short tab names.
+    pub const SHORT_BELOW: u16 = 72;
+
+    /// The tab's name at this terminal width.
+    pub const fn tab_title(self, width: u16) -> &'static str {
+        if width < Pane::SHORT_BELOW {
+            self.short_title()
+        } else {
+            self.title()
+        }
+    }
+
     fn step(self, by: isize) -> Pane {
         let i = Pane::ALL.iter().position(|p| *p == self).unwrap_or(0) as isize;
         let n = Pane::ALL.len() as isize;
@@ -1388,7 +1412,7 @@ impl App {
             // Tabs are laid out as " Name " segments separated by "│".
             let mut x = layout.tabs.x;
             for p in Pane::ALL {
-                let w = p.title().len() as u16 + 3;
+                let w = p.tab_title(layout.tabs.width).len() as u16 + 3;
                 if col >= x && col < x + w {
                     self.ui.pane = p;
                     self.ui.detail_open = false;
