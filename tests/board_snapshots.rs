@@ -598,3 +598,35 @@ fn rows_shown_names_what_is_hidden() {
     assert_eq!(rows_shown(15, 14, 16).as_deref(), Some("↑ 3–16 of 16"));
     assert_eq!(rows_shown(12, 10, 20).as_deref(), Some("↑ 4–13 of 20 ↓"));
 }
+
+/// Finding 11: on an operator folder whose reports are of 2026-06-14, a board running
+/// on 2026-12-01 dates the newest report; on the report's own day it shows the time only.
+#[test]
+fn the_newest_report_of_another_day_shows_its_date() {
+    let tmp = tempfile::tempdir().unwrap();
+    for (path, text) in rhoboard::ops::demo::FILES {
+        let p = tmp.path().join(path);
+        std::fs::create_dir_all(p.parent().unwrap()).unwrap();
+        std::fs::write(p, text).unwrap();
+    }
+    let now = chrono::DateTime::parse_from_rfc3339("2026-12-01T22:05:00Z")
+        .unwrap()
+        .to_utc();
+    let args = rhoboard::commands::board::Args {
+        ops: Some(tmp.path().to_path_buf()),
+        feed_every: "10m".into(),
+        ..Default::default()
+    };
+    let (mut app, _) = rhoboard::commands::board::prepare(&args, now).unwrap();
+    let header = |app: &mut App, w: u16| {
+        screen(app, w, 30).lines().next().unwrap_or_default().to_string()
+    };
+    let wide = header(&mut app, 120);
+    let narrow = header(&mut app, 80);
+    insta::assert_snapshot!(format!("{wide}\n{narrow}"));
+    assert!(wide.contains("newest XSEA 2026-06-14 "), "{wide}");
+    // The demo replay on its own day: the time alone.
+    let mut demo = demo_stepped_to(15);
+    let today = header(&mut demo, 120);
+    assert!(today.contains("newest XSEA 1500Z"), "{today}");
+}

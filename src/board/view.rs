@@ -150,14 +150,25 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         }
         spans
     };
+    // A report from another day than the board's says its date (finding 11: an
+    // `init` folder's reports of 2026-06-14 looked like today's).
     let newest = |time: bool| match app.newest_report() {
-        Some(r) if time => format!(
-            "newest {} {}",
-            r.station,
-            r.observed_at
-                .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
-        ),
-        Some(r) => format!("newest {}", r.station),
+        Some(r) => {
+            let other_day = r
+                .observed_at
+                .filter(|t| t.date_naive() != app.clock.date_naive());
+            match (time, other_day) {
+                (true, Some(t)) => format!("newest {} {}", r.station, t.format("%Y-%m-%d %H%MZ")),
+                (true, None) => format!(
+                    "newest {} {}",
+                    r.station,
+                    r.observed_at
+                        .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
+                ),
+                (false, Some(t)) => format!("newest {} {}", r.station, t.format("%-d %b")),
+                (false, None) => format!("newest {}", r.station),
+            }
+        }
         None => "no reports yet".to_string(),
     };
     let bar = || Span::styled(" │ ", t.frame());
