@@ -111,6 +111,7 @@ fn aircraft_offered_are_not_below_at_the_departure_best_first() {
     let Ask::Pick { options, .. } = &ui.ask else {
         panic!()
     };
+    let options = options.clone();
     assert!(!options.is_empty());
     assert!(
         options.iter().all(|(l, _)| !l.contains("below")),
@@ -119,6 +120,27 @@ fn aircraft_offered_are_not_below_at_the_departure_best_first() {
     assert!(
         options.iter().all(|(l, _)| !l.starts_with("X-UTLB")),
         "not the current one"
+    );
+    // Finding 19: each margin has its unit and says what it is a margin of.
+    let units = [" % ", " kt ", " ft "];
+    assert!(
+        options.iter().all(|(l, _)| {
+            let after_word = l.split_once(" within ").or_else(|| l.split_once(" thin "));
+            after_word.is_some_and(|(_, rest)| {
+                rest.trim_start().starts_with(['+', '-'])
+                    && (units.iter().any(|u| rest.contains(u.trim_start()))
+                        || rest.contains("% "))
+            })
+        }),
+        "{options:?}"
+    );
+    let text = screen(&mut app, 120, 40);
+    insta::assert_snapshot!(
+        text.lines()
+            .filter(|l| l.contains(" at XPIN"))
+            .map(str::trim_end)
+            .collect::<Vec<_>>()
+            .join("\n")
     );
     let first = options[0].clone();
     app.update(key(KeyCode::Enter));

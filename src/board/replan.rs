@@ -1104,25 +1104,33 @@ impl App {
             if c.state == State::Below {
                 continue;
             }
-            let margin = if c.margin_percent.is_finite() {
-                c.margin_percent
+            // Best first by margin ÷ buffer, which compares %, kt and ft; the label
+            // gives the margin with its unit and what it is a margin of.
+            let score = if c.score.is_finite() {
+                c.score
             } else {
                 f64::NEG_INFINITY
             };
+            let margin = if c.margin_percent.is_finite() {
+                let unit = c.limiting.margin_unit();
+                let sep = if unit == "%" || unit.is_empty() { "" } else { " " };
+                format!(
+                    "{:+.0}{sep}{unit} {}",
+                    c.margin_percent,
+                    super::view::limit_word(c.limiting)
+                )
+            } else {
+                "—".into()
+            };
             options.push((
                 c.state,
-                margin,
+                score,
                 format!(
-                    "{:<8} {:<12} {} {:<8} {} at {}",
+                    "{:<8} {:<12} {} {:<8} {margin} at {}",
                     ac.registration,
                     ac.type_id,
                     c.state.glyph(),
                     c.state.word(),
-                    if margin.is_finite() {
-                        format!("{margin:+.0}")
-                    } else {
-                        "—".into()
-                    },
                     leg.from
                 ),
                 Step::Edit(Edit::Aircraft(ac.registration.clone())),

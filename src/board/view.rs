@@ -497,7 +497,7 @@ fn cell_text(c: &PairCell) -> String {
     }
 }
 
-fn limit_word(l: PairLimit) -> &'static str {
+pub(super) fn limit_word(l: PairLimit) -> &'static str {
     match l {
         PairLimit::None => "nothing",
         PairLimit::Takeoff => "takeoff distance",
