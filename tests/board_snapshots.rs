@@ -630,3 +630,21 @@ fn the_newest_report_of_another_day_shows_its_date() {
     let today = header(&mut demo, 120);
     assert!(today.contains("newest XSEA 1500Z"), "{today}");
 }
+
+/// Finding 27: at 80 columns "Headroom:" is never left at a line's end without its
+/// value; it takes its own line when it does not fit beside the limiting check.
+#[test]
+fn headroom_keeps_its_value_on_its_line_at_80_columns() {
+    for id in ["L15", "L01", "L12"] {
+        let mut app = demo_stepped_to(15);
+        select_leg(&mut app, id);
+        app.update(key(KeyCode::Enter));
+        let text = screen(&mut app, 80, 24);
+        let line = text
+            .lines()
+            .find(|l| l.contains("Headroom:"))
+            .unwrap_or_else(|| panic!("{id}: no headroom line:\n{text}"));
+        let after = line.split_once("Headroom:").unwrap().1.trim_end();
+        assert!(!after.trim_start_matches('│').trim().is_empty(), "{id}: {line}");
+    }
+}
