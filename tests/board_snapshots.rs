@@ -648,3 +648,30 @@ fn headroom_keeps_its_value_on_its_line_at_80_columns() {
         assert!(!after.trim_start_matches('│').trim().is_empty(), "{id}: {line}");
     }
 }
+
+/// Finding 20: at 80 columns a load's name too long for its column ends in whole words
+/// and "…" ("X-UTLB empty (weighing…"), never mid-word.
+#[test]
+fn a_long_load_name_is_cut_at_a_word_with_an_ellipsis_at_80_columns() {
+    let mut app = demo_stepped_to(15);
+    select_leg(&mut app, "L16");
+    let r = app.selected_leg().unwrap();
+    let text: Vec<String> = rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        80,
+    )
+    .iter()
+    .map(|l| l.to_string())
+    .collect();
+    let empty = text
+        .iter()
+        .find(|l| l.trim_start().starts_with("X-UTLB empty"))
+        .unwrap_or_else(|| panic!("no empty-aircraft row:\n{}", text.join("\n")));
+    insta::assert_snapshot!(
+        empty.trim_end(),
+        @"  X-UTLB empty (weighing…       1016 kg   1158 mm 1176.5 kg·m       —"
+    );
+}

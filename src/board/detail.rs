@@ -229,7 +229,8 @@ fn mass_balance(
         ));
         for row in &mb.rows {
             let over = row.max_mass_kg.is_some_and(|m| row.mass_kg > m + 1e-6);
-            let name: String = row.name.chars().take(28).collect();
+            // Whole words and "…", never cut inside a word (finding 20).
+            let name = super::fit::words(&row.name, 28).into_owned();
             let text = format!(
                 "  {:<28} {:>8} {:>9} {:>11} {:>7}{}",
                 name,
