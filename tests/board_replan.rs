@@ -386,6 +386,20 @@ fn writing_to_an_operator_folder_saves_safely_and_adopts_the_plan() {
         backups(tmp.path()).contains(&before),
         "the previous version is kept"
     );
+    // Finding 21: the note names the backup whole, relative to the folder, at 100
+    // and at 80 columns (where it wraps onto a second line).
+    let bak = std::fs::read_dir(tmp.path().join("legs"))
+        .unwrap()
+        .filter_map(Result::ok)
+        .map(|e| e.file_name().to_string_lossy().into_owned())
+        .find(|n| n.ends_with(".bak"))
+        .unwrap();
+    let note = format!("saved legs/2026-06-14.json (backup: legs/{bak})");
+    assert_eq!(app.notes[0].text, note);
+    for (w, h) in [(100, 30), (80, 24)] {
+        let text = screen(&mut app, w, h);
+        assert!(text.contains(&bak), "{w}×{h}: {bak} not whole:\n{text}");
+    }
     let k = app
         .assessment
         .legs

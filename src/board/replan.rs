@@ -696,13 +696,17 @@ impl App {
                         f.text = serde_json::to_string_pretty(&file).unwrap_or_default() + "\n";
                         f.hash = hash;
                     }
-                    self.notice(
-                        NoteKind::Info,
-                        format!(
-                            "saved {rel} (previous version kept as {})",
-                            backup.display()
-                        ),
-                    );
+                    // The backup named relative to the operator folder, so the
+                    // note fits a line (finding 21).
+                    let backup = self
+                        .plan
+                        .dir
+                        .as_deref()
+                        .and_then(|d| backup.strip_prefix(d).ok())
+                        .unwrap_or(&backup)
+                        .display()
+                        .to_string();
+                    self.notice(NoteKind::Info, format!("saved {rel} (backup: {backup})"));
                 }
                 SaveOutcome::Unchanged => {
                     self.notice(

@@ -897,11 +897,12 @@ fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             .render(inner, buf);
         return;
     }
-    let lines: Vec<Line> = app
+    let mut lines: Vec<Line> = app
         .notes
         .iter()
         .take(usize::from(inner.height))
-        .map(|n| {
+        .enumerate()
+        .map(|(i, n)| {
             let style = match n.kind {
                 NoteKind::Change(s) => t.state(s),
                 NoteKind::Error => t.error(),
@@ -911,17 +912,38 @@ fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 NoteKind::Error => "error: ",
                 _ => "",
             };
-            // Too long for the line: whole words and `…` (the values stay whole).
+            // Too long for the line: the newest note, where the pane has a second
+            // line, wraps onto it (a file name stays whole); the others keep whole
+            // words and `…` (the values stay whole).
             let room = usize::from(inner.width).saturating_sub(6);
+            let text = format!("{tag}{}", n.text);
+            let text = if i == 0 && inner.height >= 2 {
+                text
+            } else {
+                fit::words(&text, room).into_owned()
+            };
             Line::from(vec![
                 Span::styled(format!("{} ", n.at.format("%H%MZ")), t.dim()),
-                Span::styled(
-                    fit::words(&format!("{tag}{}", n.text), room).into_owned(),
-                    style,
-                ),
+                Span::styled(text, style),
             ])
         })
         .collect();
+    if let Some(first) = lines.first().cloned() {
+        let w = usize::from(inner.width);
+        let wrapped = fit::wrap(first.clone(), w, Some(6));
+        if wrapped.len() == 2 {
+            lines.splice(0..1, wrapped);
+        } else if wrapped.len() > 2 {
+            // Longer than two lines: one, whole words and `…`.
+            let mut spans = first.spans;
+            if let Some(last) = spans.last_mut() {
+                last.content = fit::words(&last.content, w.saturating_sub(6))
+                    .into_owned()
+                    .into();
+            }
+            lines[0] = Line::from(spans);
+        }
+    }
     Paragraph::new(lines).render(inner, buf);
 }
 
