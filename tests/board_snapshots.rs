@@ -675,3 +675,25 @@ fn a_long_load_name_is_cut_at_a_word_with_an_ellipsis_at_80_columns() {
         @"  X-UTLB empty (weighing…       1016 kg   1158 mm 1176.5 kg·m       —"
     );
 }
+
+/// Finding 22: a wider terminal never shows fewer legs columns: from 120 columns up,
+/// with the detail beside the legs or not, the category and forecast stay.
+#[test]
+fn wider_never_shows_fewer_legs_columns() {
+    for w in [120u16, 140, 150, 159, 160, 170, 200] {
+        let mut app = demo_stepped_to(15);
+        let text = screen(&mut app, w, 40);
+        let head = text
+            .lines()
+            .find(|l| l.contains(" dep ") && l.contains(" leg "))
+            .unwrap_or_else(|| panic!("{w}: no legs header:\n{text}"));
+        assert!(head.contains("category"), "{w}: {head}");
+        assert!(head.contains("forecast"), "{w}: {head}");
+    }
+}
+
+#[test]
+fn afternoon_150x40() {
+    let mut app = demo_stepped_to(15);
+    insta::assert_snapshot!(render(&mut app, 150, 40).backend());
+}
