@@ -128,8 +128,7 @@ fn aircraft_offered_are_not_below_at_the_departure_best_first() {
             let after_word = l.split_once(" within ").or_else(|| l.split_once(" thin "));
             after_word.is_some_and(|(_, rest)| {
                 rest.trim_start().starts_with(['+', '-'])
-                    && (units.iter().any(|u| rest.contains(u.trim_start()))
-                        || rest.contains("% "))
+                    && (units.iter().any(|u| rest.contains(u.trim_start())) || rest.contains("% "))
             })
         }),
         "{options:?}"
@@ -471,7 +470,10 @@ fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() 
     assert_eq!(l16.aircraft, "X-UTLA", "their change kept");
     assert_eq!(l16.departs_utc(), demo_time(6, 30), "ours applied");
     let on_board = app.ops.legs.iter().find(|l| l.id == "L16").unwrap();
-    assert_eq!(on_board.aircraft, "X-UTLA", "the board shows the merged leg");
+    assert_eq!(
+        on_board.aircraft, "X-UTLA",
+        "the board shows the merged leg"
+    );
 }
 
 /// Finding 12: another dispatcher's unrelated change (L16's fuel 125 → 130 L) is not
@@ -486,9 +488,11 @@ fn our_changes_go_onto_theirs_and_keep_their_unrelated_change() {
     type_text(&mut app, "0630");
     app.update(key(KeyCode::Enter));
     let path = legs_path(tmp.path());
-    let theirs = std::fs::read_to_string(&path)
-        .unwrap()
-        .replacen("\"fuel_at_start_l\": 125,", "\"fuel_at_start_l\": 130,", 1);
+    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+        "\"fuel_at_start_l\": 125,",
+        "\"fuel_at_start_l\": 130,",
+        1,
+    );
     std::fs::write(&path, &theirs).unwrap();
     app.update(key(KeyCode::Char('w')));
     run_io(&mut app);
@@ -533,7 +537,9 @@ fn a_field_both_changed_is_a_real_conflict_and_nothing_is_written() {
     assert_eq!(std::fs::read_to_string(&path).unwrap(), theirs);
     let text = screen(&mut app, 200, 40);
     assert!(
-        text.contains("both changed L16 departs_at: theirs 2026-06-14T12:45:00Z, ours 2026-06-14T06:30:00Z"),
+        text.contains(
+            "both changed L16 departs_at: theirs 2026-06-14T12:45:00Z, ours 2026-06-14T06:30:00Z"
+        ),
         "{text}"
     );
     assert!(app.plan.pending());

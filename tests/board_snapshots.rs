@@ -619,7 +619,11 @@ fn the_newest_report_of_another_day_shows_its_date() {
     };
     let (mut app, _) = rhoboard::commands::board::prepare(&args, now).unwrap();
     let header = |app: &mut App, w: u16| {
-        screen(app, w, 30).lines().next().unwrap_or_default().to_string()
+        screen(app, w, 30)
+            .lines()
+            .next()
+            .unwrap_or_default()
+            .to_string()
     };
     let wide = header(&mut app, 120);
     let narrow = header(&mut app, 80);
@@ -645,7 +649,10 @@ fn headroom_keeps_its_value_on_its_line_at_80_columns() {
             .find(|l| l.contains("Headroom:"))
             .unwrap_or_else(|| panic!("{id}: no headroom line:\n{text}"));
         let after = line.split_once("Headroom:").unwrap().1.trim_end();
-        assert!(!after.trim_start_matches('│').trim().is_empty(), "{id}: {line}");
+        assert!(
+            !after.trim_start_matches('│').trim().is_empty(),
+            "{id}: {line}"
+        );
     }
 }
 

@@ -361,7 +361,10 @@ fn a_report_typed_by_hand_is_stored_and_kept_across_a_step_back() {
     );
     assert_eq!(f.focus, 1, "the cursor on the time");
     let text = board_common::screen(&mut app, 120, 40);
-    assert!(text.contains("0915Z is 15 min after the board's clock"), "{text}");
+    assert!(
+        text.contains("0915Z is 15 min after the board's clock"),
+        "{text}"
+    );
     app.update(key(KeyCode::Enter));
     assert_eq!(app.ui.mode, Mode::Normal, "form closed");
     assert!(app.notes.iter().any(|n| n.text.contains("added by hand")));
@@ -737,14 +740,22 @@ fn a_form_error_clears_when_its_field_is_edited() {
     let Mode::Form(f) = &app.ui.mode else {
         panic!("form stays open")
     };
-    assert!(f.error_for(2).is_some() && f.error_for(8).is_some(), "{:?}", f.errors);
+    assert!(
+        f.error_for(2).is_some() && f.error_for(8).is_some(),
+        "{:?}",
+        f.errors
+    );
     assert_eq!(f.focus, 2);
     app.update(key(KeyCode::Tab));
     app.update(key(KeyCode::BackTab));
-    let Mode::Form(f) = &app.ui.mode else { panic!() };
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!()
+    };
     assert!(f.error_for(2).is_some(), "moving keeps the error");
     type_text(&mut app, "2");
-    let Mode::Form(f) = &app.ui.mode else { panic!() };
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!()
+    };
     assert_eq!(f.error_for(2), None, "typing in the field clears its error");
     assert!(f.error_for(8).is_some(), "other fields keep theirs");
     // A time ten minutes ahead of the 13:00 clock: warned, not taken silently.
@@ -754,7 +765,9 @@ fn a_form_error_clears_when_its_field_is_edited() {
     }
     type_text(&mut app, "1310");
     app.update(key(KeyCode::Enter));
-    let Mode::Form(f) = &app.ui.mode else { panic!() };
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!()
+    };
     assert!(
         f.error_for(1)
             .is_some_and(|e| e.starts_with("1310Z is 10 min after the board's clock (1300Z)")),

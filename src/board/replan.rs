@@ -888,8 +888,8 @@ impl App {
         let mut out: Vec<Leg> = Vec::new();
         let mut ours_placed: Vec<usize> = Vec::new();
         for t in theirs {
-            let base = (0..self.ops.legs.len())
-                .find(|&o| in_file(o) && self.ops.legs[o].id == t.id);
+            let base =
+                (0..self.ops.legs.len()).find(|&o| in_file(o) && self.ops.legs[o].id == t.id);
             let Some(o) = base else {
                 // A leg only they added.
                 out.push(t.clone());
@@ -1117,7 +1117,11 @@ impl App {
             };
             let margin = if c.margin_percent.is_finite() {
                 let unit = c.limiting.margin_unit();
-                let sep = if unit == "%" || unit.is_empty() { "" } else { " " };
+                let sep = if unit == "%" || unit.is_empty() {
+                    ""
+                } else {
+                    " "
+                };
                 format!(
                     "{:+.0}{sep}{unit} {}",
                     c.margin_percent,
@@ -1344,7 +1348,13 @@ fn merge_value(
                 continue;
             }
             let get = |m: &serde_json::Map<String, Value>| m.get(k).cloned().unwrap_or(Value::Null);
-            let v = merge_value(&get(bm), &get(tm), &get(om), &format!("{path} {k}"), clashes);
+            let v = merge_value(
+                &get(bm),
+                &get(tm),
+                &get(om),
+                &format!("{path} {k}"),
+                clashes,
+            );
             if !v.is_null() {
                 out.insert(k.clone(), v);
             }

@@ -255,11 +255,17 @@ fn tabs(app: &App, area: Rect, legs_rows: Option<usize>, buf: &mut Buffer, t: Th
             let sort = format!("sort: {}", app.ui.sort.word());
             let mut candidates: Vec<String> = Vec::new();
             let join = |parts: &[Option<String>]| {
-                parts.iter().flatten().cloned().collect::<Vec<_>>().join(" · ") + " "
+                parts
+                    .iter()
+                    .flatten()
+                    .cloned()
+                    .collect::<Vec<_>>()
+                    .join(" · ")
+                    + " "
             };
             if app.ui.filter.is_empty() {
                 candidates.push(join(&[pos.clone(), Some(sort)]));
-                candidates.push(join(&[pos.clone()]));
+                candidates.push(join(std::slice::from_ref(&pos)));
             } else {
                 let f = &app.ui.filter;
                 let counted = format!(
