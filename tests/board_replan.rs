@@ -452,10 +452,11 @@ fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() 
     let (_, loaded, their, ours) = c.legs.iter().find(|(id, ..)| id == "L16").unwrap();
     assert!(loaded.contains("1230Z X-UTLB"), "{loaded}");
     assert!(their.contains("1230Z X-UTLA"), "{their}");
-    assert!(ours.contains("0630Z X-UTLB"), "{ours}");
+    // What `o` would write: our time onto their aircraft.
+    assert!(ours.contains("0630Z X-UTLA"), "{ours}");
     let text = screen(&mut app, 140, 40);
     assert!(text.contains("theirs now: 1230Z X-UTLA"), "{text}");
-    assert!(text.contains("ours:       0630Z X-UTLB"), "{text}");
+    assert!(text.contains("with o:     0630Z X-UTLA"), "{text}");
 
     // Overwrite with ours: theirs is kept as the backup.
     app.update(key(KeyCode::Char('o')));

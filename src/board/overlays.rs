@@ -520,7 +520,7 @@ pub fn conflict(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         lines.push(Line::styled(id.clone(), t.heading()));
         lines.push(Line::from(format!("  as loaded:  {loaded}")));
         lines.push(Line::from(format!("  theirs now: {theirs}")));
-        lines.push(Line::from(format!("  ours:       {ours}")));
+        lines.push(Line::from(format!("  with o:     {ours}")));
     }
     lines.push(Line::default());
     lines.push(Line::from(vec![

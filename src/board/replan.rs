@@ -747,12 +747,17 @@ impl App {
             .files
             .get(rel)
             .and_then(|f| serde_json::from_str(&f.text).ok());
-        let ours = self
-            .planned_files()
-            .into_iter()
-            .find(|(r, _)| r == rel)
-            .map(|(_, l)| l)
-            .unwrap_or_default();
+        // "Ours" is what `o` would write: our changes onto theirs, where they merge.
+        let merged = theirs
+            .as_ref()
+            .and_then(|th| self.merge_onto(rel, &th.legs).ok());
+        let ours = merged.unwrap_or_else(|| {
+            self.planned_files()
+                .into_iter()
+                .find(|(r, _)| r == rel)
+                .map(|(_, l)| l)
+                .unwrap_or_default()
+        });
         let show = Show::of(&self.ops);
         let find = |ls: Option<&Vec<Leg>>, id: &str| {
             ls.and_then(|ls| ls.iter().find(|l| l.id == id))
