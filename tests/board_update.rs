@@ -435,6 +435,13 @@ fn a_click_selects_a_leg_and_a_tab() {
     assert_eq!(selected_id(&app), "L04");
     app.update(Msg::Click(9, 1));
     assert_eq!(app.ui.pane, Pane::Pairings);
+    // At 60 columns the tabs are short (" Legs │ Pairs │ Fields │ Fleet │ Reps "):
+    // a click on "Reps" (columns 33–36) and on "Fields" (17–22) finds them.
+    app.update(Msg::Resize(60, 20));
+    app.update(Msg::Click(34, 1));
+    assert_eq!(app.ui.pane, Pane::Reports);
+    app.update(Msg::Click(18, 1));
+    assert_eq!(app.ui.pane, Pane::Airfields);
 }
 
 #[test]

@@ -192,7 +192,8 @@ impl Form {
                 format!(
                     "{} is {} min after the board's clock ({}): Enter again to add it anyway (it counts from {} on), or correct the time",
                     at.format("%H%MZ"),
-                    (at - clock).num_minutes().max(1),
+                    // Whole minutes, rounded up: 9 min 20 s ahead says 10.
+                    ((at - clock).num_seconds() + 59) / 60,
                     clock.format("%H%MZ"),
                     at.format("%H%MZ")
                 ),
