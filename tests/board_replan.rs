@@ -607,3 +607,36 @@ fn the_loads_menu_follows_the_display_mass_unit() {
     };
     assert_eq!(*mass_kg, Some(bag_kg - 10.0));
 }
+
+/// They removed L16, we moved it: `o` cannot apply ours onto a leg that is gone — a
+/// real conflict, nothing written.
+#[test]
+fn a_leg_they_removed_and_we_changed_is_a_real_conflict() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    let path = legs_path(tmp.path());
+    let mut file: rhoboard::ops::legs::LegsFile =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    file.legs.retain(|l| l.id != "L16");
+    let theirs = serde_json::to_string_pretty(&file).unwrap() + "\n";
+    std::fs::write(&path, &theirs).unwrap();
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    app.update(key(KeyCode::Char('o')));
+    assert_eq!(run_io(&mut app), 0, "nothing queued");
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    assert_eq!(std::fs::read_to_string(&path).unwrap(), theirs);
+    assert!(
+        app.notes[0]
+            .text
+            .contains("both changed L16 (they removed it, we changed it)"),
+        "{}",
+        app.notes[0].text
+    );
+}

@@ -932,12 +932,18 @@ impl App {
                     .map(|s| s.leg.clone()),
             );
         }
-        // Legs they removed: gone, unless we changed them.
+        // Legs they removed: gone, unless we changed or copied them.
         for o in (0..self.ops.legs.len()).filter(|&o| in_file(o) && !ours_placed.contains(&o)) {
-            if self.slot_changed(o) {
+            let copied = self
+                .plan
+                .slots
+                .iter()
+                .any(|s| s.origin == Origin::CopyOf(o) && !s.cancelled);
+            if self.slot_changed(o) || copied {
                 clashes.push(format!(
-                    "{} (they removed it, we changed it)",
-                    self.ops.legs[o].id
+                    "{} (they removed it, we {} it)",
+                    self.ops.legs[o].id,
+                    if copied { "copied" } else { "changed" }
                 ));
             }
         }
@@ -1344,8 +1350,7 @@ fn merge_value(
         return o.clone();
     }
     if let (Value::Object(bm), Value::Object(tm), Value::Object(om)) = (b, t, o) {
-        let mut keys: Vec<&String> = tm.keys().chain(om.keys()).chain(bm.keys()).collect();
-        keys.dedup();
+        let keys: Vec<&String> = tm.keys().chain(om.keys()).chain(bm.keys()).collect();
         let mut out = serde_json::Map::new();
         let mut seen = std::collections::HashSet::new();
         for k in keys {
