@@ -69,6 +69,16 @@ fn l16_becomes_within_by_moving_it_to_0630() {
         demo_time(6, 30),
         "the planned duration is kept from the new time"
     );
+    // The panel's "as planned" line is the leg before the change (finding 4: it showed
+    // the new time at once, beside "departure 1230Z → 0630Z").
+    let text = screen(&mut app, 120, 40);
+    let planned = text
+        .lines()
+        .find(|l| l.contains("as planned:"))
+        .unwrap_or_else(|| panic!("no as-planned line:\n{text}"));
+    assert!(planned.contains("1230Z"), "{planned}");
+    assert!(!planned.contains("0630Z"), "{planned}");
+    assert!(text.contains("1230Z → 0630Z"), "{text}");
     // The board's own leg is untouched until written.
     assert_eq!(app.ops.legs[slot].departs_utc(), demo_time(12, 30));
     assert_eq!(app.selected_leg().unwrap().state, State::Below);
@@ -101,6 +111,7 @@ fn aircraft_offered_are_not_below_at_the_departure_best_first() {
     let Ask::Pick { options, .. } = &ui.ask else {
         panic!()
     };
+    let options = options.clone();
     assert!(!options.is_empty());
     assert!(
         options.iter().all(|(l, _)| !l.contains("below")),
@@ -109,6 +120,26 @@ fn aircraft_offered_are_not_below_at_the_departure_best_first() {
     assert!(
         options.iter().all(|(l, _)| !l.starts_with("X-UTLB")),
         "not the current one"
+    );
+    // Finding 19: each margin has its unit and says what it is a margin of.
+    let units = [" % ", " kt ", " ft "];
+    assert!(
+        options.iter().all(|(l, _)| {
+            let after_word = l.split_once(" within ").or_else(|| l.split_once(" thin "));
+            after_word.is_some_and(|(_, rest)| {
+                rest.trim_start().starts_with(['+', '-'])
+                    && (units.iter().any(|u| rest.contains(u.trim_start())) || rest.contains("% "))
+            })
+        }),
+        "{options:?}"
+    );
+    let text = screen(&mut app, 120, 40);
+    insta::assert_snapshot!(
+        text.lines()
+            .filter(|l| l.contains(" at XPIN"))
+            .map(str::trim_end)
+            .collect::<Vec<_>>()
+            .join("\n")
     );
     let first = options[0].clone();
     app.update(key(KeyCode::Enter));
@@ -354,6 +385,20 @@ fn writing_to_an_operator_folder_saves_safely_and_adopts_the_plan() {
         backups(tmp.path()).contains(&before),
         "the previous version is kept"
     );
+    // Finding 21: the note names the backup whole, relative to the folder, at 100
+    // and at 80 columns (where it wraps onto a second line).
+    let bak = std::fs::read_dir(tmp.path().join("legs"))
+        .unwrap()
+        .filter_map(Result::ok)
+        .map(|e| e.file_name().to_string_lossy().into_owned())
+        .find(|n| n.ends_with(".bak"))
+        .unwrap();
+    let note = format!("saved legs/2026-06-14.json (backup: legs/{bak})");
+    assert_eq!(app.notes[0].text, note);
+    for (w, h) in [(100, 30), (80, 24)] {
+        let text = screen(&mut app, w, h);
+        assert!(text.contains(&bak), "{w}×{h}: {bak} not whole:\n{text}");
+    }
     let k = app
         .assessment
         .legs
@@ -407,10 +452,11 @@ fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() 
     let (_, loaded, their, ours) = c.legs.iter().find(|(id, ..)| id == "L16").unwrap();
     assert!(loaded.contains("1230Z X-UTLB"), "{loaded}");
     assert!(their.contains("1230Z X-UTLA"), "{their}");
-    assert!(ours.contains("0630Z X-UTLB"), "{ours}");
+    // What `o` would write: our time onto their aircraft.
+    assert!(ours.contains("0630Z X-UTLA"), "{ours}");
     let text = screen(&mut app, 140, 40);
     assert!(text.contains("theirs now: 1230Z X-UTLA"), "{text}");
-    assert!(text.contains("ours:       0630Z X-UTLB"), "{text}");
+    assert!(text.contains("with o:     0630Z X-UTLA"), "{text}");
 
     // Overwrite with ours: theirs is kept as the backup.
     app.update(key(KeyCode::Char('o')));
@@ -419,6 +465,87 @@ fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() 
     let now = std::fs::read_to_string(&path).unwrap();
     assert!(now.contains("\"2026-06-14T06:30:00Z\""), "ours written");
     assert!(backups(tmp.path()).contains(&theirs), "theirs kept");
+    // Our change went onto their version: their aircraft stays (finding 12).
+    let file: rhoboard::ops::legs::LegsFile = serde_json::from_str(&now).unwrap();
+    let l16 = file.legs.iter().find(|l| l.id == "L16").unwrap();
+    assert_eq!(l16.aircraft, "X-UTLA", "their change kept");
+    assert_eq!(l16.departs_utc(), demo_time(6, 30), "ours applied");
+    let on_board = app.ops.legs.iter().find(|l| l.id == "L16").unwrap();
+    assert_eq!(
+        on_board.aircraft, "X-UTLA",
+        "the board shows the merged leg"
+    );
+}
+
+/// Finding 12: another dispatcher's unrelated change (L16's fuel 125 → 130 L) is not
+/// reverted by `o`; our change (L12 cancelled, L16 one passenger fewer) goes onto it.
+#[test]
+fn our_changes_go_onto_theirs_and_keep_their_unrelated_change() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    let path = legs_path(tmp.path());
+    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+        "\"fuel_at_start_l\": 125,",
+        "\"fuel_at_start_l\": 130,",
+        1,
+    );
+    std::fs::write(&path, &theirs).unwrap();
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    app.update(key(KeyCode::Char('o')));
+    assert_eq!(run_io(&mut app), 1);
+    assert!(!app.plan.pending());
+    let file: rhoboard::ops::legs::LegsFile =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    let l16 = file.legs.iter().find(|l| l.id == "L16").unwrap();
+    assert_eq!(l16.departs_utc(), demo_time(6, 30), "ours applied");
+    assert_eq!(l16.arrives_utc(), demo_time(7, 25), "with its duration");
+    let loads = l16.loads.as_ref().unwrap();
+    assert_eq!(loads.fuel_at_start_l, Some(130.0), "their fuel kept");
+    assert_eq!(file.legs.len(), 16, "no leg lost or doubled");
+}
+
+/// Both moved L16's departure, to different times: a real conflict, nothing written,
+/// both values named; `t` still keeps theirs.
+#[test]
+fn a_field_both_changed_is_a_real_conflict_and_nothing_is_written() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    let path = legs_path(tmp.path());
+    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+        "\"departs_at\": \"2026-06-14T12:30:00Z\"",
+        "\"departs_at\": \"2026-06-14T12:45:00Z\"",
+        1,
+    );
+    assert_ne!(theirs, std::fs::read_to_string(&path).unwrap());
+    std::fs::write(&path, &theirs).unwrap();
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    app.update(key(KeyCode::Char('o')));
+    assert_eq!(run_io(&mut app), 0, "nothing queued");
+    assert!(matches!(app.ui.mode, Mode::Conflict), "still deciding");
+    assert_eq!(std::fs::read_to_string(&path).unwrap(), theirs);
+    let text = screen(&mut app, 200, 40);
+    assert!(
+        text.contains(
+            "both changed L16 departs_at: theirs 2026-06-14T12:45:00Z, ours 2026-06-14T06:30:00Z"
+        ),
+        "{text}"
+    );
+    assert!(app.plan.pending());
+    app.update(key(KeyCode::Char('t')));
+    assert!(!app.plan.pending());
 }
 
 #[test]
@@ -479,4 +606,37 @@ fn the_loads_menu_follows_the_display_mass_unit() {
         panic!("{:?}", app.plan.steps)
     };
     assert_eq!(*mass_kg, Some(bag_kg - 10.0));
+}
+
+/// They removed L16, we moved it: `o` cannot apply ours onto a leg that is gone — a
+/// real conflict, nothing written.
+#[test]
+fn a_leg_they_removed_and_we_changed_is_a_real_conflict() {
+    let tmp = operator_folder();
+    let mut app = board_on(tmp.path());
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0630");
+    app.update(key(KeyCode::Enter));
+    let path = legs_path(tmp.path());
+    let mut file: rhoboard::ops::legs::LegsFile =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    file.legs.retain(|l| l.id != "L16");
+    let theirs = serde_json::to_string_pretty(&file).unwrap() + "\n";
+    std::fs::write(&path, &theirs).unwrap();
+    app.update(key(KeyCode::Char('w')));
+    run_io(&mut app);
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    app.update(key(KeyCode::Char('o')));
+    assert_eq!(run_io(&mut app), 0, "nothing queued");
+    assert!(matches!(app.ui.mode, Mode::Conflict));
+    assert_eq!(std::fs::read_to_string(&path).unwrap(), theirs);
+    assert!(
+        app.notes[0]
+            .text
+            .contains("both changed L16 (they removed it, we changed it)"),
+        "{}",
+        app.notes[0].text
+    );
 }

@@ -554,3 +554,153 @@ fn display_units_m_kg_hpa_c_in_the_detail() {
     shots.push_str(&screen(&mut app, 120, 40));
     insta::assert_snapshot!(shots);
 }
+
+/// Finding 5: hidden rows are told on the tab line — "14 of 16 ↓" at the top, "↑ 3–16
+/// of 16" at the bottom — and finding 6: a kept filter shows at 80 and at 60 columns.
+#[test]
+fn legs_scrolled_to_the_end_80x24() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::End));
+    insta::assert_snapshot!(render(&mut app, 80, 24).backend());
+}
+
+#[test]
+fn kept_filter_80x24_and_60x20() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('/')));
+    type_text(&mut app, "XSEA");
+    app.update(key(KeyCode::Enter));
+    let wide = screen(&mut app, 80, 24);
+    let narrow = screen(&mut app, 60, 20);
+    insta::assert_snapshot!(format!("{wide}\n{narrow}"));
+    let tab_line = |s: &str| s.lines().nth(1).unwrap_or_default().to_string();
+    assert!(tab_line(&wide).contains("filter: XSEA"), "{wide}");
+    assert!(tab_line(&narrow).contains("XSEA"), "{narrow}");
+}
+
+/// A filter too long for a 60-column tab line is cut with "…", never left out.
+#[test]
+fn a_long_kept_filter_is_cut_not_dropped_at_60_columns() {
+    let mut app = demo_stepped_to(15);
+    app.update(key(KeyCode::Char('/')));
+    type_text(&mut app, "density altitude over the ridge");
+    app.update(key(KeyCode::Enter));
+    let text = screen(&mut app, 60, 20);
+    let tabs = text.lines().nth(1).unwrap_or_default();
+    assert!(tabs.contains("/density") && tabs.contains('…'), "{text}");
+}
+
+#[test]
+fn rows_shown_names_what_is_hidden() {
+    use rhoboard::board::view::rows_shown;
+    assert_eq!(rows_shown(0, 16, 16), None, "all shown");
+    assert_eq!(rows_shown(0, 14, 16).as_deref(), Some("14 of 16 ↓"));
+    assert_eq!(rows_shown(15, 14, 16).as_deref(), Some("↑ 3–16 of 16"));
+    assert_eq!(rows_shown(12, 10, 20).as_deref(), Some("↑ 4–13 of 20 ↓"));
+}
+
+/// Finding 11: on an operator folder whose reports are of 2026-06-14, a board running
+/// on 2026-12-01 dates the newest report; on the report's own day it shows the time only.
+#[test]
+fn the_newest_report_of_another_day_shows_its_date() {
+    let tmp = tempfile::tempdir().unwrap();
+    for (path, text) in rhoboard::ops::demo::FILES {
+        let p = tmp.path().join(path);
+        std::fs::create_dir_all(p.parent().unwrap()).unwrap();
+        std::fs::write(p, text).unwrap();
+    }
+    let now = chrono::DateTime::parse_from_rfc3339("2026-12-01T22:05:00Z")
+        .unwrap()
+        .to_utc();
+    let args = rhoboard::commands::board::Args {
+        ops: Some(tmp.path().to_path_buf()),
+        feed_every: "10m".into(),
+        ..Default::default()
+    };
+    let (mut app, _) = rhoboard::commands::board::prepare(&args, now).unwrap();
+    let header = |app: &mut App, w: u16| {
+        screen(app, w, 30)
+            .lines()
+            .next()
+            .unwrap_or_default()
+            .to_string()
+    };
+    let wide = header(&mut app, 120);
+    let narrow = header(&mut app, 80);
+    insta::assert_snapshot!(format!("{wide}\n{narrow}"));
+    assert!(wide.contains("newest XSEA 2026-06-14 "), "{wide}");
+    // The demo replay on its own day: the time alone.
+    let mut demo = demo_stepped_to(15);
+    let today = header(&mut demo, 120);
+    assert!(today.contains("newest XSEA 1500Z"), "{today}");
+}
+
+/// Finding 27: at 80 columns "Headroom:" is never left at a line's end without its
+/// value; it takes its own line when it does not fit beside the limiting check.
+#[test]
+fn headroom_keeps_its_value_on_its_line_at_80_columns() {
+    for id in ["L15", "L01", "L12"] {
+        let mut app = demo_stepped_to(15);
+        select_leg(&mut app, id);
+        app.update(key(KeyCode::Enter));
+        let text = screen(&mut app, 80, 24);
+        let line = text
+            .lines()
+            .find(|l| l.contains("Headroom:"))
+            .unwrap_or_else(|| panic!("{id}: no headroom line:\n{text}"));
+        let after = line.split_once("Headroom:").unwrap().1.trim_end();
+        assert!(
+            !after.trim_start_matches('│').trim().is_empty(),
+            "{id}: {line}"
+        );
+    }
+}
+
+/// Finding 20: at 80 columns a load's name too long for its column ends in whole words
+/// and "…" ("X-UTLB empty (weighing…"), never mid-word.
+#[test]
+fn a_long_load_name_is_cut_at_a_word_with_an_ellipsis_at_80_columns() {
+    let mut app = demo_stepped_to(15);
+    select_leg(&mut app, "L16");
+    let r = app.selected_leg().unwrap();
+    let text: Vec<String> = rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        80,
+    )
+    .iter()
+    .map(|l| l.to_string())
+    .collect();
+    let empty = text
+        .iter()
+        .find(|l| l.trim_start().starts_with("X-UTLB empty"))
+        .unwrap_or_else(|| panic!("no empty-aircraft row:\n{}", text.join("\n")));
+    insta::assert_snapshot!(
+        empty.trim_end(),
+        @"  X-UTLB empty (weighing…       1016 kg   1158 mm 1176.5 kg·m       —"
+    );
+}
+
+/// Finding 22: a wider terminal never shows fewer legs columns: from 120 columns up,
+/// with the detail beside the legs or not, the category and forecast stay.
+#[test]
+fn wider_never_shows_fewer_legs_columns() {
+    for w in [120u16, 140, 150, 159, 160, 170, 200] {
+        let mut app = demo_stepped_to(15);
+        let text = screen(&mut app, w, 40);
+        let head = text
+            .lines()
+            .find(|l| l.contains(" dep ") && l.contains(" leg "))
+            .unwrap_or_else(|| panic!("{w}: no legs header:\n{text}"));
+        assert!(head.contains("category"), "{w}: {head}");
+        assert!(head.contains("forecast"), "{w}: {head}");
+    }
+}
+
+#[test]
+fn afternoon_150x40() {
+    let mut app = demo_stepped_to(15);
+    insta::assert_snapshot!(render(&mut app, 150, 40).backend());
+}

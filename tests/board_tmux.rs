@@ -89,3 +89,17 @@ fn the_runway_form_closes_an_end_on_the_demo_and_l01_goes_below() {
     s.wait_for_all("exit", &["rhoboard exited 0"]);
     s.assert_restored();
 }
+
+/// Ctrl-C is a user interrupt: the board gives the terminal back and exits 130 (128 +
+/// SIGINT), as a shell reports an interrupted command; `q` exits 0.
+#[test]
+fn ctrl_c_exits_130_and_restores_the_terminal() {
+    if !have_tmux("end-to-end") {
+        return;
+    }
+    let s = Session::start("ctrlc", "board --speed 2", (80, 24));
+    s.wait_for_all("the first frame", &["L01", "Planning aid only"]);
+    s.keys(&["C-c"]);
+    s.wait_for_all("exit", &["rhoboard exited 130"]);
+    s.assert_restored();
+}

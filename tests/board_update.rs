@@ -348,6 +348,24 @@ fn a_report_typed_by_hand_is_stored_and_kept_across_a_step_back() {
     app.update(key(KeyCode::Tab));
     type_text(&mut app, "1016hPa");
     app.update(key(KeyCode::Enter));
+    // 09:15 is after the board's 09:00: the form warns first (finding 25), and a
+    // second Enter adds it.
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!("the form stays open with a warning")
+    };
+    assert_eq!(
+        f.error_for(1),
+        Some(
+            "0915Z is 15 min after the board's clock (0900Z): Enter again to add it anyway (it counts from 0915Z on), or correct the time"
+        )
+    );
+    assert_eq!(f.focus, 1, "the cursor on the time");
+    let text = board_common::screen(&mut app, 120, 40);
+    assert!(
+        text.contains("0915Z is 15 min after the board's clock"),
+        "{text}"
+    );
+    app.update(key(KeyCode::Enter));
     assert_eq!(app.ui.mode, Mode::Normal, "form closed");
     assert!(app.notes.iter().any(|n| n.text.contains("added by hand")));
     // 09:15 is after the board's 09:00: the report waits in the store for its time.
@@ -398,9 +416,14 @@ fn help_opens_and_closes_and_q_and_ctrl_c_quit() {
         KeyModifiers::CONTROL,
     )));
     assert!(app.quit, "Ctrl-C quits from any mode");
+    assert!(app.interrupted, "Ctrl-C is an interrupt: exit 130");
     let mut app = demo(8, 0);
     app.update(Msg::Quit);
     assert!(app.quit);
+    assert!(!app.interrupted, "SIGTERM, SIGHUP: a clean quit, exit 0");
+    let mut app = demo(8, 0);
+    app.update(Msg::Interrupt);
+    assert!(app.quit && app.interrupted, "SIGINT: exit 130");
 }
 
 #[test]
@@ -412,6 +435,13 @@ fn a_click_selects_a_leg_and_a_tab() {
     assert_eq!(selected_id(&app), "L04");
     app.update(Msg::Click(9, 1));
     assert_eq!(app.ui.pane, Pane::Pairings);
+    // At 60 columns the tabs are short (" Legs │ Pairs │ Fields │ Fleet │ Reps "):
+    // a click on "Reps" (columns 33–36) and on "Fields" (17–22) finds them.
+    app.update(Msg::Resize(60, 20));
+    app.update(Msg::Click(34, 1));
+    assert_eq!(app.ui.pane, Pane::Reports);
+    app.update(Msg::Click(18, 1));
+    assert_eq!(app.ui.pane, Pane::Airfields);
 }
 
 #[test]
@@ -705,4 +735,50 @@ fn the_runway_form_shows_errors_and_esc_cancels() {
     assert_eq!(app.ui.mode, Mode::Normal);
     assert!(app.take_effects().is_empty());
     assert_eq!(app.selected_leg().unwrap(), &before, "Esc changed nothing");
+}
+
+/// Finding 25: an error goes as soon as its field is edited (moving through the form
+/// keeps it); a time in the board's future is warned about before it is taken.
+#[test]
+fn a_form_error_clears_when_its_field_is_edited() {
+    let mut app = demo_stepped_to(13);
+    app.update(key(KeyCode::Char('o')));
+    app.update(key(KeyCode::Enter));
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!("form stays open")
+    };
+    assert!(
+        f.error_for(2).is_some() && f.error_for(8).is_some(),
+        "{:?}",
+        f.errors
+    );
+    assert_eq!(f.focus, 2);
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::BackTab));
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!()
+    };
+    assert!(f.error_for(2).is_some(), "moving keeps the error");
+    type_text(&mut app, "2");
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!()
+    };
+    assert_eq!(f.error_for(2), None, "typing in the field clears its error");
+    assert!(f.error_for(8).is_some(), "other fields keep theirs");
+    // A time ten minutes ahead of the 13:00 clock: warned, not taken silently.
+    app.update(key(KeyCode::Up));
+    for _ in 0..4 {
+        app.update(key(KeyCode::Backspace));
+    }
+    type_text(&mut app, "1310");
+    app.update(key(KeyCode::Enter));
+    let Mode::Form(f) = &app.ui.mode else {
+        panic!()
+    };
+    assert!(
+        f.error_for(1)
+            .is_some_and(|e| e.starts_with("1310Z is 10 min after the board's clock (1300Z)")),
+        "{:?}",
+        f.errors
+    );
 }

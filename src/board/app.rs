@@ -65,8 +65,10 @@ pub enum Msg {
         /// The state it now holds.
         state: RunwayStateFile,
     },
-    /// Quit (a signal, or the input thread ending).
+    /// Quit (SIGTERM, SIGHUP, or the input thread ending): exit 0.
     Quit,
+    /// The user interrupted (SIGINT): quit, exit 130.
+    Interrupt,
     /// The event loop did an [`Effect`](super::effects::Effect): its result.
     Done(super::effects::Done),
 }
@@ -104,6 +106,30 @@ impl Pane {
             Pane::Airfields => "Airfields",
             Pane::Fleet => "Fleet",
             Pane::Reports => "Reports",
+        }
+    }
+
+    /// The pane's name on a narrow terminal's tab (below [`Pane::SHORT_BELOW`]
+    /// columns), leaving room for the filter and the row count.
+    pub const fn short_title(self) -> &'static str {
+        match self {
+            Pane::Legs => "Legs",
+            Pane::Pairings => "Pairs",
+            Pane::Airfields => "Fields",
+            Pane::Fleet => "Fleet",
+            Pane::Reports => "Reps",
+        }
+    }
+
+    /// Terminals narrower than this show the short tab names.
+    pub const SHORT_BELOW: u16 = 72;
+
+    /// The tab's name at this terminal width.
+    pub const fn tab_title(self, width: u16) -> &'static str {
+        if width < Pane::SHORT_BELOW {
+            self.short_title()
+        } else {
+            self.title()
         }
     }
 
@@ -152,7 +178,7 @@ pub enum Mode {
     Sign(Box<super::signoff::SignForm>),
     /// The what-if panel of a leg (`e`).
     Replan(Box<super::replan::ReplanUi>),
-    /// A save met a legs file changed on disk: keep theirs or overwrite.
+    /// A save met a legs file changed on disk: keep theirs or apply ours onto theirs.
     Conflict,
     /// Quit asked with changes pending.
     ConfirmQuit,
@@ -337,6 +363,8 @@ pub struct App {
     pub size: (u16, u16),
     /// Set when the board should end.
     pub quit: bool,
+    /// The user interrupted (Ctrl-C, SIGINT): the board exits 130, not 0.
+    pub interrupted: bool,
     /// Hand-entered reports (kept across a replay step back).
     manual: Vec<Report>,
     /// Visible legs: indices into `assessment.legs`, filtered and sorted.
@@ -422,6 +450,7 @@ impl App {
             settings,
             size: (80, 24),
             quit: false,
+            interrupted: false,
             manual: Vec::new(),
             rows: Vec::new(),
             last_refresh: clock,
@@ -619,6 +648,10 @@ impl App {
                 }
             }
             Msg::Quit => self.quit = true,
+            Msg::Interrupt => {
+                self.interrupted = true;
+                self.quit = true;
+            }
             Msg::Done(done) => {
                 self.dirty = true;
                 match done {
@@ -1023,6 +1056,9 @@ impl App {
 
     fn on_key(&mut self, key: KeyEvent) {
         if is_ctrl_c(&key) {
+            // An interrupt, even when it first asks about pending changes: a quit
+            // that follows it exits 130.
+            self.interrupted = true;
             self.ask_quit();
             return;
         }
@@ -1079,13 +1115,19 @@ impl App {
 
     /// A key on the open form (the report by hand, the runway state).
     fn form_key(&mut self, key: KeyEvent) {
-        let (values, focus) = match &mut self.ui.mode {
-            Mode::Form(f) => (&mut f.values[..], &mut f.focus),
-            Mode::Runway(f) => (&mut f.values[..], &mut f.focus),
+        let (values, focus, errors) = match &mut self.ui.mode {
+            Mode::Form(f) => (&mut f.values[..], &mut f.focus, &mut f.errors),
+            Mode::Runway(f) => (&mut f.values[..], &mut f.focus, &mut f.errors),
             _ => return,
         };
+        let at = *focus;
+        let before = values.get(at).cloned();
         match field_key(values, focus, &key) {
-            FieldKey::Edited => {}
+            FieldKey::Edited => {
+                if values.get(at) != before.as_ref() {
+                    super::form::clear_stale(errors, at);
+                }
+            }
             FieldKey::Cancel => self.ui.mode = Mode::Normal,
             FieldKey::Submit => match std::mem::replace(&mut self.ui.mode, Mode::Normal) {
                 Mode::Form(f) => self.submit_report(f),
@@ -1370,7 +1412,7 @@ impl App {
             // Tabs are laid out as " Name " segments separated by "│".
             let mut x = layout.tabs.x;
             for p in Pane::ALL {
-                let w = p.title().len() as u16 + 3;
+                let w = p.tab_title(layout.tabs.width).len() as u16 + 3;
                 if col >= x && col < x + w {
                     self.ui.pane = p;
                     self.ui.detail_open = false;

@@ -105,10 +105,16 @@ pub fn lines(
         .as_ref()
         .map_or("—".to_string(), |l| format!("{} ({})", l.check, l.margin));
     let show = Show::of(ops);
-    out.push(plain(format!(
-        "Limiting: {limiting}   Headroom: {}",
-        headroom_words(r, show)
-    )));
+    // One line where both fit; else each on its own, so "Headroom:" never ends a
+    // line without its value (finding 27).
+    let limiting = format!("Limiting: {limiting}");
+    let headroom = format!("Headroom: {}", headroom_words(r, show));
+    if super::fit::width(&limiting) + 3 + super::fit::width(&headroom) <= usize::from(width) {
+        out.push(plain(format!("{limiting}   {headroom}")));
+    } else {
+        out.push(plain(limiting));
+        out.push(plain(headroom));
+    }
     let unit = ops.operator.display_units.mass;
     out.push(plain(format!(
         "Mass: takeoff {}, landing {}{}",
@@ -223,7 +229,8 @@ fn mass_balance(
         ));
         for row in &mb.rows {
             let over = row.max_mass_kg.is_some_and(|m| row.mass_kg > m + 1e-6);
-            let name: String = row.name.chars().take(28).collect();
+            // Whole words and "…", never cut inside a word (finding 20).
+            let name = super::fit::words(&row.name, 28).into_owned();
             let text = format!(
                 "  {:<28} {:>8} {:>9} {:>11} {:>7}{}",
                 name,

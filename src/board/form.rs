@@ -112,6 +112,12 @@ pub fn field_key(values: &mut [String], focus: &mut usize, key: &KeyEvent) -> Fi
     FieldKey::Edited
 }
 
+/// After field `i` was edited: its error, and the errors tied to no field, are stale
+/// and go (the others stay until the next submit).
+pub fn clear_stale(errors: &mut Vec<(Option<usize>, String)>, i: usize) {
+    errors.retain(|(f, _)| f.is_some_and(|f| f != i));
+}
+
 /// The error beside field `i` among a form's `errors`, if any.
 pub fn error_at(errors: &[(Option<usize>, String)], i: usize) -> Option<&str> {
     errors
@@ -129,6 +135,9 @@ pub struct Form {
     pub focus: usize,
     /// Problems from the last submit: (field index if known, message).
     pub errors: Vec<(Option<usize>, String)>,
+    /// A time after the board's clock the user was warned about: a second Enter with
+    /// the same time adds the report (it counts from then on).
+    pub future_warned: Option<DateTime<Utc>>,
 }
 
 impl Form {
@@ -171,6 +180,23 @@ impl Form {
             self.errors.push((
                 Some(1),
                 format!("'{}': expected HHMM in UTC, e.g. 1320", v[1].trim()),
+            ));
+        }
+        if let Some(at) = observed_at
+            && at > clock
+            && self.future_warned != Some(at)
+        {
+            self.future_warned = Some(at);
+            self.errors.push((
+                Some(1),
+                format!(
+                    "{} is {} min after the board's clock ({}): Enter again to add it anyway (it counts from {} on), or correct the time",
+                    at.format("%H%MZ"),
+                    // Whole minutes, rounded up: 9 min 20 s ahead says 10.
+                    ((at - clock).num_seconds() + 59) / 60,
+                    clock.format("%H%MZ"),
+                    at.format("%H%MZ")
+                ),
             ));
         }
         let wind_reference = match v[3].trim().to_ascii_lowercase().as_str() {

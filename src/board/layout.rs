@@ -7,8 +7,14 @@ use super::app::{App, Pane};
 
 /// The smallest terminal the board is laid out for.
 pub const MIN_SIZE: (u16, u16) = (60, 20);
+/// The Legs pane's width that shows every column (the category and the forecast
+/// too): beside the detail it is never narrower, so a wider terminal never shows
+/// fewer columns than a narrower one without the detail (finding 22).
+pub const LEGS_FULL_W: u16 = 104;
+/// The detail's least width beside the legs.
+pub const DETAIL_MIN_W: u16 = 56;
 /// From this width the detail stands beside the legs.
-pub const WIDE_FROM: u16 = 140;
+pub const WIDE_FROM: u16 = LEGS_FULL_W + DETAIL_MIN_W;
 
 /// What the layout depends on besides the size.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -85,9 +91,11 @@ impl BoardLayout {
         let (main, detail) = if s.detail_open && (s.pairing || !wide) {
             (body, Some(body))
         } else if wide && s.pane == Pane::Legs {
-            let detail_w = (area.width * 2 / 5).max(60);
+            let detail_w = (area.width * 2 / 5)
+                .min(area.width - LEGS_FULL_W)
+                .max(DETAIL_MIN_W);
             let [legs, detail] = body.layout(&Layout::horizontal([
-                Constraint::Min(70),
+                Constraint::Min(LEGS_FULL_W),
                 Constraint::Length(detail_w),
             ]));
             (legs, Some(detail))

@@ -115,7 +115,7 @@ pub fn hint(mode: &Mode) -> String {
             Ask::Pick { .. } => "↑↓ choose · Enter applies · Esc back".into(),
             Ask::Type { .. } => "type · Enter applies · Esc back".into(),
         },
-        Mode::Conflict => "t keep theirs · o overwrite with ours · Esc decide later".into(),
+        Mode::Conflict => "t keep theirs · o our changes onto theirs · Esc decide later".into(),
         Mode::ConfirmQuit => "y quit and drop the changes · w write · any other key stays".into(),
         _ => String::new(),
     }
@@ -393,7 +393,8 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
         .get(ui.slot)
         .map_or("—".to_string(), |s| s.leg.id.clone());
     let mut lines: Vec<Line<'static>> = vec![Line::from(format!(
-        "as planned: {}",
+        "{}: {}",
+        app.slot_heading(ui.slot),
         app.slot_words(ui.slot)
     ))];
     match app.compared(ui.slot) {
@@ -519,14 +520,14 @@ pub fn conflict(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         lines.push(Line::styled(id.clone(), t.heading()));
         lines.push(Line::from(format!("  as loaded:  {loaded}")));
         lines.push(Line::from(format!("  theirs now: {theirs}")));
-        lines.push(Line::from(format!("  ours:       {ours}")));
+        lines.push(Line::from(format!("  with o:     {ours}")));
     }
     lines.push(Line::default());
     lines.push(Line::from(vec![
         Span::styled("t", t.heading()),
         Span::raw(" keep theirs (reload the file, drop our changes) · "),
         Span::styled("o", t.heading()),
-        Span::raw(" overwrite with ours (theirs kept as the backup) · "),
+        Span::raw(" apply our changes onto theirs (a field both changed stops it; theirs kept as the backup) · "),
         Span::styled("Esc", t.heading()),
         Span::raw(" decide later"),
     ]));

@@ -146,6 +146,9 @@ pub struct Plan {
     pub conflict: Option<Conflict>,
     /// Quitting was asked with changes pending.
     pub confirm_quit: bool,
+    /// Per relative path: our changes merged onto the version found on disk (`o` at a
+    /// conflict), written instead of our legs for that file.
+    pub merged: HashMap<String, Vec<Leg>>,
 }
 
 impl Plan {
@@ -560,6 +563,16 @@ impl App {
     /// The legs of every file, as planned, in the operator's order (copies after their
     /// source, cancelled legs left out).
     fn planned_files(&self) -> Vec<(String, Vec<Leg>)> {
+        let mut files = self.planned_from_board();
+        for (rel, legs) in files.iter_mut() {
+            if let Some(m) = self.plan.merged.get(rel) {
+                legs.clone_from(m);
+            }
+        }
+        files
+    }
+
+    fn planned_from_board(&self) -> Vec<(String, Vec<Leg>)> {
         let mut files: Vec<(String, Vec<Leg>)> = Vec::new();
         for (i, (rel, _)) in self.ops.leg_files.iter().enumerate() {
             let k = match files.iter().position(|(r, _)| r == rel) {
@@ -610,6 +623,7 @@ impl App {
         self.ops.leg_files = leg_files;
         self.plan.steps.clear();
         self.plan.conflict = None;
+        self.plan.merged.clear();
         self.reassess_all();
         self.replan();
     }
@@ -682,13 +696,17 @@ impl App {
                         f.text = serde_json::to_string_pretty(&file).unwrap_or_default() + "\n";
                         f.hash = hash;
                     }
-                    self.notice(
-                        NoteKind::Info,
-                        format!(
-                            "saved {rel} (previous version kept as {})",
-                            backup.display()
-                        ),
-                    );
+                    // The backup named relative to the operator folder, so the
+                    // note fits a line (finding 21).
+                    let backup = self
+                        .plan
+                        .dir
+                        .as_deref()
+                        .and_then(|d| backup.strip_prefix(d).ok())
+                        .unwrap_or(&backup)
+                        .display()
+                        .to_string();
+                    self.notice(NoteKind::Info, format!("saved {rel} (backup: {backup})"));
                 }
                 SaveOutcome::Unchanged => {
                     self.notice(
@@ -702,7 +720,7 @@ impl App {
                     self.notice(
                         NoteKind::Error,
                         format!(
-                            "{rel} changed on disk since it was loaded: nothing written; choose t (keep theirs) or o (overwrite with ours)"
+                            "{rel} changed on disk since it was loaded: nothing written; choose t (keep theirs) or o (our changes onto theirs)"
                         ),
                     );
                     self.plan.conflict = Some(Conflict { rel, on_disk, legs });
@@ -729,12 +747,17 @@ impl App {
             .files
             .get(rel)
             .and_then(|f| serde_json::from_str(&f.text).ok());
-        let ours = self
-            .planned_files()
-            .into_iter()
-            .find(|(r, _)| r == rel)
-            .map(|(_, l)| l)
-            .unwrap_or_default();
+        // "Ours" is what `o` would write: our changes onto theirs, where they merge.
+        let merged = theirs
+            .as_ref()
+            .and_then(|th| self.merge_onto(rel, &th.legs).ok());
+        let ours = merged.unwrap_or_else(|| {
+            self.planned_files()
+                .into_iter()
+                .find(|(r, _)| r == rel)
+                .map(|(_, l)| l)
+                .unwrap_or_default()
+        });
         let show = Show::of(&self.ops);
         let find = |ls: Option<&Vec<Leg>>, id: &str| {
             ls.and_then(|ls| ls.iter().find(|l| l.id == id))
@@ -767,7 +790,7 @@ impl App {
             .collect()
     }
 
-    /// Keys while a conflict is shown: `t` keeps theirs, `o` overwrites with ours.
+    /// Keys while a conflict is shown: `t` keeps theirs, `o` applies our changes onto theirs.
     pub(super) fn conflict_key(&mut self, key: KeyEvent) {
         let Some(c) = self.plan.conflict.clone() else {
             self.ui.mode = Mode::Normal;
@@ -810,15 +833,37 @@ impl App {
                     Err(e) => self.notice(
                         NoteKind::Error,
                         format!(
-                            "{}: their version does not read as a legs file ({e}); only o (overwrite) or Esc",
+                            "{}: their version does not read as a legs file ({e}); only o (write ours whole) or Esc",
                             c.rel
                         ),
                     ),
                 }
             }
             KeyCode::Char('o') => {
+                // Our changes, field by field, onto their version: what only they
+                // changed stays theirs; a field both changed differently is a real
+                // conflict and nothing is written. A file of theirs that does not read
+                // as a legs file cannot be merged: ours is written whole.
+                if let Ok(theirs) = serde_json::from_str::<LegsFile>(&c.on_disk) {
+                    match self.merge_onto(&c.rel, &theirs.legs) {
+                        Ok(legs) => {
+                            self.plan.merged.insert(c.rel.clone(), legs);
+                        }
+                        Err(clashes) => {
+                            self.notice(
+                                NoteKind::Error,
+                                format!(
+                                    "{}: both changed {}: nothing written; t keeps theirs, Esc decides later",
+                                    c.rel,
+                                    clashes.join("; ")
+                                ),
+                            );
+                            return;
+                        }
+                    }
+                }
                 if let Some(lf) = self.plan.files.get_mut(&c.rel) {
-                    // Ours over theirs, against the hash of what is there now.
+                    // Against the hash of what is there now.
                     lf.hash = content_hash(&c.on_disk);
                     lf.text = c.on_disk.clone();
                 }
@@ -834,6 +879,78 @@ impl App {
                 );
             }
             _ => {}
+        }
+    }
+
+    /// Our pending changes to the legs of `rel` applied onto `theirs` (the file's legs
+    /// on disk now), in their order; our copies follow their source and our cancelled
+    /// legs are left out. `Err` lists each field both sides changed differently
+    /// ("L16 aircraft: theirs X-UTLA, ours X-UTLC"), and legs we changed that they removed.
+    fn merge_onto(&self, rel: &str, theirs: &[Leg]) -> Result<Vec<Leg>, Vec<String>> {
+        use serde_json::to_value;
+        let mut clashes = Vec::new();
+        let in_file = |o: usize| self.ops.leg_files.get(o).is_some_and(|(r, _)| r == rel);
+        let mut out: Vec<Leg> = Vec::new();
+        let mut ours_placed: Vec<usize> = Vec::new();
+        for t in theirs {
+            let base =
+                (0..self.ops.legs.len()).find(|&o| in_file(o) && self.ops.legs[o].id == t.id);
+            let Some(o) = base else {
+                // A leg only they added.
+                out.push(t.clone());
+                continue;
+            };
+            ours_placed.push(o);
+            let slot = &self.plan.slots[o];
+            let b = &self.ops.legs[o];
+            if !slot.cancelled {
+                if slot.leg == *b {
+                    out.push(t.clone());
+                } else {
+                    let (bv, tv, ov) = (to_value(b), to_value(t), to_value(&slot.leg));
+                    let (Ok(bv), Ok(tv), Ok(ov)) = (bv, tv, ov) else {
+                        clashes.push(format!("{} (cannot compare)", t.id));
+                        continue;
+                    };
+                    let mut here = Vec::new();
+                    let merged = merge_value(&bv, &tv, &ov, &t.id, &mut here);
+                    match serde_json::from_value::<Leg>(merged) {
+                        Ok(l) if here.is_empty() => out.push(l),
+                        Ok(_) => clashes.extend(here),
+                        Err(e) => clashes.push(format!("{}: the merge does not read ({e})", t.id)),
+                    }
+                }
+            } else if *t != *b {
+                clashes.push(format!("{} (we cancel it, they changed it)", t.id));
+            }
+            // Our copies of this leg, after it (made from ours as planned).
+            out.extend(
+                self.plan
+                    .slots
+                    .iter()
+                    .filter(|s| s.origin == Origin::CopyOf(o) && !s.cancelled)
+                    .map(|s| s.leg.clone()),
+            );
+        }
+        // Legs they removed: gone, unless we changed or copied them.
+        for o in (0..self.ops.legs.len()).filter(|&o| in_file(o) && !ours_placed.contains(&o)) {
+            let copied = self
+                .plan
+                .slots
+                .iter()
+                .any(|s| s.origin == Origin::CopyOf(o) && !s.cancelled);
+            if self.slot_changed(o) || copied {
+                clashes.push(format!(
+                    "{} (they removed it, we {} it)",
+                    self.ops.legs[o].id,
+                    if copied { "copied" } else { "changed" }
+                ));
+            }
+        }
+        if clashes.is_empty() {
+            Ok(out)
+        } else {
+            Err(clashes)
         }
     }
 
@@ -863,8 +980,11 @@ impl App {
         self.ui.mode = Mode::Normal;
         match key.code {
             KeyCode::Char('y') | KeyCode::Char('Y') => self.quit = true,
-            KeyCode::Char('w') => self.plan_write(),
-            _ => {}
+            KeyCode::Char('w') => {
+                self.interrupted = false;
+                self.plan_write();
+            }
+            _ => self.interrupted = false,
         }
     }
 
@@ -999,25 +1119,37 @@ impl App {
             if c.state == State::Below {
                 continue;
             }
-            let margin = if c.margin_percent.is_finite() {
-                c.margin_percent
+            // Best first by margin ÷ buffer, which compares %, kt and ft; the label
+            // gives the margin with its unit and what it is a margin of.
+            let score = if c.score.is_finite() {
+                c.score
             } else {
                 f64::NEG_INFINITY
             };
+            let margin = if c.margin_percent.is_finite() {
+                let unit = c.limiting.margin_unit();
+                let sep = if unit == "%" || unit.is_empty() {
+                    ""
+                } else {
+                    " "
+                };
+                format!(
+                    "{:+.0}{sep}{unit} {}",
+                    c.margin_percent,
+                    super::view::limit_word(c.limiting)
+                )
+            } else {
+                "—".into()
+            };
             options.push((
                 c.state,
-                margin,
+                score,
                 format!(
-                    "{:<8} {:<12} {} {:<8} {} at {}",
+                    "{:<8} {:<12} {} {:<8} {margin} at {}",
                     ac.registration,
                     ac.type_id,
                     c.state.glyph(),
                     c.state.word(),
-                    if margin.is_finite() {
-                        format!("{margin:+.0}")
-                    } else {
-                        "—".into()
-                    },
                     leg.from
                 ),
                 Step::Edit(Edit::Aircraft(ac.registration.clone())),
@@ -1168,11 +1300,26 @@ impl App {
         self.plan.compared.iter().find(|c| c.slot == slot)
     }
 
-    /// The leg in a slot as planned, in words.
+    /// The leg in a slot as the operator planned it (before any pending change), in
+    /// words; a copy, which has no such leg, as it stands now.
     pub fn slot_words(&self, slot: usize) -> String {
+        let show = Show::of(&self.ops);
         self.plan.slots.get(slot).map_or("—".to_string(), |s| {
-            leg_words(&s.leg, Show::of(&self.ops))
+            let leg = match s.origin {
+                Origin::Original(o) => self.ops.legs.get(o).unwrap_or(&s.leg),
+                Origin::CopyOf(_) => &s.leg,
+            };
+            leg_words(leg, show)
         })
+    }
+
+    /// The heading word of [`App::slot_words`]: "as planned" for the operator's leg,
+    /// "new leg" for a copy.
+    pub fn slot_heading(&self, slot: usize) -> &'static str {
+        match self.plan.slots.get(slot).map(|s| s.origin) {
+            Some(Origin::CopyOf(_)) => "new leg",
+            _ => "as planned",
+        }
     }
 }
 
@@ -1183,4 +1330,52 @@ fn copy_id(slots: &[Slot], id: &str) -> String {
         .map(|n| format!("{base}-{n}"))
         .find(|c| !slots.iter().any(|s| &s.leg.id == c))
         .unwrap_or_else(|| format!("{base}-copy"))
+}
+
+/// A three-way merge of one JSON value: base `b`, theirs `t`, ours `o`. What one side
+/// left as it was takes the other's; objects merge key by key; anything else both
+/// changed differently is a clash, named by its path in `clashes`.
+fn merge_value(
+    b: &serde_json::Value,
+    t: &serde_json::Value,
+    o: &serde_json::Value,
+    path: &str,
+    clashes: &mut Vec<String>,
+) -> serde_json::Value {
+    use serde_json::Value;
+    if o == b || o == t {
+        return t.clone();
+    }
+    if t == b {
+        return o.clone();
+    }
+    if let (Value::Object(bm), Value::Object(tm), Value::Object(om)) = (b, t, o) {
+        let keys: Vec<&String> = tm.keys().chain(om.keys()).chain(bm.keys()).collect();
+        let mut out = serde_json::Map::new();
+        let mut seen = std::collections::HashSet::new();
+        for k in keys {
+            if !seen.insert(k) {
+                continue;
+            }
+            let get = |m: &serde_json::Map<String, Value>| m.get(k).cloned().unwrap_or(Value::Null);
+            let v = merge_value(
+                &get(bm),
+                &get(tm),
+                &get(om),
+                &format!("{path} {k}"),
+                clashes,
+            );
+            if !v.is_null() {
+                out.insert(k.clone(), v);
+            }
+        }
+        return Value::Object(out);
+    }
+    let show = |v: &Value| match v {
+        Value::Null => "(none)".to_string(),
+        Value::String(s) => s.clone(),
+        other => other.to_string(),
+    };
+    clashes.push(format!("{path}: theirs {}, ours {}", show(t), show(o)));
+    t.clone()
 }

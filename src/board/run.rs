@@ -1,6 +1,6 @@
 //! The event loop: std threads and one `mpsc` channel. An input thread forwards key
 //! presses, clicks and resizes; feed threads send reports; a signal thread turns
-//! SIGINT/SIGTERM/SIGHUP into `Msg::Quit`. The main loop waits with `recv_timeout`,
+//! SIGTERM/SIGHUP into `Msg::Quit` and SIGINT into `Msg::Interrupt`. The main loop waits with `recv_timeout`,
 //! drains what is pending, updates, then draws once — and only when something changed.
 
 use std::io::Write;
@@ -79,16 +79,33 @@ fn spawn_signals(tx: Sender<Msg>) -> anyhow::Result<()> {
     thread::Builder::new()
         .name("rhoboard-signals".into())
         .spawn(move || {
-            if signals.forever().next().is_some() {
-                let _ = tx.send(Msg::Quit);
+            if let Some(sig) = signals.forever().next() {
+                let _ = tx.send(if sig == SIGINT {
+                    Msg::Interrupt
+                } else {
+                    Msg::Quit
+                });
             }
         })?;
     Ok(())
 }
 
+/// The exit status of a board the user interrupted (Ctrl-C, SIGINT): 128 + SIGINT's 2,
+/// as a shell reports a command a SIGINT ended.
+pub const INTERRUPTED_EXIT: u8 = 130;
+
+/// How the board ended.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Ending {
+    /// `q`, SIGTERM, SIGHUP, the terminal gone: exit 0.
+    Quit,
+    /// Ctrl-C or SIGINT: exit [`INTERRUPTED_EXIT`].
+    Interrupted,
+}
+
 /// Runs the board until the user quits or a signal arrives; the terminal is restored
 /// on every way out (ratatui's panic hook covers panics).
-pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<()> {
+pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<Ending> {
     let (tx, rx) = mpsc::channel::<Msg>();
     spawn_signals(tx.clone())?;
     // Our hook goes in first: ratatui's restores the terminal, then calls this one.
@@ -156,5 +173,10 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<()> {
     })();
     let _ = execute!(std::io::stdout(), DisableMouseCapture);
     ratatui::restore();
-    result
+    result?;
+    Ok(if app.interrupted {
+        Ending::Interrupted
+    } else {
+        Ending::Quit
+    })
 }

@@ -51,7 +51,9 @@ impl Widget for &App {
             return;
         }
         header(self, layout.header, buf, t);
-        tabs(self, layout.tabs, buf, t);
+        let legs_rows = (self.ui.pane == Pane::Legs && !layout.detail_replaces_main())
+            .then(|| usize::from(layout.main.height.saturating_sub(1)));
+        tabs(self, layout.tabs, legs_rows, buf, t);
         if !layout.detail_replaces_main() {
             match self.ui.pane {
                 Pane::Legs => legs(self, layout.main, buf, t),
@@ -148,14 +150,25 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         }
         spans
     };
+    // A report from another day than the board's says its date (finding 11: an
+    // `init` folder's reports of 2026-06-14 looked like today's).
     let newest = |time: bool| match app.newest_report() {
-        Some(r) if time => format!(
-            "newest {} {}",
-            r.station,
-            r.observed_at
-                .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
-        ),
-        Some(r) => format!("newest {}", r.station),
+        Some(r) => {
+            let other_day = r
+                .observed_at
+                .filter(|t| t.date_naive() != app.clock.date_naive());
+            match (time, other_day) {
+                (true, Some(t)) => format!("newest {} {}", r.station, t.format("%Y-%m-%d %H%MZ")),
+                (true, None) => format!(
+                    "newest {} {}",
+                    r.station,
+                    r.observed_at
+                        .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
+                ),
+                (false, Some(t)) => format!("newest {} {}", r.station, t.format("%-d %b")),
+                (false, None) => format!("newest {}", r.station),
+            }
+        }
         None => "no reports yet".to_string(),
     };
     let bar = || Span::styled(" │ ", t.frame());
@@ -195,33 +208,97 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     fit::first_line(candidates, usize::from(area.width)).render(area, buf);
 }
 
-fn tabs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
+/// Which rows of `total` show in `height` lines with the cursor on `cursor`, when some
+/// are hidden: "14 of 16 ↓", "↑ 3–16 of 16", "↑ 3–12 of 16 ↓".
+pub fn rows_shown(cursor: usize, height: usize, total: usize) -> Option<String> {
+    if height == 0 || total <= height {
+        return None;
+    }
+    let first = scroll_offset(cursor, height);
+    let last = (first + height).min(total);
+    let below = if last < total { " ↓" } else { "" };
+    Some(if first == 0 {
+        format!("{last} of {total}{below}")
+    } else {
+        format!("↑ {}–{last} of {total}{below}", first + 1)
+    })
+}
+
+/// The tab line: the panes, and on the right what the Legs pane is showing — which
+/// rows when some are hidden (`legs_rows`: its height in rows), a kept filter, the
+/// sort — fullest first; the filter is dropped last and is cut with "…" rather than
+/// left out.
+fn tabs(app: &App, area: Rect, legs_rows: Option<usize>, buf: &mut Buffer, t: Theme) {
     let mut spans: Vec<Span> = Vec::new();
     for (i, p) in Pane::ALL.iter().enumerate() {
         if i > 0 {
             spans.push(Span::styled("│", t.frame()));
         }
-        let text = format!(" {} ", p.title());
+        let text = format!(" {} ", p.tab_title(area.width));
         if *p == app.ui.pane {
             spans.push(Span::styled(text, t.selected()));
         } else {
             spans.push(Span::raw(text));
         }
     }
+    let used = Line::from(spans.clone()).width();
     Line::from(spans).render(area, buf);
+    let room = usize::from(area.width).saturating_sub(used + 1);
     let right = match app.ui.mode {
-        Mode::Filter => format!("filter: {}▏ Enter keeps, Esc clears ", app.ui.filter),
-        _ if !app.ui.filter.is_empty() => format!(
-            "sort: {} · filter: {} ({} of {}) ",
-            app.ui.sort.word(),
-            app.ui.filter,
-            app.rows().len(),
-            app.assessment.legs.len()
-        ),
-        _ => format!("sort: {} ", app.ui.sort.word()),
+        Mode::Filter => fit::words(
+            &format!("filter: {}▏ Enter keeps, Esc clears ", app.ui.filter),
+            room,
+        )
+        .into_owned(),
+        _ => {
+            let pos = legs_rows.and_then(|h| rows_shown(app.ui.leg_row, h, app.rows().len()));
+            let sort = format!("sort: {}", app.ui.sort.word());
+            let mut candidates: Vec<String> = Vec::new();
+            let join = |parts: &[Option<String>]| {
+                parts
+                    .iter()
+                    .flatten()
+                    .cloned()
+                    .collect::<Vec<_>>()
+                    .join(" · ")
+                    + " "
+            };
+            if app.ui.filter.is_empty() {
+                candidates.push(join(&[pos.clone(), Some(sort)]));
+                candidates.push(join(std::slice::from_ref(&pos)));
+            } else {
+                let f = &app.ui.filter;
+                let counted = format!(
+                    "filter: {f} ({} of {})",
+                    app.rows().len(),
+                    app.assessment.legs.len()
+                );
+                candidates.push(join(&[pos.clone(), Some(counted.clone()), Some(sort)]));
+                candidates.push(join(&[pos.clone(), Some(counted.clone())]));
+                candidates.push(join(&[pos.clone(), Some(format!("filter: {f}"))]));
+                candidates.push(join(&[pos.clone(), Some(format!("/{f}"))]));
+                candidates.push(join(&[Some(format!("/{f}"))]));
+            }
+            match candidates.iter().find(|c| fit::width(c) <= room) {
+                Some(c) => c.clone(),
+                // Even the sparest is too wide: the filter, cut.
+                None if !app.ui.filter.is_empty() => {
+                    let f = format!("/{}", app.ui.filter);
+                    let w = room.saturating_sub(1);
+                    let mut cut: String = String::new();
+                    for ch in f.chars() {
+                        if fit::width(&cut) + fit::width(&ch.to_string()) + 1 > w {
+                            break;
+                        }
+                        cut.push(ch);
+                    }
+                    format!("{cut}… ")
+                }
+                None => String::new(),
+            }
+        }
     };
-    let w = right.chars().count() as u16;
-    if area.width > 50 + w {
+    if !right.trim().is_empty() && fit::width(&right) <= room {
         Line::styled(right, t.dim())
             .right_aligned()
             .render(area, buf);
@@ -426,7 +503,7 @@ fn cell_text(c: &PairCell) -> String {
     }
 }
 
-fn limit_word(l: PairLimit) -> &'static str {
+pub(super) fn limit_word(l: PairLimit) -> &'static str {
     match l {
         PairLimit::None => "nothing",
         PairLimit::Takeoff => "takeoff distance",
@@ -826,11 +903,12 @@ fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             .render(inner, buf);
         return;
     }
-    let lines: Vec<Line> = app
+    let mut lines: Vec<Line> = app
         .notes
         .iter()
         .take(usize::from(inner.height))
-        .map(|n| {
+        .enumerate()
+        .map(|(i, n)| {
             let style = match n.kind {
                 NoteKind::Change(s) => t.state(s),
                 NoteKind::Error => t.error(),
@@ -840,17 +918,38 @@ fn changes(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                 NoteKind::Error => "error: ",
                 _ => "",
             };
-            // Too long for the line: whole words and `…` (the values stay whole).
+            // Too long for the line: the newest note, where the pane has a second
+            // line, wraps onto it (a file name stays whole); the others keep whole
+            // words and `…` (the values stay whole).
             let room = usize::from(inner.width).saturating_sub(6);
+            let text = format!("{tag}{}", n.text);
+            let text = if i == 0 && inner.height >= 2 {
+                text
+            } else {
+                fit::words(&text, room).into_owned()
+            };
             Line::from(vec![
                 Span::styled(format!("{} ", n.at.format("%H%MZ")), t.dim()),
-                Span::styled(
-                    fit::words(&format!("{tag}{}", n.text), room).into_owned(),
-                    style,
-                ),
+                Span::styled(text, style),
             ])
         })
         .collect();
+    if let Some(first) = lines.first().cloned() {
+        let w = usize::from(inner.width);
+        let wrapped = fit::wrap(first.clone(), w, Some(6));
+        if wrapped.len() == 2 {
+            lines.splice(0..1, wrapped);
+        } else if wrapped.len() > 2 {
+            // Longer than two lines: one, whole words and `…`.
+            let mut spans = first.spans;
+            if let Some(last) = spans.last_mut() {
+                last.content = fit::words(&last.content, w.saturating_sub(6))
+                    .into_owned()
+                    .into();
+            }
+            lines[0] = Line::from(spans);
+        }
+    }
     Paragraph::new(lines).render(inner, buf);
 }
 

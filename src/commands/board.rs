@@ -160,6 +160,9 @@ pub fn run(args: &Args) -> anyhow::Result<Outcome> {
             "the board needs a terminal; for text or JSON use `rhoboard check` (with --json)"
         );
     }
-    crate::board::run(app, feeds)?;
+    if crate::board::run(app, feeds)? == crate::board::run::Ending::Interrupted {
+        // The terminal is given back; a user interrupt exits 130 (docs/board.md).
+        std::process::exit(i32::from(crate::board::run::INTERRUPTED_EXIT));
+    }
     Ok(Outcome::Success)
 }
