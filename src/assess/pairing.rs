@@ -16,10 +16,10 @@ use serde_json::{Value, json};
 
 use super::leg::LegResult;
 use super::leg::{
-    Context, EndWind, FieldWx, Setup, TableValues, departure_at, landing_with, observation_for,
+    Context, EndWind, FieldWx, Setup, TableValues, departure_at, landing_with, report_for,
 };
 use super::limits::{self, Who};
-use super::model::{EndModel, Model};
+use super::model::{EndModel, Model, SunDay};
 use super::perf;
 use super::state::{State, verdict};
 use crate::atmosphere::{WarmAir, Warming};
@@ -195,7 +195,8 @@ struct FieldPrep<'a> {
 struct Scratch {
     winds: Vec<EndWind>,
     usable: Vec<bool>,
-    limits: Vec<limits::LimitCheck>,
+    /// The fields' daylight on the reference date.
+    sun: Option<std::sync::Arc<SunDay>>,
 }
 
 fn cat_index(c: Category) -> usize {
@@ -218,7 +219,7 @@ impl<'a> FieldPrep<'a> {
         let model = ctx.model;
         let field = &ops.airfields[fi];
         let ends = model.field_ends(fi);
-        let found = observation_for(ctx.store, &field.id, ctx.at, ctx.at, model.stale_after_min);
+        let found = report_for(ctx.store, &field.id, ctx.at, ctx.at, model.stale_after_min);
         let wx = found
             .as_ref()
             .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
@@ -247,7 +248,13 @@ impl<'a> FieldPrep<'a> {
         });
         let mut weather = [(State::NoData, f64::NAN); 4];
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
-            let sun = limits::sun(field, ctx.at);
+            let date = ctx.at.date_naive();
+            let day = match scratch.sun.take() {
+                Some(d) if d.date() == date => d,
+                _ => model.sun_on(date),
+            };
+            let sun = day.field(fi);
+            scratch.sun = Some(day);
             for c in Category::ALL {
                 if !categories[cat_index(c)] {
                     continue;
@@ -262,28 +269,18 @@ impl<'a> FieldPrep<'a> {
                     regime: ops.operator.regime,
                     buffers: &ops.operator.policy.buffers,
                 };
-                let lim = &mut scratch.limits;
-                lim.clear();
-                limits::field_limits(
+                // Only the verdict: no source or note is written.
+                let mut w = limits::Weather::default();
+                limits::field_limits_to(
                     &who,
                     report,
                     wx.air.density_altitude_ft,
                     &sun,
                     ctx.at,
                     true,
-                    lim,
+                    &mut w,
                 );
-                let mut st = (State::Within, f64::INFINITY);
-                for l in lim
-                    .iter()
-                    .filter(|l| l.kind != limits::LimitKind::DensityAltitude)
-                {
-                    let s = l.score();
-                    if l.state > st.0 || (l.state == st.0 && s < st.1) {
-                        st = (l.state, s);
-                    }
-                }
-                weather[cat_index(c)] = st;
+                weather[cat_index(c)] = (w.state, w.score);
             }
         }
         FieldPrep {
@@ -1075,7 +1072,7 @@ mod tests {
             evaluate_reference(&setup, b, &field.ends[k], air, tv, &field.winds[k])
         };
         let tv0 = table_values(&setup, &wx.air);
-        let weather = field.weather[cat_index(ap.category)];
+        let weather = weather_reference(ctx, fi, ap.category);
         let now = eval(in_use, &wx.air, &tv0);
         let mut best = now.state;
         for k in 0..field.ends.len() {
@@ -1114,6 +1111,58 @@ mod tests {
         }
     }
 
+    /// A field's weather verdict for a category the old way: the report, the field's
+    /// daylight computed afresh for the reference date, every field limit with its
+    /// texts, then the worst of them but density altitude.
+    fn weather_reference(ctx: &Context<'_>, fi: usize, category: Category) -> (State, f64) {
+        let ops = ctx.ops;
+        let field = &ops.airfields[fi];
+        let found = crate::assess::leg::observation_for(
+            ctx.store,
+            &field.id,
+            ctx.at,
+            ctx.at,
+            ctx.model.stale_after_min,
+        );
+        let Some((report, _)) = found else {
+            return (State::NoData, f64::NAN);
+        };
+        let (Some(wx), Some(mins)) = (
+            FieldWx::from_report(report, field.elevation_ft),
+            ops.minimums(category),
+        ) else {
+            return (State::NoData, f64::NAN);
+        };
+        let who = Who {
+            category,
+            minimums: mins,
+            pilot: None,
+            regime: ops.operator.regime,
+            buffers: &ops.operator.policy.buffers,
+        };
+        let mut lim = Vec::new();
+        limits::field_limits(
+            &who,
+            report,
+            wx.air.density_altitude_ft,
+            &limits::sun(field, ctx.at),
+            ctx.at,
+            true,
+            &mut lim,
+        );
+        let mut st = (State::Within, f64::INFINITY);
+        for l in lim
+            .iter()
+            .filter(|l| l.kind != limits::LimitKind::DensityAltitude)
+        {
+            let s = l.score();
+            if l.state > st.0 || (l.state == st.0 && s < st.1) {
+                st = (l.state, s);
+            }
+        }
+        st
+    }
+
     fn same(a: &PairCell, b: &PairCell) -> bool {
         a.state == b.state
             && a.score.to_bits() == b.score.to_bits()
@@ -1126,9 +1175,15 @@ mod tests {
 
     fn check_against_reference(ops: &Ops, store: &Store, at: DateTime<Utc>) -> usize {
         let model = Model::new(ops, &DaySettings::default());
+        check_with_model(ops, &model, store, at)
+    }
+
+    /// Every cell of the matrix on `model` (which may have served other dates before)
+    /// against the cell-by-cell reference; returns how many had a headroom.
+    fn check_with_model(ops: &Ops, model: &Model, store: &Store, at: DateTime<Utc>) -> usize {
         let ctx = Context {
             ops,
-            model: &model,
+            model,
             store,
             at,
         };
@@ -1137,6 +1192,14 @@ mod tests {
         for fi in 0..m.fields {
             // Every category's weather, as before only the rows' categories were.
             let field = FieldPrep::new(&ctx, fi, &[true; 4], &mut Scratch::default());
+            for c in Category::ALL {
+                let (got, want) = (field.weather[cat_index(c)], weather_reference(&ctx, fi, c));
+                assert!(
+                    got.0 == want.0 && got.1.to_bits() == want.1.to_bits(),
+                    "{} {c:?} weather: {got:?} vs {want:?}",
+                    ops.airfields[fi].id
+                );
+            }
             for (ai, &a) in m.aircraft.iter().enumerate() {
                 let want = cell_reference(&ctx, &m.prep, &field, a, fi);
                 let got = m.cell(ai, fi);
@@ -1195,6 +1258,72 @@ mod tests {
             let at = Utc.with_ymd_and_hms(2026, 6, 14, h, 0, 0).unwrap();
             check_against_reference(&ops, &store_of(&ops, at), at);
         }
+    }
+
+    /// One report per airfield, observed ten minutes before `at`: light wind, good
+    /// visibility, so that daylight is what a solo departure turns on before sunrise.
+    fn fresh_store(ops: &Ops, at: DateTime<Utc>) -> Store {
+        let observed = at - chrono::Duration::minutes(10);
+        let mut store = Store::default();
+        for f in &ops.airfields {
+            let text = format!(
+                "METAR {} {} 27005KT 9999 FEW040 14/08 Q1016",
+                f.id,
+                observed.format("%d%H%MZ")
+            );
+            for r in decode_all(&text, at) {
+                store.insert(r.report);
+            }
+        }
+        store
+    }
+
+    /// A board runs all day on one model: past midnight UTC the matrix must read the
+    /// new date's daylight, never the old date's kept one. Before sunrise on the 15th
+    /// (about 0440Z at the demo's fields near 40° N, 0° E by the NOAA method) the solo
+    /// categories' departures are refused for daylight; the old date's sunrise would
+    /// let them go. Dates beyond the ones the model keeps, and back, read right too.
+    #[test]
+    fn one_model_reads_each_dates_daylight_across_midnight() {
+        let ops = demo::load().ops.expect("the demo loads");
+        let model = Model::new(&ops, &DaySettings::default());
+        let at = |d: u32, h: u32, m: u32| Utc.with_ymd_and_hms(2026, 6, d, h, m, 0).unwrap();
+        let times = [
+            at(14, 12, 0),
+            at(14, 23, 50),
+            at(15, 4, 0),
+            at(14, 12, 0),
+            at(16, 4, 0),
+            at(17, 4, 0),
+            at(18, 4, 0),
+            at(19, 4, 0),
+            at(15, 4, 0),
+            at(15, 12, 0),
+        ];
+        let mut refused = 0;
+        for t in times {
+            let store = fresh_store(&ops, t);
+            check_with_model(&ops, &model, &store, t);
+            let ctx = Context {
+                ops: &ops,
+                model: &model,
+                store: &store,
+                at: t,
+            };
+            let m = matrix(&ctx);
+            let before_sunrise = m
+                .cells
+                .iter()
+                .filter(|c| c.state == State::Below && c.limiting == PairLimit::Weather)
+                .count();
+            if t.format("%H").to_string() == "04" {
+                assert!(before_sunrise > 0, "no daylight refusal at {t}");
+                refused += before_sunrise;
+            } else {
+                assert_eq!(before_sunrise, 0, "a refusal at {t}");
+            }
+        }
+        assert!(refused > 0);
     }
 
     fn demo_model() -> &'static (Ops, Model) {
