@@ -16,13 +16,15 @@ use serde_json::{Value, json};
 
 use super::leg::LegResult;
 use super::leg::{
-    Context, EndWind, FieldWx, Setup, TableValues, departure_at, landing_with, report_for,
+    Context, EndWind, FieldWx, ReportAge, Setup, TableValues, departure_at, landing_with,
+    report_for,
 };
 use super::limits::{self, Who};
 use super::model::{EndModel, Model, SunDay};
 use super::perf;
 use super::state::{State, verdict};
 use crate::atmosphere::{WarmAir, Warming};
+use crate::observation::Report;
 use crate::ops::operator::Buffers;
 use crate::ops::tables::Slice;
 use crate::ops::{Axis, Category, Cell, Leg, Ops, Performance, Status};
@@ -97,15 +99,20 @@ impl PairCell {
     };
 }
 
-/// The matrix: available aircraft × airfields, aircraft-major.
+/// The matrix: available aircraft × airfields. Rows alike in type, masses and category
+/// (a class) share their cells, so the matrix keeps one cell per class and airfield and
+/// one per row whose leg gives it other masses at an airfield ([`Matrix::cell`]).
 #[derive(Debug, Clone)]
 pub struct Matrix {
     /// Indices into `Ops::aircraft` of the rows.
     pub aircraft: Vec<usize>,
     /// Number of columns (airfields).
     pub fields: usize,
-    /// Cells, `aircraft × fields`.
-    pub cells: Vec<PairCell>,
+    /// One cell per class and airfield, class-major (`class × fields + field`).
+    by_class: Vec<PairCell>,
+    /// The cells of the rows whose legs give them other masses at an airfield,
+    /// parallel to `Prepared::exceptions` (by airfield, then row).
+    exception_cells: Vec<PairCell>,
     /// Per-aircraft data kept for column updates.
     prep: Prepared,
 }
@@ -113,12 +120,23 @@ pub struct Matrix {
 impl Matrix {
     /// The cell of row `ai` (index into `aircraft`) and airfield `fi`.
     pub fn cell(&self, ai: usize, fi: usize) -> &PairCell {
-        &self.cells[ai * self.fields + fi]
+        let p = &self.prep;
+        let (lo, hi) = (p.exception_start[fi], p.exception_start[fi + 1]);
+        match p.exceptions[lo..hi].binary_search_by_key(&ai, |&(_, a)| a) {
+            Ok(k) => &self.exception_cells[lo + k],
+            Err(_) => &self.by_class[p.row_class[ai] * self.fields + fi],
+        }
+    }
+
+    /// Every cell, row by row (`aircraft × fields` of them).
+    pub fn cells(&self) -> impl Iterator<Item = &PairCell> + '_ {
+        (0..self.aircraft.len())
+            .flat_map(move |ai| (0..self.fields).map(move |fi| self.cell(ai, fi)))
     }
 
     /// JSON: one object per pairing.
     pub fn to_json(&self, ops: &Ops) -> Value {
-        let mut rows = Vec::with_capacity(self.cells.len());
+        let mut rows = Vec::with_capacity(self.aircraft.len() * self.fields);
         for (ai, &a) in self.aircraft.iter().enumerate() {
             for fi in 0..self.fields {
                 let c = self.cell(ai, fi);
@@ -168,8 +186,23 @@ impl Matrix {
     /// Recomputes one airfield's column (after a new report for it).
     pub fn update_field(&mut self, ctx: &Context<'_>, fi: usize) {
         if fi < self.fields {
-            self.prep
-                .fill_column(ctx, &self.aircraft, fi, &mut self.cells);
+            let (lo, hi) = (
+                self.prep.exception_start[fi],
+                self.prep.exception_start[fi + 1],
+            );
+            let mut per_class = vec![PairCell::NO_DATA; self.prep.classes.len()];
+            self.prep.column(
+                ctx,
+                &self.aircraft,
+                fi,
+                field_report(ctx, fi),
+                &mut Scratch::default(),
+                &mut per_class,
+                &mut self.exception_cells[lo..hi],
+            );
+            for (c, cell) in per_class.into_iter().enumerate() {
+                self.by_class[c * self.fields + fi] = cell;
+            }
         }
     }
 }
@@ -188,6 +221,37 @@ struct FieldPrep<'a> {
     /// only the categories some row of the matrix is assessed under.
     weather: [(State, f64); 4],
     stale: bool,
+    /// The warmed air at the table tops this field's searches asked for.
+    tops: std::cell::RefCell<Tops>,
+}
+
+/// The warmed air of one field's report at a few temperatures: every search of a
+/// type probes its tables' warmest OAT first, and types often share it, so each is
+/// computed once per field.
+struct Tops {
+    len: usize,
+    seen: [(u64, WarmAir); 4],
+}
+
+impl Default for Tops {
+    fn default() -> Tops {
+        let none = WarmAir {
+            oat_c: f64::NAN,
+            density_kg_m3: f64::NAN,
+            density_altitude_ft: f64::NAN,
+            true_airspeed_factor: f64::NAN,
+        };
+        Tops {
+            len: 0,
+            seen: [(f64::NAN.to_bits(), none); 4],
+        }
+    }
+}
+
+/// Field `fi`'s report at the reference time, with its age.
+fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> Option<(&'a Report, ReportAge)> {
+    let id = &ctx.ops.airfields[fi].id;
+    report_for(ctx.store, id, ctx.at, ctx.at, ctx.model.stale_after_min)
 }
 
 /// Buffers reused from one airfield to the next.
@@ -209,9 +273,11 @@ fn cat_index(c: Category) -> usize {
 }
 
 impl<'a> FieldPrep<'a> {
+    /// Field `fi` with its report `found` ([`field_report`]).
     fn new(
         ctx: &Context<'a>,
         fi: usize,
+        found: Option<(&'a Report, ReportAge)>,
         categories: &[bool; 4],
         scratch: &mut Scratch,
     ) -> FieldPrep<'a> {
@@ -219,7 +285,6 @@ impl<'a> FieldPrep<'a> {
         let model = ctx.model;
         let field = &ops.airfields[fi];
         let ends = model.field_ends(fi);
-        let found = report_for(ctx.store, &field.id, ctx.at, ctx.at, model.stale_after_min);
         let wx = found
             .as_ref()
             .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
@@ -292,7 +357,24 @@ impl<'a> FieldPrep<'a> {
             in_use,
             weather,
             stale,
+            tops: Default::default(),
         }
+    }
+
+    /// `warming.at(oat_c)`, kept for the field's other searches that ask for it.
+    fn warm_top(&self, warming: &Warming, oat_c: f64) -> WarmAir {
+        let mut tops = self.tops.borrow_mut();
+        let key = oat_c.to_bits();
+        if let Some(&(_, air)) = tops.seen[..tops.len].iter().find(|(k, _)| *k == key) {
+            return air;
+        }
+        let air = warming.at(oat_c);
+        if tops.len < tops.seen.len() {
+            let n = tops.len;
+            tops.seen[n] = (key, air);
+            tops.len += 1;
+        }
+        air
     }
 
     /// Hands the reusable buffers back.
@@ -467,25 +549,27 @@ impl Prepared {
         }
     }
 
-    /// Field `fi`'s cells: one per class into `per_class`, and the rows whose legs give
-    /// other masses there into `exceptions` (rows alike in type, masses and category
-    /// share one computation).
+    /// Field `fi`'s cells: one per class into `per_class`, and those of the rows whose
+    /// legs give other masses there into `exceptions`, in the order of the field's
+    /// [`Prepared::exceptions`] (rows alike in type, masses and category share one
+    /// computation).
     fn column(
         &self,
         ctx: &Context<'_>,
         rows: &[usize],
         fi: usize,
+        found: Option<(&Report, ReportAge)>,
         scratch: &mut Scratch,
         per_class: &mut [PairCell],
-        exceptions: &mut Vec<(usize, PairCell)>,
+        exceptions: &mut [PairCell],
     ) {
-        let field = FieldPrep::new(ctx, fi, &self.categories, scratch);
+        let field = FieldPrep::new(ctx, fi, found, &self.categories, scratch);
         for (c, out) in self.classes.iter().zip(per_class.iter_mut()) {
             *out = self.pair(ctx, &field, c);
         }
         let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
         let span = self.exception_start[fi]..self.exception_start[fi + 1];
-        for &(_, ai) in &self.exceptions[span] {
+        for (&(_, ai), out) in self.exceptions[span].iter().zip(exceptions) {
             let class = self.class(ctx.model, rows[ai], fi);
             let key = class.key();
             let cell = match seen.iter().find(|(k, _)| *k == key) {
@@ -496,30 +580,9 @@ impl Prepared {
                     c
                 }
             };
-            exceptions.push((ai, cell));
+            *out = cell;
         }
         field.recycle(scratch);
-    }
-
-    /// Fills field `fi`'s column of `cells`.
-    fn fill_column(&self, ctx: &Context<'_>, rows: &[usize], fi: usize, cells: &mut [PairCell]) {
-        let fields = ctx.ops.airfields.len();
-        let mut per_class = vec![PairCell::NO_DATA; self.classes.len()];
-        let mut exceptions = Vec::new();
-        self.column(
-            ctx,
-            rows,
-            fi,
-            &mut Scratch::default(),
-            &mut per_class,
-            &mut exceptions,
-        );
-        for (ai, &c) in self.row_class.iter().enumerate() {
-            cells[ai * fields + fi] = per_class[c];
-        }
-        for (ai, cell) in exceptions {
-            cells[ai * fields + fi] = cell;
-        }
     }
 
     fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, class: &Class) -> PairCell {
@@ -570,12 +633,28 @@ impl Prepared {
         let tv0 = lookup.at(wx.air.oat_c);
         let weather = field.weather[cat_index(class.category)];
         let now = eval(in_use, &air0, tv0.as_ref());
+        // An end's state is the worst of its checks' (`Outcome::add`), so its wind and
+        // density-altitude limits alone bound it from below, as `evaluate` judges them:
+        // an end bounded at or above the best so far cannot better it.
+        let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
+        let wind_bound = |k: usize| {
+            let w = &field.winds[k];
+            verdict(max_x - w.crosswind_kt, b.wind_kt)
+                .and(verdict(
+                    mins.max_tailwind_kt - w.tailwind_limit_kt,
+                    b.wind_kt,
+                ))
+                .and(verdict(
+                    mins.max_density_altitude_ft - air0.density_altitude_ft,
+                    b.density_altitude_ft,
+                ))
+        };
         let mut best = now.state;
         for k in 0..field.ends.len() {
             if best == State::Within {
                 break; // No end can do better.
             }
-            if k != in_use && field.usable[k] {
+            if k != in_use && field.usable[k] && wind_bound(k) < best {
                 best = best.min(eval(k, &air0, tv0.as_ref()).state);
             }
         }
@@ -590,6 +669,8 @@ impl Prepared {
         // Wind limits do not change with temperature: the search judges only the rest.
         // With the dew point at or below the OAT, no warming at all is the air itself.
         let zero_is_now = wx.air.dewpoint_c.is_none_or(|td| td <= wx.air.oat_c);
+        // The search's first probe past now: the tables' warmest OAT.
+        let up = ty.oat_top_c - wx.air.oat_c;
         let headroom_c = match now.state {
             State::NoData => None,
             _ => super::headroom::search(
@@ -599,11 +680,16 @@ impl Prepared {
                         if dt == 0.0 && zero_is_now {
                             return now.temperature_score;
                         }
-                        let air = warming.at(wx.air.oat_c + dt);
+                        let oat_c = wx.air.oat_c + dt;
+                        let air = if dt == up {
+                            field.warm_top(warming, oat_c)
+                        } else {
+                            warming.at(oat_c)
+                        };
                         hot.temperature_score(&air, lookup.at(air.oat_c).as_ref())
                     }
                 },
-                ty.oat_top_c - wx.air.oat_c,
+                up,
                 ty.oat_bottom_c - wx.air.oat_c,
             )
             .map(|f| f.warming_c),
@@ -905,42 +991,35 @@ pub fn matrix(ctx: &Context<'_>) -> Matrix {
         .collect();
     let prep = Prepared::new(ctx, &aircraft);
     let fields = ops.airfields.len();
-    // Field by field, one cell per class (class-major, so that each row's cells are
-    // then one contiguous copy) and the rows whose legs differ.
+    // Field by field, one cell per class and one per row whose legs differ there.
     let n_classes = prep.classes.len();
     let mut by_class = vec![PairCell::NO_DATA; n_classes * fields];
     let mut per_class = vec![PairCell::NO_DATA; n_classes];
-    let mut exceptions: Vec<(usize, PairCell)> = Vec::new();
-    let mut at_field: Vec<usize> = Vec::with_capacity(fields + 1);
+    let mut exception_cells = vec![PairCell::NO_DATA; prep.exceptions.len()];
     let mut scratch = Scratch::default();
-    for fi in 0..fields {
-        at_field.push(exceptions.len());
+    // Every field's report first: the look-ups are independent of each other, so their
+    // cache misses overlap instead of waiting one by one between the fields' pairings.
+    let found: Vec<_> = (0..fields).map(|fi| field_report(ctx, fi)).collect();
+    for (fi, found) in found.into_iter().enumerate() {
+        let span = prep.exception_start[fi]..prep.exception_start[fi + 1];
         prep.column(
             ctx,
             &aircraft,
             fi,
+            found,
             &mut scratch,
             &mut per_class,
-            &mut exceptions,
+            &mut exception_cells[span],
         );
         for (c, cell) in per_class.iter().enumerate() {
             by_class[c * fields + fi] = *cell;
         }
     }
-    at_field.push(exceptions.len());
-    let mut cells = Vec::with_capacity(aircraft.len() * fields);
-    for &c in &prep.row_class {
-        cells.extend_from_slice(&by_class[c * fields..(c + 1) * fields]);
-    }
-    for fi in 0..fields {
-        for &(ai, cell) in &exceptions[at_field[fi]..at_field[fi + 1]] {
-            cells[ai * fields + fi] = cell;
-        }
-    }
     Matrix {
         aircraft,
         fields,
-        cells,
+        by_class,
+        exception_cells,
         prep,
     }
 }
@@ -1191,7 +1270,8 @@ mod tests {
         let mut checked = 0;
         for fi in 0..m.fields {
             // Every category's weather, as before only the rows' categories were.
-            let field = FieldPrep::new(&ctx, fi, &[true; 4], &mut Scratch::default());
+            let found = field_report(&ctx, fi);
+            let field = FieldPrep::new(&ctx, fi, found, &[true; 4], &mut Scratch::default());
             for c in Category::ALL {
                 let (got, want) = (field.weather[cat_index(c)], weather_reference(&ctx, fi, c));
                 assert!(
@@ -1213,11 +1293,12 @@ mod tests {
             }
         }
         // A column recomputed in place gives the same cells.
-        let before = m.cells.clone();
+        let before: Vec<PairCell> = m.cells().copied().collect();
         for fi in 0..m.fields {
             m.update_field(&ctx, fi);
         }
-        assert!(before.iter().zip(&m.cells).all(|(a, b)| same(a, b)));
+        assert_eq!(before.len(), m.aircraft.len() * m.fields);
+        assert!(before.iter().zip(m.cells()).all(|(a, b)| same(a, b)));
         checked
     }
 
@@ -1312,8 +1393,7 @@ mod tests {
             };
             let m = matrix(&ctx);
             let before_sunrise = m
-                .cells
-                .iter()
+                .cells()
                 .filter(|c| c.state == State::Below && c.limiting == PairLimit::Weather)
                 .count();
             if t.format("%H").to_string() == "04" {
