@@ -193,7 +193,6 @@ impl Matrix {
             let mut per_class = vec![PairCell::NO_DATA; self.prep.classes.len()];
             self.prep.column(
                 ctx,
-                &self.aircraft,
                 fi,
                 field_report(ctx, fi),
                 &mut Scratch::default(),
@@ -417,6 +416,8 @@ struct AircraftPrep {
 #[derive(Debug, Clone)]
 struct Prepared {
     aircraft: Vec<AircraftPrep>,
+    /// Indices into `Ops::aircraft` of the rows (`Matrix::aircraft`).
+    rows: Vec<usize>,
     /// The distinct classes of the rows away from their legs' airfields.
     classes: Vec<Class>,
     /// The class of each row (index into `classes`).
@@ -480,6 +481,7 @@ impl Prepared {
         let mut prep = Prepared {
             aircraft,
             classes: Vec::new(),
+            rows: rows.to_vec(),
             row_class: Vec::with_capacity(rows.len()),
             exceptions: Vec::new(),
             exception_start: Vec::new(),
@@ -556,7 +558,6 @@ impl Prepared {
     fn column(
         &self,
         ctx: &Context<'_>,
-        rows: &[usize],
         fi: usize,
         found: Option<(&Report, ReportAge)>,
         scratch: &mut Scratch,
@@ -570,7 +571,7 @@ impl Prepared {
         let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
         let span = self.exception_start[fi]..self.exception_start[fi + 1];
         for (&(_, ai), out) in self.exceptions[span].iter().zip(exceptions) {
-            let class = self.class(ctx.model, rows[ai], fi);
+            let class = self.class(ctx.model, self.rows[ai], fi);
             let key = class.key();
             let cell = match seen.iter().find(|(k, _)| *k == key) {
                 Some((_, c)) => *c,
@@ -1004,7 +1005,6 @@ pub fn matrix(ctx: &Context<'_>) -> Matrix {
         let span = prep.exception_start[fi]..prep.exception_start[fi + 1];
         prep.column(
             ctx,
-            &aircraft,
             fi,
             found,
             &mut scratch,
