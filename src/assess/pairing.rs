@@ -3,8 +3,9 @@
 //! limits for the aircraft's strictest category, and the headroom in degrees.
 //!
 //! This is the hot path. Each airfield's air and per-end winds are computed once per
-//! report; rows alike in type, masses and category (a class) are computed once per
-//! airfield and the matrix is then written a row at a time. Each pairing locates its
+//! report, its weather limits judged without writing their texts and its daylight read
+//! from the model (kept per date); rows alike in type, masses and category (a class)
+//! are computed and kept once per airfield. Each pairing locates its
 //! mass and pressure altitude in the tables once (`Lookup`); the cell at the report's
 //! OAT is shared by the takeoff, climb and landing tables and every runway end, and the
 //! headroom search asks only for the OAT again, with the runway in use's corrections
