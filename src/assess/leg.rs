@@ -59,6 +59,44 @@ pub fn observation_for<'s>(
     at: DateTime<Utc>,
     stale_after_min: f64,
 ) -> Option<(&'s Report, ObservationUsed)> {
+    let (report, v) = report_for(store, station, event_at, at, stale_after_min)?;
+    Some((
+        report,
+        ObservationUsed {
+            station: station.to_string(),
+            text: report.text.clone(),
+            observed_at: v.observed_at,
+            age_min: v.age_min,
+            stale: v.stale,
+            as_of: v.as_of,
+            manual: report.kind == Some(crate::observation::Kind::Manual),
+        },
+    ))
+}
+
+/// How [`report_for`] found a report: the figures of [`ObservationUsed`] without its
+/// texts.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ReportAge {
+    /// Its observation time.
+    pub observed_at: DateTime<Utc>,
+    /// Age at the time it stands for, minutes.
+    pub age_min: f64,
+    /// Older than the policy allows.
+    pub stale: bool,
+    /// The event is after T: this is the latest report at T ("as of").
+    pub as_of: bool,
+}
+
+/// [`observation_for`] without copying the report's text or the station's name (the
+/// pairing matrix looks up every airfield's report on every build).
+pub fn report_for<'s>(
+    store: &'s Store,
+    station: &str,
+    event_at: DateTime<Utc>,
+    at: DateTime<Utc>,
+    stale_after_min: f64,
+) -> Option<(&'s Report, ReportAge)> {
     let as_of = event_at > at;
     let stands_for = if as_of { at } else { event_at };
     let valid = store.valid_at(station, stands_for)?;
@@ -66,14 +104,11 @@ pub fn observation_for<'s>(
     let age_min = (stands_for - observed_at).num_seconds() as f64 / 60.0;
     Some((
         valid.report,
-        ObservationUsed {
-            station: station.to_string(),
-            text: valid.report.text.clone(),
+        ReportAge {
             observed_at,
             age_min,
             stale: age_min > stale_after_min,
             as_of,
-            manual: valid.report.kind == Some(crate::observation::Kind::Manual),
         },
     ))
 }
@@ -1017,7 +1052,8 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             &who,
             report,
             wx.air.density_altitude_ft,
-            &limits::sun(side_in.field, side_in.event_at),
+            // The model keeps each field's daylight per date ([`Model::sun_on`]).
+            &model.daylight(side_in.field_index, side_in.event_at.date_naive()),
             side_in.event_at,
             side_in.departure,
             &mut lim,

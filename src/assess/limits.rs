@@ -235,18 +235,40 @@ fn no_data(
     }
 }
 
-/// The tighter of the category's limit and the pilot's own, with its source.
+/// Where a limit's value comes from, kept as a tag until its text is wanted.
+#[derive(Debug, Clone, Copy)]
+enum Origin {
+    /// The category's minimums: this field of them ([`source_of`]).
+    Minimums(&'static str),
+    /// The pilot's written limitation.
+    Pilot,
+    /// A rule, quoted as it stands.
+    Rule(&'static str),
+}
+
+impl Origin {
+    fn text(self, who: &Who<'_>) -> String {
+        match self {
+            Origin::Minimums(field) => source_of(who, field),
+            Origin::Pilot => "pilot's written limitation".to_string(),
+            Origin::Rule(rule) => rule.to_string(),
+        }
+    }
+}
+
+/// The tighter of the category's limit (`field` of its minimums) and the pilot's own,
+/// with where it comes from.
 fn tighter(
     category_value: f64,
-    category_source: String,
+    field: &'static str,
     pilot_value: Option<f64>,
     maximum: bool,
-) -> (f64, String) {
+) -> (f64, Origin) {
     match pilot_value {
         Some(p) if (maximum && p < category_value) || (!maximum && p > category_value) => {
-            (p, "pilot's written limitation".to_string())
+            (p, Origin::Pilot)
         }
-        _ => (category_value, category_source),
+        _ => (category_value, Origin::Minimums(field)),
     }
 }
 
@@ -487,38 +509,130 @@ pub fn field_limits(
     departure: bool,
     out: &mut Vec<LimitCheck>,
 ) {
+    field_limits_to(
+        who,
+        report,
+        density_altitude_ft,
+        sun,
+        event_at,
+        departure,
+        out,
+    );
+}
+
+/// Where [`field_limits_to`] puts its checks: a list of whole checks, or only their
+/// worst verdict ([`Weather`]). Each check comes without its texts (source and note);
+/// `texts` writes them, and only a sink that keeps them calls it.
+pub trait LimitSink {
+    /// One check, and what writes its texts.
+    fn put(&mut self, check: LimitCheck, texts: impl FnOnce(&mut LimitCheck));
+}
+
+impl LimitSink for Vec<LimitCheck> {
+    fn put(&mut self, mut check: LimitCheck, texts: impl FnOnce(&mut LimitCheck)) {
+        texts(&mut check);
+        self.push(check);
+    }
+}
+
+/// The worst of a field's weather checks, density altitude aside (the pairing matrix
+/// judges that per temperature): the highest state, then the lowest score
+/// ([`LimitCheck::score`]) within it. No text is written.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Weather {
+    /// The worst state.
+    pub state: State,
+    /// The lowest score among the checks of that state.
+    pub score: f64,
+}
+
+impl Default for Weather {
+    fn default() -> Weather {
+        Weather {
+            state: State::Within,
+            score: f64::INFINITY,
+        }
+    }
+}
+
+impl LimitSink for Weather {
+    fn put(&mut self, check: LimitCheck, _texts: impl FnOnce(&mut LimitCheck)) {
+        if check.kind == LimitKind::DensityAltitude {
+            return;
+        }
+        let s = check.score();
+        if check.state > self.state || (check.state == self.state && s < self.score) {
+            *self = Weather {
+                state: check.state,
+                score: s,
+            };
+        }
+    }
+}
+
+/// [`field_limits`] into any [`LimitSink`]: the same checks, in the same order, with
+/// their texts written only for a sink that keeps them (the pairing matrix keeps only
+/// the verdict, so it builds no string).
+pub fn field_limits_to<S: LimitSink>(
+    who: &Who<'_>,
+    report: &Report,
+    density_altitude_ft: f64,
+    sun: &Daylight,
+    event_at: DateTime<Utc>,
+    departure: bool,
+    out: &mut S,
+) {
     let m = who.minimums;
     let b = who.buffers;
     let lim = who.pilot.map(|p| &p.limitations);
     // Ceiling.
     let (min_ceiling, src) = tighter(
         m.min_ceiling_ft,
-        source_of(who, "min_ceiling_ft"),
+        "min_ceiling_ft",
         lim.and_then(|l| l.min_ceiling_ft),
         false,
     );
-    out.push(match report.ceiling {
-        Ceiling::Known(ft) => {
-            min_check(LimitKind::Ceiling, ft, min_ceiling, "ft", b.ceiling_ft, src)
-        }
-        Ceiling::None => LimitCheck {
-            note: "no ceiling reported".to_string(),
-            open_ended: true,
-            ..flag(LimitKind::Ceiling, true, src, String::new())
-        },
-        Ceiling::Unknown => no_data(
-            LimitKind::Ceiling,
-            "ft",
-            min_ceiling,
-            src,
-            "ceiling unknown (a layer of unknown height or amount)".to_string(),
+    match report.ceiling {
+        Ceiling::Known(ft) => out.put(
+            min_check(
+                LimitKind::Ceiling,
+                ft,
+                min_ceiling,
+                "ft",
+                b.ceiling_ft,
+                String::new(),
+            ),
+            |c| c.source = src.text(who),
         ),
-    });
+        Ceiling::None => out.put(
+            LimitCheck {
+                open_ended: true,
+                ..flag(LimitKind::Ceiling, true, String::new(), String::new())
+            },
+            |c| {
+                c.source = src.text(who);
+                c.note = "no ceiling reported".to_string();
+            },
+        ),
+        Ceiling::Unknown => out.put(
+            no_data(
+                LimitKind::Ceiling,
+                "ft",
+                min_ceiling,
+                String::new(),
+                String::new(),
+            ),
+            |c| {
+                c.source = src.text(who);
+                c.note = "ceiling unknown (a layer of unknown height or amount)".to_string();
+            },
+        ),
+    }
     // Visibility, with the regulatory floor under the operator's value.
     let day = is_day(sun, event_at);
     let (mut min_vis, mut src) = tighter(
         m.min_visibility_m,
-        source_of(who, "min_visibility_m"),
+        "min_visibility_m",
         lim.and_then(|l| l.min_visibility_m),
         false,
     );
@@ -531,7 +645,7 @@ pub fn field_limits(
         let floor_m = floor_sm * M_PER_SM;
         if floor_m > min_vis {
             min_vis = floor_m;
-            src = rule.to_string();
+            src = Origin::Rule(rule);
         }
     }
     match report.visibility {
@@ -542,86 +656,109 @@ pub fn field_limits(
                 min_vis,
                 "m",
                 b.visibility_m,
-                src,
+                String::new(),
             );
             c.open_ended = v.bound == crate::observation::Bound::AtLeast && c.margin >= 0.0;
-            out.push(c);
+            out.put(c, |c| c.source = src.text(who));
         }
-        None if report.cavok => out.push(LimitCheck {
-            note: "CAVOK".to_string(),
-            open_ended: true,
-            ..min_check(
+        None if report.cavok => out.put(
+            LimitCheck {
+                open_ended: true,
+                ..min_check(
+                    LimitKind::Visibility,
+                    10_000.0,
+                    min_vis,
+                    "m",
+                    b.visibility_m,
+                    String::new(),
+                )
+            },
+            |c| {
+                c.source = src.text(who);
+                c.note = "CAVOK".to_string();
+            },
+        ),
+        None => out.put(
+            no_data(
                 LimitKind::Visibility,
-                10_000.0,
-                min_vis,
                 "m",
-                b.visibility_m,
-                src,
-            )
-        }),
-        None => out.push(no_data(
-            LimitKind::Visibility,
-            "m",
-            min_vis,
-            src,
-            "no visibility in the report".to_string(),
-        )),
+                min_vis,
+                String::new(),
+                String::new(),
+            ),
+            |c| {
+                c.source = src.text(who);
+                c.note = "no visibility in the report".to_string();
+            },
+        ),
     }
     // Wind, gust, spread.
     if let Some(w) = report.wind {
         let (max_wind, src) = tighter(
             m.max_wind_kt,
-            source_of(who, "max_wind_kt"),
+            "max_wind_kt",
             lim.and_then(|l| l.max_wind_kt),
             true,
         );
-        out.push(max_check(
-            LimitKind::Wind,
-            w.speed_kt,
-            max_wind,
-            "kt",
-            b.wind_kt,
-            src,
-        ));
+        out.put(
+            max_check(
+                LimitKind::Wind,
+                w.speed_kt,
+                max_wind,
+                "kt",
+                b.wind_kt,
+                String::new(),
+            ),
+            |c| c.source = src.text(who),
+        );
         let (max_gust, src) = tighter(
             m.max_gust_kt,
-            source_of(who, "max_gust_kt"),
+            "max_gust_kt",
             lim.and_then(|l| l.max_gust_kt),
             true,
         );
         let gust = w.gust_kt.unwrap_or(w.speed_kt);
-        out.push(max_check(
-            LimitKind::Gust,
-            gust,
-            max_gust,
-            "kt",
-            b.wind_kt,
-            src,
-        ));
-        out.push(max_check(
-            LimitKind::GustSpread,
-            gust - w.speed_kt,
-            m.max_gust_spread_kt,
-            "kt",
-            b.wind_kt,
-            source_of(who, "max_gust_spread_kt"),
-        ));
+        out.put(
+            max_check(
+                LimitKind::Gust,
+                gust,
+                max_gust,
+                "kt",
+                b.wind_kt,
+                String::new(),
+            ),
+            |c| c.source = src.text(who),
+        );
+        out.put(
+            max_check(
+                LimitKind::GustSpread,
+                gust - w.speed_kt,
+                m.max_gust_spread_kt,
+                "kt",
+                b.wind_kt,
+                String::new(),
+            ),
+            |c| c.source = source_of(who, "max_gust_spread_kt"),
+        );
     }
     // Density altitude.
     let (max_da, src) = tighter(
         m.max_density_altitude_ft,
-        source_of(who, "max_density_altitude_ft"),
+        "max_density_altitude_ft",
         lim.and_then(|l| l.max_density_altitude_ft),
         true,
     );
-    out.push(max_check(
-        LimitKind::DensityAltitude,
-        density_altitude_ft,
-        max_da,
-        "ft",
-        b.density_altitude_ft,
-        src,
-    ));
+    out.put(
+        max_check(
+            LimitKind::DensityAltitude,
+            density_altitude_ft,
+            max_da,
+            "ft",
+            b.density_altitude_ft,
+            String::new(),
+        ),
+        |c| c.source = src.text(who),
+    );
     // Hazards.
     let h = report.hazards;
     for hazard in &m.refuse_hazards {
@@ -632,12 +769,13 @@ pub fn field_limits(
             Hazard::WindShear => (h.wind_shear, "wind shear"),
         };
         if present {
-            out.push(flag(
-                LimitKind::Hazard,
-                false,
-                source_of(who, "refuse_hazards"),
-                format!("{what} reported; refused for {}", who.category.name()),
-            ));
+            out.put(
+                flag(LimitKind::Hazard, false, String::new(), String::new()),
+                |c| {
+                    c.source = source_of(who, "refuse_hazards");
+                    c.note = format!("{what} reported; refused for {}", who.category.name());
+                },
+            );
         }
     }
     // Daylight: depart after sunrise (plus the category's margin), land before sunset
@@ -656,12 +794,12 @@ pub fn field_limits(
                 "sunset",
             )
         };
-        let source = match (departure, need_min > 0.0) {
-            (true, true) => source_of(who, "depart_after_sunrise_min"),
-            (false, true) => source_of(who, "land_before_sunset_min"),
-            _ => source_of(who, "daylight_only"),
+        let field = match (departure, need_min > 0.0) {
+            (true, true) => "depart_after_sunrise_min",
+            (false, true) => "land_before_sunset_min",
+            _ => "daylight_only",
         };
-        let c = match edge {
+        match edge {
             Event::At(t) => {
                 let gap = if departure {
                     event_at - t
@@ -670,49 +808,61 @@ pub fn field_limits(
                 };
                 let margin = gap.num_seconds() as f64 / 60.0 - need_min;
                 let what = if departure { "departs" } else { "lands" };
-                LimitCheck {
-                    kind: LimitKind::Daylight,
-                    value: Some(gap.num_seconds() as f64 / 60.0),
-                    limit: Some(need_min),
-                    unit: "min",
-                    margin,
-                    band: 0.0,
-                    state: if margin < 0.0 {
-                        State::Below
-                    } else {
-                        State::Within
-                    },
-                    source,
-                    subject: String::new(),
-                    note: format!(
-                        "{label} {} (NOAA solar method); {what} {} min {} it{}",
-                        t.format("%H%MZ"),
-                        gap.num_minutes().abs(),
-                        if gap.num_seconds() >= 0 {
-                            if departure { "after" } else { "before" }
-                        } else if departure {
-                            "before"
+                out.put(
+                    LimitCheck {
+                        kind: LimitKind::Daylight,
+                        value: Some(gap.num_seconds() as f64 / 60.0),
+                        limit: Some(need_min),
+                        unit: "min",
+                        margin,
+                        band: 0.0,
+                        state: if margin < 0.0 {
+                            State::Below
                         } else {
-                            "after"
+                            State::Within
                         },
-                        if need_min > 0.0 {
-                            format!(", {need_min:.0} min required")
-                        } else {
-                            String::new()
-                        }
-                    ),
-                    open_ended: false,
-                }
+                        source: String::new(),
+                        subject: String::new(),
+                        note: String::new(),
+                        open_ended: false,
+                    },
+                    |c| {
+                        c.source = source_of(who, field);
+                        c.note = format!(
+                            "{label} {} (NOAA solar method); {what} {} min {} it{}",
+                            t.format("%H%MZ"),
+                            gap.num_minutes().abs(),
+                            if gap.num_seconds() >= 0 {
+                                if departure { "after" } else { "before" }
+                            } else if departure {
+                                "before"
+                            } else {
+                                "after"
+                            },
+                            if need_min > 0.0 {
+                                format!(", {need_min:.0} min required")
+                            } else {
+                                String::new()
+                            }
+                        );
+                    },
+                );
             }
-            Event::AlwaysAbove => flag(LimitKind::Daylight, true, source, "polar day".to_string()),
-            Event::AlwaysBelow => flag(
-                LimitKind::Daylight,
-                false,
-                source,
-                "no daylight today (polar night)".to_string(),
+            Event::AlwaysAbove => out.put(
+                flag(LimitKind::Daylight, true, String::new(), String::new()),
+                |c| {
+                    c.source = source_of(who, field);
+                    c.note = "polar day".to_string();
+                },
             ),
-        };
-        out.push(c);
+            Event::AlwaysBelow => out.put(
+                flag(LimitKind::Daylight, false, String::new(), String::new()),
+                |c| {
+                    c.source = source_of(who, field);
+                    c.note = "no daylight today (polar night)".to_string();
+                },
+            ),
+        }
     }
 }
 
@@ -728,13 +878,13 @@ pub fn end_limits(
     let m = who.minimums;
     let (mut max_x, mut src) = tighter(
         m.max_crosswind_kt,
-        source_of(who, "max_crosswind_kt"),
+        "max_crosswind_kt",
         who.pilot.and_then(|p| p.limitations.max_crosswind_kt),
         true,
     );
     if demonstrated_crosswind_kt < max_x {
         max_x = demonstrated_crosswind_kt;
-        src = "aircraft type: maximum demonstrated crosswind".to_string();
+        src = Origin::Rule("aircraft type: maximum demonstrated crosswind");
     }
     out.push(max_check(
         LimitKind::Crosswind,
@@ -742,7 +892,7 @@ pub fn end_limits(
         max_x,
         "kt",
         who.buffers.wind_kt,
-        src,
+        src.text(who),
     ));
     out.push(max_check(
         LimitKind::Tailwind,

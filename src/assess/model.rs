@@ -2,6 +2,11 @@
 //! the policy's fallback where the manual is silent), runway ends laid out contiguously
 //! by airfield, so the per-end work is a few multiplications.
 
+use std::sync::{Arc, Mutex, OnceLock};
+
+use chrono::NaiveDate;
+
+use crate::daylight::{self, Daylight};
 use crate::ops::actype::{PhaseCorrections, SurfaceRule};
 use crate::ops::airfield::{Condition, Surface};
 use crate::ops::operator::{FallbackPhase, Policy};
@@ -301,6 +306,59 @@ pub struct Model {
     pub stale_after_min: f64,
     /// The strictest category the operator flies (pairings with no leg use it).
     pub strictest: Option<Category>,
+    /// Each airfield's daylight on the dates asked for most recently.
+    sun: SunCache,
+}
+
+/// How many dates' daylight a model keeps (today, and the dates of legs that arrive
+/// after midnight or left before it).
+const SUN_DATES: usize = 4;
+
+/// Each airfield's daylight for the few UTC dates asked for most recently
+/// ([`Model::sun_on`]). Keyed by date, so a board that runs past midnight UTC reads
+/// the new date's light, never the old; a field's light is computed on first use.
+#[derive(Debug)]
+struct SunCache {
+    /// Per airfield, latitude (° north) and longitude (° east).
+    places: Arc<[(f64, f64)]>,
+    /// Most recently used last.
+    days: Mutex<Vec<Arc<SunDay>>>,
+}
+
+impl Clone for SunCache {
+    fn clone(&self) -> SunCache {
+        let days = self
+            .days
+            .lock()
+            .unwrap_or_else(std::sync::PoisonError::into_inner)
+            .clone();
+        SunCache {
+            places: Arc::clone(&self.places),
+            days: Mutex::new(days),
+        }
+    }
+}
+
+/// Every airfield's daylight on one UTC date, each computed on first use
+/// ([`daylight::daylight`] at the field's position), then kept.
+#[derive(Debug)]
+pub struct SunDay {
+    date: NaiveDate,
+    places: Arc<[(f64, f64)]>,
+    sun: Box<[OnceLock<Daylight>]>,
+}
+
+impl SunDay {
+    /// The date.
+    pub fn date(&self) -> NaiveDate {
+        self.date
+    }
+
+    /// Airfield `fi`'s daylight on this date (`fi` indexes `Ops::airfields`).
+    pub fn field(&self, fi: usize) -> Daylight {
+        let (lat_deg, lon_deg) = self.places[fi];
+        *self.sun[fi].get_or_init(|| daylight::daylight(self.date, lat_deg, lon_deg))
+    }
 }
 
 impl Model {
@@ -415,7 +473,48 @@ impl Model {
             tailwind_factor: policy.wind.tailwind_penalty_percent / 100.0,
             stale_after_min: policy.stale_after_min,
             strictest,
+            sun: SunCache {
+                places: ops
+                    .airfields
+                    .iter()
+                    .map(|a| (a.latitude_deg, a.longitude_deg))
+                    .collect(),
+                days: Mutex::new(Vec::with_capacity(SUN_DATES)),
+            },
         }
+    }
+
+    /// Every airfield's daylight on `date`, kept for the model's life (the few most
+    /// recent dates): the same values as [`daylight::daylight`], computed once.
+    pub fn sun_on(&self, date: NaiveDate) -> Arc<SunDay> {
+        // A poisoned lock only means another thread panicked while holding it; the
+        // list and its entries are always whole.
+        let mut days = self
+            .sun
+            .days
+            .lock()
+            .unwrap_or_else(std::sync::PoisonError::into_inner);
+        if let Some(k) = days.iter().position(|d| d.date == date) {
+            let day = days.remove(k);
+            days.push(Arc::clone(&day));
+            return day;
+        }
+        let places = Arc::clone(&self.sun.places);
+        let day = Arc::new(SunDay {
+            date,
+            sun: (0..places.len()).map(|_| OnceLock::new()).collect(),
+            places,
+        });
+        if days.len() >= SUN_DATES {
+            days.remove(0);
+        }
+        days.push(Arc::clone(&day));
+        day
+    }
+
+    /// Airfield `fi`'s daylight on `date` ([`Model::sun_on`]).
+    pub fn daylight(&self, fi: usize, date: NaiveDate) -> Daylight {
+        self.sun_on(date).field(fi)
     }
 
     /// The runway ends of field `fi`.
@@ -451,4 +550,48 @@ pub fn describe(t: &EndState) -> String {
         s.push_str(&format!(" ({})", t.note));
     }
     s
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::ops::demo;
+
+    /// The kept daylight is the NOAA computation of `daylight::daylight` (itself held to
+    /// NOAA's and ephem's times in tests/daylight.rs) for whichever date is asked, in
+    /// any order, past the number of dates kept, and in a clone of the model.
+    #[test]
+    fn kept_daylight_is_each_dates_own() {
+        let ops = demo::load().ops.expect("the demo loads");
+        let model = Model::new(&ops, &DaySettings::default());
+        let day = |d: u32| NaiveDate::from_ymd_opt(2026, 6, d).unwrap();
+        let dates = [14, 15, 14, 16, 17, 18, 19, 20, 14, 30];
+        for d in dates {
+            let m = model.clone();
+            for (fi, a) in ops.airfields.iter().enumerate() {
+                let want = daylight::daylight(day(d), a.latitude_deg, a.longitude_deg);
+                assert_eq!(model.daylight(fi, day(d)), want, "{} on {d}", a.id);
+                assert_eq!(m.daylight(fi, day(d)), want, "{} on {d}, clone", a.id);
+            }
+        }
+        // Only the most recent dates are kept.
+        let kept = model.sun.days.lock().unwrap();
+        assert_eq!(kept.len(), SUN_DATES);
+        assert_eq!(kept.last().map(|d| d.date()), Some(day(30)));
+    }
+
+    /// Consecutive dates give different light (the sun rises about a minute later each
+    /// day in December at 40° N by the NOAA method), so a kept date cannot stand for
+    /// the next.
+    #[test]
+    fn next_date_is_not_the_kept_one() {
+        let ops = demo::load().ops.expect("the demo loads");
+        let model = Model::new(&ops, &DaySettings::default());
+        let d1 = NaiveDate::from_ymd_opt(2026, 12, 31).unwrap();
+        let d2 = NaiveDate::from_ymd_opt(2027, 1, 1).unwrap();
+        let (a, b) = (model.daylight(0, d1), model.daylight(0, d2));
+        assert_ne!(a.sunrise, b.sunrise);
+        assert_eq!(model.sun_on(d1).date(), d1);
+        assert_eq!(model.sun_on(d2).field(0), b);
+    }
 }

@@ -3,8 +3,9 @@
 //! limits for the aircraft's strictest category, and the headroom in degrees.
 //!
 //! This is the hot path. Each airfield's air and per-end winds are computed once per
-//! report; rows alike in type, masses and category (a class) are computed once per
-//! airfield and the matrix is then written a row at a time. Each pairing locates its
+//! report, its weather limits judged without writing their texts and its daylight read
+//! from the model (kept per date); rows alike in type, masses and category (a class)
+//! are computed and kept once per airfield. Each pairing locates its
 //! mass and pressure altitude in the tables once (`Lookup`); the cell at the report's
 //! OAT is shared by the takeoff, climb and landing tables and every runway end, and the
 //! headroom search asks only for the OAT again, with the runway in use's corrections
@@ -16,13 +17,15 @@ use serde_json::{Value, json};
 
 use super::leg::LegResult;
 use super::leg::{
-    Context, EndWind, FieldWx, Setup, TableValues, departure_at, landing_with, observation_for,
+    Context, EndWind, FieldWx, ReportAge, Setup, TableValues, departure_at, landing_with,
+    report_for,
 };
 use super::limits::{self, Who};
-use super::model::{EndModel, Model};
+use super::model::{EndModel, Model, SunDay};
 use super::perf;
 use super::state::{State, verdict};
 use crate::atmosphere::{WarmAir, Warming};
+use crate::observation::Report;
 use crate::ops::operator::Buffers;
 use crate::ops::tables::Slice;
 use crate::ops::{Axis, Category, Cell, Leg, Ops, Performance, Status};
@@ -97,15 +100,20 @@ impl PairCell {
     };
 }
 
-/// The matrix: available aircraft × airfields, aircraft-major.
+/// The matrix: available aircraft × airfields. Rows alike in type, masses and category
+/// (a class) share their cells, so the matrix keeps one cell per class and airfield and
+/// one per row whose leg gives it other masses at an airfield ([`Matrix::cell`]).
 #[derive(Debug, Clone)]
 pub struct Matrix {
     /// Indices into `Ops::aircraft` of the rows.
     pub aircraft: Vec<usize>,
     /// Number of columns (airfields).
     pub fields: usize,
-    /// Cells, `aircraft × fields`.
-    pub cells: Vec<PairCell>,
+    /// One cell per class and airfield, class-major (`class × fields + field`).
+    by_class: Vec<PairCell>,
+    /// The cells of the rows whose legs give them other masses at an airfield,
+    /// parallel to `Prepared::exceptions` (by airfield, then row).
+    exception_cells: Vec<PairCell>,
     /// Per-aircraft data kept for column updates.
     prep: Prepared,
 }
@@ -113,12 +121,23 @@ pub struct Matrix {
 impl Matrix {
     /// The cell of row `ai` (index into `aircraft`) and airfield `fi`.
     pub fn cell(&self, ai: usize, fi: usize) -> &PairCell {
-        &self.cells[ai * self.fields + fi]
+        let p = &self.prep;
+        let (lo, hi) = (p.exception_start[fi], p.exception_start[fi + 1]);
+        match p.exceptions[lo..hi].binary_search_by_key(&ai, |&(_, a)| a) {
+            Ok(k) => &self.exception_cells[lo + k],
+            Err(_) => &self.by_class[p.row_class[ai] * self.fields + fi],
+        }
+    }
+
+    /// Every cell, row by row (`aircraft × fields` of them).
+    pub fn cells(&self) -> impl Iterator<Item = &PairCell> + '_ {
+        (0..self.aircraft.len())
+            .flat_map(move |ai| (0..self.fields).map(move |fi| self.cell(ai, fi)))
     }
 
     /// JSON: one object per pairing.
     pub fn to_json(&self, ops: &Ops) -> Value {
-        let mut rows = Vec::with_capacity(self.cells.len());
+        let mut rows = Vec::with_capacity(self.aircraft.len() * self.fields);
         for (ai, &a) in self.aircraft.iter().enumerate() {
             for fi in 0..self.fields {
                 let c = self.cell(ai, fi);
@@ -168,8 +187,22 @@ impl Matrix {
     /// Recomputes one airfield's column (after a new report for it).
     pub fn update_field(&mut self, ctx: &Context<'_>, fi: usize) {
         if fi < self.fields {
-            self.prep
-                .fill_column(ctx, &self.aircraft, fi, &mut self.cells);
+            let (lo, hi) = (
+                self.prep.exception_start[fi],
+                self.prep.exception_start[fi + 1],
+            );
+            let mut per_class = vec![PairCell::NO_DATA; self.prep.classes.len()];
+            self.prep.column(
+                ctx,
+                fi,
+                field_report(ctx, fi),
+                &mut Scratch::default(),
+                &mut per_class,
+                &mut self.exception_cells[lo..hi],
+            );
+            for (c, cell) in per_class.into_iter().enumerate() {
+                self.by_class[c * self.fields + fi] = cell;
+            }
         }
     }
 }
@@ -188,6 +221,37 @@ struct FieldPrep<'a> {
     /// only the categories some row of the matrix is assessed under.
     weather: [(State, f64); 4],
     stale: bool,
+    /// The warmed air at the table tops this field's searches asked for.
+    tops: std::cell::RefCell<Tops>,
+}
+
+/// The warmed air of one field's report at a few temperatures: every search of a
+/// type probes its tables' warmest OAT first, and types often share it, so each is
+/// computed once per field.
+struct Tops {
+    len: usize,
+    seen: [(u64, WarmAir); 4],
+}
+
+impl Default for Tops {
+    fn default() -> Tops {
+        let none = WarmAir {
+            oat_c: f64::NAN,
+            density_kg_m3: f64::NAN,
+            density_altitude_ft: f64::NAN,
+            true_airspeed_factor: f64::NAN,
+        };
+        Tops {
+            len: 0,
+            seen: [(f64::NAN.to_bits(), none); 4],
+        }
+    }
+}
+
+/// Field `fi`'s report at the reference time, with its age.
+fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> Option<(&'a Report, ReportAge)> {
+    let id = &ctx.ops.airfields[fi].id;
+    report_for(ctx.store, id, ctx.at, ctx.at, ctx.model.stale_after_min)
 }
 
 /// Buffers reused from one airfield to the next.
@@ -195,7 +259,8 @@ struct FieldPrep<'a> {
 struct Scratch {
     winds: Vec<EndWind>,
     usable: Vec<bool>,
-    limits: Vec<limits::LimitCheck>,
+    /// The fields' daylight on the reference date.
+    sun: Option<std::sync::Arc<SunDay>>,
 }
 
 fn cat_index(c: Category) -> usize {
@@ -208,9 +273,11 @@ fn cat_index(c: Category) -> usize {
 }
 
 impl<'a> FieldPrep<'a> {
+    /// Field `fi` with its report `found` ([`field_report`]).
     fn new(
         ctx: &Context<'a>,
         fi: usize,
+        found: Option<(&'a Report, ReportAge)>,
         categories: &[bool; 4],
         scratch: &mut Scratch,
     ) -> FieldPrep<'a> {
@@ -218,7 +285,6 @@ impl<'a> FieldPrep<'a> {
         let model = ctx.model;
         let field = &ops.airfields[fi];
         let ends = model.field_ends(fi);
-        let found = observation_for(ctx.store, &field.id, ctx.at, ctx.at, model.stale_after_min);
         let wx = found
             .as_ref()
             .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
@@ -247,7 +313,13 @@ impl<'a> FieldPrep<'a> {
         });
         let mut weather = [(State::NoData, f64::NAN); 4];
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
-            let sun = limits::sun(field, ctx.at);
+            let date = ctx.at.date_naive();
+            let day = match scratch.sun.take() {
+                Some(d) if d.date() == date => d,
+                _ => model.sun_on(date),
+            };
+            let sun = day.field(fi);
+            scratch.sun = Some(day);
             for c in Category::ALL {
                 if !categories[cat_index(c)] {
                     continue;
@@ -262,28 +334,18 @@ impl<'a> FieldPrep<'a> {
                     regime: ops.operator.regime,
                     buffers: &ops.operator.policy.buffers,
                 };
-                let lim = &mut scratch.limits;
-                lim.clear();
-                limits::field_limits(
+                // Only the verdict: no source or note is written.
+                let mut w = limits::Weather::default();
+                limits::field_limits_to(
                     &who,
                     report,
                     wx.air.density_altitude_ft,
                     &sun,
                     ctx.at,
                     true,
-                    lim,
+                    &mut w,
                 );
-                let mut st = (State::Within, f64::INFINITY);
-                for l in lim
-                    .iter()
-                    .filter(|l| l.kind != limits::LimitKind::DensityAltitude)
-                {
-                    let s = l.score();
-                    if l.state > st.0 || (l.state == st.0 && s < st.1) {
-                        st = (l.state, s);
-                    }
-                }
-                weather[cat_index(c)] = st;
+                weather[cat_index(c)] = (w.state, w.score);
             }
         }
         FieldPrep {
@@ -295,7 +357,24 @@ impl<'a> FieldPrep<'a> {
             in_use,
             weather,
             stale,
+            tops: Default::default(),
         }
+    }
+
+    /// `warming.at(oat_c)`, kept for the field's other searches that ask for it.
+    fn warm_top(&self, warming: &Warming, oat_c: f64) -> WarmAir {
+        let mut tops = self.tops.borrow_mut();
+        let key = oat_c.to_bits();
+        if let Some(&(_, air)) = tops.seen[..tops.len].iter().find(|(k, _)| *k == key) {
+            return air;
+        }
+        let air = warming.at(oat_c);
+        if tops.len < tops.seen.len() {
+            let n = tops.len;
+            tops.seen[n] = (key, air);
+            tops.len += 1;
+        }
+        air
     }
 
     /// Hands the reusable buffers back.
@@ -338,6 +417,8 @@ struct AircraftPrep {
 #[derive(Debug, Clone)]
 struct Prepared {
     aircraft: Vec<AircraftPrep>,
+    /// Indices into `Ops::aircraft` of the rows (`Matrix::aircraft`).
+    rows: Vec<usize>,
     /// The distinct classes of the rows away from their legs' airfields.
     classes: Vec<Class>,
     /// The class of each row (index into `classes`).
@@ -401,6 +482,7 @@ impl Prepared {
         let mut prep = Prepared {
             aircraft,
             classes: Vec::new(),
+            rows: rows.to_vec(),
             row_class: Vec::with_capacity(rows.len()),
             exceptions: Vec::new(),
             exception_start: Vec::new(),
@@ -470,26 +552,27 @@ impl Prepared {
         }
     }
 
-    /// Field `fi`'s cells: one per class into `per_class`, and the rows whose legs give
-    /// other masses there into `exceptions` (rows alike in type, masses and category
-    /// share one computation).
+    /// Field `fi`'s cells: one per class into `per_class`, and those of the rows whose
+    /// legs give other masses there into `exceptions`, in the order of the field's
+    /// [`Prepared::exceptions`] (rows alike in type, masses and category share one
+    /// computation).
     fn column(
         &self,
         ctx: &Context<'_>,
-        rows: &[usize],
         fi: usize,
+        found: Option<(&Report, ReportAge)>,
         scratch: &mut Scratch,
         per_class: &mut [PairCell],
-        exceptions: &mut Vec<(usize, PairCell)>,
+        exceptions: &mut [PairCell],
     ) {
-        let field = FieldPrep::new(ctx, fi, &self.categories, scratch);
+        let field = FieldPrep::new(ctx, fi, found, &self.categories, scratch);
         for (c, out) in self.classes.iter().zip(per_class.iter_mut()) {
             *out = self.pair(ctx, &field, c);
         }
         let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
         let span = self.exception_start[fi]..self.exception_start[fi + 1];
-        for &(_, ai) in &self.exceptions[span] {
-            let class = self.class(ctx.model, rows[ai], fi);
+        for (&(_, ai), out) in self.exceptions[span].iter().zip(exceptions) {
+            let class = self.class(ctx.model, self.rows[ai], fi);
             let key = class.key();
             let cell = match seen.iter().find(|(k, _)| *k == key) {
                 Some((_, c)) => *c,
@@ -499,30 +582,9 @@ impl Prepared {
                     c
                 }
             };
-            exceptions.push((ai, cell));
+            *out = cell;
         }
         field.recycle(scratch);
-    }
-
-    /// Fills field `fi`'s column of `cells`.
-    fn fill_column(&self, ctx: &Context<'_>, rows: &[usize], fi: usize, cells: &mut [PairCell]) {
-        let fields = ctx.ops.airfields.len();
-        let mut per_class = vec![PairCell::NO_DATA; self.classes.len()];
-        let mut exceptions = Vec::new();
-        self.column(
-            ctx,
-            rows,
-            fi,
-            &mut Scratch::default(),
-            &mut per_class,
-            &mut exceptions,
-        );
-        for (ai, &c) in self.row_class.iter().enumerate() {
-            cells[ai * fields + fi] = per_class[c];
-        }
-        for (ai, cell) in exceptions {
-            cells[ai * fields + fi] = cell;
-        }
     }
 
     fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, class: &Class) -> PairCell {
@@ -573,12 +635,28 @@ impl Prepared {
         let tv0 = lookup.at(wx.air.oat_c);
         let weather = field.weather[cat_index(class.category)];
         let now = eval(in_use, &air0, tv0.as_ref());
+        // An end's state is the worst of its checks' (`Outcome::add`), so its wind and
+        // density-altitude limits alone bound it from below, as `evaluate` judges them:
+        // an end bounded at or above the best so far cannot better it.
+        let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
+        let wind_bound = |k: usize| {
+            let w = &field.winds[k];
+            verdict(max_x - w.crosswind_kt, b.wind_kt)
+                .and(verdict(
+                    mins.max_tailwind_kt - w.tailwind_limit_kt,
+                    b.wind_kt,
+                ))
+                .and(verdict(
+                    mins.max_density_altitude_ft - air0.density_altitude_ft,
+                    b.density_altitude_ft,
+                ))
+        };
         let mut best = now.state;
         for k in 0..field.ends.len() {
             if best == State::Within {
                 break; // No end can do better.
             }
-            if k != in_use && field.usable[k] {
+            if k != in_use && field.usable[k] && wind_bound(k) < best {
                 best = best.min(eval(k, &air0, tv0.as_ref()).state);
             }
         }
@@ -593,6 +671,8 @@ impl Prepared {
         // Wind limits do not change with temperature: the search judges only the rest.
         // With the dew point at or below the OAT, no warming at all is the air itself.
         let zero_is_now = wx.air.dewpoint_c.is_none_or(|td| td <= wx.air.oat_c);
+        // The search's first probe past now: the tables' warmest OAT.
+        let up = ty.oat_top_c - wx.air.oat_c;
         let headroom_c = match now.state {
             State::NoData => None,
             _ => super::headroom::search(
@@ -602,11 +682,16 @@ impl Prepared {
                         if dt == 0.0 && zero_is_now {
                             return now.temperature_score;
                         }
-                        let air = warming.at(wx.air.oat_c + dt);
+                        let oat_c = wx.air.oat_c + dt;
+                        let air = if dt == up {
+                            field.warm_top(warming, oat_c)
+                        } else {
+                            warming.at(oat_c)
+                        };
                         hot.temperature_score(&air, lookup.at(air.oat_c).as_ref())
                     }
                 },
-                ty.oat_top_c - wx.air.oat_c,
+                up,
                 ty.oat_bottom_c - wx.air.oat_c,
             )
             .map(|f| f.warming_c),
@@ -908,42 +993,34 @@ pub fn matrix(ctx: &Context<'_>) -> Matrix {
         .collect();
     let prep = Prepared::new(ctx, &aircraft);
     let fields = ops.airfields.len();
-    // Field by field, one cell per class (class-major, so that each row's cells are
-    // then one contiguous copy) and the rows whose legs differ.
+    // Field by field, one cell per class and one per row whose legs differ there.
     let n_classes = prep.classes.len();
     let mut by_class = vec![PairCell::NO_DATA; n_classes * fields];
     let mut per_class = vec![PairCell::NO_DATA; n_classes];
-    let mut exceptions: Vec<(usize, PairCell)> = Vec::new();
-    let mut at_field: Vec<usize> = Vec::with_capacity(fields + 1);
+    let mut exception_cells = vec![PairCell::NO_DATA; prep.exceptions.len()];
     let mut scratch = Scratch::default();
-    for fi in 0..fields {
-        at_field.push(exceptions.len());
+    // Every field's report first: the look-ups are independent of each other, so their
+    // cache misses overlap instead of waiting one by one between the fields' pairings.
+    let found: Vec<_> = (0..fields).map(|fi| field_report(ctx, fi)).collect();
+    for (fi, found) in found.into_iter().enumerate() {
+        let span = prep.exception_start[fi]..prep.exception_start[fi + 1];
         prep.column(
             ctx,
-            &aircraft,
             fi,
+            found,
             &mut scratch,
             &mut per_class,
-            &mut exceptions,
+            &mut exception_cells[span],
         );
         for (c, cell) in per_class.iter().enumerate() {
             by_class[c * fields + fi] = *cell;
         }
     }
-    at_field.push(exceptions.len());
-    let mut cells = Vec::with_capacity(aircraft.len() * fields);
-    for &c in &prep.row_class {
-        cells.extend_from_slice(&by_class[c * fields..(c + 1) * fields]);
-    }
-    for fi in 0..fields {
-        for &(ai, cell) in &exceptions[at_field[fi]..at_field[fi + 1]] {
-            cells[ai * fields + fi] = cell;
-        }
-    }
     Matrix {
         aircraft,
         fields,
-        cells,
+        by_class,
+        exception_cells,
         prep,
     }
 }
@@ -1075,7 +1152,7 @@ mod tests {
             evaluate_reference(&setup, b, &field.ends[k], air, tv, &field.winds[k])
         };
         let tv0 = table_values(&setup, &wx.air);
-        let weather = field.weather[cat_index(ap.category)];
+        let weather = weather_reference(ctx, fi, ap.category);
         let now = eval(in_use, &wx.air, &tv0);
         let mut best = now.state;
         for k in 0..field.ends.len() {
@@ -1114,6 +1191,58 @@ mod tests {
         }
     }
 
+    /// A field's weather verdict for a category the old way: the report, the field's
+    /// daylight computed afresh for the reference date, every field limit with its
+    /// texts, then the worst of them but density altitude.
+    fn weather_reference(ctx: &Context<'_>, fi: usize, category: Category) -> (State, f64) {
+        let ops = ctx.ops;
+        let field = &ops.airfields[fi];
+        let found = crate::assess::leg::observation_for(
+            ctx.store,
+            &field.id,
+            ctx.at,
+            ctx.at,
+            ctx.model.stale_after_min,
+        );
+        let Some((report, _)) = found else {
+            return (State::NoData, f64::NAN);
+        };
+        let (Some(wx), Some(mins)) = (
+            FieldWx::from_report(report, field.elevation_ft),
+            ops.minimums(category),
+        ) else {
+            return (State::NoData, f64::NAN);
+        };
+        let who = Who {
+            category,
+            minimums: mins,
+            pilot: None,
+            regime: ops.operator.regime,
+            buffers: &ops.operator.policy.buffers,
+        };
+        let mut lim = Vec::new();
+        limits::field_limits(
+            &who,
+            report,
+            wx.air.density_altitude_ft,
+            &limits::sun(field, ctx.at),
+            ctx.at,
+            true,
+            &mut lim,
+        );
+        let mut st = (State::Within, f64::INFINITY);
+        for l in lim
+            .iter()
+            .filter(|l| l.kind != limits::LimitKind::DensityAltitude)
+        {
+            let s = l.score();
+            if l.state > st.0 || (l.state == st.0 && s < st.1) {
+                st = (l.state, s);
+            }
+        }
+        st
+    }
+
     fn same(a: &PairCell, b: &PairCell) -> bool {
         a.state == b.state
             && a.score.to_bits() == b.score.to_bits()
@@ -1126,9 +1255,15 @@ mod tests {
 
     fn check_against_reference(ops: &Ops, store: &Store, at: DateTime<Utc>) -> usize {
         let model = Model::new(ops, &DaySettings::default());
+        check_with_model(ops, &model, store, at)
+    }
+
+    /// Every cell of the matrix on `model` (which may have served other dates before)
+    /// against the cell-by-cell reference; returns how many had a headroom.
+    fn check_with_model(ops: &Ops, model: &Model, store: &Store, at: DateTime<Utc>) -> usize {
         let ctx = Context {
             ops,
-            model: &model,
+            model,
             store,
             at,
         };
@@ -1136,7 +1271,16 @@ mod tests {
         let mut checked = 0;
         for fi in 0..m.fields {
             // Every category's weather, as before only the rows' categories were.
-            let field = FieldPrep::new(&ctx, fi, &[true; 4], &mut Scratch::default());
+            let found = field_report(&ctx, fi);
+            let field = FieldPrep::new(&ctx, fi, found, &[true; 4], &mut Scratch::default());
+            for c in Category::ALL {
+                let (got, want) = (field.weather[cat_index(c)], weather_reference(&ctx, fi, c));
+                assert!(
+                    got.0 == want.0 && got.1.to_bits() == want.1.to_bits(),
+                    "{} {c:?} weather: {got:?} vs {want:?}",
+                    ops.airfields[fi].id
+                );
+            }
             for (ai, &a) in m.aircraft.iter().enumerate() {
                 let want = cell_reference(&ctx, &m.prep, &field, a, fi);
                 let got = m.cell(ai, fi);
@@ -1150,11 +1294,12 @@ mod tests {
             }
         }
         // A column recomputed in place gives the same cells.
-        let before = m.cells.clone();
+        let before: Vec<PairCell> = m.cells().copied().collect();
         for fi in 0..m.fields {
             m.update_field(&ctx, fi);
         }
-        assert!(before.iter().zip(&m.cells).all(|(a, b)| same(a, b)));
+        assert_eq!(before.len(), m.aircraft.len() * m.fields);
+        assert!(before.iter().zip(m.cells()).all(|(a, b)| same(a, b)));
         checked
     }
 
@@ -1195,6 +1340,71 @@ mod tests {
             let at = Utc.with_ymd_and_hms(2026, 6, 14, h, 0, 0).unwrap();
             check_against_reference(&ops, &store_of(&ops, at), at);
         }
+    }
+
+    /// One report per airfield, observed ten minutes before `at`: light wind, good
+    /// visibility, so that daylight is what a solo departure turns on before sunrise.
+    fn fresh_store(ops: &Ops, at: DateTime<Utc>) -> Store {
+        let observed = at - chrono::Duration::minutes(10);
+        let mut store = Store::default();
+        for f in &ops.airfields {
+            let text = format!(
+                "METAR {} {} 27005KT 9999 FEW040 14/08 Q1016",
+                f.id,
+                observed.format("%d%H%MZ")
+            );
+            for r in decode_all(&text, at) {
+                store.insert(r.report);
+            }
+        }
+        store
+    }
+
+    /// A board runs all day on one model: past midnight UTC the matrix must read the
+    /// new date's daylight, never the old date's kept one. Before sunrise on the 15th
+    /// (about 0440Z at the demo's fields near 40° N, 0° E by the NOAA method) the solo
+    /// categories' departures are refused for daylight; the old date's sunrise would
+    /// let them go. Dates beyond the ones the model keeps, and back, read right too.
+    #[test]
+    fn one_model_reads_each_dates_daylight_across_midnight() {
+        let ops = demo::load().ops.expect("the demo loads");
+        let model = Model::new(&ops, &DaySettings::default());
+        let at = |d: u32, h: u32, m: u32| Utc.with_ymd_and_hms(2026, 6, d, h, m, 0).unwrap();
+        let times = [
+            at(14, 12, 0),
+            at(14, 23, 50),
+            at(15, 4, 0),
+            at(14, 12, 0),
+            at(16, 4, 0),
+            at(17, 4, 0),
+            at(18, 4, 0),
+            at(19, 4, 0),
+            at(15, 4, 0),
+            at(15, 12, 0),
+        ];
+        let mut refused = 0;
+        for t in times {
+            let store = fresh_store(&ops, t);
+            check_with_model(&ops, &model, &store, t);
+            let ctx = Context {
+                ops: &ops,
+                model: &model,
+                store: &store,
+                at: t,
+            };
+            let m = matrix(&ctx);
+            let before_sunrise = m
+                .cells()
+                .filter(|c| c.state == State::Below && c.limiting == PairLimit::Weather)
+                .count();
+            if t.format("%H").to_string() == "04" {
+                assert!(before_sunrise > 0, "no daylight refusal at {t}");
+                refused += before_sunrise;
+            } else {
+                assert_eq!(before_sunrise, 0, "a refusal at {t}");
+            }
+        }
+        assert!(refused > 0);
     }
 
     fn demo_model() -> &'static (Ops, Model) {
