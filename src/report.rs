@@ -315,7 +315,7 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                     .limiting
                     .as_ref()
                     .map_or("—".to_string(), |l| l.margin.clone()),
-                headroom: crate::commands::check::headroom_text(r),
+                headroom: r.headroom.map_or_else(|| "—".to_string(), |h| h.figure()),
                 mark,
             }
         })
@@ -545,7 +545,7 @@ fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
     }
     let mut tail = vec![format!(
         "headroom: {}",
-        crate::commands::check::headroom_text(r)
+        r.headroom.map_or_else(|| "—".to_string(), |h| h.words())
     )];
     tail.extend(r.advice.iter().cloned());
     sections.push(("Headroom and advice".to_string(), tail));
