@@ -496,13 +496,25 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
     }
     for l in s.limits.iter().filter(|l| l.state != State::Within) {
         let envelope = l.kind == crate::assess::limits::LimitKind::Envelope;
-        let value = match (l.value, l.limit) {
+        // Figures as shown: the margin is the shown value and limit's difference.
+        let sh = l.shown(|x| x, 0);
+        let d = sh.decimals;
+        let value = match (sh.value, sh.limit, sh.margin) {
             // The envelope's row carries its margin and where on the CG line it is read.
-            (Some(v), Some(lim)) if envelope && l.margin.is_finite() => format!(
-                "{v:.0} {} against {lim:.0} {}, margin {:+.0} {} ({})",
-                l.unit, l.unit, l.margin, l.unit, l.note
+            (Some(v), Some(lim), Some(m)) if envelope => format!(
+                "{v:.d$} {} against {lim:.d$} {}, margin {m:+.d$} {} ({})",
+                l.unit, l.unit, l.unit, l.note
             ),
-            (Some(v), Some(lim)) => format!("{v:.0} {} against {lim:.0} {}", l.unit, l.unit),
+            (Some(v), Some(lim), _) => format!("{v:.d$} {} against {lim:.d$} {}", l.unit, l.unit),
+            // Nothing measured (no ceiling reported, unknown): the limit still shows.
+            (None, Some(lim), _) if !l.unit.is_empty() => {
+                let what = if l.note.is_empty() {
+                    "no value".to_string()
+                } else {
+                    l.note.clone()
+                };
+                format!("{what}, limit {lim:.d$} {}", l.unit)
+            }
             _ => l.note.clone(),
         };
         out.push(format!(

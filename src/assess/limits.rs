@@ -148,6 +148,102 @@ impl LimitCheck {
     }
 }
 
+/// A limit's value, limit and margin as shown at some number of decimals, so that the
+/// margin shown is the shown value minus the shown limit (a maximum: the shown limit
+/// minus the shown value) and never more than the true margin ([`LimitCheck::shown`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Shown {
+    /// The value, rounded to `decimals`.
+    pub value: Option<f64>,
+    /// The limit, rounded to `decimals`.
+    pub limit: Option<f64>,
+    /// The margin, equal to the shown value and limit's difference where both are
+    /// shown, never rounded up.
+    pub margin: Option<f64>,
+    /// Decimals to print all three with.
+    pub decimals: usize,
+}
+
+impl LimitCheck {
+    /// Value, limit and margin for display in the unit `convert` gives (the identity
+    /// for the check's own unit; a linear scaling such as ft → m), at `decimals` or,
+    /// where rounding would show a margin larger than the true one (60.6 L against
+    /// 48.4 L shown as 61 and 48, margin 13 for 12.2), one or two more. The margin
+    /// shown is then the difference of the figures shown.
+    pub fn shown(&self, convert: impl Fn(f64) -> f64, decimals: usize) -> Shown {
+        let margin = self.margin.is_finite().then(|| convert(self.margin));
+        let (v, l) = (self.value.map(&convert), self.limit.map(&convert));
+        let round = |x: f64, d: usize| {
+            let p = 10f64.powi(d as i32);
+            (x * p).round() / p
+        };
+        let floor = |x: f64, d: usize| {
+            let p = 10f64.powi(d as i32);
+            // A hair of slack so that an exact figure is not floored one step down.
+            ((x * p) + 1e-9).floor() / p
+        };
+        let Some(m) = margin else {
+            return Shown {
+                value: v.map(|x| round(x, decimals)),
+                limit: l.map(|x| round(x, decimals)),
+                margin: None,
+                decimals,
+            };
+        };
+        let (Some(v), Some(l)) = (v, l) else {
+            return Shown {
+                value: v.map(|x| round(x, decimals)),
+                limit: l.map(|x| round(x, decimals)),
+                margin: Some(floor(m, decimals)),
+                decimals,
+            };
+        };
+        // A minimum's margin is value − limit, a maximum's limit − value.
+        let tol = 1e-6 * (1.0 + m.abs());
+        let sign = if (v - l - m).abs() <= tol {
+            1.0
+        } else if (l - v - m).abs() <= tol {
+            -1.0
+        } else {
+            // Not a plain difference: the margin on its own, floored.
+            return Shown {
+                value: Some(round(v, decimals)),
+                limit: Some(round(l, decimals)),
+                margin: Some(floor(m, decimals)),
+                decimals,
+            };
+        };
+        for d in decimals..=decimals + 2 {
+            let (vs, ls) = (round(v, d), round(l, d));
+            let ms = round(sign * (vs - ls), d);
+            let same_side = (ms >= 0.0) == (m >= 0.0) || ms == 0.0;
+            if ms <= m + 1e-9 && same_side {
+                return Shown {
+                    value: Some(vs),
+                    limit: Some(ls),
+                    margin: Some(ms),
+                    decimals: d,
+                };
+            }
+        }
+        // Two more decimals still round up: the value towards the limit, so the shown
+        // difference is below the true margin by less than two steps of the last digit.
+        let d = decimals + 2;
+        let p = 10f64.powi(d as i32);
+        let (vs, ls) = if sign > 0.0 {
+            ((v * p).floor() / p, (l * p).ceil() / p)
+        } else {
+            ((v * p).ceil() / p, (l * p).floor() / p)
+        };
+        Shown {
+            value: Some(vs),
+            limit: Some(ls),
+            margin: Some(round(sign * (vs - ls), d)),
+            decimals: d,
+        }
+    }
+}
+
 /// A limit on a value with `margin` to spare (in the value's unit).
 fn bounded(
     kind: LimitKind,
@@ -501,9 +597,12 @@ pub fn field_limits(
         Ceiling::Known(ft) => {
             min_check(LimitKind::Ceiling, ft, min_ceiling, "ft", b.ceiling_ft, src)
         }
+        // Nothing to measure, but the minimum still shows, in its unit.
         Ceiling::None => LimitCheck {
             note: "no ceiling reported".to_string(),
             open_ended: true,
+            limit: Some(min_ceiling),
+            unit: "ft",
             ..flag(LimitKind::Ceiling, true, src, String::new())
         },
         Ceiling::Unknown => no_data(
