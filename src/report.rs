@@ -406,8 +406,15 @@ fn phase_lines(name: &str, p: &PhaseResult, out: &mut Vec<String>) {
     );
     let _ = write!(
         s,
-        "; wind {:+.0} kt reported, {:+.0} kt counted → × {:.3}",
-        c.headwind_reported_kt, c.headwind_used_kt, c.wind_factor
+        "; wind {:+.0} kt reported, {:+.0} kt counted ({}) → × {:.3}",
+        c.headwind_reported_kt,
+        c.headwind_used_kt,
+        if c.wind_factoring_in_manual {
+            "the manual's table factors the wind itself"
+        } else {
+            "policy factoring"
+        },
+        c.wind_factor
     );
     let _ = write!(
         s,
