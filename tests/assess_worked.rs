@@ -129,9 +129,11 @@ fn easa_class_b_takeoff_worked_example() {
     close("downhill takeoff", c.slope_factor, 1.0, 0.0);
 }
 
-/// Landing at 70 % of LDA (distance from 50 ft × 1/0.7 ≈ × 1.43; EASA CAT.POL.A.330,
-/// UK CAA SSL 7) on a wet paved runway, a further × 1.15 (EASA CAT.POL.A.335; from
-/// memory), the manual silent on wet runways.
+/// Landing at 70 % of LDA (distance from 50 ft × 1/0.7 ≈ × 1.43; EASA CAT.POL.A.330(a),
+/// Regulation (EU) No 965/2012: "a full-stop landing from 50 ft above the threshold within
+/// 70 % of the LDA"; UK CAA SSL 7) on a wet paved runway, a further × 1.15 (EASA
+/// CAT.POL.A.335; 1.15 is "the wet factor" in GM1 CAT.POL.A.335(b), the rule's paragraph
+/// from memory), the manual silent on wet runways.
 ///
 /// By hand: table landing distance 400 m, calm, paved, level.
 ///   required 400 × 1.43 × 1.15 = 657.8 m against LDA 700 m: margin 700/657.8 − 1 = 6.4 %.
