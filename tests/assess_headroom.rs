@@ -120,5 +120,8 @@ fn a_bound_reads_as_a_bound() {
     assert!(w.contains("at least 38.7 °C cooler"), "{w}");
     assert!(w.contains("still below"), "{w}");
     let w = h(-3.2, false).words();
-    assert!(w.contains("needs 3.2 °C cooler") && !w.contains("at least"), "{w}");
+    assert!(
+        w.contains("needs 3.2 °C cooler") && !w.contains("at least"),
+        "{w}"
+    );
 }

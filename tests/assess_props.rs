@@ -554,6 +554,10 @@ fn no_ceiling_reported_still_shows_the_limit_and_its_unit() {
     assert_eq!(c.unit, "ft");
     assert_eq!(c.note, "no ceiling reported");
     // The pilot's own limit may be tighter; never looser than the category's.
-    assert!(c.limit.is_some_and(|l| l >= want), "{:?} vs {want}", c.limit);
+    assert!(
+        c.limit.is_some_and(|l| l >= want),
+        "{:?} vs {want}",
+        c.limit
+    );
     assert_eq!(c.state, State::Within);
 }

@@ -312,7 +312,11 @@ fn shown_margins_are_the_difference_of_the_shown_figures() {
         value: Some(value),
         limit: Some(limit),
         unit: "L",
-        margin: if minimum { value - limit } else { limit - value },
+        margin: if minimum {
+            value - limit
+        } else {
+            limit - value
+        },
         band: 0.0,
         state: State::Within,
         source: String::new(),
@@ -322,10 +326,16 @@ fn shown_margins_are_the_difference_of_the_shown_figures() {
     };
     // 60.4 L against 48.75 L: margin 11.65 L; shown 60 and 49, so margin 11 (≤ 11.65).
     let s = row(60.4, 48.75, true).shown(|x| x, 0);
-    assert_eq!((s.value, s.limit, s.margin, s.decimals), (Some(60.0), Some(49.0), Some(11.0), 0));
+    assert_eq!(
+        (s.value, s.limit, s.margin, s.decimals),
+        (Some(60.0), Some(49.0), Some(11.0), 0)
+    );
     // 60.6 L against 48.4 L: 61 − 48 = 13 would exceed 12.2; one decimal more is exact.
     let s = row(60.6, 48.4, true).shown(|x| x, 0);
-    assert_eq!((s.value, s.limit, s.margin, s.decimals), (Some(60.6), Some(48.4), Some(12.2), 1));
+    assert_eq!(
+        (s.value, s.limit, s.margin, s.decimals),
+        (Some(60.6), Some(48.4), Some(12.2), 1)
+    );
     // A maximum: 8336.28 ft density altitude against 8000 ft: margin −336.28 ft;
     // 8000 − 8336 = −336 would read better, so a decimal more: 8000.0 − 8336.3 = −336.3.
     let s = row(8336.28, 8000.0, false).shown(|x| x, 0);
@@ -334,14 +344,25 @@ fn shown_margins_are_the_difference_of_the_shown_figures() {
     // In another unit (ft → m, 0.3048 m/ft exactly): 3000 ft against 2500 ft is 914.4 m
     // against 762 m, margin 152.4 m; shown 914 − 762 = 152 ≤ 152.4.
     let s = row(3000.0, 2500.0, true).shown(|x| x * 0.3048, 0);
-    assert_eq!((s.value, s.limit, s.margin), (Some(914.0), Some(762.0), Some(152.0)));
+    assert_eq!(
+        (s.value, s.limit, s.margin),
+        (Some(914.0), Some(762.0), Some(152.0))
+    );
     // Every case: margin shown = ±(value shown − limit shown) and ≤ the true margin.
-    for (v, l, min) in [(10.45, 3.46, true), (99.95, 0.05, false), (1.005, 2.996, false)] {
+    for (v, l, min) in [
+        (10.45, 3.46, true),
+        (99.95, 0.05, false),
+        (1.005, 2.996, false),
+    ] {
         let r = row(v, l, min);
         let s = r.shown(|x| x, 0);
         let sign = if min { 1.0 } else { -1.0 };
         let diff = sign * (s.value.unwrap() - s.limit.unwrap());
         assert!((s.margin.unwrap() - diff).abs() < 1e-9, "{s:?}");
-        assert!(s.margin.unwrap() <= r.margin + 1e-9, "{s:?} vs {}", r.margin);
+        assert!(
+            s.margin.unwrap() <= r.margin + 1e-9,
+            "{s:?} vs {}",
+            r.margin
+        );
     }
 }

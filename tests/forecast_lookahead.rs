@@ -111,7 +111,12 @@ fn an_observed_no_data_leg_shows_its_forecast_as_forecast_only() {
         .output()
         .unwrap();
     // Exit status 1: some leg is below or no-data, as for `check`.
-    assert_eq!(o.status.code(), Some(1), "{}", String::from_utf8_lossy(&o.stderr));
+    assert_eq!(
+        o.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
     let text = std::fs::read_to_string(&md).unwrap();
     let l10 = text
         .lines()

@@ -163,13 +163,8 @@ fn combine(
     weather: &FieldWeather,
     wind_below: bool,
 ) -> (State, f64, PairLimit, f64, Option<WeatherMinimum>, bool) {
-    let (mut state, mut score, mut limiting, mut margin, mut minimum) = (
-        now.state,
-        now.score,
-        now.limiting,
-        now.margin_percent,
-        None,
-    );
+    let (mut state, mut score, mut limiting, mut margin, mut minimum) =
+        (now.state, now.score, now.limiting, now.margin_percent, None);
     if weather.state > state || (weather.state == state && weather.score < score) {
         state = weather.state;
         score = weather.score;
@@ -185,7 +180,10 @@ fn combine(
 /// Whether the runway in use's crosswind or tailwind limit is missed (as [`evaluate`]
 /// judges them).
 fn wind_below(s: &Setup<'_>, b: &Buffers, w: &EndWind) -> bool {
-    let max_x = s.mins.max_crosswind_kt.min(s.ty.max_demonstrated_crosswind_kt);
+    let max_x = s
+        .mins
+        .max_crosswind_kt
+        .min(s.ty.max_demonstrated_crosswind_kt);
     verdict(max_x - w.crosswind_kt, b.wind_kt) == State::Below
         || verdict(s.mins.max_tailwind_kt - w.tailwind_limit_kt, b.wind_kt) == State::Below
 }
