@@ -211,6 +211,8 @@ pub struct ForecastLine {
     /// In words: "would be below if flown from ~1311Z", "holds through the forecast",
     /// "below now".
     pub outlook: String,
+    /// The leg is observed `no-data`: the forecast stands alone.
+    pub observation_missing: bool,
 }
 
 /// The sheet's forecast lines from the look-ahead results.
@@ -224,6 +226,7 @@ pub fn forecast_lines(
         .map(|(r, l)| ForecastLine {
             leg: r.id.clone(),
             state: l.as_ref().map(|l| l.state),
+            observation_missing: l.as_ref().is_some_and(|l| l.observation_missing),
             outlook: match l {
                 None => "no forecast covers it".to_string(),
                 Some(l) => {
@@ -244,8 +247,16 @@ pub fn forecast_lines(
 }
 
 fn forecast_state(l: &ForecastLine) -> String {
-    l.state
-        .map_or("—".to_string(), |s| format!("{} {}", s.glyph(), s.word()))
+    match l.state {
+        None => "—".to_string(),
+        // Observed no-data: the forecast alone, never read as better than observed.
+        Some(s) if l.observation_missing => format!(
+            "forecast only: {} {} (no usable observation)",
+            s.glyph(),
+            s.word()
+        ),
+        Some(s) => format!("{} {}", s.glyph(), s.word()),
+    }
 }
 
 fn wind_words(w: &crate::observation::Wind) -> String {
@@ -315,7 +326,7 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                     .limiting
                     .as_ref()
                     .map_or("—".to_string(), |l| l.margin.clone()),
-                headroom: crate::commands::check::headroom_text(r),
+                headroom: r.headroom.map_or_else(|| "—".to_string(), |h| h.figure()),
                 mark,
             }
         })
@@ -395,8 +406,15 @@ fn phase_lines(name: &str, p: &PhaseResult, out: &mut Vec<String>) {
     );
     let _ = write!(
         s,
-        "; wind {:+.0} kt reported, {:+.0} kt counted → × {:.3}",
-        c.headwind_reported_kt, c.headwind_used_kt, c.wind_factor
+        "; wind {:+.0} kt reported, {:+.0} kt counted ({}) → × {:.3}",
+        c.headwind_reported_kt,
+        c.headwind_used_kt,
+        if c.wind_factoring_in_manual {
+            "the manual's table factors the wind itself"
+        } else {
+            "policy factoring"
+        },
+        c.wind_factor
     );
     let _ = write!(
         s,
@@ -496,13 +514,31 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
     }
     for l in s.limits.iter().filter(|l| l.state != State::Within) {
         let envelope = l.kind == crate::assess::limits::LimitKind::Envelope;
+        // Where a margin is shown, the figures are those whose difference it is.
+        let sh = l.shown(|x| x, 0);
+        let d = sh.decimals;
         let value = match (l.value, l.limit) {
             // The envelope's row carries its margin and where on the CG line it is read.
-            (Some(v), Some(lim)) if envelope && l.margin.is_finite() => format!(
-                "{v:.0} {} against {lim:.0} {}, margin {:+.0} {} ({})",
-                l.unit, l.unit, l.margin, l.unit, l.note
+            (Some(_), Some(_)) if envelope && sh.margin.is_some() => format!(
+                "{:.d$} {} against {:.d$} {}, margin {:+.d$} {} ({})",
+                sh.value.unwrap_or(f64::NAN),
+                l.unit,
+                sh.limit.unwrap_or(f64::NAN),
+                l.unit,
+                sh.margin.unwrap_or(f64::NAN),
+                l.unit,
+                l.note
             ),
             (Some(v), Some(lim)) => format!("{v:.0} {} against {lim:.0} {}", l.unit, l.unit),
+            // Nothing measured (no ceiling reported, unknown): the limit still shows.
+            (None, Some(lim)) if !l.unit.is_empty() => {
+                let what = if l.note.is_empty() {
+                    "no value".to_string()
+                } else {
+                    l.note.clone()
+                };
+                format!("{what}, limit {lim:.0} {}", l.unit)
+            }
             _ => l.note.clone(),
         };
         out.push(format!(
@@ -545,7 +581,7 @@ fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
     }
     let mut tail = vec![format!(
         "headroom: {}",
-        crate::commands::check::headroom_text(r)
+        r.headroom.map_or_else(|| "—".to_string(), |h| h.words())
     )];
     tail.extend(r.advice.iter().cloned());
     sections.push(("Headroom and advice".to_string(), tail));

@@ -524,3 +524,40 @@ proptest::proptest! {
         }
     }
 }
+
+/// With no ceiling reported there is nothing to measure, but the category's minimum
+/// still shows, in feet (the demo's own minimums file gives the figure).
+#[test]
+fn no_ceiling_reported_still_shows_the_limit_and_its_unit() {
+    let ops = demo_ops();
+    let i = leg_index(&ops, "L01");
+    let leg = &ops.legs[i];
+    let from = leg.from.clone();
+    let rep = format!("METAR {from} 140600Z 00000KT 9999 SKC 12/05 Q1019");
+    let store = store_with(&[&rep], at(6, 30));
+    let model = Model::new(&ops, &DaySettings::default());
+    let ctx = Context {
+        ops: &ops,
+        model: &model,
+        store: &store,
+        at: at(6, 30),
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    let c = r
+        .departure
+        .limits
+        .iter()
+        .find(|l| l.kind == rhoboard::assess::limits::LimitKind::Ceiling)
+        .expect("a ceiling row");
+    let want = ops.minimums(leg.category).unwrap().min_ceiling_ft;
+    assert_eq!(c.value, None);
+    assert_eq!(c.unit, "ft");
+    assert_eq!(c.note, "no ceiling reported");
+    // The pilot's own limit may be tighter; never looser than the category's.
+    assert!(
+        c.limit.is_some_and(|l| l >= want),
+        "{:?} vs {want}",
+        c.limit
+    );
+    assert_eq!(c.state, State::Within);
+}

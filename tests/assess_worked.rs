@@ -129,9 +129,11 @@ fn easa_class_b_takeoff_worked_example() {
     close("downhill takeoff", c.slope_factor, 1.0, 0.0);
 }
 
-/// Landing at 70 % of LDA (distance from 50 ft × 1/0.7 ≈ × 1.43; EASA CAT.POL.A.330,
-/// UK CAA SSL 7) on a wet paved runway, a further × 1.15 (EASA CAT.POL.A.335; from
-/// memory), the manual silent on wet runways.
+/// Landing at 70 % of LDA (distance from 50 ft × 1/0.7 ≈ × 1.43; EASA CAT.POL.A.330(a),
+/// Regulation (EU) No 965/2012: "a full-stop landing from 50 ft above the threshold within
+/// 70 % of the LDA"; UK CAA SSL 7) on a wet paved runway, a further × 1.15 (EASA
+/// CAT.POL.A.335; 1.15 is "the wet factor" in GM1 CAT.POL.A.335(b), the rule's paragraph
+/// from memory), the manual silent on wet runways.
 ///
 /// By hand: table landing distance 400 m, calm, paved, level.
 ///   required 400 × 1.43 × 1.15 = 657.8 m against LDA 700 m: margin 700/657.8 − 1 = 6.4 %.
@@ -298,4 +300,69 @@ fn crosswind_component_check() {
     close("crosswind", c.crosswind_kt, 10.0, 1e-9);
     assert_eq!(c.crosswind_from, wind::Side::Right);
     close("headwind", c.headwind_kt, 17.320_508, 1e-6);
+}
+
+/// Margins as shown: the shown value minus the shown limit, never more than the true
+/// margin (hand arithmetic beside each case).
+#[test]
+fn shown_margins_are_the_difference_of_the_shown_figures() {
+    use rhoboard::assess::limits::{LimitCheck, LimitKind};
+    let row = |value: f64, limit: f64, minimum: bool| LimitCheck {
+        kind: LimitKind::FuelReserve,
+        value: Some(value),
+        limit: Some(limit),
+        unit: "L",
+        margin: if minimum {
+            value - limit
+        } else {
+            limit - value
+        },
+        band: 0.0,
+        state: State::Within,
+        source: String::new(),
+        note: String::new(),
+        subject: String::new(),
+        open_ended: false,
+    };
+    // 60.4 L against 48.75 L: margin 11.65 L; shown 60 and 49, so margin 11 (≤ 11.65).
+    let s = row(60.4, 48.75, true).shown(|x| x, 0);
+    assert_eq!(
+        (s.value, s.limit, s.margin, s.decimals),
+        (Some(60.0), Some(49.0), Some(11.0), 0)
+    );
+    // 60.6 L against 48.4 L: 61 − 48 = 13 would exceed 12.2; one decimal more is exact.
+    let s = row(60.6, 48.4, true).shown(|x| x, 0);
+    assert_eq!(
+        (s.value, s.limit, s.margin, s.decimals),
+        (Some(60.6), Some(48.4), Some(12.2), 1)
+    );
+    // A maximum: 8336.28 ft density altitude against 8000 ft: margin −336.28 ft;
+    // 8000 − 8336 = −336 would read better, so a decimal more: 8000.0 − 8336.3 = −336.3.
+    let s = row(8336.28, 8000.0, false).shown(|x| x, 0);
+    assert_eq!(s.margin, Some(-336.3));
+    assert_eq!((s.value, s.limit), (Some(8336.3), Some(8000.0)));
+    // In another unit (ft → m, 0.3048 m/ft exactly): 3000 ft against 2500 ft is 914.4 m
+    // against 762 m, margin 152.4 m; shown 914 − 762 = 152 ≤ 152.4.
+    let s = row(3000.0, 2500.0, true).shown(|x| x * 0.3048, 0);
+    assert_eq!(
+        (s.value, s.limit, s.margin),
+        (Some(914.0), Some(762.0), Some(152.0))
+    );
+    // Every case: margin shown = ±(value shown − limit shown) and ≤ the true margin.
+    for (v, l, min) in [
+        (10.45, 3.46, true),
+        (99.95, 0.05, false),
+        (1.005, 2.996, false),
+    ] {
+        let r = row(v, l, min);
+        let s = r.shown(|x| x, 0);
+        let sign = if min { 1.0 } else { -1.0 };
+        let diff = sign * (s.value.unwrap() - s.limit.unwrap());
+        assert!((s.margin.unwrap() - diff).abs() < 1e-9, "{s:?}");
+        assert!(
+            s.margin.unwrap() <= r.margin + 1e-9,
+            "{s:?} vs {}",
+            r.margin
+        );
+    }
 }

@@ -393,3 +393,45 @@ fn check_json_pairings(at: &str) -> Value {
     let (_, out, err) = rhoboard(&["check", "--pairings", "--json", "--at", at]);
     serde_json::from_str(&out).unwrap_or_else(|e| panic!("{e}: {err}"))
 }
+
+/// A pairing below for a reason temperature cannot change (the wind limits, the field's
+/// weather) has no headroom, as legs have none; a pairing the weather decides names the
+/// minimum, and every margin shown carries its unit.
+#[test]
+fn pairings_name_the_weather_minimum_and_keep_headroom_for_temperature() {
+    for at in [
+        "2026-06-14T08:00:00Z",
+        "2026-06-14T14:00:00Z",
+        "2026-06-14T17:00:00Z",
+    ] {
+        let (_, stdout, _) = rhoboard(&["check", "--json", "--pairings", "--at", at]);
+        let v: Value = serde_json::from_str(&stdout).unwrap();
+        let p = v["pairings"].as_array().unwrap();
+        let mut named = 0;
+        for c in p {
+            if c["limiting"] == "weather" {
+                assert!(c["limiting_minimum"].is_string(), "{c}");
+                named += 1;
+            } else {
+                assert!(c["limiting_minimum"].is_null(), "{c}");
+            }
+            if c["margin"].is_number() {
+                assert_ne!(c["margin_unit"], "", "{c}");
+            }
+            let temperature_proof = matches!(
+                c["limiting"].as_str(),
+                Some("crosswind" | "tailwind" | "weather")
+            );
+            if c["state"] == "below" && temperature_proof {
+                assert!(c["headroom_c"].is_null(), "{c}");
+                assert!(c["headroom_table_ends"].is_null(), "{c}");
+            }
+            if c["headroom_c"].is_number() {
+                assert!(c["headroom_table_ends"].is_boolean(), "{c}");
+            }
+        }
+        if at.ends_with("14:00:00Z") {
+            assert!(named > 0, "the 14Z demo has gusty fields");
+        }
+    }
+}

@@ -75,3 +75,53 @@ fn the_forecast_is_kept_apart_from_the_observed_result() {
     ]);
     assert!(v["legs"][0].get("forecast").is_none());
 }
+
+/// At 14Z L10 is observed `no-data` (its report is stale): its look-ahead is the
+/// forecast alone and says so, in the JSON's basis and on the report's sheet, where it
+/// never reads as a plain forecast state better than the observation.
+#[test]
+fn an_observed_no_data_leg_shows_its_forecast_as_forecast_only() {
+    let v = check(&[
+        "check",
+        "--json",
+        "--forecast",
+        "--at",
+        "2026-06-14T14:00:00Z",
+    ]);
+    let legs = v["legs"].as_array().unwrap();
+    let mut seen = 0;
+    for l in legs {
+        let basis = l["forecast"]["basis"].as_str().unwrap_or("");
+        if l["state"] == "no-data" && l["forecast"]["state"].is_string() {
+            assert!(basis.starts_with("forecast only"), "{}: {basis}", l["id"]);
+            seen += 1;
+        } else {
+            assert!(!basis.starts_with("forecast only"), "{}: {basis}", l["id"]);
+        }
+    }
+    assert!(seen >= 1, "the 14Z demo has a leg observed no-data");
+    let dir = std::env::temp_dir().join(format!("rhoboard-fc-sheet-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let md = dir.join("sheet.md");
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(["report", "--at", "2026-06-14T14:00:00Z", "--out"])
+        .arg(&md)
+        .env("XDG_CONFIG_HOME", &dir)
+        .env("HOME", &dir)
+        .output()
+        .unwrap();
+    // Exit status 1: some leg is below or no-data, as for `check`.
+    assert_eq!(
+        o.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let text = std::fs::read_to_string(&md).unwrap();
+    let l10 = text
+        .lines()
+        .find(|l| l.starts_with("| L10 |") && l.contains("forecast"))
+        .unwrap_or_else(|| panic!("L10's forecast row in\n{text}"));
+    assert!(l10.contains("forecast only:"), "{l10}");
+    assert!(l10.contains("(no usable observation)"), "{l10}");
+}

@@ -281,3 +281,31 @@ fn the_html_prints_to_pdf_in_headless_chromium() {
     let pages = bytes.windows(10).filter(|w| w == b"/Type /Pag").count();
     println!("PDF of {} bytes, about {pages} page objects", bytes.len());
 }
+
+/// Each chain says whose wind factoring it uses. The demo's four-seat type's manual
+/// includes it (`fleet/types/ft4.json`: `wind_factoring_included`), so its chains count
+/// the reported wind as it is; the others take the policy's 50 % of a headwind
+/// (`fixtures/demo/operator.json`: `headwind_credit_percent` 50; EASA CAT.POL.A.330(c)(2)).
+#[test]
+fn chains_say_whose_wind_factoring_they_use() {
+    let md = sheet_1300(report::markdown);
+    let (mut manual, mut policy) = (0, 0);
+    for part in md.split("; wind ").skip(1) {
+        let words: Vec<&str> = part.split_whitespace().collect();
+        // "+6 kt reported, +6 kt counted (…) → × 0.969"
+        let reported: f64 = words[0].parse().unwrap();
+        let counted: f64 = words[3].parse().unwrap();
+        if part.contains("counted (the manual's table factors the wind itself)") {
+            assert_eq!(reported, counted, "{part}");
+            manual += 1;
+        } else {
+            assert!(part.contains("counted (policy factoring)"), "{part}");
+            if reported > 0.0 {
+                // Half the headwind, each printed to the knot.
+                assert!((counted - reported * 0.5).abs() <= 1.0, "{part}");
+            }
+            policy += 1;
+        }
+    }
+    assert!(manual > 0 && policy > 0, "{manual} manual, {policy} policy");
+}

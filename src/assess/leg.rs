@@ -525,12 +525,54 @@ pub struct Limiting {
 pub struct Headroom {
     /// Warming left, °C; negative when already below (the cooling needed).
     pub warming_c: f64,
-    /// The departure OAT at which the leg turns below, °C.
+    /// The departure OAT at which the leg turns below, °C; with `table_ends`, the
+    /// table's end where the search stopped (still passing at the top, still below at
+    /// the bottom).
     pub warmest_oat_c: f64,
-    /// The search stopped at the top of the flight-manual table: at least this much.
+    /// The search stopped at an end of the flight-manual table: a bound, not a
+    /// crossing. With `warming_c ≥ 0` at least that much warming is left; with
+    /// `warming_c < 0` the leg is still below at the table's coldest column, so at
+    /// least that much cooling is needed (and the tables cannot say how much).
     pub table_ends: bool,
     /// Whether the leg survives the operator's expected high, where one is given.
     pub survives_expected_high: Option<bool>,
+}
+
+impl Headroom {
+    /// The headroom as a compact figure: `+4.2°C`, `≥+8.0°C` (still passing at the
+    /// table's top), `-3.2°C`, `≤-38.7°C` (still below at the table's bottom: at least
+    /// that much cooling needed).
+    pub fn figure(&self) -> String {
+        let mark = match (self.table_ends, self.warming_c >= 0.0) {
+            (false, _) => "",
+            (true, true) => "≥",
+            (true, false) => "≤",
+        };
+        format!("{mark}{:+.1}°C", self.warming_c)
+    }
+
+    /// The headroom in words, saying when the figure is only a bound.
+    pub fn words(&self) -> String {
+        match (self.table_ends, self.warming_c >= 0.0) {
+            (false, true) => format!(
+                "{:+.1} °C of warming left (below from a departure OAT of {:.1} °C)",
+                self.warming_c, self.warmest_oat_c
+            ),
+            (true, true) => format!(
+                "≥ {:+.1} °C of warming left (the flight-manual table ends at {:.1} °C)",
+                self.warming_c, self.warmest_oat_c
+            ),
+            (false, false) => format!(
+                "below now; needs {:.1} °C cooler (not below from a departure OAT of {:.1} °C down)",
+                -self.warming_c, self.warmest_oat_c
+            ),
+            (true, false) => format!(
+                "below now; needs at least {:.1} °C cooler (still below at a departure OAT of \
+                 {:.1} °C, where the flight-manual table ends)",
+                -self.warming_c, self.warmest_oat_c
+            ),
+        }
+    }
 }
 
 /// One leg, assessed.

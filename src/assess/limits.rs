@@ -148,6 +148,102 @@ impl LimitCheck {
     }
 }
 
+/// A limit's value, limit and margin as shown at some number of decimals, so that the
+/// margin shown is the shown value minus the shown limit (a maximum: the shown limit
+/// minus the shown value) and never more than the true margin ([`LimitCheck::shown`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Shown {
+    /// The value, rounded to `decimals`.
+    pub value: Option<f64>,
+    /// The limit, rounded to `decimals`.
+    pub limit: Option<f64>,
+    /// The margin, equal to the shown value and limit's difference where both are
+    /// shown, never rounded up.
+    pub margin: Option<f64>,
+    /// Decimals to print all three with.
+    pub decimals: usize,
+}
+
+impl LimitCheck {
+    /// Value, limit and margin for display in the unit `convert` gives (the identity
+    /// for the check's own unit; a linear scaling such as ft → m), at `decimals` or,
+    /// where rounding would show a margin larger than the true one (60.6 L against
+    /// 48.4 L shown as 61 and 48, margin 13 for 12.2), one or two more. The margin
+    /// shown is then the difference of the figures shown.
+    pub fn shown(&self, convert: impl Fn(f64) -> f64, decimals: usize) -> Shown {
+        let margin = self.margin.is_finite().then(|| convert(self.margin));
+        let (v, l) = (self.value.map(&convert), self.limit.map(&convert));
+        let round = |x: f64, d: usize| {
+            let p = 10f64.powi(d as i32);
+            (x * p).round() / p
+        };
+        let floor = |x: f64, d: usize| {
+            let p = 10f64.powi(d as i32);
+            // A hair of slack so that an exact figure is not floored one step down.
+            ((x * p) + 1e-9).floor() / p
+        };
+        let Some(m) = margin else {
+            return Shown {
+                value: v.map(|x| round(x, decimals)),
+                limit: l.map(|x| round(x, decimals)),
+                margin: None,
+                decimals,
+            };
+        };
+        let (Some(v), Some(l)) = (v, l) else {
+            return Shown {
+                value: v.map(|x| round(x, decimals)),
+                limit: l.map(|x| round(x, decimals)),
+                margin: Some(floor(m, decimals)),
+                decimals,
+            };
+        };
+        // A minimum's margin is value − limit, a maximum's limit − value.
+        let tol = 1e-6 * (1.0 + m.abs());
+        let sign = if (v - l - m).abs() <= tol {
+            1.0
+        } else if (l - v - m).abs() <= tol {
+            -1.0
+        } else {
+            // Not a plain difference: the margin on its own, floored.
+            return Shown {
+                value: Some(round(v, decimals)),
+                limit: Some(round(l, decimals)),
+                margin: Some(floor(m, decimals)),
+                decimals,
+            };
+        };
+        for d in decimals..=decimals + 2 {
+            let (vs, ls) = (round(v, d), round(l, d));
+            let ms = round(sign * (vs - ls), d);
+            let same_side = (ms >= 0.0) == (m >= 0.0) || ms == 0.0;
+            if ms <= m + 1e-9 && same_side {
+                return Shown {
+                    value: Some(vs),
+                    limit: Some(ls),
+                    margin: Some(ms),
+                    decimals: d,
+                };
+            }
+        }
+        // Two more decimals still round up: the value towards the limit, so the shown
+        // difference is below the true margin by less than two steps of the last digit.
+        let d = decimals + 2;
+        let p = 10f64.powi(d as i32);
+        let (vs, ls) = if sign > 0.0 {
+            ((v * p).floor() / p, (l * p).ceil() / p)
+        } else {
+            ((v * p).ceil() / p, (l * p).floor() / p)
+        };
+        Shown {
+            value: Some(vs),
+            limit: Some(ls),
+            margin: Some(round(sign * (vs - ls), d)),
+            decimals: d,
+        }
+    }
+}
+
 /// A limit on a value with `margin` to spare (in the value's unit).
 fn bounded(
     kind: LimitKind,
@@ -535,41 +631,6 @@ impl LimitSink for Vec<LimitCheck> {
     }
 }
 
-/// The worst of a field's weather checks, density altitude aside (the pairing matrix
-/// judges that per temperature): the highest state, then the lowest score
-/// ([`LimitCheck::score`]) within it. No text is written.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct Weather {
-    /// The worst state.
-    pub state: State,
-    /// The lowest score among the checks of that state.
-    pub score: f64,
-}
-
-impl Default for Weather {
-    fn default() -> Weather {
-        Weather {
-            state: State::Within,
-            score: f64::INFINITY,
-        }
-    }
-}
-
-impl LimitSink for Weather {
-    fn put(&mut self, check: LimitCheck, _texts: impl FnOnce(&mut LimitCheck)) {
-        if check.kind == LimitKind::DensityAltitude {
-            return;
-        }
-        let s = check.score();
-        if check.state > self.state || (check.state == self.state && s < self.score) {
-            *self = Weather {
-                state: check.state,
-                score: s,
-            };
-        }
-    }
-}
-
 /// [`field_limits`] into any [`LimitSink`]: the same checks, in the same order, with
 /// their texts written only for a sink that keeps them (the pairing matrix keeps only
 /// the verdict, so it builds no string).
@@ -604,9 +665,12 @@ pub fn field_limits_to<S: LimitSink>(
             ),
             |c| c.source = src.text(who),
         ),
+        // Nothing to measure, but the minimum still shows, in its unit.
         Ceiling::None => out.put(
             LimitCheck {
                 open_ended: true,
+                limit: Some(min_ceiling),
+                unit: "ft",
                 ..flag(LimitKind::Ceiling, true, String::new(), String::new())
             },
             |c| {

@@ -66,6 +66,26 @@ pub struct LookAhead {
     /// No temperature forecast exists for a station: its temperature is held at the
     /// latest report's.
     pub no_temperature: bool,
+    /// The leg is observed `no-data` (no usable or a stale report): this is the
+    /// forecast alone, with nothing observed to hold it against, and never reads as
+    /// better than the observation.
+    pub observation_missing: bool,
+}
+
+impl LookAhead {
+    /// The forecast state for a table: `✓ within`, or with the observation missing
+    /// `forecast only: ~ thin (no usable observation)`.
+    pub fn state_words(&self) -> String {
+        if self.observation_missing {
+            format!(
+                "forecast only: {} {} (no usable observation)",
+                self.state.glyph(),
+                self.state.word()
+            )
+        } else {
+            format!("{} {}", self.state.glyph(), self.state.word())
+        }
+    }
 }
 
 /// A synthetic report: the latest observed one with the forecast laid over it.
@@ -160,6 +180,11 @@ pub fn look_ahead(
     };
     let planned = trial.leg.departs_utc();
     let (r, worst_case, no_temperature, basis) = trial.at(src, planned)?;
+    let basis = if observed == State::NoData {
+        format!("forecast only, the observation is missing or stale: {basis}")
+    } else {
+        basis
+    };
     // Never better than an observed below.
     let state = if observed == State::Below {
         State::Below
@@ -179,6 +204,7 @@ pub fn look_ahead(
         basis,
         worst_case,
         no_temperature,
+        observation_missing: observed == State::NoData,
     })
 }
 

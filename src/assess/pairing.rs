@@ -76,7 +76,8 @@ pub struct PairCell {
     /// Margin ÷ buffer of the limiting check.
     pub score: f64,
     /// The limiting check's margin: percent for distances and climb, kt for wind, ft
-    /// for density altitude ([`PairLimit::margin_unit`]).
+    /// for density altitude ([`PairLimit::margin_unit`]); NaN when the field's weather
+    /// decides (its margin is in [`PairCell::minimum`], see [`PairCell::margin`]).
     pub margin_percent: f64,
     /// What limits.
     pub limiting: PairLimit,
@@ -84,11 +85,164 @@ pub struct PairCell {
     pub best_end_state: State,
     /// Index (in the field's ends) of the runway in use.
     pub end_in_use: Option<u8>,
-    /// Degrees of warming left; `None` for no-data.
+    /// Degrees of warming left (negative: the cooling needed); `None` for no-data and
+    /// for a pairing below for a reason temperature cannot change (wind, the field's
+    /// weather).
     pub headroom_c: Option<f64>,
+    /// The search reached an end of the flight-manual tables first: `headroom_c` is a
+    /// bound (at least that much warming left, or at least that much cooling needed).
+    pub headroom_table_ends: bool,
+    /// The weather minimum that decides, when `limiting` is [`PairLimit::Weather`].
+    pub minimum: Option<WeatherMinimum>,
+}
+
+/// The field's weather minimum that decides a pairing: which one, and its margin.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct WeatherMinimum {
+    /// Which minimum (ceiling, visibility, wind, gust, hazard, daylight …).
+    pub kind: limits::LimitKind,
+    /// Room to spare in `unit`; NaN where the minimum has no measure (a hazard, no
+    /// usable value).
+    pub margin: f64,
+    /// Unit of `margin` (`ft`, `m`, `kt`; empty for a yes/no minimum).
+    pub unit: &'static str,
+}
+
+/// The field's weather for one category: its state, score, and the deciding minimum.
+#[derive(Debug, Clone, Copy)]
+struct FieldWeather {
+    state: State,
+    score: f64,
+    minimum: Option<WeatherMinimum>,
+}
+
+impl FieldWeather {
+    const NO_DATA: FieldWeather = FieldWeather {
+        state: State::NoData,
+        score: f64::NAN,
+        minimum: None,
+    };
+
+    /// Nothing missed yet: the start of [`FieldWeather::put`]'s fold.
+    const WITHIN: FieldWeather = FieldWeather {
+        state: State::Within,
+        score: f64::INFINITY,
+        minimum: None,
+    };
+
+    /// The worst of the field's weather limits (density altitude excepted: the
+    /// pairing judges it with the performance), from a list with its texts.
+    #[cfg(test)]
+    fn pick(lim: &[limits::LimitCheck]) -> FieldWeather {
+        use limits::LimitSink;
+        let mut w = FieldWeather::WITHIN;
+        for l in lim {
+            w.put(l.clone(), |_| {});
+        }
+        w
+    }
+}
+
+/// The fold of the field's weather checks as [`limits::field_limits_to`] makes them: the
+/// highest state, then the lowest score ([`limits::LimitCheck::score`]) within it, and
+/// that check as the deciding minimum. No text is written.
+impl limits::LimitSink for FieldWeather {
+    fn put(&mut self, l: limits::LimitCheck, _texts: impl FnOnce(&mut limits::LimitCheck)) {
+        if l.kind == limits::LimitKind::DensityAltitude {
+            return;
+        }
+        let s = l.score();
+        if l.state > self.state || (l.state == self.state && s < self.score) {
+            *self = FieldWeather {
+                state: l.state,
+                score: s,
+                minimum: Some(WeatherMinimum {
+                    kind: l.kind,
+                    // A yes/no minimum's -1 / ∞ is no measure.
+                    margin: if l.margin.is_finite() && !l.unit.is_empty() {
+                        l.margin
+                    } else {
+                        f64::NAN
+                    },
+                    unit: l.unit,
+                }),
+            };
+        }
+    }
+}
+
+/// A cell's verdict from the runway in use's outcome `now` and the field's weather:
+/// the state, score, limiting check, its margin and the deciding weather minimum, and
+/// whether the headroom search applies (not for a pairing below for a reason
+/// temperature cannot change: the wind limits or the field's weather).
+fn combine(
+    now: &Outcome,
+    weather: &FieldWeather,
+    wind_below: bool,
+) -> (State, f64, PairLimit, f64, Option<WeatherMinimum>, bool) {
+    let (mut state, mut score, mut limiting, mut margin, mut minimum) =
+        (now.state, now.score, now.limiting, now.margin_percent, None);
+    if weather.state > state || (weather.state == state && weather.score < score) {
+        state = weather.state;
+        score = weather.score;
+        limiting = PairLimit::Weather;
+        minimum = weather.minimum;
+        // The minimum's margin is in `minimum` (its own unit).
+        margin = f64::NAN;
+    }
+    let searched = now.state != State::NoData && !wind_below && weather.state != State::Below;
+    (state, score, limiting, margin, minimum, searched)
+}
+
+/// Whether the runway in use's crosswind or tailwind limit is missed (as [`evaluate`]
+/// judges them).
+fn wind_below(s: &Setup<'_>, b: &Buffers, w: &EndWind) -> bool {
+    let max_x = s
+        .mins
+        .max_crosswind_kt
+        .min(s.ty.max_demonstrated_crosswind_kt);
+    verdict(max_x - w.crosswind_kt, b.wind_kt) == State::Below
+        || verdict(s.mins.max_tailwind_kt - w.tailwind_limit_kt, b.wind_kt) == State::Below
 }
 
 impl PairCell {
+    /// The deciding check's margin in [`PairCell::margin_unit`]: the limiting check's,
+    /// or the deciding weather minimum's; `None` where there is none.
+    pub fn margin(&self) -> Option<f64> {
+        let m = match (self.limiting, self.minimum) {
+            (PairLimit::Weather, Some(m)) => m.margin,
+            _ => self.margin_percent,
+        };
+        m.is_finite().then_some(m)
+    }
+
+    /// The unit of [`PairCell::margin`]: the limiting check's, or the deciding
+    /// weather minimum's.
+    pub fn margin_unit(&self) -> &'static str {
+        match (self.limiting, self.minimum) {
+            (PairLimit::Weather, Some(m)) => m.unit,
+            (l, _) => l.margin_unit(),
+        }
+    }
+
+    /// The limiting check in words, naming the weather minimum (`ceiling`, not just
+    /// `weather`).
+    pub fn limiting_words(&self) -> &'static str {
+        match (self.limiting, self.minimum) {
+            (PairLimit::Weather, Some(m)) => m.kind.word(),
+            (PairLimit::None, _) => "nothing",
+            (PairLimit::Takeoff, _) => "takeoff distance",
+            (PairLimit::Climb, _) => "climb",
+            (PairLimit::Landing, _) => "landing distance",
+            (PairLimit::Crosswind, _) => "crosswind",
+            (PairLimit::Tailwind, _) => "tailwind",
+            (PairLimit::DensityAltitude, _) => "density altitude",
+            (PairLimit::Weather, None) => "the field's weather",
+            (PairLimit::Observation, _) => "no usable report",
+            (PairLimit::Table, _) => "the flight-manual tables",
+        }
+    }
+
     const NO_DATA: PairCell = PairCell {
         state: State::NoData,
         score: f64::NAN,
@@ -97,6 +251,8 @@ impl PairCell {
         best_end_state: State::NoData,
         end_in_use: None,
         headroom_c: None,
+        headroom_table_ends: false,
+        minimum: None,
     };
 }
 
@@ -148,10 +304,12 @@ impl Matrix {
                     "runway": c.end_in_use.and_then(|k| field.runway_ends.get(k as usize)).map(|e| e.designator.clone()),
                     "state": c.state,
                     "limiting": c.limiting,
-                    "margin": c.margin_percent.is_finite().then_some(c.margin_percent),
-                    "margin_unit": c.limiting.margin_unit(),
+                    "limiting_minimum": c.minimum.map(|m| m.kind.word()),
+                    "margin": c.margin(),
+                    "margin_unit": c.margin_unit(),
                     "best_end_state": c.best_end_state,
                     "headroom_c": c.headroom_c,
+                    "headroom_table_ends": c.headroom_c.is_some().then_some(c.headroom_table_ends),
                 }));
             }
         }
@@ -219,7 +377,7 @@ struct FieldPrep<'a> {
     in_use: Option<usize>,
     /// Field-level weather state per category (ceiling, visibility, wind, hazards);
     /// only the categories some row of the matrix is assessed under.
-    weather: [(State, f64); 4],
+    weather: [FieldWeather; 4],
     stale: bool,
     /// The warmed air at the table tops this field's searches asked for.
     tops: std::cell::RefCell<Tops>,
@@ -311,7 +469,7 @@ impl<'a> FieldPrep<'a> {
                     .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
             }
         });
-        let mut weather = [(State::NoData, f64::NAN); 4];
+        let mut weather = [FieldWeather::NO_DATA; 4];
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
             let date = ctx.at.date_naive();
             let day = match scratch.sun.take() {
@@ -334,8 +492,8 @@ impl<'a> FieldPrep<'a> {
                     regime: ops.operator.regime,
                     buffers: &ops.operator.policy.buffers,
                 };
-                // Only the verdict: no source or note is written.
-                let mut w = limits::Weather::default();
+                // Only the verdict and the deciding minimum: no source or note is written.
+                let mut w = FieldWeather::WITHIN;
                 limits::field_limits_to(
                     &who,
                     report,
@@ -345,7 +503,7 @@ impl<'a> FieldPrep<'a> {
                     true,
                     &mut w,
                 );
-                weather[cat_index(c)] = (w.state, w.score);
+                weather[cat_index(c)] = w;
             }
         }
         FieldPrep {
@@ -660,22 +818,15 @@ impl Prepared {
                 best = best.min(eval(k, &air0, tv0.as_ref()).state);
             }
         }
-        let (mut state, mut score, mut limiting, mut margin) =
-            (now.state, now.score, now.limiting, now.margin_percent);
-        if weather.0 > state || (weather.0 == state && weather.1 < score) {
-            state = weather.0;
-            score = weather.1;
-            limiting = PairLimit::Weather;
-            margin = f64::NAN;
-        }
+        let (state, score, limiting, margin, minimum, searched) =
+            combine(&now, &weather, wind_below(&setup, b, &field.winds[in_use]));
         // Wind limits do not change with temperature: the search judges only the rest.
         // With the dew point at or below the OAT, no warming at all is the air itself.
         let zero_is_now = wx.air.dewpoint_c.is_none_or(|td| td <= wx.air.oat_c);
         // The search's first probe past now: the tables' warmest OAT.
         let up = ty.oat_top_c - wx.air.oat_c;
-        let headroom_c = match now.state {
-            State::NoData => None,
-            _ => super::headroom::search(
+        let found = if searched {
+            super::headroom::search(
                 {
                     let hot = HotEnd::new(&setup, b, &field.ends[in_use], &field.winds[in_use]);
                     move |dt| {
@@ -694,16 +845,19 @@ impl Prepared {
                 up,
                 ty.oat_bottom_c - wx.air.oat_c,
             )
-            .map(|f| f.warming_c),
+        } else {
+            None
         };
         PairCell {
             state,
             score,
             margin_percent: margin,
             limiting,
-            best_end_state: best.and(weather.0),
+            best_end_state: best.and(weather.state),
             end_in_use: u8::try_from(in_use).ok(),
-            headroom_c,
+            headroom_c: found.map(|f| f.warming_c),
+            headroom_table_ends: found.is_some_and(|f| f.table_ends),
+            minimum,
         }
     }
 }
@@ -1160,17 +1314,10 @@ mod tests {
                 best = best.min(eval(k, &wx.air, &tv0).state);
             }
         }
-        let (mut state, mut score, mut limiting, mut margin) =
-            (now.state, now.score, now.limiting, now.margin_percent);
-        if weather.0 > state || (weather.0 == state && weather.1 < score) {
-            state = weather.0;
-            score = weather.1;
-            limiting = PairLimit::Weather;
-            margin = f64::NAN;
-        }
-        let headroom_c = match now.state {
-            State::NoData => None,
-            _ => super::super::headroom::search(
+        let (state, score, limiting, margin, minimum, searched) =
+            combine(&now, &weather, wind_below(&setup, b, &field.winds[in_use]));
+        let found = if searched {
+            super::super::headroom::search(
                 |dt| {
                     let air = wx.air.with_oat(wx.air.oat_c + dt);
                     eval(in_use, &air, &table_values(&setup, &air)).temperature_score
@@ -1178,23 +1325,26 @@ mod tests {
                 ty.oat_top_c - wx.air.oat_c,
                 ty.oat_bottom_c - wx.air.oat_c,
             )
-            .map(|f| f.warming_c),
+        } else {
+            None
         };
         PairCell {
             state,
             score,
             margin_percent: margin,
             limiting,
-            best_end_state: best.and(weather.0),
+            best_end_state: best.and(weather.state),
             end_in_use: u8::try_from(in_use).ok(),
-            headroom_c,
+            headroom_c: found.map(|f| f.warming_c),
+            headroom_table_ends: found.is_some_and(|f| f.table_ends),
+            minimum,
         }
     }
 
     /// A field's weather verdict for a category the old way: the report, the field's
     /// daylight computed afresh for the reference date, every field limit with its
     /// texts, then the worst of them but density altitude.
-    fn weather_reference(ctx: &Context<'_>, fi: usize, category: Category) -> (State, f64) {
+    fn weather_reference(ctx: &Context<'_>, fi: usize, category: Category) -> FieldWeather {
         let ops = ctx.ops;
         let field = &ops.airfields[fi];
         let found = crate::assess::leg::observation_for(
@@ -1205,13 +1355,13 @@ mod tests {
             ctx.model.stale_after_min,
         );
         let Some((report, _)) = found else {
-            return (State::NoData, f64::NAN);
+            return FieldWeather::NO_DATA;
         };
         let (Some(wx), Some(mins)) = (
             FieldWx::from_report(report, field.elevation_ft),
             ops.minimums(category),
         ) else {
-            return (State::NoData, f64::NAN);
+            return FieldWeather::NO_DATA;
         };
         let who = Who {
             category,
@@ -1230,17 +1380,7 @@ mod tests {
             true,
             &mut lim,
         );
-        let mut st = (State::Within, f64::INFINITY);
-        for l in lim
-            .iter()
-            .filter(|l| l.kind != limits::LimitKind::DensityAltitude)
-        {
-            let s = l.score();
-            if l.state > st.0 || (l.state == st.0 && s < st.1) {
-                st = (l.state, s);
-            }
-        }
-        st
+        FieldWeather::pick(&lim)
     }
 
     fn same(a: &PairCell, b: &PairCell) -> bool {
@@ -1251,6 +1391,9 @@ mod tests {
             && a.best_end_state == b.best_end_state
             && a.end_in_use == b.end_in_use
             && a.headroom_c.map(f64::to_bits) == b.headroom_c.map(f64::to_bits)
+            && a.headroom_table_ends == b.headroom_table_ends
+            && a.minimum.map(|m| (m.kind, m.margin.to_bits()))
+                == b.minimum.map(|m| (m.kind, m.margin.to_bits()))
     }
 
     fn check_against_reference(ops: &Ops, store: &Store, at: DateTime<Utc>) -> usize {
@@ -1276,7 +1419,10 @@ mod tests {
             for c in Category::ALL {
                 let (got, want) = (field.weather[cat_index(c)], weather_reference(&ctx, fi, c));
                 assert!(
-                    got.0 == want.0 && got.1.to_bits() == want.1.to_bits(),
+                    got.state == want.state
+                        && got.score.to_bits() == want.score.to_bits()
+                        && got.minimum.map(|m| (m.kind, m.margin.to_bits(), m.unit))
+                            == want.minimum.map(|m| (m.kind, m.margin.to_bits(), m.unit)),
                     "{} {c:?} weather: {got:?} vs {want:?}",
                     ops.airfields[fi].id
                 );
