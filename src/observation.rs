@@ -16,7 +16,7 @@ pub mod taf;
 
 use chrono::{DateTime, Utc};
 
-pub use file::{FileReport, ObservationFile, decode_all, read_reports, split_reports};
+pub use file::{FileReport, ObservationFile, day_of_file, decode_all, read_reports, split_reports};
 pub use manual::{ManualError, ManualInput, WindReference, manual_observation};
 pub use metar::{DecodeError, GroupName, decode, describe, resolve_time};
 pub use store::{DEFAULT_STALE_AFTER, Insert, Store, Valid};

@@ -201,3 +201,52 @@ fn a_runway_state_changed_by_another_process_reaches_the_board_and_a_broken_one_
         "stops when the board has gone"
     );
 }
+
+/// A day file in the watched folder (`2026-06-14.txt`) is dated against its own day, as
+/// `check` dates it, not against the board's clock months later (a newcomer's trial saw
+/// the June reports of an `init` folder dated in November).
+#[test]
+fn a_day_file_is_dated_against_its_own_day() {
+    let dir = std::env::temp_dir().join(format!("rhoboard-feed-day-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    std::fs::write(
+        dir.join("2026-06-14.txt"),
+        "METAR XSEA 141200Z 23004KT 9999 FEW030 24/11 Q1019\n",
+    )
+    .unwrap();
+    std::fs::write(
+        dir.join("live.txt"),
+        "METAR XSEA 011200Z 23004KT 9999 FEW030 4/1 Q1019\n",
+    )
+    .unwrap();
+    let board_clock = Utc.with_ymd_and_hms(2026, 12, 1, 13, 0, 0).unwrap();
+    let (tx, rx) = mpsc::channel();
+    let mut files = BTreeMap::new();
+    assert!(poll_folder(&dir, &mut files, board_clock, &tx));
+    let mut times: Vec<(String, Option<chrono::DateTime<Utc>>)> = rx
+        .try_iter()
+        .flat_map(|m| match m {
+            Msg::Observations { source, reports } => reports
+                .into_iter()
+                .map(|r| (source.clone(), r.report.observed_at))
+                .collect::<Vec<_>>(),
+            other => panic!("{other:?}"),
+        })
+        .collect();
+    times.sort();
+    assert_eq!(
+        times,
+        [
+            (
+                "2026-06-14.txt".to_string(),
+                Some(Utc.with_ymd_and_hms(2026, 6, 14, 12, 0, 0).unwrap())
+            ),
+            (
+                "live.txt".to_string(),
+                Some(Utc.with_ymd_and_hms(2026, 12, 1, 12, 0, 0).unwrap())
+            ),
+        ]
+    );
+    std::fs::remove_dir_all(&dir).unwrap();
+}

@@ -223,7 +223,8 @@ pub fn poll_folder(
             || p.display().to_string(),
             |n| n.to_string_lossy().into_owned(),
         );
-        let msg = match f.read_new(reference) {
+        // A day file (`2026-06-14.txt`) is dated against its own day, as `check` does.
+        let msg = match f.read_new(crate::observation::day_of_file(&p).unwrap_or(reference)) {
             Ok(reports) if reports.is_empty() => continue,
             Ok(reports) => Msg::Observations {
                 source: name,

@@ -13,6 +13,7 @@ use crate::assess::lookahead::{LookAhead, TafSource, look_ahead};
 use crate::assess::pairing::{self, Matrix};
 use crate::assess::{Context, DaySettings, Model, State, assess_leg};
 use crate::commands::Outcome;
+pub use crate::observation::day_of_file;
 use crate::observation::{Insert, Store, decode_all};
 use crate::ops::config::{self, Choice};
 use crate::ops::{Ops, demo};
@@ -126,15 +127,6 @@ pub fn load(
         warnings,
         demo,
     })
-}
-
-/// Noon UTC on the date a file is named for (`…/2026-06-14.txt`), if it is so named.
-pub fn day_of_file(path: &str) -> Option<DateTime<Utc>> {
-    let stem = std::path::Path::new(path).file_stem()?.to_str()?;
-    NaiveDate::parse_from_str(stem, "%Y-%m-%d")
-        .ok()?
-        .and_hms_opt(12, 0, 0)
-        .map(|t| t.and_utc())
 }
 
 /// The legs assessed by default: those departing on T's UTC date.
