@@ -141,6 +141,17 @@ impl ObservationFile {
     }
 }
 
+/// Noon UTC on the date a day file is named for (`…/2026-06-14.txt`), if it is so named:
+/// the reference its reports' day-of-month is read against, so a file for another day
+/// never takes today's month.
+pub fn day_of_file(path: impl AsRef<Path>) -> Option<DateTime<Utc>> {
+    let stem = path.as_ref().file_stem()?.to_str()?;
+    NaiveDate::parse_from_str(stem, "%Y-%m-%d")
+        .ok()?
+        .and_hms_opt(12, 0, 0)
+        .map(|t| t.and_utc())
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -161,15 +172,4 @@ mod tests {
             ]
         );
     }
-}
-
-/// Noon UTC on the date a day file is named for (`…/2026-06-14.txt`), if it is so named:
-/// the reference its reports' day-of-month is read against, so a file for another day
-/// never takes today's month.
-pub fn day_of_file(path: impl AsRef<Path>) -> Option<DateTime<Utc>> {
-    let stem = path.as_ref().file_stem()?.to_str()?;
-    NaiveDate::parse_from_str(stem, "%Y-%m-%d")
-        .ok()?
-        .and_hms_opt(12, 0, 0)
-        .map(|t| t.and_utc())
 }
