@@ -485,7 +485,13 @@ fn text_pairings_name_the_minimum_with_its_margin_and_unit() {
 /// from (README's JSON description).
 #[test]
 fn json_phase_and_forecast_carry_the_wind_factoring_and_observation_flags() {
-    let (_, out, err) = rhoboard(&["check", "--json", "--forecast", "--at", "2026-06-14T14:00:00Z"]);
+    let (_, out, err) = rhoboard(&[
+        "check",
+        "--json",
+        "--forecast",
+        "--at",
+        "2026-06-14T14:00:00Z",
+    ]);
     let v: Value = serde_json::from_str(&out).unwrap_or_else(|e| panic!("{e}: {err}"));
     let legs = v["legs"].as_array().unwrap();
     let mut missing = 0;
@@ -554,4 +560,69 @@ fn text_headroom_marks_a_bound_as_the_report_does() {
         }
         assert!(bounds > 0, "{at}: no leg reaches a table's end");
     }
+}
+
+/// A limit row's margin in the text table is the shown value minus the shown limit (a
+/// maximum: limit minus value) at the decimals shown, and never more than the true
+/// margin (`LimitCheck::shown`): whole units where they do not round up, else a decimal
+/// or two more. Checked against each leg's JSON limits at four times.
+#[test]
+fn text_limit_margins_are_the_shown_difference_and_never_rounded_up() {
+    let mut checked = 0;
+    for at in [
+        "2026-06-14T08:00:00Z",
+        "2026-06-14T11:00:00Z",
+        "2026-06-14T14:00:00Z",
+        "2026-06-14T17:00:00Z",
+    ] {
+        let v = check_json(at);
+        let (_, out, _) = rhoboard(&["check", "--at", at]);
+        for leg in v["legs"].as_array().unwrap() {
+            let id = leg["id"].as_str().unwrap();
+            let line = out
+                .lines()
+                .find(|l| l.split_whitespace().nth(1) == Some(id))
+                .unwrap();
+            let cols: Vec<&str> = line.split_whitespace().collect();
+            // dep leg aircraft route category… glyph state margin unit headroom check
+            let Some(k) = cols
+                .iter()
+                .position(|c| matches!(*c, "kt" | "ft" | "m" | "kg" | "L" | "mm"))
+            else {
+                continue;
+            };
+            let (text, unit) = (cols[k - 1], cols[k]);
+            let shown: f64 = text.parse().unwrap();
+            let decimals = text.split('.').nth(1).map_or(0, str::len) as i32;
+            let p = 10f64.powi(decimals);
+            let round = |x: f64| (x * p).round() / p;
+            let limits: Vec<&Value> = ["departure", "arrival"]
+                .iter()
+                .flat_map(|s| leg[*s]["limits"].as_array().unwrap())
+                .filter(|l| l["unit"] == unit && l["margin"].is_number())
+                .collect();
+            let matched = limits.iter().any(|l| {
+                let m = l["margin"].as_f64().unwrap();
+                let (Some(val), Some(lim)) = (l["value"].as_f64(), l["limit"].as_f64()) else {
+                    return false;
+                };
+                // Rounded, or where two more decimals still round up, the value moved
+                // towards the limit by its last digit (floored or ceiled).
+                let figures = |x: f64| [round(x), (x * p).floor() / p, (x * p).ceil() / p];
+                let same = figures(val).iter().any(|&vs| {
+                    figures(lim).iter().any(|&ls| {
+                        (round(vs - ls) - shown).abs() < 1e-9
+                            || (round(ls - vs) - shown).abs() < 1e-9
+                    })
+                });
+                same && shown <= m + 1e-9 && m - shown < 1.0
+            });
+            assert!(
+                matched,
+                "{at} {id}: {text} {unit} is no shown difference\n{line}"
+            );
+            checked += 1;
+        }
+    }
+    assert!(checked > 10, "only {checked} limit margins checked");
 }

@@ -333,10 +333,37 @@ pub fn headroom_text(r: &LegResult) -> String {
     r.headroom.map_or("—".to_string(), |h| h.figure())
 }
 
+/// The limiting check's margin for a text table. A limit row (wind, ceiling, density
+/// altitude, a mass …) is shown through [`LimitCheck::shown`], so the margin is the shown
+/// value minus the shown limit and never rounded up (`+11 kt`, or `+11.5 kt` where whole
+/// units would round up); a distance or climb check keeps its percentage.
+///
+/// [`LimitCheck::shown`]: crate::assess::limits::LimitCheck::shown
+pub fn limiting_margin_text(r: &LegResult) -> String {
+    let Some(l) = &r.limiting else {
+        return "—".to_string();
+    };
+    let row = [&r.departure, &r.arrival].into_iter().find_map(|side| {
+        side.limits
+            .iter()
+            .find(|c| format!("{} {}", side.airfield, c.label()) == l.check)
+    });
+    match row {
+        Some(c) if !c.unit.is_empty() && c.margin.is_finite() => {
+            let shown = c.shown(|x| x, 0);
+            match shown.margin {
+                Some(m) => format!("{:+.*} {}", shown.decimals, m, c.unit),
+                None => l.margin.clone(),
+            }
+        }
+        _ => l.margin.clone(),
+    }
+}
+
 fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io::Result<()> {
     writeln!(
         out,
-        "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  limiting check",
+        "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>9} {:>11}  limiting check",
         "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
     )?;
     for r in results {
@@ -345,16 +372,14 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
         };
         writeln!(
             out,
-            "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  {}",
+            "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>9} {:>11}  {}",
             leg.departs_utc().format("%H%MZ"),
             r.id,
             leg.aircraft,
             format!("{}-{}", leg.from, leg.to),
             r.category.name().replace('_', " "),
             r.state.to_string(),
-            r.limiting
-                .as_ref()
-                .map_or("—".to_string(), |l| l.margin.clone()),
+            limiting_margin_text(r),
             headroom_text(r),
             match (&r.limiting, r.reasons.first()) {
                 (Some(l), _) => l.check.as_str(),
