@@ -435,3 +435,194 @@ fn pairings_name_the_weather_minimum_and_keep_headroom_for_temperature() {
         }
     }
 }
+
+/// The text pairings table says what the JSON says: each pairing the weather decides
+/// names its minimum (never a bare "weather"), its margin is the JSON's in the same unit
+/// and never rounded up, and a pairing with no headroom in the JSON shows none.
+#[test]
+fn text_pairings_name_the_minimum_with_its_margin_and_unit() {
+    let at = "2026-06-14T14:00:00Z";
+    let v = check_json_pairings(at);
+    let (_, out, _) = rhoboard(&["check", "--pairings", "--at", at]);
+    let table: Vec<&str> = out
+        .split("\nPairings (")
+        .nth(1)
+        .expect("the pairings table")
+        .lines()
+        .skip(2)
+        .collect();
+    let pairings = v["pairings"].as_array().unwrap();
+    assert_eq!(table.len(), pairings.len(), "{out}");
+    let mut weather = 0;
+    for (c, line) in pairings.iter().zip(&table) {
+        let cols: Vec<&str> = line.split_whitespace().collect();
+        assert_eq!(cols[0], c["aircraft"], "{line}");
+        assert_eq!(cols[1], c["airfield"], "{line}");
+        assert!(!line.contains("weather (no margin)"), "{line}");
+        if c["limiting"] == "weather" {
+            weather += 1;
+            let minimum = c["limiting_minimum"].as_str().unwrap();
+            assert!(line.ends_with(&format!("  {minimum}")), "{line}");
+        }
+        match c["margin"].as_f64() {
+            Some(m) => {
+                let unit = c["margin_unit"].as_str().unwrap();
+                let (shown, rest) = (cols[5], cols[6]);
+                assert_eq!(rest, unit, "{line}");
+                let shown: f64 = shown.parse().unwrap();
+                assert!(shown <= m + 1e-9 && m - shown < 1.0, "{line} against {m}");
+            }
+            None => assert_eq!(cols[5], "—", "{line}"),
+        }
+        if c["headroom_c"].is_null() {
+            assert!(line.contains(" —  "), "{line}");
+        }
+    }
+    assert!(weather > 0, "the 14Z demo has gusty fields");
+}
+
+/// `check --json`'s phase and forecast objects carry the flags the report words come
+/// from (README's JSON description).
+#[test]
+fn json_phase_and_forecast_carry_the_wind_factoring_and_observation_flags() {
+    let (_, out, err) = rhoboard(&[
+        "check",
+        "--json",
+        "--forecast",
+        "--at",
+        "2026-06-14T14:00:00Z",
+    ]);
+    let v: Value = serde_json::from_str(&out).unwrap_or_else(|e| panic!("{e}: {err}"));
+    let legs = v["legs"].as_array().unwrap();
+    let mut missing = 0;
+    for leg in legs {
+        for (side, phase) in [("departure", "takeoff"), ("arrival", "landing")] {
+            let p = &leg[side][phase];
+            if !p.is_null() {
+                assert!(p["wind_factoring_in_manual"].is_boolean(), "{}", leg["id"]);
+            }
+        }
+        let f = &leg["forecast"];
+        if !f["state"].is_null() {
+            assert!(f["observation_missing"].is_boolean(), "{}", leg["id"]);
+            // Only a leg observed no-data is forecast alone.
+            assert_eq!(
+                f["observation_missing"].as_bool().unwrap(),
+                leg["state"] == "no-data",
+                "{}",
+                leg["id"]
+            );
+            missing += usize::from(f["observation_missing"] == true);
+        }
+    }
+    // docs/forecast.md: demo L10 at 14Z is observed no-data and forecast alone.
+    assert!(missing > 0, "no leg at 14Z is forecast alone");
+    let (_, text, _) = rhoboard(&["check", "--forecast", "--at", "2026-06-14T14:00:00Z"]);
+    assert!(text.contains("forecast only: "), "{text}");
+}
+
+/// The text table's headroom is `Headroom::figure` (as the briefing sheet and the board
+/// print it): a bound reached at the table's top reads `≥`, at its coldest column `≤`,
+/// a crossing is plain, none is `—`. Checked against each leg's JSON at four times.
+#[test]
+fn text_headroom_marks_a_bound_as_the_report_does() {
+    for at in [
+        "2026-06-14T08:00:00Z",
+        "2026-06-14T11:00:00Z",
+        "2026-06-14T14:00:00Z",
+        "2026-06-14T17:00:00Z",
+    ] {
+        let v = check_json(at);
+        let (_, out, _) = rhoboard(&["check", "--at", at]);
+        let mut bounds = 0;
+        for leg in v["legs"].as_array().unwrap() {
+            let id = leg["id"].as_str().unwrap();
+            let line = out
+                .lines()
+                .find(|l| l.split_whitespace().nth(1) == Some(id))
+                .unwrap_or_else(|| panic!("{id} not in\n{out}"));
+            let expected = match leg["headroom_c"].as_f64() {
+                None => "—".to_string(),
+                Some(h) => {
+                    let mark = match (leg["headroom_table_ends"] == true, h >= 0.0) {
+                        (false, _) => "",
+                        (true, true) => "≥",
+                        (true, false) => "≤",
+                    };
+                    bounds += usize::from(!mark.is_empty());
+                    format!("{mark}{h:+.1}°C")
+                }
+            };
+            assert!(
+                line.split_whitespace().any(|w| w == expected),
+                "{id}: {expected} not in {line}"
+            );
+        }
+        assert!(bounds > 0, "{at}: no leg reaches a table's end");
+    }
+}
+
+/// A limit row's margin in the text table is the shown value minus the shown limit (a
+/// maximum: limit minus value) at the decimals shown, and never more than the true
+/// margin (`LimitCheck::shown`): whole units where they do not round up, else a decimal
+/// or two more. Checked against each leg's JSON limits at four times.
+#[test]
+fn text_limit_margins_are_the_shown_difference_and_never_rounded_up() {
+    let mut checked = 0;
+    for at in [
+        "2026-06-14T08:00:00Z",
+        "2026-06-14T11:00:00Z",
+        "2026-06-14T14:00:00Z",
+        "2026-06-14T17:00:00Z",
+    ] {
+        let v = check_json(at);
+        let (_, out, _) = rhoboard(&["check", "--at", at]);
+        for leg in v["legs"].as_array().unwrap() {
+            let id = leg["id"].as_str().unwrap();
+            let line = out
+                .lines()
+                .find(|l| l.split_whitespace().nth(1) == Some(id))
+                .unwrap();
+            let cols: Vec<&str> = line.split_whitespace().collect();
+            // dep leg aircraft route category… glyph state margin unit headroom check
+            let Some(k) = cols
+                .iter()
+                .position(|c| matches!(*c, "kt" | "ft" | "m" | "kg" | "L" | "mm"))
+            else {
+                continue;
+            };
+            let (text, unit) = (cols[k - 1], cols[k]);
+            let shown: f64 = text.parse().unwrap();
+            let decimals = text.split('.').nth(1).map_or(0, str::len) as i32;
+            let p = 10f64.powi(decimals);
+            let round = |x: f64| (x * p).round() / p;
+            let limits: Vec<&Value> = ["departure", "arrival"]
+                .iter()
+                .flat_map(|s| leg[*s]["limits"].as_array().unwrap())
+                .filter(|l| l["unit"] == unit && l["margin"].is_number())
+                .collect();
+            let matched = limits.iter().any(|l| {
+                let m = l["margin"].as_f64().unwrap();
+                let (Some(val), Some(lim)) = (l["value"].as_f64(), l["limit"].as_f64()) else {
+                    return false;
+                };
+                // Rounded, or where two more decimals still round up, the value moved
+                // towards the limit by its last digit (floored or ceiled).
+                let figures = |x: f64| [round(x), (x * p).floor() / p, (x * p).ceil() / p];
+                let same = figures(val).iter().any(|&vs| {
+                    figures(lim).iter().any(|&ls| {
+                        (round(vs - ls) - shown).abs() < 1e-9
+                            || (round(ls - vs) - shown).abs() < 1e-9
+                    })
+                });
+                same && shown <= m + 1e-9 && m - shown < 1.0
+            });
+            assert!(
+                matched,
+                "{at} {id}: {text} {unit} is no shown difference\n{line}"
+            );
+            checked += 1;
+        }
+    }
+    assert!(checked > 10, "only {checked} limit margins checked");
+}

@@ -182,6 +182,7 @@ fn phase_json(p: &Option<PhaseResult>) -> Value {
             "table_ground_roll_m": p.chain.table_ground_roll_m,
             "table_distance_50ft_m": p.chain.table_distance_50ft_m,
             "wind_factor": p.chain.wind_factor,
+            "wind_factoring_in_manual": p.chain.wind_factoring_in_manual,
             "surface": p.chain.surface,
             "surface_rule": p.chain.surface_rule.map(|r| json!({
                 "rule": r.rule, "from": r.origin,
@@ -315,19 +316,46 @@ pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
     })
 }
 
-/// Headroom in words: `+4.2 °C`, `≥ +8.0 °C (table ends)`, `—`.
+/// Headroom as a figure, as the report and the board print it ([`Headroom::figure`]):
+/// `+4.2°C`, `≥+8.0°C` (still passing at the table's top), `≤-38.7°C` (still below at
+/// the table's coldest column), `—`.
+///
+/// [`Headroom::figure`]: crate::assess::leg::Headroom::figure
 pub fn headroom_text(r: &LegResult) -> String {
-    match r.headroom {
-        None => "—".to_string(),
-        Some(h) if h.table_ends && h.warming_c >= 0.0 => format!("≥{:+.1}°C", h.warming_c),
-        Some(h) => format!("{:+.1}°C", h.warming_c),
+    r.headroom.map_or("—".to_string(), |h| h.figure())
+}
+
+/// The limiting check's margin for a text table. A limit row (wind, ceiling, density
+/// altitude, a mass …) is shown through [`LimitCheck::shown`], so the margin is the shown
+/// value minus the shown limit and never rounded up (`+11 kt`, or `+11.5 kt` where whole
+/// units would round up); a distance or climb check keeps its percentage.
+///
+/// [`LimitCheck::shown`]: crate::assess::limits::LimitCheck::shown
+pub fn limiting_margin_text(r: &LegResult) -> String {
+    let Some(l) = &r.limiting else {
+        return "—".to_string();
+    };
+    let row = [&r.departure, &r.arrival].into_iter().find_map(|side| {
+        side.limits
+            .iter()
+            .find(|c| format!("{} {}", side.airfield, c.label()) == l.check)
+    });
+    match row {
+        Some(c) if !c.unit.is_empty() && c.margin.is_finite() => {
+            let shown = c.shown(|x| x, 0);
+            match shown.margin {
+                Some(m) => format!("{:+.*} {}", shown.decimals, m, c.unit),
+                None => l.margin.clone(),
+            }
+        }
+        _ => l.margin.clone(),
     }
 }
 
 fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io::Result<()> {
     writeln!(
         out,
-        "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  limiting check",
+        "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>9} {:>11}  limiting check",
         "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
     )?;
     for r in results {
@@ -336,16 +364,14 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
         };
         writeln!(
             out,
-            "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>7} {:>11}  {}",
+            "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>9} {:>11}  {}",
             leg.departs_utc().format("%H%MZ"),
             r.id,
             leg.aircraft,
             format!("{}-{}", leg.from, leg.to),
             r.category.name().replace('_', " "),
             r.state.to_string(),
-            r.limiting
-                .as_ref()
-                .map_or("—".to_string(), |l| l.margin.clone()),
+            limiting_margin_text(r),
             headroom_text(r),
             match (&r.limiting, r.reasons.first()) {
                 (Some(l), _) => l.check.as_str(),
@@ -422,6 +448,7 @@ pub fn forecast_json(l: Option<&LookAhead>) -> Value {
             "basis": l.basis,
             "worst_case": l.worst_case,
             "no_temperature_forecast": l.no_temperature,
+            "observation_missing": l.observation_missing,
         }),
     }
 }
@@ -443,7 +470,7 @@ fn write_forecast(
                 out,
                 "  {:<5} forecast {:<10} {}{}",
                 r.id,
-                l.state.to_string(),
+                l.state_words(),
                 match l.fails_from {
                     Some(t) => format!("would be below if flown from ~{}", t.format("%H%MZ")),
                     None if r.state == State::Below => "below now".to_string(),
@@ -460,32 +487,69 @@ fn write_forecast(
     Ok(())
 }
 
+/// A pairing's margin for the text table: the deciding check's or the deciding weather
+/// minimum's, with its unit, floored to a whole unit so it never reads larger than it
+/// is (`-12 kt`, `+4 %`); `—` where the deciding check has no number.
+pub fn pair_margin_text(c: &pairing::PairCell) -> String {
+    match c.margin() {
+        Some(m) => {
+            let unit = c.margin_unit();
+            let sep = if unit.is_empty() { "" } else { " " };
+            // +0.0 for a floored -0: a margin short of the limit by less than one unit.
+            let f = (m + 1e-9).floor();
+            format!("{:+.0}{sep}{unit}", if f == 0.0 { 0.0 } else { f })
+        }
+        None => "—".to_string(),
+    }
+}
+
+/// A pairing's headroom for the text table, marked as a bound where the search reached
+/// an end of the flight-manual tables (`≥+8°C`, `≤-30°C`); `—` where there is none
+/// (no-data, or below for a reason temperature cannot change).
+pub fn pair_headroom_text(c: &pairing::PairCell) -> String {
+    match c.headroom_c {
+        None => "—".to_string(),
+        Some(h) => {
+            let mark = match (c.headroom_table_ends, h >= 0.0) {
+                (false, _) => "",
+                (true, true) => "≥",
+                (true, false) => "≤",
+            };
+            format!("{mark}{h:+.1}°C")
+        }
+    }
+}
+
 fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<()> {
     writeln!(out)?;
     writeln!(
         out,
-        "Pairings (runway in use; margin of the limiting check, headroom):"
+        "Pairings (runway in use; the deciding check, its margin, headroom in °C of warming left):"
     )?;
-    write!(out, "{:<9}", "")?;
-    for a in &ops.airfields {
-        write!(out, " {:<15}", a.id)?;
-    }
-    writeln!(out)?;
+    writeln!(
+        out,
+        "{:<9} {:<8} {:<6} {:<10} {:>9} {:>9}  deciding check",
+        "aircraft", "airfield", "runway", "state", "margin", "headroom"
+    )?;
     for (ai, reg) in m.aircraft.iter().enumerate() {
-        write!(out, "{:<9}", ops.aircraft[*reg].registration)?;
-        for fi in 0..ops.airfields.len() {
+        for (fi, field) in ops.airfields.iter().enumerate() {
             let c = m.cell(ai, fi);
-            let h = c
-                .headroom_c
-                .map_or("—".to_string(), |h| format!("{h:+.0}°"));
-            let margin = if c.score.is_finite() && c.margin_percent.is_finite() {
-                format!("{:+.0}{}", c.margin_percent, c.limiting.margin_unit())
-            } else {
-                String::new()
-            };
-            write!(out, " {} {:<6} {:<6}", c.state.glyph(), margin, h)?;
+            let runway = c
+                .end_in_use
+                .and_then(|k| field.runway_ends.get(k as usize))
+                .map_or("—", |e| e.designator.as_str());
+            writeln!(
+                out,
+                "{:<9} {:<8} {:<6} {:<10} {:>9} {:>9}  {}",
+                ops.aircraft[*reg].registration,
+                field.id,
+                runway,
+                c.state.to_string(),
+                pair_margin_text(c),
+                pair_headroom_text(c),
+                c.limiting_words(),
+            )?;
         }
-        writeln!(out)?;
     }
     Ok(())
 }

@@ -10,7 +10,8 @@ use chrono::{DateTime, NaiveTime, Utc};
 use crate::assess::{Context, DaySettings, LegResult, Model, assess_leg};
 use crate::commands::Outcome;
 use crate::commands::check::{
-    headroom_text, leg_json, load, unknown_aircraft, unknown_airfield, unknown_leg,
+    headroom_text, leg_json, limiting_margin_text, load, unknown_aircraft, unknown_airfield,
+    unknown_leg,
 };
 use crate::ops::config::{self, Choice};
 use crate::ops::legs::LegsFile;
@@ -110,9 +111,11 @@ fn summary(r: &LegResult) -> String {
     format!(
         "{} {}, headroom {}",
         r.state,
-        r.limiting
-            .as_ref()
-            .map_or("—".to_string(), |l| format!("{} {}", l.check, l.margin)),
+        r.limiting.as_ref().map_or("—".to_string(), |l| format!(
+            "{} {}",
+            l.check,
+            limiting_margin_text(r)
+        )),
         headroom_text(r)
     )
 }
