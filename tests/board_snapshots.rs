@@ -704,3 +704,31 @@ fn afternoon_150x40() {
     let mut app = demo_stepped_to(15);
     insta::assert_snapshot!(render(&mut app, 150, 40).backend());
 }
+
+/// The board's headroom (legs table and detail) says what the report says: a bound
+/// at the table's coldest column reads `≤` and "at least … cooler", never "below
+/// from" a temperature the search merely stopped at.
+#[test]
+fn headroom_reads_as_the_report_words_it() {
+    use rhoboard::board::display::Show;
+    for hour in [8, 15] {
+        let app = demo_stepped_to(hour);
+        let show = Show::of(&app.ops);
+        for r in &app.assessment.legs {
+            let cell = rhoboard::board::view::headroom_cell(show, r);
+            let words = rhoboard::board::detail::headroom_words(r, show);
+            match r.headroom {
+                None => assert_eq!(cell, "—", "{}", r.id),
+                Some(h) => {
+                    // The demo operator shows °C: the report's own figure and words.
+                    assert_eq!(cell, h.figure(), "{}", r.id);
+                    assert_eq!(words, h.words(), "{}", r.id);
+                    if h.table_ends && h.warming_c < 0.0 {
+                        assert!(cell.starts_with('≤'), "{}: {cell}", r.id);
+                        assert!(words.contains("at least"), "{}: {words}", r.id);
+                    }
+                }
+            }
+        }
+    }
+}

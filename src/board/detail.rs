@@ -470,26 +470,15 @@ fn envelope_drawing(
     out
 }
 
-/// Headroom in words for the detail.
+/// Headroom in words for the detail, as the report words it
+/// ([`Headroom::words`](crate::assess::leg::Headroom::words)), in the display unit.
 pub fn headroom_words(r: &LegResult, show: Show) -> String {
     match r.headroom {
         None => "— (no data)".to_string(),
-        Some(h) if h.table_ends && h.warming_c >= 0.0 => format!(
-            "≥ {} of warming (the flight-manual table ends at {})",
-            show.warming(h.warming_c),
-            show.temp(h.warmest_oat_c)
-        ),
-        Some(h) if h.warming_c < 0.0 => format!(
-            "{}: below now; needs {:.1} {} cooler (below from {})",
-            show.warming(h.warming_c),
-            show.warming_value(-h.warming_c),
+        Some(h) => h.words_in(
+            |d| show.warming_value(d),
+            |c| show.temp_value(c),
             show.temp_unit(),
-            show.temp(h.warmest_oat_c)
-        ),
-        Some(h) => format!(
-            "{} of warming left (below from {})",
-            show.warming(h.warming_c),
-            show.temp(h.warmest_oat_c)
         ),
     }
 }
@@ -677,8 +666,9 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, show: Show, 
     ));
     let wind = if c.wind_factoring_in_manual {
         format!(
-            "wind: {:+.0} kt headwind (the manual's figures include the factoring) → × {:.3}",
-            c.headwind_reported_kt, c.wind_factor
+            "wind: {:+.1} kt headwind reported, counted as it is (the manual's table factors \
+             the wind itself) → × {:.3}",
+            c.headwind_used_kt, c.wind_factor
         )
     } else {
         format!(

@@ -305,20 +305,13 @@ fn tabs(app: &App, area: Rect, legs_rows: Option<usize>, buf: &mut Buffer, t: Th
     }
 }
 
-/// Headroom in the legs table: `≥+23.0°C` (the table ends first), `-6.3°C`, or `—`.
+/// Headroom in the legs table: `≥+23.0°C` (the table ends first), `-6.3°C`,
+/// `≤-38.7°C` (still below at the table's coldest column), or `—`
+/// ([`Headroom::figure`](crate::assess::leg::Headroom::figure), as the report says).
 pub fn headroom_cell(show: Show, r: &LegResult) -> String {
     match r.headroom {
         None => "—".to_string(),
-        Some(h) => format!(
-            "{}{:+.1}{}",
-            if h.table_ends && h.warming_c >= 0.0 {
-                "≥"
-            } else {
-                ""
-            },
-            show.warming_value(h.warming_c),
-            show.temp_unit()
-        ),
+        Some(h) => h.figure_in(|d| show.warming_value(d), show.temp_unit()),
     }
 }
 
