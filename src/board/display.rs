@@ -199,7 +199,10 @@ mod tests {
             survives_expected_high: None,
         };
         let s = imperial();
-        assert_eq!(h.figure_in(|d| s.warming_value(d), s.temp_unit()), "≤-69.7°F");
+        assert_eq!(
+            h.figure_in(|d| s.warming_value(d), s.temp_unit()),
+            "≤-69.7°F"
+        );
         let w = h.words_in(|d| s.warming_value(d), |c| s.temp_value(c), s.temp_unit());
         assert_eq!(
             w,
