@@ -769,20 +769,21 @@ fn limit_rows_show_a_margin_equal_to_the_shown_difference() {
                 };
                 let value = head.trim().rsplit("  ").next().unwrap_or("");
                 let value = value.split_whitespace().rev().nth(1).unwrap_or("");
-                match (value.parse::<f64>().ok(), parse(limit), parse(margin.trim())) {
+                match (
+                    value.parse::<f64>().ok(),
+                    parse(limit),
+                    parse(margin.trim()),
+                ) {
                     (Some(v), Some(l), Some(m)) => {
                         rows += 1;
                         let d = [(v - l), (l - v)];
-                        assert!(
-                            d.iter().any(|d| (d - m).abs() < 1e-6),
-                            "{}: {line}",
-                            r.id
-                        );
+                        assert!(d.iter().any(|d| (d - m).abs() < 1e-6), "{}: {line}", r.id);
                     }
                     (None, Some(_), _) if head.trim_end().ends_with('—') => {
                         if line.trim_start().starts_with("ceiling") {
                             assert!(
-                                text.get(i + 1).is_some_and(|n| n.trim().contains("ceiling")),
+                                text.get(i + 1)
+                                    .is_some_and(|n| n.trim().contains("ceiling")),
                                 "{}: {line} has no note",
                                 r.id
                             );

@@ -1103,6 +1103,7 @@ impl App {
             return Ask::Menu;
         };
         let m = &self.assessment.matrix;
+        let show = super::display::Show::of(&self.ops);
         let fi = self.ops.airfields.iter().position(|f| f.id == leg.from);
         let mut options: Vec<(State, f64, String, Step)> = Vec::new();
         for (ai, &a) in m.aircraft.iter().enumerate() {
@@ -1126,20 +1127,16 @@ impl App {
             } else {
                 f64::NEG_INFINITY
             };
-            let margin = if c.margin_percent.is_finite() {
-                let unit = c.limiting.margin_unit();
-                let sep = if unit == "%" || unit.is_empty() {
-                    ""
-                } else {
-                    " "
-                };
-                format!(
-                    "{:+.0}{sep}{unit} {}",
-                    c.margin_percent,
-                    super::view::limit_word(c.limiting)
-                )
-            } else {
-                "—".into()
+            let margin = match super::view::pair_margin(c, show) {
+                Some((m, unit, d)) => {
+                    let sep = if unit == "%" || unit.is_empty() {
+                        ""
+                    } else {
+                        " "
+                    };
+                    format!("{m:+.d$}{sep}{unit} {}", c.limiting_words())
+                }
+                None => "—".into(),
             };
             options.push((
                 c.state,
