@@ -79,3 +79,49 @@ fn recomputed_when_a_report_arrives() {
         }
     }
 }
+
+/// A leg observed no-data (L10 at 15Z: a stale report) with a forecast reads
+/// "forecast only" in the column, the summary and the detail: the forecast alone never
+/// reads better than the observation.
+#[test]
+fn with_the_observation_missing_the_forecast_reads_forecast_only() {
+    use rhoboard::board::forecast::{cell, summary};
+    let app = demo_stepped_to(15);
+    let mut seen = 0;
+    for (k, r) in app.assessment.legs.iter().enumerate() {
+        let Some(l) = app.look(k) else { continue };
+        if !l.observation_missing {
+            assert!(
+                !cell(Some(l), r.state).contains("forecast only"),
+                "{}",
+                r.id
+            );
+            continue;
+        }
+        assert_eq!(r.state, State::NoData, "{}", r.id);
+        seen += 1;
+        assert_eq!(cell(Some(l), r.state), "forecast only", "{}", r.id);
+        let s = summary(Some(l), r.state);
+        assert!(
+            s.contains("forecast only") && s.contains("no usable observation"),
+            "{s}"
+        );
+        let detail: Vec<String> = rhoboard::board::forecast::detail_lines(
+            &app,
+            k,
+            rhoboard::board::theme::Theme { color: false },
+        )
+        .iter()
+        .map(|l| l.to_string())
+        .collect();
+        assert!(
+            detail.iter().any(|d| d.contains("forecast only")),
+            "{}",
+            detail.join("\n")
+        );
+    }
+    assert!(
+        seen > 0,
+        "the demo's stale XSHT leaves a leg observed no-data"
+    );
+}

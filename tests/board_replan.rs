@@ -102,23 +102,42 @@ fn l16_becomes_within_by_unloading_the_rear_seats() {
 fn aircraft_offered_are_not_below_at_the_departure_best_first() {
     // The morning review (at 13Z every pairing at XPIN is below: the list is empty).
     let mut app = demo_stepped_to(8);
-    let slot = select_leg(&mut app, "L16");
+    // L16's loads use a middle row of seats: an aircraft whose type lacks it is not
+    // offered (validate would refuse the leg), and the heading says why.
+    select_leg(&mut app, "L16");
     app.update(key(KeyCode::Char('e')));
     app.update(key(KeyCode::Char('a')));
     let Mode::Replan(ui) = &app.ui.mode else {
         panic!()
     };
-    let Ask::Pick { options, .. } = &ui.ask else {
+    let Ask::Pick { options, title, .. } = &ui.ask else {
+        panic!()
+    };
+    assert!(options.is_empty(), "{options:?}");
+    assert!(
+        title.contains("not offered, validate would refuse: X-TOUA")
+            && title.contains("no loading station 'middle_seats'"),
+        "{title}"
+    );
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Esc));
+    let slot = select_leg(&mut app, "L15");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('a')));
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!()
+    };
+    let Ask::Pick { options, title, .. } = &ui.ask else {
         panic!()
     };
     let options = options.clone();
-    assert!(!options.is_empty());
+    assert!(!options.is_empty(), "{title}");
     assert!(
         options.iter().all(|(l, _)| !l.contains("below")),
         "{options:?}"
     );
     assert!(
-        options.iter().all(|(l, _)| !l.starts_with("X-UTLB")),
+        options.iter().all(|(l, _)| !l.starts_with("X-TOUA")),
         "not the current one"
     );
     // Finding 19: each margin has its unit and says what it is a margin of.
@@ -144,7 +163,7 @@ fn aircraft_offered_are_not_below_at_the_departure_best_first() {
     let first = options[0].clone();
     app.update(key(KeyCode::Enter));
     assert_eq!(app.plan.steps[0].step, first.1);
-    assert!(app.compared(slot).unwrap().what[0].starts_with("aircraft X-UTLB →"));
+    assert!(app.compared(slot).unwrap().what[0].starts_with("aircraft X-TOUA →"));
 }
 
 #[test]
@@ -249,20 +268,24 @@ fn the_demo_writes_in_memory_and_the_signoff_of_a_replanned_leg_needs_a_recheck(
     assert!(matches!(app.mark(k), Mark::Signed { .. }));
     app.update(key(KeyCode::Char('e')));
     app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0900");
+    type_text(&mut app, "1100");
     app.update(key(KeyCode::Enter));
     app.update(key(KeyCode::Char('w')));
     assert!(
         app.take_effects().is_empty(),
         "the demo has no file to write"
     );
-    assert!(!app.plan.pending());
+    assert!(
+        !app.plan.pending(),
+        "{:?}",
+        app.notes.iter().map(|n| &n.text).collect::<Vec<_>>()
+    );
     assert!(
         app.notes.iter().any(|n| n.text.contains("in memory only")),
         "says so"
     );
     let i = app.ops.legs.iter().position(|l| l.id == "L09").unwrap();
-    assert_eq!(app.ops.legs[i].departs_utc(), demo_time(9, 0));
+    assert_eq!(app.ops.legs[i].departs_utc(), demo_time(11, 0));
     let k = select_leg(&mut app, "L09");
     let k = app
         .assessment
@@ -639,4 +662,57 @@ fn a_leg_they_removed_and_we_changed_is_a_real_conflict() {
         "{}",
         app.notes[0].text
     );
+}
+
+/// H: a step validate would refuse is shown but does not block further steps; the
+/// save vets the whole plan, so moving L09 onto L04's time (X-TOUA on both) is refused
+/// until L04 moves too, and then the plan saves.
+#[test]
+fn the_save_vets_the_whole_plan_and_a_single_step_does_not_block() {
+    let mut app = demo_stepped_to(8);
+    let notes = |app: &App| app.notes.iter().map(|n| n.text.clone()).collect::<Vec<_>>();
+    select_leg(&mut app, "L09");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0900");
+    app.update(key(KeyCode::Enter));
+    assert!(app.plan.pending());
+    assert!(
+        notes(&app)
+            .iter()
+            .any(|n| n.starts_with("L09: validate would refuse") && n.contains("overlaps leg L09")),
+        "{:?}",
+        notes(&app)
+    );
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Char('w')));
+    assert!(app.plan.pending(), "refused: {:?}", notes(&app));
+    assert!(
+        notes(&app)
+            .iter()
+            .any(|n| n.starts_with("nothing written: validate would refuse")
+                && n.contains("aircraft X-TOUA is on leg L04")),
+        "{:?}",
+        notes(&app)
+    );
+    // Moving L04 out of the way settles it: the plan as a whole is sound.
+    app.update(key(KeyCode::Esc));
+    select_leg(&mut app, "L04");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "1300");
+    app.update(key(KeyCode::Enter));
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Char('w')));
+    assert!(!app.plan.pending(), "{:?}", notes(&app));
+    assert!(notes(&app).iter().any(|n| n.contains("in memory only")));
+    let departs = |id: &str| {
+        app.ops
+            .legs
+            .iter()
+            .find(|l| l.id == id)
+            .map(|l| l.departs_utc().format("%H%M").to_string())
+    };
+    assert_eq!(departs("L09").as_deref(), Some("0900"));
+    assert_eq!(departs("L04").as_deref(), Some("1300"));
 }

@@ -704,3 +704,98 @@ fn afternoon_150x40() {
     let mut app = demo_stepped_to(15);
     insta::assert_snapshot!(render(&mut app, 150, 40).backend());
 }
+
+/// The board's headroom (legs table and detail) says what the report says: a bound
+/// at the table's coldest column reads `≤` and "at least … cooler", never "below
+/// from" a temperature the search merely stopped at.
+#[test]
+fn headroom_reads_as_the_report_words_it() {
+    use rhoboard::board::display::Show;
+    for hour in [8, 15] {
+        let app = demo_stepped_to(hour);
+        let show = Show::of(&app.ops);
+        for r in &app.assessment.legs {
+            let cell = rhoboard::board::view::headroom_cell(show, r);
+            let words = rhoboard::board::detail::headroom_words(r, show);
+            match r.headroom {
+                None => assert_eq!(cell, "—", "{}", r.id),
+                Some(h) => {
+                    // The demo operator shows °C: the report's own figure and words.
+                    assert_eq!(cell, h.figure(), "{}", r.id);
+                    assert_eq!(words, h.words(), "{}", r.id);
+                    if h.table_ends && h.warming_c < 0.0 {
+                        assert!(cell.starts_with('≤'), "{}: {cell}", r.id);
+                        assert!(words.contains("at least"), "{}: {words}", r.id);
+                    }
+                }
+            }
+        }
+    }
+}
+
+/// Every limit row of every leg's detail shows a margin that is the difference of the
+/// value and limit it shows (`60 L limit 49 L margin +11 L`, never `+12 L`), and a row
+/// with no value says why ("no ceiling reported").
+#[test]
+fn limit_rows_show_a_margin_equal_to_the_shown_difference() {
+    let parse = |s: &str| -> Option<f64> {
+        s.split_whitespace()
+            .next()?
+            .replace('−', "-")
+            .trim_start_matches('+')
+            .parse()
+            .ok()
+    };
+    let (mut rows, mut no_ceiling) = (0, 0);
+    for hour in [8, 15] {
+        let app = demo_stepped_to(hour);
+        for r in &app.assessment.legs {
+            let text: Vec<String> = rhoboard::board::detail::lines(
+                &app.ops,
+                r,
+                None,
+                rhoboard::board::theme::Theme { color: false },
+                160,
+            )
+            .iter()
+            .map(|l| l.to_string())
+            .collect();
+            for (i, line) in text.iter().enumerate() {
+                let Some((head, rest)) = line.split_once(" limit ") else {
+                    continue;
+                };
+                let Some((limit, margin)) = rest.split_once(" margin ") else {
+                    continue;
+                };
+                let value = head.trim().rsplit("  ").next().unwrap_or("");
+                let value = value.split_whitespace().rev().nth(1).unwrap_or("");
+                match (
+                    value.parse::<f64>().ok(),
+                    parse(limit),
+                    parse(margin.trim()),
+                ) {
+                    (Some(v), Some(l), Some(m)) => {
+                        rows += 1;
+                        let d = [(v - l), (l - v)];
+                        assert!(d.iter().any(|d| (d - m).abs() < 1e-6), "{}: {line}", r.id);
+                    }
+                    (None, Some(_), _)
+                        if head.trim_end().ends_with('—')
+                            && line.trim_start().starts_with("ceiling") =>
+                    {
+                        no_ceiling += 1;
+                        assert!(
+                            text.get(i + 1)
+                                .is_some_and(|n| n.trim().contains("ceiling")),
+                            "{}: {line} has no note",
+                            r.id
+                        );
+                    }
+                    _ => {}
+                }
+            }
+        }
+    }
+    assert!(rows > 50, "only {rows} rows checked");
+    assert!(no_ceiling > 0, "the demo has CAVOK/no-ceiling reports");
+}

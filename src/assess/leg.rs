@@ -543,33 +543,50 @@ impl Headroom {
     /// table's top), `-3.2°C`, `≤-38.7°C` (still below at the table's bottom: at least
     /// that much cooling needed).
     pub fn figure(&self) -> String {
+        self.figure_in(|d| d, "°C")
+    }
+
+    /// [`Headroom::figure`] in another temperature unit: `diff` turns a difference in
+    /// °C into the unit `unit` names (× 1.8 for °F).
+    pub fn figure_in(&self, diff: impl Fn(f64) -> f64, unit: &str) -> String {
         let mark = match (self.table_ends, self.warming_c >= 0.0) {
             (false, _) => "",
             (true, true) => "≥",
             (true, false) => "≤",
         };
-        format!("{mark}{:+.1}°C", self.warming_c)
+        format!("{mark}{:+.1}{unit}", diff(self.warming_c))
     }
 
     /// The headroom in words, saying when the figure is only a bound.
     pub fn words(&self) -> String {
+        self.words_in(|d| d, |t| t, "°C")
+    }
+
+    /// [`Headroom::words`] in another temperature unit: `diff` turns a difference in
+    /// °C into the unit `unit` names, `temp` a temperature.
+    pub fn words_in(
+        &self,
+        diff: impl Fn(f64) -> f64,
+        temp: impl Fn(f64) -> f64,
+        unit: &str,
+    ) -> String {
+        let (w, t) = (diff(self.warming_c), temp(self.warmest_oat_c));
         match (self.table_ends, self.warming_c >= 0.0) {
             (false, true) => format!(
-                "{:+.1} °C of warming left (below from a departure OAT of {:.1} °C)",
-                self.warming_c, self.warmest_oat_c
+                "{w:+.1} {unit} of warming left (below from a departure OAT of {t:.1} {unit})"
             ),
             (true, true) => format!(
-                "≥ {:+.1} °C of warming left (the flight-manual table ends at {:.1} °C)",
-                self.warming_c, self.warmest_oat_c
+                "≥ {w:+.1} {unit} of warming left (the flight-manual table ends at {t:.1} {unit})"
             ),
             (false, false) => format!(
-                "below now; needs {:.1} °C cooler (not below from a departure OAT of {:.1} °C down)",
-                -self.warming_c, self.warmest_oat_c
+                "below now; needs {:.1} {unit} cooler (not below from a departure OAT of \
+                 {t:.1} {unit} down)",
+                -w
             ),
             (true, false) => format!(
-                "below now; needs at least {:.1} °C cooler (still below at a departure OAT of \
-                 {:.1} °C, where the flight-manual table ends)",
-                -self.warming_c, self.warmest_oat_c
+                "below now; needs at least {:.1} {unit} cooler (still below at a departure OAT \
+                 of {t:.1} {unit}, where the flight-manual table ends)",
+                -w
             ),
         }
     }

@@ -61,6 +61,29 @@ fn limit_row(
     ]));
 }
 
+/// A limit's value, limit and margin as shown ([`LimitCheck::shown`]): the margin is
+/// the shown value minus the shown limit, never rounded up (`60.4 L limit 48.6 L margin
+/// +11.8 L`, not `60 L limit 49 L margin +12 L`). Negative margins carry `minus`.
+fn shown_figures(
+    c: &crate::assess::limits::LimitCheck,
+    minus: &str,
+    convert: impl Fn(f64) -> f64,
+    unit: &str,
+    decimals: usize,
+) -> (String, String, String) {
+    let s = c.shown(convert, decimals);
+    let d = s.decimals;
+    let fig = |x: Option<f64>| x.map_or("—".to_string(), |x| format!("{x:.d$} {unit}"));
+    let margin = s.margin.map_or("—".to_string(), |m| {
+        if m < 0.0 {
+            format!("{minus}{:.d$} {unit}", -m)
+        } else {
+            format!("+{m:.d$} {unit}")
+        }
+    });
+    (fig(s.value), fig(s.limit), margin)
+}
+
 fn indented(depth: usize, text: impl Into<String>) -> Line<'static> {
     Line::from(format!("{}{}", "  ".repeat(depth), text.into()))
 }
@@ -317,27 +340,14 @@ fn mass_balance(
         if c.kind == crate::assess::limits::LimitKind::Loading && c.state == State::Within {
             continue;
         }
-        let conv = |v: f64| -> String {
-            match c.unit {
-                "kg" => mass(v, unit),
-                "mm" => arm(v, unit),
-                u => format!("{v:.0} {u}"),
-            }
+        let (convert, unit, decimals): (fn(f64) -> f64, &str, usize) = match (c.unit, unit) {
+            ("kg", MassUnit::Lb) => (crate::units::kg_to_lb, "lb", 0),
+            ("mm", MassUnit::Lb) => (|mm| mm / 25.4, "in", 1),
+            (u, _) => (|v| v, u, 0),
         };
-        let v = c.value.map_or("—".to_string(), conv);
-        let lim = c.limit.map_or("—".to_string(), conv);
-        let margin = if c.margin.is_finite() {
-            let m = conv(c.margin.abs());
-            if c.margin < 0.0 {
-                format!("−{m}")
-            } else {
-                format!("+{m}")
-            }
-        } else {
-            "—".to_string()
-        };
+        let (v, lim, margin) = shown_figures(c, "−", convert, unit, decimals);
         limit_row(out, t, &c.label(), &v, &lim, &margin, c.state);
-        if !c.note.is_empty() && c.state != State::Within {
+        if !c.note.is_empty() && (c.state != State::Within || c.value.is_none()) {
             out.push(indented(3, c.note.clone()));
         }
         if !c.source.is_empty() {
@@ -470,26 +480,15 @@ fn envelope_drawing(
     out
 }
 
-/// Headroom in words for the detail.
+/// Headroom in words for the detail, as the report words it
+/// ([`Headroom::words`](crate::assess::leg::Headroom::words)), in the display unit.
 pub fn headroom_words(r: &LegResult, show: Show) -> String {
     match r.headroom {
         None => "— (no data)".to_string(),
-        Some(h) if h.table_ends && h.warming_c >= 0.0 => format!(
-            "≥ {} of warming (the flight-manual table ends at {})",
-            show.warming(h.warming_c),
-            show.temp(h.warmest_oat_c)
-        ),
-        Some(h) if h.warming_c < 0.0 => format!(
-            "{}: below now; needs {:.1} {} cooler (below from {})",
-            show.warming(h.warming_c),
-            show.warming_value(-h.warming_c),
+        Some(h) => h.words_in(
+            |d| show.warming_value(d),
+            |c| show.temp_value(c),
             show.temp_unit(),
-            show.temp(h.warmest_oat_c)
-        ),
-        Some(h) => format!(
-            "{} of warming left (below from {})",
-            show.warming(h.warming_c),
-            show.temp(h.warmest_oat_c)
         ),
     }
 }
@@ -626,24 +625,18 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, show: Show, t: Theme
         out.push(plain("Limits:"));
         for l in &s.limits {
             let vis = l.kind == crate::assess::limits::LimitKind::Visibility;
-            let fmt = |v: f64, sign: bool| {
-                let (v, unit) = show.limit_value(v, l.unit, vis);
-                let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
-                if sign {
-                    format!("{v:+.d$} {unit}")
-                } else {
-                    format!("{v:.d$} {unit}")
-                }
-            };
-            let v = l.value.map_or("—".to_string(), |v| fmt(v, false));
-            let lim = l.limit.map_or("—".to_string(), |v| fmt(v, false));
-            let margin = if l.margin.is_finite() {
-                fmt(l.margin, true)
-            } else {
-                "—".to_string()
-            };
+            let (_, unit) = show.limit_value(0.0, l.unit, vis);
+            let decimals = if matches!(unit, "SM" | "in") { 1 } else { 0 };
+            let (v, lim, margin) = shown_figures(
+                l,
+                "-",
+                |v| show.limit_value(v, l.unit, vis).0,
+                unit,
+                decimals,
+            );
             limit_row(out, t, &l.label(), &v, &lim, &margin, l.state);
-            if !l.note.is_empty() && l.state != State::Within {
+            // A row with no value ("— limit 3000 ft") says why ("no ceiling reported").
+            if !l.note.is_empty() && (l.state != State::Within || l.value.is_none()) {
                 out.push(indented(3, show.in_text(&l.note)));
             }
             if !l.source.is_empty() {
@@ -677,8 +670,9 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, show: Show, 
     ));
     let wind = if c.wind_factoring_in_manual {
         format!(
-            "wind: {:+.0} kt headwind (the manual's figures include the factoring) → × {:.3}",
-            c.headwind_reported_kt, c.wind_factor
+            "wind: {:+.1} kt headwind reported, counted as it is (the manual's table factors \
+             the wind itself) → × {:.3}",
+            c.headwind_used_kt, c.wind_factor
         )
     } else {
         format!(

@@ -49,7 +49,8 @@ impl Show {
         }
     }
 
-    fn temp_value(self, c: f64) -> f64 {
+    /// A temperature in the display unit.
+    pub fn temp_value(self, c: f64) -> f64 {
         match self.0.temperature {
             TemperatureUnit::C => c,
             TemperatureUnit::F => units::c_to_f(c),
@@ -185,5 +186,30 @@ mod tests {
         assert_eq!(s.limit_value(1609.344, "m", true), (1.0, "SM"));
         assert_eq!(s.limit_value(20.0, "kt", false), (20.0, "kt"));
         assert_eq!(s.limit_value(25.4, "mm", false), (1.0, "in"));
+    }
+
+    #[test]
+    fn a_bounded_headroom_keeps_its_mark_in_fahrenheit() {
+        // A temperature difference of 1 °C is 1.8 °F and 0 °C is 32 °F (NIST SP 811,
+        // appendix B): 38.7 °C cooler is 69.7 °F, a table end at -10 °C is 14 °F.
+        let h = crate::assess::leg::Headroom {
+            warming_c: -38.7,
+            warmest_oat_c: -10.0,
+            table_ends: true,
+            survives_expected_high: None,
+        };
+        let s = imperial();
+        assert_eq!(
+            h.figure_in(|d| s.warming_value(d), s.temp_unit()),
+            "≤-69.7°F"
+        );
+        let w = h.words_in(|d| s.warming_value(d), |c| s.temp_value(c), s.temp_unit());
+        assert_eq!(
+            w,
+            "below now; needs at least 69.7 °F cooler (still below at a departure OAT of \
+             14.0 °F, where the flight-manual table ends)"
+        );
+        // In °C the words are the report's own.
+        assert_eq!(h.words_in(|d| d, |c| c, "°C"), h.words());
     }
 }

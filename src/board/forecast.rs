@@ -48,11 +48,14 @@ pub fn looks(
         .collect()
 }
 
-/// The leg row's cell: `fails ~1340Z`, `holds`, `below now`, or `—` (no forecast).
+/// The leg row's cell: `fails ~1340Z`, `holds`, `below now`, `forecast only` (the
+/// leg is observed no-data: the forecast alone never reads better than that), or `—`
+/// (no forecast).
 pub fn cell(l: Option<&LookAhead>, observed: State) -> String {
     match l {
         None => "—".to_string(),
         Some(_) if observed == State::Below => "below now".to_string(),
+        Some(l) if l.observation_missing => "forecast only".to_string(),
         Some(l) => match l.fails_from {
             Some(t) => format!("fails ~{}", t.format("%H%MZ")),
             None => format!("{} holds", l.state.glyph()),
@@ -66,9 +69,8 @@ pub fn summary(l: Option<&LookAhead>, observed: State) -> String {
         None => "no forecast".to_string(),
         Some(_) if observed == State::Below => "forecast ✗ below (below now)".to_string(),
         Some(l) => format!(
-            "forecast {} {}{}",
-            l.state.glyph(),
-            l.state.word(),
+            "forecast {}{}",
+            l.state_words(),
             match l.fails_from {
                 Some(t) => format!("; would be below if flown from ~{}", t.format("%H%MZ")),
                 None => "; holds all day".to_string(),
@@ -115,8 +117,13 @@ pub fn detail_lines(app: &App, k: usize, t: Theme) -> Vec<Line<'static>> {
             lines.push(Line::from(vec![
                 ratatui::text::Span::raw("  forecast state at the planned times: "),
                 ratatui::text::Span::styled(
-                    format!("{} {}", l.state.glyph(), l.state.word()),
-                    t.state(l.state),
+                    l.state_words(),
+                    // With nothing observed, styled as the observation (no-data).
+                    t.state(if l.observation_missing {
+                        r.state
+                    } else {
+                        l.state
+                    }),
                 ),
                 ratatui::text::Span::raw(format!(
                     " (observed now: {} {})",

@@ -546,7 +546,63 @@ impl App {
         };
         self.plan.steps.push(Planned { slot, step, label });
         self.replan();
+        // Shown, not blocking: a later step may settle it; `w` refuses what is left.
+        let vetting = self
+            .plan
+            .slots
+            .get(slot)
+            .and_then(|s| self.plan_vetting(slot, &s.leg));
+        if let Some(v) = vetting {
+            for r in &v.refusals {
+                self.notice(NoteKind::Error, format!("{id}: validate would refuse: {r}"));
+            }
+            for w in &v.warnings {
+                self.notice(NoteKind::Info, format!("{id}: warning: {w}"));
+            }
+        }
         Ok(())
+    }
+
+    /// What `validate` would say of slot `slot`'s planned leg (as `leg set` vets it,
+    /// [`crate::replan::vet`]), with every other planned change to the operator's legs
+    /// already made: so a plan may move a leg onto another's time and move that one
+    /// too. `leg` stands in for the slot's leg (a candidate change). `None` for a copy
+    /// or a cancelled leg (not vetted).
+    pub fn plan_vetting(&self, slot: usize, leg: &Leg) -> Option<crate::replan::Vetting> {
+        let s = self.plan.slots.get(slot)?;
+        let Origin::Original(o) = s.origin else {
+            return None;
+        };
+        if s.cancelled {
+            return None;
+        }
+        let mut ops = self.ops.clone();
+        for (k, other) in self.plan.slots.iter().enumerate() {
+            if k == slot || other.cancelled {
+                continue;
+            }
+            if let Origin::Original(j) = other.origin
+                && let Some(l) = ops.legs.get_mut(j)
+            {
+                l.clone_from(&other.leg);
+            }
+        }
+        Some(crate::replan::vet(&ops, o, leg))
+    }
+
+    /// Every refusal of the whole plan ([`App::plan_vetting`] of each changed leg),
+    /// `"L16: …"`.
+    pub fn plan_refusals(&self) -> Vec<String> {
+        let mut out = Vec::new();
+        for (k, s) in self.plan.slots.iter().enumerate() {
+            if !self.slot_changed(k) {
+                continue;
+            }
+            if let Some(v) = self.plan_vetting(k, &s.leg) {
+                out.extend(v.refusals.into_iter().map(|r| format!("{}: {r}", s.leg.id)));
+            }
+        }
+        out
     }
 
     /// `u`: undoes the last change.
@@ -634,6 +690,17 @@ impl App {
             self.notice(
                 NoteKind::Info,
                 "nothing to write: no pending changes".into(),
+            );
+            return;
+        }
+        let refusals = self.plan_refusals();
+        if !refusals.is_empty() {
+            self.notice(
+                NoteKind::Error,
+                format!(
+                    "nothing written: validate would refuse the plan: {}",
+                    refusals.join("; ")
+                ),
             );
             return;
         }
@@ -1103,8 +1170,10 @@ impl App {
             return Ask::Menu;
         };
         let m = &self.assessment.matrix;
+        let show = super::display::Show::of(&self.ops);
         let fi = self.ops.airfields.iter().position(|f| f.id == leg.from);
         let mut options: Vec<(State, f64, String, Step)> = Vec::new();
+        let mut refused: Vec<String> = Vec::new();
         for (ai, &a) in m.aircraft.iter().enumerate() {
             let Some(ac) = self.ops.aircraft.get(a) else {
                 continue;
@@ -1119,6 +1188,14 @@ impl App {
             if c.state == State::Below {
                 continue;
             }
+            let mut trial = leg.clone();
+            trial.aircraft.clone_from(&ac.registration);
+            if let Some(v) = self.plan_vetting(slot, &trial)
+                && let Some(r) = v.refusals.first()
+            {
+                refused.push(format!("{} ({r})", ac.registration));
+                continue;
+            }
             // Best first by margin ÷ buffer, which compares %, kt and ft; the label
             // gives the margin with its unit and what it is a margin of.
             let score = if c.score.is_finite() {
@@ -1126,20 +1203,16 @@ impl App {
             } else {
                 f64::NEG_INFINITY
             };
-            let margin = if c.margin_percent.is_finite() {
-                let unit = c.limiting.margin_unit();
-                let sep = if unit == "%" || unit.is_empty() {
-                    ""
-                } else {
-                    " "
-                };
-                format!(
-                    "{:+.0}{sep}{unit} {}",
-                    c.margin_percent,
-                    super::view::limit_word(c.limiting)
-                )
-            } else {
-                "—".into()
+            let margin = match super::view::pair_margin(c, show) {
+                Some((m, unit, d)) => {
+                    let sep = if unit == "%" || unit.is_empty() {
+                        ""
+                    } else {
+                        " "
+                    };
+                    format!("{m:+.d$}{sep}{unit} {}", c.limiting_words())
+                }
+                None => "—".into(),
             };
             options.push((
                 c.state,
@@ -1157,10 +1230,20 @@ impl App {
         }
         options.sort_by(|a, b| a.0.cmp(&b.0).then(b.1.total_cmp(&a.1)));
         Ask::Pick {
-            title: format!(
-                "Another aircraft for {} (pairings at {} not below, best first)",
-                leg.id, leg.from
-            ),
+            title: if refused.is_empty() {
+                format!(
+                    "Another aircraft for {} (pairings at {} not below, best first)",
+                    leg.id, leg.from
+                )
+            } else {
+                format!(
+                    "Another aircraft for {} (pairings at {} not below, best first; not offered, \
+                     validate would refuse: {})",
+                    leg.id,
+                    leg.from,
+                    refused.join("; ")
+                )
+            },
             options: options.into_iter().map(|(_, _, l, s)| (l, s)).collect(),
             cursor: 0,
         }

@@ -17,6 +17,7 @@ use super::layout::{BoardLayout, LayoutSettings, MIN_SIZE};
 use super::runway_form::{RUNWAY_FIELDS, RunwayForm};
 use super::theme::Theme;
 use crate::assess::leg::FieldWx;
+use crate::assess::limits::LimitKind;
 use crate::assess::pairing::{PairCell, PairLimit};
 use crate::assess::{LegResult, State};
 use crate::observation::Report;
@@ -305,20 +306,13 @@ fn tabs(app: &App, area: Rect, legs_rows: Option<usize>, buf: &mut Buffer, t: Th
     }
 }
 
-/// Headroom in the legs table: `≥+23.0°C` (the table ends first), `-6.3°C`, or `—`.
+/// Headroom in the legs table: `≥+23.0°C` (the table ends first), `-6.3°C`,
+/// `≤-38.7°C` (still below at the table's coldest column), or `—`
+/// ([`Headroom::figure`](crate::assess::leg::Headroom::figure), as the report says).
 pub fn headroom_cell(show: Show, r: &LegResult) -> String {
     match r.headroom {
         None => "—".to_string(),
-        Some(h) => format!(
-            "{}{:+.1}{}",
-            if h.table_ends && h.warming_c >= 0.0 {
-                "≥"
-            } else {
-                ""
-            },
-            show.warming_value(h.warming_c),
-            show.temp_unit()
-        ),
+        Some(h) => h.figure_in(|d| show.warming_value(d), show.temp_unit()),
     }
 }
 
@@ -488,38 +482,59 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     fit::table(table, &styles, t.heading(), area, buf);
 }
 
-fn cell_text(c: &PairCell) -> String {
-    if !c.margin_percent.is_finite() {
-        return format!("{} —", c.state.glyph());
-    }
-    let m = c.margin_percent;
-    match c.limiting {
-        PairLimit::Takeoff | PairLimit::Climb | PairLimit::Landing => {
-            format!("{}{:+.0}%", c.state.glyph(), m)
+/// A pairing's margin in the display unit, with its unit: the limiting check's, or
+/// the deciding weather minimum's (`+200ft` of ceiling), `None` where there is none.
+pub(super) fn pair_margin(c: &PairCell, show: Show) -> Option<(f64, &'static str, usize)> {
+    let m = c.margin()?;
+    let vis = c
+        .minimum
+        .is_some_and(|w| c.limiting == PairLimit::Weather && w.kind == LimitKind::Visibility);
+    let (m, unit) = show.limit_value(m, c.margin_unit(), vis);
+    let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
+    Some((m, unit, d))
+}
+
+/// A pairing's headroom, marked as a bound where the tables end first (`≥+8.0 °C`,
+/// `≤-38.7 °C`); `—` for no data or a pairing below for a reason temperature cannot
+/// change (wind, the field's weather).
+fn pair_headroom(c: &PairCell, show: Show) -> String {
+    match c.headroom_c {
+        None => "—".to_string(),
+        Some(h) => {
+            let mark = match (c.headroom_table_ends, h >= 0.0) {
+                (false, _) => "",
+                (true, true) => "≥",
+                (true, false) => "≤",
+            };
+            format!("{mark}{}", show.warming(h))
         }
-        PairLimit::Crosswind | PairLimit::Tailwind => format!("{}{:+.0}kt", c.state.glyph(), m),
-        PairLimit::DensityAltitude => format!("{}{:+.0}ft", c.state.glyph(), m),
-        _ => format!("{}{:+.0}", c.state.glyph(), m),
     }
 }
 
-pub(super) fn limit_word(l: PairLimit) -> &'static str {
-    match l {
-        PairLimit::None => "nothing",
-        PairLimit::Takeoff => "takeoff distance",
-        PairLimit::Climb => "climb",
-        PairLimit::Landing => "landing distance",
-        PairLimit::Crosswind => "crosswind",
-        PairLimit::Tailwind => "tailwind",
-        PairLimit::DensityAltitude => "density altitude",
-        PairLimit::Weather => "the field's weather",
-        PairLimit::Observation => "no usable report",
-        PairLimit::Table => "the flight-manual tables",
+/// A pairing's cell: its glyph and margin with its unit (`✓+12%`, `✗-4kt`, `~+200ft`).
+fn cell_text(c: &PairCell, show: Show) -> String {
+    match pair_margin(c, show) {
+        None => format!("{} —", c.state.glyph()),
+        Some((m, unit, d)) => format!("{}{m:+.d$}{unit}", c.state.glyph()),
+    }
+}
+
+/// What limits a pairing, naming the weather minimum (`ceiling`, `gust`), with its
+/// margin where it has one: `ceiling (+200 ft)`.
+pub(super) fn limit_word(c: &PairCell, show: Show) -> String {
+    match pair_margin(c, show) {
+        Some((m, unit, d)) if !unit.is_empty() => {
+            let sep = if unit == "%" { "" } else { " " };
+            format!("{} ({m:+.d$}{sep}{unit})", c.limiting_words())
+        }
+        Some((m, _, d)) => format!("{} ({m:+.d$})", c.limiting_words()),
+        None => c.limiting_words().to_string(),
     }
 }
 
 fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let m = &app.assessment.matrix;
+    let show = Show::of(&app.ops);
     if m.aircraft.is_empty() || m.fields == 0 {
         Paragraph::new("No available aircraft or no airfields.").render(area, buf);
         return;
@@ -554,7 +569,7 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             if (ai, fi) == (cur_a, cur_f) {
                 style = style.patch(t.selected());
             }
-            Cell::from(cell_text(c)).style(style)
+            Cell::from(cell_text(c, show)).style(style)
         }));
         Row::new(cells.collect::<Vec<_>>())
     });
@@ -578,10 +593,9 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             "{reg} at {}: {} on runway {runway}, limited by {}; best end {}; headroom {}. Enter opens its chain.",
             field.map_or("—", |f| f.id.as_str()),
             state_text(c.state),
-            limit_word(c.limiting),
+            limit_word(c, show),
             state_text(c.best_end_state),
-            c.headroom_c
-                .map_or("—".to_string(), |h| Show::of(&app.ops).warming(h))
+            pair_headroom(c, show)
         )
     } else {
         String::new()
@@ -1395,4 +1409,52 @@ fn field_panel(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         .flat_map(|l| fit::wrap(l, w, None))
         .collect();
     Paragraph::new(lines).render(inner, buf);
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::assess::pairing::WeatherMinimum;
+    use crate::ops::operator::{
+        DisplayUnits, DistanceUnit, MassUnit, PressureUnit, TemperatureUnit,
+    };
+
+    fn show(distance: DistanceUnit) -> Show {
+        Show(DisplayUnits {
+            distance,
+            mass: MassUnit::Kg,
+            pressure: PressureUnit::Hpa,
+            temperature: TemperatureUnit::C,
+        })
+    }
+
+    fn weather(kind: LimitKind, margin: f64, unit: &'static str) -> PairCell {
+        PairCell {
+            state: State::Below,
+            score: -1.0,
+            margin_percent: f64::NAN,
+            limiting: PairLimit::Weather,
+            best_end_state: State::Below,
+            end_in_use: Some(0),
+            headroom_c: None,
+            headroom_table_ends: false,
+            minimum: Some(WeatherMinimum { kind, margin, unit }),
+        }
+    }
+
+    /// A pairing the weather decides names its minimum with its margin and unit,
+    /// never "the field's weather" with no margin.
+    #[test]
+    fn a_weather_decided_pairing_names_its_minimum_and_margin() {
+        let c = weather(LimitKind::Ceiling, -200.0, "ft");
+        let m = show(DistanceUnit::M);
+        assert_eq!(cell_text(&c, m), "✗-200ft");
+        assert_eq!(limit_word(&c, m), "ceiling (-200 ft)");
+        assert_eq!(pair_headroom(&c, m), "—");
+        // 1 SM = 1609.344 m (NIST SP 811): a visibility margin in SM with distances
+        // in ft.
+        let v = weather(LimitKind::Visibility, -1609.344, "m");
+        assert_eq!(cell_text(&v, show(DistanceUnit::Ft)), "✗-1.0SM");
+        assert_eq!(limit_word(&v, m), "visibility (-1609 m)");
+    }
 }
