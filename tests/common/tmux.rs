@@ -65,24 +65,33 @@ impl Session {
         );
         let s = Session { name, home };
         let (w, h) = (width.to_string(), height.to_string());
-        let status = Command::new("tmux")
-            .args([
-                "new-session",
-                "-d",
-                "-s",
-                &s.name,
-                "-x",
-                &w,
-                "-y",
-                &h,
-                "sh",
-                "-c",
-                &script,
-            ])
-            .status()
-            .expect("tmux new-session");
-        assert!(status.success());
-        s
+        // Tests run in parallel: two first sessions can race to start the tmux server,
+        // and the loser's new-session fails. Try again a few times before giving up.
+        let mut last = String::new();
+        for attempt in 0..5 {
+            let out = Command::new("tmux")
+                .args([
+                    "new-session",
+                    "-d",
+                    "-s",
+                    &s.name,
+                    "-x",
+                    &w,
+                    "-y",
+                    &h,
+                    "sh",
+                    "-c",
+                    &script,
+                ])
+                .output()
+                .expect("tmux new-session");
+            if out.status.success() {
+                return s;
+            }
+            last = String::from_utf8_lossy(&out.stderr).into_owned();
+            std::thread::sleep(Duration::from_millis(200 * (attempt + 1)));
+        }
+        panic!("tmux new-session failed five times: {last}")
     }
 
     /// The screen now.
