@@ -151,10 +151,8 @@ fn axes_not_increasing() {
     insta::assert_snapshot!(validate_case("axes-not-increasing"), @r#"
     1 error(s):
       fleet/types/tiny.json:11:68: performance.axes.pressure_altitude_ft[1]: axis pressure_altitude_ft must be strictly increasing, but 0 follows 8000
-    3 warning(s):
-      fleet/aircraft.json:4:43: aircraft[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
-      fleet/aircraft.json:5:43: aircraft[1].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
-      pilots.json:5:44: pilots[0].endorsements.solo[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      fleet/aircraft.json:4:43: aircraft[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -228,9 +226,8 @@ fn json_syntax() {
     insta::assert_snapshot!(validate_case("json-syntax"), @r#"
     1 error(s):
       airfields/XAAA.json:5:24: JSON syntax: key must be a string
-    2 warning(s):
-      legs/2026-06-14.json:6:62: legs[0].from: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
-      legs/2026-06-14.json:8:67: legs[1].to: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      legs/2026-06-14.json:6:62: legs[0].from: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -380,9 +377,8 @@ fn schema_errors_top_and_list() {
     2 error(s):
       airfields/XBBB.json:5:25: elevation_ft: invalid type: string "1200", expected a number (the unit is in the field name)
       airfields/XBBB.json:10:127: runway_ends[0].surface: unknown variant `gras`, expected `paved` or `grass`
-    2 warning(s):
-      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
-      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -393,9 +389,8 @@ fn schema_version() {
     insta::assert_snapshot!(validate_case("schema-version"), @r#"
     1 error(s):
       airfields/XBBB.json:2:21: schema_version: schema_version 2 is not one this build reads (1)
-    2 warning(s):
-      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
-      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -416,10 +411,8 @@ fn table_shape() {
     insta::assert_snapshot!(validate_case("table-shape"), @r#"
     1 error(s):
       fleet/types/tiny.json:13:38: performance.takeoff.ground_roll_m[0][1]: expected 2 columns (one per oat_c value), found 1
-    3 warning(s):
-      fleet/aircraft.json:4:43: aircraft[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
-      fleet/aircraft.json:5:43: aircraft[1].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
-      pilots.json:5:44: pilots[0].endorsements.solo[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      fleet/aircraft.json:4:43: aircraft[0].type_id: 'tiny' is in fleet/types/tiny.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -464,9 +457,8 @@ fn unknown_fields() {
     2 error(s):
       airfields/XAAA.json:10:50: runway_ends[0].tora: unknown field `tora`, expected one of `designator`, `true_heading_deg`, `tora_m`, `toda_m`, `asda_m`, `lda_m`, `surface`, `condition`, `slope_percent`, `required_climb_gradient`, `intersections`
       airfields/XAAA.json:11:130: runway_ends[1].surface: unknown variant `asphalt`, expected `paved` or `grass`
-    2 warning(s):
-      legs/2026-06-14.json:6:62: legs[0].from: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
-      legs/2026-06-14.json:8:67: legs[1].to: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      legs/2026-06-14.json:6:62: legs[0].from: 'XAAA' is in airfields/XAAA.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -488,9 +480,8 @@ fn wrong_type() {
     insta::assert_snapshot!(validate_case("wrong-type"), @r#"
     1 error(s):
       airfields/XBBB.json:5:27: elevation_ft: invalid type: string "1200ft", expected a number (the unit is in the field name)
-    2 warning(s):
-      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
-      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -539,9 +530,8 @@ fn every_problem_in_one_run() {
     2 error(s):
       airfields/XBBB.json:5:25: colour: unknown field `colour`, expected one of `schema_version`, `replace_before_use`, `id`, `name`, `elevation_ft`, `latitude_deg`, `longitude_deg`, `magnetic_variation_deg`, `preferential_end`, `runway_ends`, `remarks`
       legs/2026-06-14.json:8:67: legs[1].to: unknown airfield 'XAAX'; add airfields/XAAX.json or fix the id; did you mean XAAA?
-    2 warning(s):
-      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
-      legs/2026-06-14.json:8:53: legs[1].from: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); not checked until that file is fixed
+    1 warning(s):
+      legs/2026-06-14.json:6:76: legs[0].to: 'XBBB' is in airfields/XBBB.json, which failed to load (see its error); references to it are not checked until that file is fixed
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);

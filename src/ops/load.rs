@@ -244,6 +244,9 @@ pub struct Collector<'a> {
     /// Files that failed to parse: the cross-file checks, run on what did load, say so
     /// instead of calling what they hold unknown.
     pub unparsed: std::collections::BTreeSet<String>,
+    /// Unparsed files already named by a reference into them (named once, not once per
+    /// reference).
+    pub unparsed_named: std::collections::BTreeSet<String>,
     /// What was found so far.
     pub report: Report,
 }
@@ -257,6 +260,7 @@ impl<'a> Collector<'a> {
             seen: Default::default(),
             per_file: HashMap::new(),
             unparsed: Default::default(),
+            unparsed_named: Default::default(),
             report: Report::default(),
         }
     }

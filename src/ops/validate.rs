@@ -958,11 +958,17 @@ fn missing_ref<'a>(
     unknown: String,
 ) {
     match c.unparsed_holding(folder, id).map(str::to_string) {
-        Some(f) => c.warn(
-            file,
-            path,
-            format!("'{id}' is in {f}, which failed to load (see its error); not checked until that file is fixed"),
-        ),
+        // Said at the first reference only: every leg at a broken airfield's file would
+        // otherwise repeat it.
+        Some(f) if c.unparsed_named.contains(&f) => {}
+        Some(f) => {
+            c.warn(
+                file,
+                path,
+                format!("'{id}' is in {f}, which failed to load (see its error); references to it are not checked until that file is fixed"),
+            );
+            c.unparsed_named.insert(f);
+        }
         None => {
             let m = format!("{unknown}{}", suggestion(id, known));
             c.error(file, path, m)
