@@ -166,8 +166,15 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                     r.observed_at
                         .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
                 ),
+                // Short: the station and its time, never the station alone (a name
+                // with no time says nothing about how fresh it is).
                 (false, Some(t)) => format!("newest {} {}", r.station, t.format("%-d %b")),
-                (false, None) => format!("newest {}", r.station),
+                (false, None) => format!(
+                    "{} {}",
+                    r.station,
+                    r.observed_at
+                        .map_or(r.time_text.clone(), |t| t.format("%H%MZ").to_string())
+                ),
             }
         }
         None => "no reports yet".to_string(),
