@@ -206,6 +206,19 @@ fn wind_below(s: &Setup<'_>, b: &Buffers, w: &EndWind) -> bool {
 }
 
 impl PairCell {
+    /// The bound mark of the headroom: `≥` (warming left beyond the tables' top) or `≤`
+    /// (at least that much cooling, the tables' bottom reached first); empty when exact.
+    pub fn headroom_mark(&self) -> &'static str {
+        match (
+            self.headroom_table_ends,
+            self.headroom_c.is_some_and(|h| h >= 0.0),
+        ) {
+            (false, _) => "",
+            (true, true) => "≥",
+            (true, false) => "≤",
+        }
+    }
+
     /// The deciding check's margin in [`PairCell::margin_unit`]: the limiting check's,
     /// or the deciding weather minimum's; `None` where there is none.
     pub fn margin(&self) -> Option<f64> {

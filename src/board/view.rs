@@ -507,14 +507,7 @@ pub(super) fn pair_margin(c: &PairCell, show: Show) -> Option<(f64, &'static str
 fn pair_headroom(c: &PairCell, show: Show) -> String {
     match c.headroom_c {
         None => "—".to_string(),
-        Some(h) => {
-            let mark = match (c.headroom_table_ends, h >= 0.0) {
-                (false, _) => "",
-                (true, true) => "≥",
-                (true, false) => "≤",
-            };
-            format!("{mark}{}", show.warming(h))
-        }
+        Some(h) => format!("{}{}", c.headroom_mark(), show.warming(h)),
     }
 }
 

@@ -509,14 +509,7 @@ pub fn pair_margin_text(c: &pairing::PairCell) -> String {
 pub fn pair_headroom_text(c: &pairing::PairCell) -> String {
     match c.headroom_c {
         None => "—".to_string(),
-        Some(h) => {
-            let mark = match (c.headroom_table_ends, h >= 0.0) {
-                (false, _) => "",
-                (true, true) => "≥",
-                (true, false) => "≤",
-            };
-            format!("{mark}{h:+.1}°C")
-        }
+        Some(h) => format!("{}{h:+.1}°C", c.headroom_mark()),
     }
 }
 
