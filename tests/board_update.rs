@@ -123,6 +123,26 @@ fn filter_narrows_the_legs_and_esc_clears_it() {
     assert!(app.ui.filter.is_empty());
 }
 
+/// A kept filter is cleared by reopening it, Ctrl-U (empty the line, as in a shell) and
+/// Enter, as well as by Esc.
+#[test]
+fn a_kept_filter_is_cleared_with_ctrl_u_and_enter() {
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Char('/')));
+    type_text(&mut app, "xhig");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.rows().len(), 4);
+    app.update(key(KeyCode::Char('/')));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    assert!(app.ui.filter.is_empty());
+    app.update(key(KeyCode::Enter));
+    assert_eq!(app.ui.mode, Mode::Normal);
+    assert_eq!(app.rows().len(), app.assessment.legs.len());
+}
+
 #[test]
 fn filter_by_state_word() {
     let mut app = demo_stepped_to(15);

@@ -1077,6 +1077,10 @@ impl App {
                     KeyCode::Backspace => {
                         self.ui.filter.pop();
                     }
+                    // Ctrl-U empties the line, as in a shell (Enter then keeps no filter).
+                    KeyCode::Char('u') if key.modifiers.contains(KeyModifiers::CONTROL) => {
+                        self.ui.filter.clear();
+                    }
                     KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
                         self.ui.filter.push(ch);
                     }

@@ -984,7 +984,9 @@ const SHORT_KEYS: [&str; 11] = [
 
 fn hints(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let text = match &app.ui.mode {
-        Mode::Filter => "type to filter · Enter keeps the filter · Esc clears it".to_string(),
+        Mode::Filter => {
+            "type to filter · Enter keeps the filter · Esc or Ctrl-U clears it".to_string()
+        }
         Mode::Help => "Esc or ? closes the help".to_string(),
         Mode::Form(_) => "Tab/↑↓ field · Enter adds the report · Esc cancels".to_string(),
         Mode::Sign(_) | Mode::Replan(_) | Mode::Conflict | Mode::ConfirmQuit => {
