@@ -321,11 +321,7 @@ fn the_demo_writes_in_memory_and_the_signoff_of_a_replanned_leg_needs_a_recheck(
 #[test]
 fn side_by_side_120x40() {
     let mut app = demo_stepped_to(13);
-    select_leg(&mut app, "L16");
-    app.update(key(KeyCode::Char('e')));
-    app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0630");
-    app.update(key(KeyCode::Enter));
+    move_l16_to_0630(&mut app);
     insta::assert_snapshot!(render(&mut app, 120, 40).backend());
 }
 
@@ -386,11 +382,7 @@ fn writing_to_an_operator_folder_saves_safely_and_adopts_the_plan() {
     let tmp = operator_folder();
     let mut app = board_on(tmp.path());
     let before = std::fs::read_to_string(legs_path(tmp.path())).unwrap();
-    select_leg(&mut app, "L16");
-    app.update(key(KeyCode::Char('e')));
-    app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0630");
-    app.update(key(KeyCode::Enter));
+    move_l16_to_0630(&mut app);
     app.update(key(KeyCode::Esc));
     assert_eq!(
         std::fs::read_to_string(legs_path(tmp.path())).unwrap(),
@@ -449,19 +441,14 @@ fn writing_to_an_operator_folder_saves_safely_and_adopts_the_plan() {
 fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() {
     let tmp = operator_folder();
     let mut app = board_on(tmp.path());
-    select_leg(&mut app, "L16");
-    app.update(key(KeyCode::Char('e')));
-    app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0630");
-    app.update(key(KeyCode::Enter));
+    move_l16_to_0630(&mut app);
     // Another dispatcher moves L16 to another aircraft meanwhile.
     let path = legs_path(tmp.path());
-    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+    let theirs = they_edit(
+        &path,
         "\"aircraft\": \"X-UTLB\"",
         "\"aircraft\": \"X-UTLA\"",
-        1,
     );
-    std::fs::write(&path, &theirs).unwrap();
     app.update(key(KeyCode::Char('w')));
     assert_eq!(run_io(&mut app), 1);
     assert!(matches!(app.ui.mode, Mode::Conflict));
@@ -506,18 +493,13 @@ fn a_legs_file_changed_on_disk_is_not_overwritten_and_both_versions_are_shown() 
 fn our_changes_go_onto_theirs_and_keep_their_unrelated_change() {
     let tmp = operator_folder();
     let mut app = board_on(tmp.path());
-    select_leg(&mut app, "L16");
-    app.update(key(KeyCode::Char('e')));
-    app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0630");
-    app.update(key(KeyCode::Enter));
+    move_l16_to_0630(&mut app);
     let path = legs_path(tmp.path());
-    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+    they_edit(
+        &path,
         "\"fuel_at_start_l\": 125,",
         "\"fuel_at_start_l\": 130,",
-        1,
     );
-    std::fs::write(&path, &theirs).unwrap();
     app.update(key(KeyCode::Char('w')));
     run_io(&mut app);
     assert!(matches!(app.ui.mode, Mode::Conflict));
@@ -540,19 +522,13 @@ fn our_changes_go_onto_theirs_and_keep_their_unrelated_change() {
 fn a_field_both_changed_is_a_real_conflict_and_nothing_is_written() {
     let tmp = operator_folder();
     let mut app = board_on(tmp.path());
-    select_leg(&mut app, "L16");
-    app.update(key(KeyCode::Char('e')));
-    app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0630");
-    app.update(key(KeyCode::Enter));
+    move_l16_to_0630(&mut app);
     let path = legs_path(tmp.path());
-    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+    let theirs = they_edit(
+        &path,
         "\"departs_at\": \"2026-06-14T12:30:00Z\"",
         "\"departs_at\": \"2026-06-14T12:45:00Z\"",
-        1,
     );
-    assert_ne!(theirs, std::fs::read_to_string(&path).unwrap());
-    std::fs::write(&path, &theirs).unwrap();
     app.update(key(KeyCode::Char('w')));
     run_io(&mut app);
     app.update(key(KeyCode::Char('o')));
@@ -579,12 +555,11 @@ fn keeping_theirs_reloads_their_legs() {
     app.update(key(KeyCode::Char('e')));
     app.update(key(KeyCode::Char('x')));
     let path = legs_path(tmp.path());
-    let theirs = std::fs::read_to_string(&path).unwrap().replacen(
+    let theirs = they_edit(
+        &path,
         "\"aircraft\": \"X-UTLB\"",
         "\"aircraft\": \"X-UTLA\"",
-        1,
     );
-    std::fs::write(&path, &theirs).unwrap();
     app.update(key(KeyCode::Char('w')));
     run_io(&mut app);
     assert!(matches!(app.ui.mode, Mode::Conflict));
@@ -637,11 +612,7 @@ fn the_loads_menu_follows_the_display_mass_unit() {
 fn a_leg_they_removed_and_we_changed_is_a_real_conflict() {
     let tmp = operator_folder();
     let mut app = board_on(tmp.path());
-    select_leg(&mut app, "L16");
-    app.update(key(KeyCode::Char('e')));
-    app.update(key(KeyCode::Char('t')));
-    type_text(&mut app, "0630");
-    app.update(key(KeyCode::Enter));
+    move_l16_to_0630(&mut app);
     let path = legs_path(tmp.path());
     let mut file: rhoboard::ops::legs::LegsFile =
         serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
@@ -715,4 +686,23 @@ fn the_save_vets_the_whole_plan_and_a_single_step_does_not_block() {
     };
     assert_eq!(departs("L09").as_deref(), Some("0900"));
     assert_eq!(departs("L04").as_deref(), Some("1300"));
+}
+
+/// Opens the what-if on L16 and moves it to 0630Z (the edit most tests start from).
+fn move_l16_to_0630(app: &mut App) {
+    select_leg(app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(app, "0630");
+    app.update(key(KeyCode::Enter));
+}
+
+/// Another dispatcher's edit of the legs file on disk: the first `from` becomes `to`
+/// (which must change the file); returns the file as they left it.
+fn they_edit(path: &std::path::Path, from: &str, to: &str) -> String {
+    let before = std::fs::read_to_string(path).unwrap();
+    let theirs = before.replacen(from, to, 1);
+    assert_ne!(theirs, before, "their edit changes the file");
+    std::fs::write(path, &theirs).unwrap();
+    theirs
 }
