@@ -1,32 +1,9 @@
 //! `rhoboard metar` end to end: readable and JSON output, stdin, exit codes.
 
-use std::io::Write;
-use std::process::{Command, Stdio};
+#[path = "common/cli.rs"]
+mod cli_common;
 
-fn rhoboard(args: &[&str], stdin: Option<&str>) -> (i32, String) {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run rhoboard");
-    if let Some(input) = stdin {
-        child
-            .stdin
-            .take()
-            .expect("stdin")
-            .write_all(input.as_bytes())
-            .expect("write stdin");
-    } else {
-        drop(child.stdin.take());
-    }
-    let out = child.wait_with_output().expect("wait");
-    (
-        out.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&out.stdout).into_owned(),
-    )
-}
+use cli_common::rhoboard;
 
 #[test]
 fn readable_decode_lists_each_group() {

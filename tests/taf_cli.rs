@@ -1,32 +1,9 @@
 //! `rhoboard taf` end to end: readable decode, JSON keys, stdin, exit codes.
 
-use std::io::Write;
-use std::process::{Command, Stdio};
+#[path = "common/cli.rs"]
+mod cli_common;
 
-fn rhoboard(args: &[&str], stdin: Option<&str>) -> (i32, String) {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run rhoboard");
-    if let Some(input) = stdin {
-        child
-            .stdin
-            .take()
-            .expect("stdin")
-            .write_all(input.as_bytes())
-            .expect("write stdin");
-    } else {
-        drop(child.stdin.take());
-    }
-    let out = child.wait_with_output().expect("wait");
-    (
-        out.status.code().unwrap_or(-1),
-        String::from_utf8_lossy(&out.stdout).into_owned(),
-    )
-}
+use cli_common::rhoboard;
 
 const TAF: &str = "TAF XQAB 140500Z 1406/1506 23008KT 9999 FEW030 TX30/1415Z TN12/1406Z \
                    FM141200 31012KT 9999 SCT040 TEMPO 1414/1416 31018G30KT 3000 TSRA BKN015CB";
