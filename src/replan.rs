@@ -173,6 +173,28 @@ pub fn vet(ops: &Ops, index: usize, changed: &Leg) -> Vetting {
     let mut after_ops = ops.clone();
     after_ops.legs[index] = changed.clone();
     let after = leg_diagnostics(&after_ops, day, index);
+    brought_in(&before, &after)
+}
+
+/// Checks a leg added to `ops` (a copy made on the board's what-if) as `validate`
+/// would once it is in `file`, the day legs file of `day`: what it brings in that `ops`
+/// did not already have is refused or warned about, as [`vet`] does for a change.
+pub fn vet_added(ops: &Ops, file: &str, day: chrono::NaiveDate, added: &Leg) -> Vetting {
+    let files = OpsFiles::default();
+    let mut c = Collector::new(&files);
+    crate::ops::validate::check_cross(ops, &mut c);
+    let mut before = c.report.errors;
+    before.extend(c.report.warnings);
+    let mut after_ops = ops.clone();
+    let in_file = ops.leg_files.iter().filter(|(f, _)| f == file).count();
+    after_ops.legs.push(added.clone());
+    after_ops.leg_files.push((file.to_string(), in_file));
+    let after = leg_diagnostics(&after_ops, day, after_ops.legs.len() - 1);
+    brought_in(&before, &after)
+}
+
+/// The diagnostics of `after` that `before` did not have: errors refused, warnings passed on.
+fn brought_in(before: &[Diagnostic], after: &[Diagnostic]) -> Vetting {
     let mut v = Vetting::default();
     // Matched on file, field and message: the positions are those of the file on disk.
     let key = |d: &Diagnostic| {
