@@ -44,7 +44,16 @@ fn the_column_and_the_detail_say_forecast() {
     let text = screen(&mut app, 120, 40);
     assert!(text.contains("forecast"), "{text}");
     assert!(text.contains("fails ~"), "{text}");
-    let k = app.rows()[0];
+    // The first leg still to depart (one gone shows when it left instead: below).
+    let k = app
+        .rows()
+        .iter()
+        .copied()
+        .find(|&k| {
+            let r = &app.assessment.legs[k];
+            app.ops.legs[r.index].departs_utc() >= app.clock
+        })
+        .unwrap();
     let lines = rhoboard::board::overlays::detail_extra(
         &app,
         k,
@@ -85,14 +94,16 @@ fn recomputed_when_a_report_arrives() {
 /// reads better than the observation.
 #[test]
 fn with_the_observation_missing_the_forecast_reads_forecast_only() {
-    use rhoboard::board::forecast::{cell, summary};
+    use rhoboard::board::forecast::{Progress, cell, summary};
     let app = demo_stepped_to(15);
     let mut seen = 0;
     for (k, r) in app.assessment.legs.iter().enumerate() {
         let Some(l) = app.look(k) else { continue };
+        // As if still ahead: the words for a leg gone are tested on their own below.
+        let ahead = Progress::Ahead;
         if !l.observation_missing {
             assert!(
-                !cell(Some(l), r.state).contains("forecast only"),
+                !cell(Some(l), r.state, ahead).contains("forecast only"),
                 "{}",
                 r.id
             );
@@ -100,8 +111,8 @@ fn with_the_observation_missing_the_forecast_reads_forecast_only() {
         }
         assert_eq!(r.state, State::NoData, "{}", r.id);
         seen += 1;
-        assert_eq!(cell(Some(l), r.state), "forecast only", "{}", r.id);
-        let s = summary(Some(l), r.state);
+        assert_eq!(cell(Some(l), r.state, ahead), "forecast only", "{}", r.id);
+        let s = summary(Some(l), r.state, ahead);
         assert!(
             s.contains("forecast only") && s.contains("no usable observation"),
             "{s}"
@@ -114,8 +125,12 @@ fn with_the_observation_missing_the_forecast_reads_forecast_only() {
         .iter()
         .map(|l| l.to_string())
         .collect();
+        // In the detail only while the leg is still to depart (L10 has landed by 15Z:
+        // its detail says so instead).
+        let gone = app.ops.legs[r.index].departs_utc() < app.clock;
+        let words = if gone { "nothing ahead to forecast" } else { "forecast only" };
         assert!(
-            detail.iter().any(|d| d.contains("forecast only")),
+            detail.iter().any(|d| d.contains(words)),
             "{}",
             detail.join("\n")
         );
@@ -124,4 +139,61 @@ fn with_the_observation_missing_the_forecast_reads_forecast_only() {
         seen > 0,
         "the demo's stale XSHT leaves a leg observed no-data"
     );
+}
+
+/// A leg already gone on the board's clock shows when it left (`left 0900Z`, still in
+/// the air) or landed (`landed 1030Z`), never a departure-end forecast as if still ahead
+/// (finding: "fails ~1311Z" on legs that had departed); legs still to go keep theirs.
+#[test]
+fn a_leg_already_gone_shows_when_it_left_not_a_forecast() {
+    use rhoboard::board::forecast::{Progress, cell, summary};
+    let mut app = demo_stepped_to(13);
+    let mut gone = 0;
+    let mut airborne = 0;
+    let mut ahead = 0;
+    for (k, r) in app.assessment.legs.iter().enumerate() {
+        let leg = &app.ops.legs[r.index];
+        let p = Progress::of(leg, app.clock);
+        let c = cell(app.look(k), r.state, p);
+        let s = summary(app.look(k), r.state, p);
+        let (dep, arr) = (leg.departs_utc(), leg.arrives_utc());
+        if dep < app.clock && arr >= app.clock {
+            airborne += 1;
+            assert_eq!(c, format!("left {}", dep.format("%H%MZ")), "{}", r.id);
+            assert!(s.contains("departed, no forecast ahead"), "{}: {s}", r.id);
+        } else if arr < app.clock {
+            gone += 1;
+            assert_eq!(c, format!("landed {}", arr.format("%H%MZ")), "{}", r.id);
+            assert!(s.contains("no forecast ahead"), "{}: {s}", r.id);
+        } else {
+            ahead += 1;
+            assert!(!c.starts_with("left") && !c.starts_with("landed"), "{}: {c}", r.id);
+        }
+    }
+    assert!(gone > 0 && airborne > 0 && ahead > 0, "{gone} {airborne} {ahead}");
+    // On screen: no "fails ~" beside a departure already past.
+    let text = screen(&mut app, 120, 40);
+    for line in text.lines().filter(|l| l.contains("fails ~")) {
+        let dep = line.split_whitespace().find(|w| w.len() == 5 && w.ends_with('Z'));
+        assert!(dep.is_some_and(|d| d >= "1300Z"), "a past departure with a forecast: {line}");
+    }
+    assert!(text.contains("landed "), "{text}");
+    // The detail says so in words.
+    let k = app
+        .assessment
+        .legs
+        .iter()
+        .position(|r| app.ops.legs[r.index].arrives_utc() < app.clock)
+        .unwrap();
+    let detail: Vec<String> = rhoboard::board::forecast::detail_lines(
+        &app,
+        k,
+        rhoboard::board::theme::Theme { color: false },
+    )
+    .iter()
+    .map(|l| l.to_string())
+    .collect();
+    let detail = detail.join("\n");
+    assert!(detail.contains("flown: departed") && detail.contains("nothing ahead to forecast"), "{detail}");
+    assert!(!detail.contains("flown from ~"), "{detail}");
 }

@@ -61,6 +61,26 @@ fn l16_becomes_within_by_moving_it_to_0630() {
     app.update(key(KeyCode::Char('t')));
     type_text(&mut app, "0630");
     app.update(key(KeyCode::Enter));
+    // 0630Z is before the board's clock (1300Z): the first Enter warns in the panel's
+    // prompt and plans nothing; a second Enter plans it (as the hand-report form does
+    // for a time after the clock).
+    assert!(app.plan.steps.is_empty(), "warned first, not planned");
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!("no what-if panel")
+    };
+    assert!(
+        matches!(&ui.ask, Ask::Type { error: Some(e), .. }
+            if e == "0630Z is 6 h 30 min before the board's clock (1300Z): the leg would have \
+                     left already. Enter again to plan it anyway (to compare), or correct the time"),
+        "{:?}",
+        ui.ask
+    );
+    let warned = screen(&mut app, 120, 40);
+    assert!(
+        warned.contains("✗ 0630Z is 6 h 30 min before the board's clock (1300Z)"),
+        "{warned}"
+    );
+    app.update(key(KeyCode::Enter));
     assert_eq!(app.plan.steps.len(), 1);
     assert_eq!(old_state(&app, slot), Some(State::Below));
     assert_eq!(new_state(&app, slot), Some(State::Within));
@@ -79,6 +99,11 @@ fn l16_becomes_within_by_moving_it_to_0630() {
     assert!(planned.contains("1230Z"), "{planned}");
     assert!(!planned.contains("0630Z"), "{planned}");
     assert!(text.contains("1230Z → 0630Z"), "{text}");
+    // The warning stands in the panel once planned, not only as a passing notice.
+    assert!(
+        text.contains("⚠ 0630Z is 6 h 30 min before the board's clock (1300Z): the leg"),
+        "{text}"
+    );
     // The board's own leg is untouched until written.
     assert_eq!(app.ops.legs[slot].departs_utc(), demo_time(12, 30));
     assert_eq!(app.selected_leg().unwrap().state, State::Below);
@@ -695,6 +720,8 @@ fn move_l16_to_0630(app: &mut App) {
     app.update(key(KeyCode::Char('t')));
     type_text(app, "0630");
     app.update(key(KeyCode::Enter));
+    // At 13Z 0630Z is past: the warning first, then the second Enter plans it.
+    app.update(key(KeyCode::Enter));
 }
 
 /// Another dispatcher's edit of the legs file on disk: the first `from` becomes `to`
@@ -705,4 +732,52 @@ fn they_edit(path: &std::path::Path, from: &str, to: &str) -> String {
     assert_ne!(theirs, before, "their edit changes the file");
     std::fs::write(path, &theirs).unwrap();
     theirs
+}
+
+/// The whole-plan vetting counts a cancelled leg as gone and vets a copy like any leg;
+/// what it says stands inside the what-if panel, not only in the passing notices.
+#[test]
+fn copies_are_vetted_cancelled_legs_are_gone_and_the_panel_says_so() {
+    let mut app = demo_stepped_to(8);
+    // A copy of L04 flies X-TOUA at L04's own time: validate refuses the copy.
+    let l04 = select_leg(&mut app, "L04");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('c')));
+    let copy = app.plan.slots.len() - 1;
+    let v = app.compared(copy).unwrap().vetting.clone();
+    assert!(
+        v.refusals.iter().any(|r| r.contains("X-TOUA") && r.contains("L04")),
+        "{v:?}"
+    );
+    assert!(
+        app.plan_refusals()
+            .iter()
+            .any(|r| r.starts_with("L04-2: ")),
+        "{:?}",
+        app.plan_refusals()
+    );
+    let text = screen(&mut app, 120, 40);
+    assert!(text.contains("✗ L04-2: validate would refuse (w writes nothing)"), "{text}");
+    assert!(text.contains("⚠ L04-2: warning:"), "{text}");
+    app.update(key(KeyCode::Char('u')));
+    // Moving L09 onto L04's time is refused while L04 flies ...
+    app.update(key(KeyCode::Esc));
+    select_leg(&mut app, "L09");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('t')));
+    type_text(&mut app, "0900");
+    app.update(key(KeyCode::Enter));
+    let l09 = app.ops.legs.iter().position(|l| l.id == "L09").unwrap();
+    let v = app.compared(l09).unwrap().vetting.clone();
+    assert!(v.refusals.iter().any(|r| r.contains("L04")), "{v:?}");
+    let text = screen(&mut app, 120, 40);
+    assert!(text.contains("✗ validate would refuse (w writes nothing)"), "{text}");
+    // ... and not once L04 is cancelled: a cancelled leg holds no aircraft.
+    app.update(key(KeyCode::Esc));
+    select_leg(&mut app, "L04");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('x')));
+    assert!(app.plan.slots[l04].cancelled);
+    assert!(app.plan_refusals().is_empty(), "{:?}", app.plan_refusals());
+    assert!(app.compared(l09).unwrap().vetting.refusals.is_empty());
 }

@@ -67,6 +67,9 @@ fn sign_l09_at_0800_see_the_recheck_at_1300_and_replan_l16() {
     });
     // Re-plan L16: move it to 06:30 and see it within.
     s.keys(&["/", "L16", "Enter", "e", "t", "0630", "Enter"]);
+    // 0630Z is before the 13Z clock: warned first, planned on the second Enter.
+    s.wait_for_all("the past-time warning", &["before the board's clock"]);
+    s.keys(&["Enter"]);
     s.wait_for_all("old → new", &["→ ✓ within", "✗ below"]);
     s.keys(&["Escape"]);
     s.wait_for("the re-plan closed, its edit pending", |t| {

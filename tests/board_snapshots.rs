@@ -799,3 +799,75 @@ fn limit_rows_show_a_margin_equal_to_the_shown_difference() {
     assert!(rows > 50, "only {rows} rows checked");
     assert!(no_ceiling > 0, "the demo has CAVOK/no-ceiling reports");
 }
+
+/// The demo operator copied into a temporary folder, the board live on it at `now`.
+fn board_on_a_copy(now: &str) -> (tempfile::TempDir, App) {
+    let tmp = tempfile::tempdir().unwrap();
+    for (path, text) in rhoboard::ops::demo::FILES {
+        let p = tmp.path().join(path);
+        std::fs::create_dir_all(p.parent().unwrap()).unwrap();
+        std::fs::write(p, text).unwrap();
+    }
+    let now = chrono::DateTime::parse_from_rfc3339(now).unwrap().to_utc();
+    let args = rhoboard::commands::board::Args {
+        ops: Some(tmp.path().to_path_buf()),
+        feed_every: "10m".into(),
+        ..Default::default()
+    };
+    let (app, _) = rhoboard::commands::board::prepare(&args, now).unwrap();
+    (tmp, app)
+}
+
+/// On a day with no legs the empty table names the day that has them, in the words of
+/// `rhoboard check` ("No legs depart on …. The operator has legs on …: pass --at, e.g.
+/// --at …T08:00:00Z."), and says how to start the board there; wrapped, never cut.
+#[test]
+fn a_day_with_no_legs_names_the_day_that_has_them_60x20_80x24_120x40() {
+    let (_tmp, mut app) = board_on_a_copy("2026-12-02T09:00:00Z");
+    assert!(app.assessment.legs.is_empty());
+    let want = "No legs depart on 2026-12-02. The operator has legs on 2026-06-14: pass --at, \
+                e.g. rhoboard board --at 2026-06-14T08:00:00Z.";
+    assert_eq!(rhoboard::board::view::no_legs_text(&app), want);
+    let all = screens_at(&[(60, 20), (80, 24), (120, 40)], |w, h| {
+        let (_tmp, mut app) = board_on_a_copy("2026-12-02T09:00:00Z");
+        render(&mut app, w, h);
+        app
+    });
+    insta::assert_snapshot!(all);
+    for (w, h) in [(60, 20), (80, 24), (120, 40)] {
+        let text = screen(&mut app, w, h);
+        let joined: String = text.split_whitespace().collect::<Vec<_>>().join(" ");
+        assert!(joined.contains("2026-06-14T08:00:00Z."), "{w}×{h}:\n{text}");
+        assert!(joined.contains("The operator has legs on 2026-06-14"), "{w}×{h}:\n{text}");
+    }
+}
+
+/// Narrow terminals keep the newest report in the header (60 columns: the counts take
+/// their glyph-and-number form first, `✓6 ~1 ✗8 ?1`) and the sort on the tab line with
+/// a kept filter (80 columns: the pane titles shorten first); at 60×20, 80×24, 120×40.
+#[test]
+fn narrow_terminals_keep_the_newest_report_and_the_sort_60x20_80x24_120x40() {
+    let make = |w: u16, h: u16| {
+        let mut app = demo_stepped_to(15);
+        app.update(key(KeyCode::Char('/')));
+        type_text(&mut app, "XSEA");
+        app.update(key(KeyCode::Enter));
+        render(&mut app, w, h);
+        app
+    };
+    insta::assert_snapshot!(screens_at(&[(60, 20), (80, 24), (120, 40)], make));
+    for (w, h) in [(60, 20), (80, 24), (120, 40)] {
+        let mut filtered = make(w, h);
+        let text = screen(&mut filtered, w, h);
+        let mut lines = text.lines();
+        let head = lines.next().unwrap_or_default();
+        let tabs = lines.next().unwrap_or_default();
+        assert!(head.contains("XSEA 1500Z"), "{w}: {head}");
+        assert!(tabs.contains("sort: time") && tabs.contains("XSEA"), "{w}: {tabs}");
+        let mut plain = demo_stepped_to(15);
+        let text = screen(&mut plain, w, h);
+        let mut lines = text.lines();
+        assert!(lines.next().unwrap_or_default().contains("XSEA 1500Z"), "{w}:\n{text}");
+        assert!(lines.next().unwrap_or_default().contains("sort: time"), "{w}:\n{text}");
+    }
+}

@@ -1413,10 +1413,22 @@ impl App {
         );
         let pos = ratatui::layout::Position::new(col, row);
         if layout.tabs.contains(pos) {
-            // Tabs are laid out as " Name " segments separated by "│".
+            // Tabs are laid out as " Name " segments separated by "│", short or full
+            // as the view lays them out.
+            let legs_rows = (self.ui.pane == Pane::Legs && !layout.detail_replaces_main())
+                .then(|| usize::from(layout.main.height.saturating_sub(1)));
+            let short = match self.ui.mode {
+                Mode::Filter => layout.tabs.width < Pane::SHORT_BELOW,
+                _ => super::view::tab_plan(self, layout.tabs.width, legs_rows).0,
+            };
             let mut x = layout.tabs.x;
             for p in Pane::ALL {
-                let w = p.tab_title(layout.tabs.width).len() as u16 + 3;
+                let title = if short {
+                    p.short_title()
+                } else {
+                    p.tab_title(layout.tabs.width)
+                };
+                let w = title.chars().count() as u16 + 3;
                 if col >= x && col < x + w {
                     self.ui.pane = p;
                     self.ui.detail_open = false;

@@ -13,6 +13,47 @@ use crate::assess::lookahead::{LookAhead, TafSource, look_ahead};
 use crate::assess::{Context, Model, State};
 use crate::observation::Store;
 use crate::ops::Ops;
+use crate::ops::legs::Leg;
+
+/// Where a leg stands on the board's clock: the look-ahead ("flown from ~1340Z, the
+/// forecast makes it below") is about a departure still ahead, so a leg already gone
+/// shows when it left instead.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Progress {
+    /// Departs at or after the board's clock.
+    Ahead,
+    /// Departed before the clock, lands at or after it.
+    Airborne {
+        /// Departure (UTC).
+        left: DateTime<Utc>,
+        /// Planned arrival (UTC).
+        lands: DateTime<Utc>,
+    },
+    /// Departed and landed before the clock.
+    Landed {
+        /// Departure (UTC).
+        left: DateTime<Utc>,
+        /// Planned arrival (UTC).
+        landed: DateTime<Utc>,
+    },
+}
+
+impl Progress {
+    /// The leg's progress at `clock` (its planned times; the board has no actual ones).
+    pub fn of(leg: &Leg, clock: DateTime<Utc>) -> Progress {
+        let (left, lands) = (leg.departs_utc(), leg.arrives_utc());
+        if left >= clock {
+            Progress::Ahead
+        } else if lands >= clock {
+            Progress::Airborne { left, lands }
+        } else {
+            Progress::Landed {
+                left,
+                landed: lands,
+            }
+        }
+    }
+}
 
 /// The look-ahead of every leg on the board, parallel to `Assessment::legs`.
 pub fn looks(
@@ -50,8 +91,17 @@ pub fn looks(
 
 /// The leg row's cell: `fails ~1340Z`, `holds`, `below now`, `forecast only` (the
 /// leg is observed no-data: the forecast alone never reads better than that), or `—`
-/// (no forecast).
-pub fn cell(l: Option<&LookAhead>, observed: State) -> String {
+/// (no forecast); for a leg already gone on the board's clock `left 0900Z` (in the
+/// air) or `landed 1030Z`, never a departure forecast as if still ahead.
+pub fn cell(l: Option<&LookAhead>, observed: State, progress: Progress) -> String {
+    match (l, progress) {
+        (_, Progress::Airborne { left, .. }) => format!("left {}", left.format("%H%MZ")),
+        (_, Progress::Landed { landed, .. }) => format!("landed {}", landed.format("%H%MZ")),
+        (l, Progress::Ahead) => ahead_cell(l, observed),
+    }
+}
+
+fn ahead_cell(l: Option<&LookAhead>, observed: State) -> String {
     match l {
         None => "—".to_string(),
         Some(_) if observed == State::Below => "below now".to_string(),
@@ -63,8 +113,17 @@ pub fn cell(l: Option<&LookAhead>, observed: State) -> String {
     }
 }
 
-/// One-line summary (the what-if comparison).
-pub fn summary(l: Option<&LookAhead>, observed: State) -> String {
+/// One-line summary (the what-if comparison); a leg gone on the board's clock says so.
+pub fn summary(l: Option<&LookAhead>, observed: State, progress: Progress) -> String {
+    match progress {
+        Progress::Airborne { left, .. } => {
+            return format!("left {}: departed, no forecast ahead", left.format("%H%MZ"));
+        }
+        Progress::Landed { landed, .. } => {
+            return format!("landed {}: flown, no forecast ahead", landed.format("%H%MZ"));
+        }
+        Progress::Ahead => {}
+    }
     match l {
         None => "no forecast".to_string(),
         Some(_) if observed == State::Below => "forecast ✗ below (below now)".to_string(),
@@ -109,6 +168,30 @@ pub fn detail_lines(app: &App, k: usize, t: Theme) -> Vec<Line<'static>> {
             t.heading(),
         ),
     ];
+    let progress = app
+        .ops
+        .legs
+        .get(r.index)
+        .map_or(Progress::Ahead, |l| Progress::of(l, app.clock));
+    match progress {
+        Progress::Airborne { left, lands } => {
+            lines.push(Line::from(format!(
+                "  departed {} on the board's clock, lands {}: the look-ahead is for a departure still ahead, so none is shown",
+                left.format("%H:%MZ"),
+                lands.format("%H:%MZ")
+            )));
+            return lines;
+        }
+        Progress::Landed { left, landed } => {
+            lines.push(Line::from(format!(
+                "  flown: departed {}, landed {} on the board's clock (planned times); nothing ahead to forecast",
+                left.format("%H:%MZ"),
+                landed.format("%H:%MZ")
+            )));
+            return lines;
+        }
+        Progress::Ahead => {}
+    }
     match app.look(k) {
         None => lines.push(Line::from(
             "  no forecast covers this leg (no TAF for its fields, no expected high)",

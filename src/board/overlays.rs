@@ -15,7 +15,7 @@ use super::theme::Theme;
 use crate::assess::State;
 
 /// The help's line on the sign-off marks and the forecast column.
-pub const HELP_LEGEND: &str = "✎ signed off · ↻ sign-off needs a re-check · forecast: fails ~HHMMZ (a forecast, not an observation)";
+pub const HELP_LEGEND: &str = "✎ signed off · ↻ sign-off needs a re-check · forecast: fails ~HHMMZ (a forecast, not an observation: flown from about then, the TAFs make the leg below); a leg already gone on the board's clock shows left HHMMZ (in the air) or landed HHMMZ instead, never a departure forecast";
 
 /// How the sign-off shows in the legs table.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -398,11 +398,37 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
         app.slot_words(ui.slot)
     ))];
     match app.compared(ui.slot) {
-        Some(c) => lines.extend(comparison(c.old.as_ref(), c.new.as_ref(), &c.what, t)),
+        Some(c) => {
+            lines.extend(comparison(c.old.as_ref(), c.new.as_ref(), &c.what, t));
+            // What `validate` would say of it in the plan as a whole, here and not only
+            // as a passing notice: `w` writes nothing while a refusal stands.
+            for r in &c.vetting.refusals {
+                lines.push(Line::styled(
+                    format!("  ✗ validate would refuse (w writes nothing): {r}"),
+                    t.error(),
+                ));
+            }
+            for w in &c.vetting.warnings {
+                lines.push(Line::styled(format!("  ⚠ warning: {w}"), t.error()));
+            }
+        }
         None => lines.push(Line::styled(
             "  no change to this leg yet: each change is re-assessed at once and shown old → new",
             t.dim(),
         )),
+    }
+    // A leg planned to depart before the board's clock says so while the panel is open.
+    if let Some(s) = app.plan.slots.get(ui.slot)
+        && !s.cancelled
+        && s.leg.departs_utc() < app.clock
+    {
+        lines.push(Line::styled(
+            format!(
+                "  ⚠ {}",
+                super::replan::past_words(s.leg.departs_utc(), app.clock, false)
+            ),
+            t.error(),
+        ));
     }
     lines.push(Line::default());
     if app.plan.steps.is_empty() {
@@ -415,6 +441,18 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
         let n = app.plan.steps.len();
         for (i, p) in app.plan.steps.iter().enumerate().skip(n.saturating_sub(5)) {
             lines.push(Line::from(format!("  {}. {}", i + 1, p.label)));
+        }
+        // What validate says of the other changed legs (a copy, a leg moved earlier).
+        for c in app.plan.compared.iter().filter(|c| c.slot != ui.slot) {
+            for r in &c.vetting.refusals {
+                lines.push(Line::styled(
+                    format!("  ✗ {}: validate would refuse (w writes nothing): {r}", c.id),
+                    t.error(),
+                ));
+            }
+            for w in &c.vetting.warnings {
+                lines.push(Line::styled(format!("  ⚠ {}: warning: {w}", c.id), t.error()));
+            }
         }
     }
     lines.push(Line::default());
@@ -471,7 +509,9 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
                 ));
             }
         }
-        Ask::Type { what, text, error } => {
+        Ask::Type {
+            what, text, error, ..
+        } => {
             let prompt = match what {
                 Typed::Departs => "New departure time, HHMM UTC (the planned duration is kept):",
                 Typed::Fuel => "Fuel at engine start, litres:",

@@ -8,7 +8,7 @@
 use std::collections::HashMap;
 use std::path::{Path, PathBuf};
 
-use chrono::NaiveTime;
+use chrono::{DateTime, NaiveTime, Utc};
 use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 
 use super::app::{App, Mode, NoteKind};
@@ -18,6 +18,7 @@ use crate::assess::lookahead::LookAhead;
 use crate::assess::{Context, LegResult, State};
 use crate::ops::Leg;
 use crate::ops::legs::LegsFile;
+use super::forecast::Progress;
 use crate::replan::{Edit, apply, content_hash};
 
 /// One change of the plan.
@@ -89,7 +90,7 @@ pub struct Figures {
 }
 
 impl Figures {
-    fn of(r: &LegResult, look: Option<&LookAhead>, show: Show) -> Figures {
+    fn of(r: &LegResult, look: Option<&LookAhead>, show: Show, progress: Progress) -> Figures {
         Figures {
             state: r.state,
             limiting: r.limiting.as_ref().map_or_else(
@@ -98,7 +99,7 @@ impl Figures {
             ),
             margin: r.limiting.as_ref().map_or("—".into(), |l| l.margin.clone()),
             headroom: super::view::headroom_cell(show, r),
-            forecast: super::forecast::summary(look, r.state),
+            forecast: super::forecast::summary(look, r.state, progress),
         }
     }
 }
@@ -116,6 +117,9 @@ pub struct Compared {
     pub old: Option<Figures>,
     /// After (none when cancelled).
     pub new: Option<Figures>,
+    /// What `validate` would say of it in the whole plan ([`App::plan_vetting`]):
+    /// shown in the what-if panel; `w` writes nothing while it refuses.
+    pub vetting: crate::replan::Vetting,
 }
 
 /// A save that met a file changed on disk.
@@ -180,6 +184,10 @@ pub enum Ask {
         text: String,
         /// The last error.
         error: Option<String>,
+        /// A departure before the board's clock the user was warned about: a second
+        /// Enter with the same time plans it (as the hand-report form does for a time
+        /// after the clock).
+        past_warned: Option<DateTime<Utc>>,
     },
 }
 
@@ -444,12 +452,15 @@ impl App {
                     .legs
                     .iter()
                     .position(|r| r.index == o)
-                    .map(|k| Figures::of(&self.assessment.legs[k], self.look(k), show)),
+                    .map(|k| {
+                        let progress = Progress::of(&self.ops.legs[o], self.clock);
+                        Figures::of(&self.assessment.legs[k], self.look(k), show, progress)
+                    }),
                 Origin::CopyOf(_) => None,
             };
             let new = results[n].as_ref().map(|r| {
                 let look = looks.next().flatten();
-                Figures::of(r, look.as_ref(), show)
+                Figures::of(r, look.as_ref(), show, Progress::of(&s.leg, self.clock))
             });
             let mut what = match s.origin {
                 Origin::Original(o) => self
@@ -465,12 +476,14 @@ impl App {
             if s.cancelled {
                 what.push("cancelled".into());
             }
+            let vetting = self.plan_vetting(i, &s.leg).unwrap_or_default();
             out.push(Compared {
                 slot: i,
                 id: s.leg.id.clone(),
                 what,
                 old,
                 new,
+                vetting,
             });
         }
         self.plan.compared = out;
@@ -564,30 +577,58 @@ impl App {
     }
 
     /// What `validate` would say of slot `slot`'s planned leg (as `leg set` vets it,
-    /// [`crate::replan::vet`]), with every other planned change to the operator's legs
-    /// already made: so a plan may move a leg onto another's time and move that one
-    /// too. `leg` stands in for the slot's leg (a candidate change). `None` for a copy
-    /// or a cancelled leg (not vetted).
+    /// [`crate::replan::vet`]), in the plan as a whole: every other planned change
+    /// made, cancelled legs gone (they hold no aircraft or pilot any more) and copies in
+    /// place — so a plan may move a leg onto another's time and move that one too, or
+    /// cancel it. A copy is vetted as a leg added to its source's file
+    /// ([`crate::replan::vet_added`]). `leg` stands in for the slot's leg (a candidate
+    /// change). `None` for a cancelled leg (nothing to vet).
     pub fn plan_vetting(&self, slot: usize, leg: &Leg) -> Option<crate::replan::Vetting> {
         let s = self.plan.slots.get(slot)?;
-        let Origin::Original(o) = s.origin else {
-            return None;
-        };
         if s.cancelled {
             return None;
         }
         let mut ops = self.ops.clone();
+        let mut legs = Vec::with_capacity(self.plan.slots.len());
+        let mut files = Vec::with_capacity(self.plan.slots.len());
+        let mut at = None;
         for (k, other) in self.plan.slots.iter().enumerate() {
-            if k == slot || other.cancelled {
+            if k == slot {
+                if let Origin::Original(o) = other.origin {
+                    at = Some(legs.len());
+                    // The leg as loaded: `vet` compares it with `leg`.
+                    legs.push(self.ops.legs.get(o)?.clone());
+                    files.push(self.ops.leg_files.get(o).cloned()?);
+                }
                 continue;
             }
-            if let Origin::Original(j) = other.origin
-                && let Some(l) = ops.legs.get_mut(j)
-            {
-                l.clone_from(&other.leg);
+            if other.cancelled {
+                continue;
             }
+            let source = match other.origin {
+                Origin::Original(j) | Origin::CopyOf(j) => j,
+            };
+            let (file, n) = self.ops.leg_files.get(source).cloned()?;
+            // A copy's place in its file, as written: after the file's own legs.
+            let n = match other.origin {
+                Origin::Original(_) => n,
+                Origin::CopyOf(_) => self.ops.leg_files.iter().filter(|(f, _)| *f == file).count()
+                    + files.iter().filter(|(f, _)| *f == file).count(),
+            };
+            legs.push(other.leg.clone());
+            files.push((file, n));
         }
-        Some(crate::replan::vet(&ops, o, leg))
+        ops.legs = legs;
+        ops.leg_files = files;
+        match (s.origin, at) {
+            (Origin::Original(_), Some(at)) => Some(crate::replan::vet(&ops, at, leg)),
+            (Origin::CopyOf(j), _) => {
+                let (file, _) = self.ops.leg_files.get(j)?;
+                let day = self.ops.legs.get(j)?.departs_utc().date_naive();
+                Some(crate::replan::vet_added(&ops, file, day, leg))
+            }
+            (Origin::Original(_), None) => None,
+        }
     }
 
     /// Every refusal of the whole plan ([`App::plan_vetting`] of each changed leg),
@@ -1072,6 +1113,7 @@ impl App {
                         what: Typed::Departs,
                         text: String::new(),
                         error: None,
+                        past_warned: None,
                     }
                 }
                 KeyCode::Char('f') => {
@@ -1079,6 +1121,7 @@ impl App {
                         what: Typed::Fuel,
                         text: String::new(),
                         error: None,
+                        past_warned: None,
                     }
                 }
                 KeyCode::Char('c') => self.step_or_note(ui.slot, Step::Copy),
@@ -1108,12 +1151,25 @@ impl App {
                 }
                 _ => {}
             },
-            Ask::Type { what, text, error } => match key.code {
+            Ask::Type {
+                what,
+                text,
+                error,
+                past_warned,
+            } => match key.code {
                 KeyCode::Esc => ui.ask = Ask::Menu,
                 KeyCode::Backspace => {
                     text.pop();
                 }
                 KeyCode::Enter => match self.typed_edit(ui.slot, *what, text) {
+                    Ok(Edit::Departs(at))
+                        if at.with_timezone(&Utc) < self.clock
+                            && *past_warned != Some(at.with_timezone(&Utc)) =>
+                    {
+                        let at = at.with_timezone(&Utc);
+                        *past_warned = Some(at);
+                        *error = Some(past_words(at, self.clock, true));
+                    }
                     Ok(e) => match self.plan_step(ui.slot, Step::Edit(e)) {
                         Ok(()) => ui.ask = Ask::Menu,
                         Err(e) => *error = Some(e),
@@ -1407,6 +1463,29 @@ impl App {
 }
 
 /// A new id for a copy: `L16-2`, `L16-3`, …
+/// A departure at `at`, before the board's `clock`, in words: "0630Z is 6 h 30 min
+/// before the board's clock (1300Z): the leg would have left already", with `ask` how
+/// to go on (the time prompt's warning) or not (the panel's standing line).
+pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, ask: bool) -> String {
+    // Whole minutes, rounded up: 20 s before says 1 min.
+    let min = ((clock - at).num_seconds() + 59) / 60;
+    let ago = if min >= 60 {
+        format!("{} h {} min", min / 60, min % 60)
+    } else {
+        format!("{min} min")
+    };
+    let head = format!(
+        "{} is {ago} before the board's clock ({}): the leg would have left already",
+        at.format("%H%MZ"),
+        clock.format("%H%MZ")
+    );
+    if ask {
+        format!("{head}. Enter again to plan it anyway (to compare), or correct the time")
+    } else {
+        format!("{head} (a what-if to compare, not a departure still ahead)")
+    }
+}
+
 fn copy_id(slots: &[Slot], id: &str) -> String {
     let base = id.split_once('-').map_or(id, |(b, _)| b);
     (2..)

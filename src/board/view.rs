@@ -130,7 +130,11 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         }
     };
     let c = app.assessment.counts();
+    // `gap` "" is the sparest form: glyph and count alone (`✓6 ~1 ✗8 ?1`), taken before
+    // the newest report gives way; the legs table beside names each glyph's state.
     let counts = |gap: &str| -> Vec<Span<'static>> {
+        let compact = gap.is_empty();
+        let gap = if compact { " " } else { gap };
         let mut spans = Vec::new();
         for (i, (s, n)) in [
             (State::Within, c[0]),
@@ -144,10 +148,12 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             if i > 0 {
                 spans.push(Span::raw(gap.to_string()));
             }
-            spans.push(Span::styled(
-                format!("{} {} {n}", s.glyph(), s.word()),
-                t.state(s),
-            ));
+            let text = if compact {
+                format!("{}{n}", s.glyph())
+            } else {
+                format!("{} {} {n}", s.glyph(), s.word())
+            };
+            spans.push(Span::styled(text, t.state(s)));
         }
         spans
     };
@@ -210,6 +216,8 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         line(&clock, false, true, "  ", Some(newest(true)), false),
         line(&clock, false, true, " ", Some(newest(true)), false),
         line(&clock, false, true, " ", Some(newest(false)), false),
+        line(&clock, false, true, "", Some(newest(false)), false),
+        line(&clock, false, false, "", Some(newest(false)), false),
         line(&clock, false, true, " ", None, false),
         line(&clock, false, false, " ", None, false),
     ];
@@ -236,13 +244,91 @@ pub fn rows_shown(cursor: usize, height: usize, total: usize) -> Option<String> 
 /// rows when some are hidden (`legs_rows`: its height in rows), a kept filter, the
 /// sort — fullest first; the filter is dropped last and is cut with "…" rather than
 /// left out.
+/// The pane titles' width on the tab line (" Legs │ Pairs │ … "), short or full.
+fn titles_width(short: bool, width: u16) -> usize {
+    let names: usize = Pane::ALL
+        .iter()
+        .map(|p| fit::width(if short { p.short_title() } else { p.tab_title(width) }) + 2)
+        .sum();
+    names + Pane::ALL.len() - 1
+}
+
+/// How the tab line is laid out at `width`: whether the pane titles take their short
+/// form (`Pairs`, `Fields`, `Reps`) and the right-hand text, fullest first — the pane
+/// titles shorten before anything on the right gives way, then the filter's count, the
+/// word `filter:` and the rows shown, and only then the sort. `None`: even the sparest is too wide
+/// (the filter is then cut). Shared by the view and the mouse (a click on a tab).
+pub fn tab_plan(app: &App, width: u16, legs_rows: Option<usize>) -> (bool, Option<String>) {
+    let pos = legs_rows.and_then(|h| rows_shown(app.ui.leg_row, h, app.rows().len()));
+    let sort = format!("sort: {}", app.ui.sort.word());
+    let join = |parts: &[Option<String>]| {
+        parts
+            .iter()
+            .flatten()
+            .cloned()
+            .collect::<Vec<_>>()
+            .join(" · ")
+            + " "
+    };
+    let mut with_sort: Vec<String> = Vec::new();
+    let mut without_sort: Vec<String> = Vec::new();
+    if app.ui.filter.is_empty() {
+        with_sort.push(join(&[pos.clone(), Some(sort.clone())]));
+        without_sort.push(join(std::slice::from_ref(&pos)));
+    } else {
+        let f = &app.ui.filter;
+        let counted = format!(
+            "filter: {f} ({} of {})",
+            app.rows().len(),
+            app.assessment.legs.len()
+        );
+        for filter in [counted.clone(), format!("filter: {f}"), format!("/{f}")] {
+            with_sort.push(join(&[pos.clone(), Some(filter), Some(sort.clone())]));
+        }
+        with_sort.push(join(&[Some(format!("/{f}")), Some(sort.clone())]));
+        without_sort.push(join(&[pos.clone(), Some(counted)]));
+        without_sort.push(join(&[pos.clone(), Some(format!("filter: {f}"))]));
+        without_sort.push(join(&[pos.clone(), Some(format!("/{f}"))]));
+        without_sort.push(join(&[Some(format!("/{f}"))]));
+    }
+    let fits = |short: bool, list: &[String]| {
+        let room = usize::from(width).saturating_sub(titles_width(short, width) + 1);
+        list.iter().find(|c| fit::width(c) <= room).cloned()
+    };
+    // Each wording with the sort, with the full pane titles and then the short ones:
+    // the titles shorten before the filter's count or the sort gives way.
+    for c in &with_sort {
+        for short in [false, true] {
+            if let Some(c) = fits(short, std::slice::from_ref(c)) {
+                return (short || width < Pane::SHORT_BELOW, Some(c));
+            }
+        }
+    }
+    (true, fits(true, &without_sort))
+}
+
+/// The tab line: the panes, and on the right what the Legs pane is showing — which
+/// rows when some are hidden (`legs_rows`: its height in rows), a kept filter, the
+/// sort ([`tab_plan`]); the filter is dropped last and is cut with "…" rather than
+/// left out.
 fn tabs(app: &App, area: Rect, legs_rows: Option<usize>, buf: &mut Buffer, t: Theme) {
+    let filtering = matches!(app.ui.mode, Mode::Filter);
+    let (short, planned) = if filtering {
+        (area.width < Pane::SHORT_BELOW, None)
+    } else {
+        tab_plan(app, area.width, legs_rows)
+    };
     let mut spans: Vec<Span> = Vec::new();
     for (i, p) in Pane::ALL.iter().enumerate() {
         if i > 0 {
             spans.push(Span::styled("│", t.frame()));
         }
-        let text = format!(" {} ", p.tab_title(area.width));
+        let title = if short {
+            p.short_title()
+        } else {
+            p.tab_title(area.width)
+        };
+        let text = format!(" {title} ");
         if *p == app.ui.pane {
             spans.push(Span::styled(text, t.selected()));
         } else {
@@ -252,59 +338,27 @@ fn tabs(app: &App, area: Rect, legs_rows: Option<usize>, buf: &mut Buffer, t: Th
     let used = Line::from(spans.clone()).width();
     Line::from(spans).render(area, buf);
     let room = usize::from(area.width).saturating_sub(used + 1);
-    let right = match app.ui.mode {
-        Mode::Filter => fit::words(
+    let right = match planned {
+        _ if filtering => fit::words(
             &format!("filter: {}▏ Enter keeps, Esc clears ", app.ui.filter),
             room,
         )
         .into_owned(),
-        _ => {
-            let pos = legs_rows.and_then(|h| rows_shown(app.ui.leg_row, h, app.rows().len()));
-            let sort = format!("sort: {}", app.ui.sort.word());
-            let mut candidates: Vec<String> = Vec::new();
-            let join = |parts: &[Option<String>]| {
-                parts
-                    .iter()
-                    .flatten()
-                    .cloned()
-                    .collect::<Vec<_>>()
-                    .join(" · ")
-                    + " "
-            };
-            if app.ui.filter.is_empty() {
-                candidates.push(join(&[pos.clone(), Some(sort)]));
-                candidates.push(join(std::slice::from_ref(&pos)));
-            } else {
-                let f = &app.ui.filter;
-                let counted = format!(
-                    "filter: {f} ({} of {})",
-                    app.rows().len(),
-                    app.assessment.legs.len()
-                );
-                candidates.push(join(&[pos.clone(), Some(counted.clone()), Some(sort)]));
-                candidates.push(join(&[pos.clone(), Some(counted.clone())]));
-                candidates.push(join(&[pos.clone(), Some(format!("filter: {f}"))]));
-                candidates.push(join(&[pos.clone(), Some(format!("/{f}"))]));
-                candidates.push(join(&[Some(format!("/{f}"))]));
-            }
-            match candidates.iter().find(|c| fit::width(c) <= room) {
-                Some(c) => c.clone(),
-                // Even the sparest is too wide: the filter, cut.
-                None if !app.ui.filter.is_empty() => {
-                    let f = format!("/{}", app.ui.filter);
-                    let w = room.saturating_sub(1);
-                    let mut cut: String = String::new();
-                    for ch in f.chars() {
-                        if fit::width(&cut) + fit::width(&ch.to_string()) + 1 > w {
-                            break;
-                        }
-                        cut.push(ch);
-                    }
-                    format!("{cut}… ")
+        Some(c) => c,
+        // Even the sparest is too wide: the filter, cut.
+        None if !app.ui.filter.is_empty() => {
+            let f = format!("/{}", app.ui.filter);
+            let w = room.saturating_sub(1);
+            let mut cut: String = String::new();
+            for ch in f.chars() {
+                if fit::width(&cut) + fit::width(&ch.to_string()) + 1 > w {
+                    break;
                 }
-                None => String::new(),
+                cut.push(ch);
             }
+            format!("{cut}… ")
         }
+        None => String::new(),
     };
     if !right.trim().is_empty() && fit::width(&right) <= room {
         Line::styled(right, t.dim())
@@ -363,22 +417,45 @@ fn lines_of(v: Vec<String>) -> Vec<Line<'static>> {
     v.into_iter().map(Line::from).collect()
 }
 
+/// The empty legs table on a day with no legs: names the days that have legs, in the
+/// words `rhoboard check` uses, and how to start the board on one.
+pub fn no_legs_text(app: &App) -> String {
+    let day = app.clock.format("%Y-%m-%d");
+    let mut days: Vec<chrono::NaiveDate> = app
+        .ops
+        .legs
+        .iter()
+        .map(|l| l.departs_utc().date_naive())
+        .collect();
+    days.sort();
+    days.dedup();
+    match days.first() {
+        Some(d) => format!(
+            "No legs depart on {day}. The operator has legs on {}: pass --at, e.g. rhoboard board --at {d}T08:00:00Z.",
+            days.iter()
+                .map(ToString::to_string)
+                .collect::<Vec<_>>()
+                .join(", ")
+        ),
+        None => format!("No legs depart on {day} (legs/<date>.json)."),
+    }
+}
+
 fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let height = usize::from(area.height.saturating_sub(1));
     let rows = app.rows();
     if rows.is_empty() {
         let msg = if app.assessment.legs.is_empty() {
-            format!(
-                "No legs depart on {} (legs/<date>.json).",
-                app.clock.format("%Y-%m-%d")
-            )
+            no_legs_text(app)
         } else {
             format!(
                 "No leg matches the filter '{}' (Esc clears it).",
                 app.ui.filter
             )
         };
-        Paragraph::new(msg).render(area, buf);
+        Paragraph::new(msg)
+            .wrap(Wrap { trim: true })
+            .render(area, buf);
         return;
     }
     let offset = scroll_offset(app.ui.leg_row, height);
@@ -461,7 +538,13 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             5,
             shown
                 .iter()
-                .map(|(_, k, r)| Line::from(super::forecast::cell(app.look(*k), r.state)))
+                .map(|(_, k, r)| {
+                    let progress = app.ops.legs.get(r.index).map_or(
+                        super::forecast::Progress::Ahead,
+                        |l| super::forecast::Progress::of(l, app.clock),
+                    );
+                    Line::from(super::forecast::cell(app.look(*k), r.state, progress))
+                })
                 .collect(),
         ),
         Column::flex(
