@@ -128,7 +128,11 @@ fn with_the_observation_missing_the_forecast_reads_forecast_only() {
         // In the detail only while the leg is still to depart (L10 has landed by 15Z:
         // its detail says so instead).
         let gone = app.ops.legs[r.index].departs_utc() < app.clock;
-        let words = if gone { "nothing ahead to forecast" } else { "forecast only" };
+        let words = if gone {
+            "nothing ahead to forecast"
+        } else {
+            "forecast only"
+        };
         assert!(
             detail.iter().any(|d| d.contains(words)),
             "{}",
@@ -167,15 +171,27 @@ fn a_leg_already_gone_shows_when_it_left_not_a_forecast() {
             assert!(s.contains("no forecast ahead"), "{}: {s}", r.id);
         } else {
             ahead += 1;
-            assert!(!c.starts_with("left") && !c.starts_with("landed"), "{}: {c}", r.id);
+            assert!(
+                !c.starts_with("left") && !c.starts_with("landed"),
+                "{}: {c}",
+                r.id
+            );
         }
     }
-    assert!(gone > 0 && airborne > 0 && ahead > 0, "{gone} {airborne} {ahead}");
+    assert!(
+        gone > 0 && airborne > 0 && ahead > 0,
+        "{gone} {airborne} {ahead}"
+    );
     // On screen: no "fails ~" beside a departure already past.
     let text = screen(&mut app, 120, 40);
     for line in text.lines().filter(|l| l.contains("fails ~")) {
-        let dep = line.split_whitespace().find(|w| w.len() == 5 && w.ends_with('Z'));
-        assert!(dep.is_some_and(|d| d >= "1300Z"), "a past departure with a forecast: {line}");
+        let dep = line
+            .split_whitespace()
+            .find(|w| w.len() == 5 && w.ends_with('Z'));
+        assert!(
+            dep.is_some_and(|d| d >= "1300Z"),
+            "a past departure with a forecast: {line}"
+        );
     }
     assert!(text.contains("landed "), "{text}");
     // The detail says so in words.
@@ -194,6 +210,9 @@ fn a_leg_already_gone_shows_when_it_left_not_a_forecast() {
     .map(|l| l.to_string())
     .collect();
     let detail = detail.join("\n");
-    assert!(detail.contains("flown: departed") && detail.contains("nothing ahead to forecast"), "{detail}");
+    assert!(
+        detail.contains("flown: departed") && detail.contains("nothing ahead to forecast"),
+        "{detail}"
+    );
     assert!(!detail.contains("flown from ~"), "{detail}");
 }

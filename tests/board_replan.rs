@@ -746,18 +746,21 @@ fn copies_are_vetted_cancelled_legs_are_gone_and_the_panel_says_so() {
     let copy = app.plan.slots.len() - 1;
     let v = app.compared(copy).unwrap().vetting.clone();
     assert!(
-        v.refusals.iter().any(|r| r.contains("X-TOUA") && r.contains("L04")),
+        v.refusals
+            .iter()
+            .any(|r| r.contains("X-TOUA") && r.contains("L04")),
         "{v:?}"
     );
     assert!(
-        app.plan_refusals()
-            .iter()
-            .any(|r| r.starts_with("L04-2: ")),
+        app.plan_refusals().iter().any(|r| r.starts_with("L04-2: ")),
         "{:?}",
         app.plan_refusals()
     );
     let text = screen(&mut app, 120, 40);
-    assert!(text.contains("✗ L04-2: validate would refuse (w writes nothing)"), "{text}");
+    assert!(
+        text.contains("✗ L04-2: validate would refuse (w writes nothing)"),
+        "{text}"
+    );
     assert!(text.contains("⚠ L04-2: warning:"), "{text}");
     app.update(key(KeyCode::Char('u')));
     // Moving L09 onto L04's time is refused while L04 flies ...
@@ -771,7 +774,10 @@ fn copies_are_vetted_cancelled_legs_are_gone_and_the_panel_says_so() {
     let v = app.compared(l09).unwrap().vetting.clone();
     assert!(v.refusals.iter().any(|r| r.contains("L04")), "{v:?}");
     let text = screen(&mut app, 120, 40);
-    assert!(text.contains("✗ validate would refuse (w writes nothing)"), "{text}");
+    assert!(
+        text.contains("✗ validate would refuse (w writes nothing)"),
+        "{text}"
+    );
     // ... and not once L04 is cancelled: a cancelled leg holds no aircraft.
     app.update(key(KeyCode::Esc));
     select_leg(&mut app, "L04");

@@ -838,7 +838,10 @@ fn a_day_with_no_legs_names_the_day_that_has_them_60x20_80x24_120x40() {
         let text = screen(&mut app, w, h);
         let joined: String = text.split_whitespace().collect::<Vec<_>>().join(" ");
         assert!(joined.contains("2026-06-14T08:00:00Z."), "{w}×{h}:\n{text}");
-        assert!(joined.contains("The operator has legs on 2026-06-14"), "{w}×{h}:\n{text}");
+        assert!(
+            joined.contains("The operator has legs on 2026-06-14"),
+            "{w}×{h}:\n{text}"
+        );
     }
 }
 
@@ -863,11 +866,20 @@ fn narrow_terminals_keep_the_newest_report_and_the_sort_60x20_80x24_120x40() {
         let head = lines.next().unwrap_or_default();
         let tabs = lines.next().unwrap_or_default();
         assert!(head.contains("XSEA 1500Z"), "{w}: {head}");
-        assert!(tabs.contains("sort: time") && tabs.contains("XSEA"), "{w}: {tabs}");
+        assert!(
+            tabs.contains("sort: time") && tabs.contains("XSEA"),
+            "{w}: {tabs}"
+        );
         let mut plain = demo_stepped_to(15);
         let text = screen(&mut plain, w, h);
         let mut lines = text.lines();
-        assert!(lines.next().unwrap_or_default().contains("XSEA 1500Z"), "{w}:\n{text}");
-        assert!(lines.next().unwrap_or_default().contains("sort: time"), "{w}:\n{text}");
+        assert!(
+            lines.next().unwrap_or_default().contains("XSEA 1500Z"),
+            "{w}:\n{text}"
+        );
+        assert!(
+            lines.next().unwrap_or_default().contains("sort: time"),
+            "{w}:\n{text}"
+        );
     }
 }

@@ -120,7 +120,10 @@ pub fn summary(l: Option<&LookAhead>, observed: State, progress: Progress) -> St
             return format!("left {}: departed, no forecast ahead", left.format("%H%MZ"));
         }
         Progress::Landed { landed, .. } => {
-            return format!("landed {}: flown, no forecast ahead", landed.format("%H%MZ"));
+            return format!(
+                "landed {}: flown, no forecast ahead",
+                landed.format("%H%MZ")
+            );
         }
         Progress::Ahead => {}
     }

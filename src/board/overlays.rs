@@ -422,10 +422,21 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
         && !s.cancelled
         && s.leg.departs_utc() < app.clock
     {
+        let as_loaded = match s.origin {
+            super::replan::Origin::Original(o) => {
+                app.ops.legs.get(o).map(|l| l.departs_at) == Some(s.leg.departs_at)
+            }
+            super::replan::Origin::CopyOf(_) => false,
+        };
+        let how = if as_loaded {
+            super::replan::Past::AsLoaded
+        } else {
+            super::replan::Past::Planned
+        };
         lines.push(Line::styled(
             format!(
                 "  ⚠ {}",
-                super::replan::past_words(s.leg.departs_utc(), app.clock, false)
+                super::replan::past_words(s.leg.departs_utc(), app.clock, how)
             ),
             t.error(),
         ));
@@ -446,12 +457,18 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
         for c in app.plan.compared.iter().filter(|c| c.slot != ui.slot) {
             for r in &c.vetting.refusals {
                 lines.push(Line::styled(
-                    format!("  ✗ {}: validate would refuse (w writes nothing): {r}", c.id),
+                    format!(
+                        "  ✗ {}: validate would refuse (w writes nothing): {r}",
+                        c.id
+                    ),
                     t.error(),
                 ));
             }
             for w in &c.vetting.warnings {
-                lines.push(Line::styled(format!("  ⚠ {}: warning: {w}", c.id), t.error()));
+                lines.push(Line::styled(
+                    format!("  ⚠ {}: warning: {w}", c.id),
+                    t.error(),
+                ));
             }
         }
     }

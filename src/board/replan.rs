@@ -14,11 +14,11 @@ use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 use super::app::{App, Mode, NoteKind};
 use super::display::Show;
 use super::effects::{Effect, LegsSave, SaveOutcome};
+use super::forecast::Progress;
 use crate::assess::lookahead::LookAhead;
 use crate::assess::{Context, LegResult, State};
 use crate::ops::Leg;
 use crate::ops::legs::LegsFile;
-use super::forecast::Progress;
 use crate::replan::{Edit, apply, content_hash};
 
 /// One change of the plan.
@@ -447,15 +447,16 @@ impl App {
         for (n, &i) in changed.iter().enumerate() {
             let s = &self.plan.slots[i];
             let old = match s.origin {
-                Origin::Original(o) => self
-                    .assessment
-                    .legs
-                    .iter()
-                    .position(|r| r.index == o)
-                    .map(|k| {
-                        let progress = Progress::of(&self.ops.legs[o], self.clock);
-                        Figures::of(&self.assessment.legs[k], self.look(k), show, progress)
-                    }),
+                Origin::Original(o) => {
+                    self.assessment
+                        .legs
+                        .iter()
+                        .position(|r| r.index == o)
+                        .map(|k| {
+                            let progress = Progress::of(&self.ops.legs[o], self.clock);
+                            Figures::of(&self.assessment.legs[k], self.look(k), show, progress)
+                        })
+                }
                 Origin::CopyOf(_) => None,
             };
             let new = results[n].as_ref().map(|r| {
@@ -609,11 +610,22 @@ impl App {
                 Origin::Original(j) | Origin::CopyOf(j) => j,
             };
             let (file, n) = self.ops.leg_files.get(source).cloned()?;
-            // A copy's place in its file, as written: after the file's own legs.
+            // A copy's place in its file: after the file's own legs and earlier copies.
             let n = match other.origin {
                 Origin::Original(_) => n,
-                Origin::CopyOf(_) => self.ops.leg_files.iter().filter(|(f, _)| *f == file).count()
-                    + files.iter().filter(|(f, _)| *f == file).count(),
+                Origin::CopyOf(_) => {
+                    let own = self
+                        .ops
+                        .leg_files
+                        .iter()
+                        .filter(|(f, _)| *f == file)
+                        .count();
+                    let copies = files
+                        .iter()
+                        .filter(|(f, i): &&(String, usize)| *f == file && *i >= own)
+                        .count();
+                    own + copies
+                }
             };
             legs.push(other.leg.clone());
             files.push((file, n));
@@ -1168,7 +1180,7 @@ impl App {
                     {
                         let at = at.with_timezone(&Utc);
                         *past_warned = Some(at);
-                        *error = Some(past_words(at, self.clock, true));
+                        *error = Some(past_words(at, self.clock, Past::Ask));
                     }
                     Ok(e) => match self.plan_step(ui.slot, Step::Edit(e)) {
                         Ok(()) => ui.ask = Ask::Menu,
@@ -1464,9 +1476,9 @@ impl App {
 
 /// A new id for a copy: `L16-2`, `L16-3`, …
 /// A departure at `at`, before the board's `clock`, in words: "0630Z is 6 h 30 min
-/// before the board's clock (1300Z): the leg would have left already", with `ask` how
-/// to go on (the time prompt's warning) or not (the panel's standing line).
-pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, ask: bool) -> String {
+/// before the board's clock (1300Z): the leg would have left already", with `how` to go
+/// on (the time prompt's warning) or not (the panel's standing lines).
+pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, how: Past) -> String {
     // Whole minutes, rounded up: 20 s before says 1 min.
     let min = ((clock - at).num_seconds() + 59) / 60;
     let ago = if min >= 60 {
@@ -1475,15 +1487,30 @@ pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, ask: bool) -> String 
         format!("{min} min")
     };
     let head = format!(
-        "{} is {ago} before the board's clock ({}): the leg would have left already",
+        "{} is {ago} before the board's clock ({})",
         at.format("%H%MZ"),
         clock.format("%H%MZ")
     );
-    if ask {
-        format!("{head}. Enter again to plan it anyway (to compare), or correct the time")
-    } else {
-        format!("{head} (a what-if to compare, not a departure still ahead)")
+    match how {
+        Past::Ask => format!(
+            "{head}: the leg would have left already. Enter again to plan it anyway (to compare), or correct the time"
+        ),
+        Past::Planned => format!(
+            "{head}: the leg would have left already (a what-if to compare, not a departure still ahead)"
+        ),
+        Past::AsLoaded => format!("{head}: the leg has left already"),
     }
+}
+
+/// Which words [`past_words`] gives.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Past {
+    /// The time prompt's warning: Enter again, or correct it.
+    Ask,
+    /// The panel's standing line for a planned change.
+    Planned,
+    /// The panel's line for the leg as loaded (no change to its time).
+    AsLoaded,
 }
 
 fn copy_id(slots: &[Slot], id: &str) -> String {

@@ -248,7 +248,13 @@ pub fn rows_shown(cursor: usize, height: usize, total: usize) -> Option<String> 
 fn titles_width(short: bool, width: u16) -> usize {
     let names: usize = Pane::ALL
         .iter()
-        .map(|p| fit::width(if short { p.short_title() } else { p.tab_title(width) }) + 2)
+        .map(|p| {
+            fit::width(if short {
+                p.short_title()
+            } else {
+                p.tab_title(width)
+            }) + 2
+        })
         .sum();
     names + Pane::ALL.len() - 1
 }
@@ -270,10 +276,15 @@ pub fn tab_plan(app: &App, width: u16, legs_rows: Option<usize>) -> (bool, Optio
             .join(" · ")
             + " "
     };
+    // The rows shown, spare: "9/16↓", "↑3–16/16".
+    let pos_short = pos
+        .as_ref()
+        .map(|p| p.replace(" of ", "/").replace("↑ ", "↑").replace(" ↓", "↓"));
     let mut with_sort: Vec<String> = Vec::new();
     let mut without_sort: Vec<String> = Vec::new();
     if app.ui.filter.is_empty() {
         with_sort.push(join(&[pos.clone(), Some(sort.clone())]));
+        with_sort.push(join(&[pos_short.clone(), Some(sort.clone())]));
         without_sort.push(join(std::slice::from_ref(&pos)));
     } else {
         let f = &app.ui.filter;
@@ -539,10 +550,13 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             shown
                 .iter()
                 .map(|(_, k, r)| {
-                    let progress = app.ops.legs.get(r.index).map_or(
-                        super::forecast::Progress::Ahead,
-                        |l| super::forecast::Progress::of(l, app.clock),
-                    );
+                    let progress = app
+                        .ops
+                        .legs
+                        .get(r.index)
+                        .map_or(super::forecast::Progress::Ahead, |l| {
+                            super::forecast::Progress::of(l, app.clock)
+                        });
                     Line::from(super::forecast::cell(app.look(*k), r.state, progress))
                 })
                 .collect(),
