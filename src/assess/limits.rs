@@ -227,6 +227,19 @@ impl LimitCheck {
     }
 }
 
+impl LimitCheck {
+    /// The margin in the check's own unit at its normal precision, as
+    /// [`LimitCheck::shown`] rounds it (`+163 kg`, `-337 ft`); `None` for a check with
+    /// no margin in numbers (a flag such as an endorsement or a hazard, or no data).
+    pub fn margin_text(&self) -> Option<String> {
+        if self.unit.is_empty() || !self.margin.is_finite() {
+            return None;
+        }
+        let m = self.shown(|x| x, 0).margin?;
+        Some(format!("{m:+.0} {}", self.unit))
+    }
+}
+
 /// A limit on a value with `margin` to spare (in the value's unit).
 fn bounded(
     kind: LimitKind,
