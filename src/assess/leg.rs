@@ -624,7 +624,12 @@ impl Headroom {
         format!("{mark}{:+.1}{unit}", diff(self.warming_c))
     }
 
-    /// The headroom in words, saying when the figure is only a bound.
+    /// The headroom in words, saying when the figure is only a bound: "takes 6.2 °C
+    /// more warming: turns below at a departure OAT of 24.4 °C", "takes at least 8.0 °C
+    /// more warming: the flight-manual table ends at a departure OAT of 40.0 °C", "below now: needs 3.2 °C of cooling, not below at a
+    /// departure OAT of 24.4 °C or colder", "below now: needs at least 38.7 °C of
+    /// cooling, still below at a departure OAT of -10.0 °C, where the flight-manual
+    /// table ends". The board's detail and the report's chain print these words.
     pub fn words(&self) -> String {
         self.words_in(|d| d, |t| t, "°C")
     }
@@ -638,21 +643,28 @@ impl Headroom {
         unit: &str,
     ) -> String {
         let (w, t) = (diff(self.warming_c), temp(self.warmest_oat_c));
+        const TABLE_ENDS: &str = "where the flight-manual table ends";
         match (self.table_ends, self.warming_c >= 0.0) {
+            // The search's grain is 0.1 °C, rounded down: 0.0 is less than a step.
+            (false, true) if w < 0.05 => format!(
+                "takes less than 0.1 {unit} more warming: turns below at a departure OAT of \
+                 {t:.1} {unit}"
+            ),
             (false, true) => format!(
-                "{w:+.1} {unit} of warming left (below from a departure OAT of {t:.1} {unit})"
+                "takes {w:.1} {unit} more warming: turns below at a departure OAT of {t:.1} {unit}"
             ),
             (true, true) => format!(
-                "≥ {w:+.1} {unit} of warming left (the flight-manual table ends at {t:.1} {unit})"
+                "takes at least {w:.1} {unit} more warming: the flight-manual table ends at a \
+                 departure OAT of {t:.1} {unit}"
             ),
             (false, false) => format!(
-                "below now; needs {:.1} {unit} cooler (not below from a departure OAT of \
-                 {t:.1} {unit} down)",
+                "below now: needs {:.1} {unit} of cooling, not below at a departure OAT of \
+                 {t:.1} {unit} or colder",
                 -w
             ),
             (true, false) => format!(
-                "below now; needs at least {:.1} {unit} cooler (still below at a departure OAT \
-                 of {t:.1} {unit}, where the flight-manual table ends)",
+                "below now: needs at least {:.1} {unit} of cooling, still below at a \
+                 departure OAT of {t:.1} {unit}, {TABLE_ENDS}",
                 -w
             ),
         }
