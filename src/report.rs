@@ -454,7 +454,11 @@ fn phase_lines(name: &str, p: &PhaseResult, limiting: Option<usize>, out: &mut V
             k.result.required_m,
             k.result.available_m,
             percent_text(k.result.margin),
-            if limiting == Some(i) { LIMITING_MARK } else { "" },
+            if limiting == Some(i) {
+                LIMITING_MARK
+            } else {
+                ""
+            },
             k.source
         ));
     }

@@ -654,5 +654,8 @@ fn the_limiting_reference_points_at_the_check_it_names() {
         }
     }
     // The demo day has all three kinds: L08's lapsed endorsement is the hard limit.
-    assert!(limits > 10 && distances > 10 && hard > 0, "{limits} {distances} {hard}");
+    assert!(
+        limits > 10 && distances > 10 && hard > 0,
+        "{limits} {distances} {hard}"
+    );
 }

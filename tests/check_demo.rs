@@ -661,6 +661,10 @@ fn a_hard_limit_has_no_margin_word_and_a_null_json_margin() {
             .find(|l| l["id"] == "L08")
             .unwrap();
         assert_eq!(l08["limiting_check"], "XSHT endorsement");
-        assert!(l08["limiting_margin"].is_null(), "{}", l08["limiting_margin"]);
+        assert!(
+            l08["limiting_margin"].is_null(),
+            "{}",
+            l08["limiting_margin"]
+        );
     }
 }

@@ -581,8 +581,12 @@ impl LegResult {
         Some(match self.limiting.as_ref()?.at {
             LimitingAt::Takeoff(_) | LimitingAt::Climb => &self.departure,
             LimitingAt::Landing(_) => &self.arrival,
-            LimitingAt::Limit { departure: true, .. } => &self.departure,
-            LimitingAt::Limit { departure: false, .. } => &self.arrival,
+            LimitingAt::Limit {
+                departure: true, ..
+            } => &self.departure,
+            LimitingAt::Limit {
+                departure: false, ..
+            } => &self.arrival,
         })
     }
 }
