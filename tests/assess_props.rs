@@ -651,6 +651,14 @@ fn the_limiting_reference_points_at_the_check_it_names() {
                 l.margin
             );
             assert_eq!(l.has_margin(), l.margin_words().is_some());
+            // The change list and the look-ahead phrase: the check, then a number or
+            // nothing, never a dash or a state word.
+            let words = l.words();
+            assert!(words.starts_with(&l.check), "{words}");
+            assert!(
+                !words.ends_with(NO_MARGIN) && !words.ends_with("below"),
+                "{words}"
+            );
         }
     }
     // The demo day has all three kinds: L08's lapsed endorsement is the hard limit.

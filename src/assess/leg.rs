@@ -537,6 +537,15 @@ impl Limiting {
     pub fn margin_words(&self) -> Option<&str> {
         self.has_margin().then_some(self.margin.as_str())
     }
+
+    /// The check and its margin in one phrase (`XHIG density altitude -9 ft`), the
+    /// check alone where it has no margin in numbers (`XSHT endorsement`).
+    pub fn words(&self) -> String {
+        match self.margin_words() {
+            Some(m) => format!("{} {m}", self.check),
+            None => self.check.clone(),
+        }
+    }
 }
 
 /// Which check a [`Limiting`] names, by its place in the leg's result (a stable
