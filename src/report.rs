@@ -12,7 +12,7 @@ use std::fmt::Write as _;
 
 use chrono::{DateTime, Utc};
 
-use crate::assess::leg::{FieldWx, PhaseResult, Side};
+use crate::assess::leg::{FieldWx, LimitingAt, PhaseResult, Side, percent_text};
 use crate::assess::{Context, LegResult, State};
 use crate::ops::Ops;
 use crate::signoff::{Chain, Head, Standing, standing};
@@ -398,7 +398,13 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
     }
 }
 
-fn phase_lines(name: &str, p: &PhaseResult, out: &mut Vec<String>) {
+/// The mark after the row that decides the leg's state ([`LegResult::limiting`]).
+///
+/// [`LegResult::limiting`]: crate::assess::leg::LegResult::limiting
+const LIMITING_MARK: &str = " (limiting)";
+
+/// `limiting`: the index of the check that decides the leg, when it is one of these.
+fn phase_lines(name: &str, p: &PhaseResult, limiting: Option<usize>, out: &mut Vec<String>) {
     let c = &p.chain;
     let mut s = format!(
         "{name} at {:.0} kg: flight-manual table ground roll {:.0} m, 50 ft distance {:.0} m",
@@ -438,22 +444,44 @@ fn phase_lines(name: &str, p: &PhaseResult, out: &mut Vec<String>) {
         c.ground_roll_m, c.distance_50ft_m
     );
     out.push(s);
-    for k in &p.checks {
+    for (i, k) in p.checks.iter().enumerate() {
         out.push(format!(
-            "{} {}: {:.0} m × {} = {:.0} m required, {:.0} m available, margin {:+.0} %; from {}",
+            "{} {}: {:.0} m × {} = {:.0} m required, {:.0} m available, margin {}{}; from {}",
             k.state.glyph(),
             k.rule,
             k.result.figure_m,
             k.result.factor,
             k.result.required_m,
             k.result.available_m,
-            k.result.margin * 100.0,
+            percent_text(k.result.margin),
+            if limiting == Some(i) {
+                LIMITING_MARK
+            } else {
+                ""
+            },
             k.source
         ));
     }
 }
 
-fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
+/// `limiting`: the check that decides the leg ([`Limiting::at`]), marked where it is a
+/// row of this side.
+///
+/// [`Limiting::at`]: crate::assess::leg::Limiting::at
+fn side_lines(
+    label: &str,
+    s: &Side,
+    departure: bool,
+    limiting: Option<LimitingAt>,
+) -> (String, Vec<String>) {
+    let takeoff_at = match limiting {
+        Some(LimitingAt::Takeoff(i)) if departure => Some(i),
+        _ => None,
+    };
+    let landing_at = match limiting {
+        Some(LimitingAt::Landing(i)) if !departure => Some(i),
+        _ => None,
+    };
     let mut out = Vec::new();
     match &s.observation {
         Some(o) => out.push(format!(
@@ -490,7 +518,7 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
     }
     if departure {
         if let Some(p) = &s.takeoff {
-            phase_lines("takeoff", p, &mut out);
+            phase_lines("takeoff", p, takeoff_at, &mut out);
         }
         if let Some(c) = &s.climb {
             let ch = &c.chain;
@@ -506,13 +534,24 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
             if let Some(g) = ch.required_gradient_ft_per_nm {
                 let _ = write!(l, " (required {g:.0} ft/NM)");
             }
-            let _ = write!(l, ", margin {:+.0} %", ch.margin() * 100.0);
+            let _ = write!(l, ", margin {}", percent_text(ch.margin()));
+            if departure && limiting == Some(LimitingAt::Climb) {
+                l.push_str(LIMITING_MARK);
+            }
             out.push(l);
         }
     } else if let Some(p) = &s.landing {
-        phase_lines("landing", p, &mut out);
+        phase_lines("landing", p, landing_at, &mut out);
     }
-    for l in s.limits.iter().filter(|l| l.state != State::Within) {
+    for (i, l) in s.limits.iter().enumerate() {
+        let is_limiting = limiting
+            == Some(LimitingAt::Limit {
+                departure,
+                index: i,
+            });
+        if l.state == State::Within && !is_limiting {
+            continue;
+        }
         let envelope = l.kind == crate::assess::limits::LimitKind::Envelope;
         // Where a margin is shown, the figures are those whose difference it is.
         let sh = l.shown(|x| x, 0);
@@ -529,7 +568,15 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
                 l.unit,
                 l.note
             ),
-            (Some(v), Some(lim)) => format!("{v:.0} {} against {lim:.0} {}", l.unit, l.unit),
+            (Some(_), Some(_)) => format!(
+                "{:.d$} {} against {:.d$} {}{}",
+                sh.value.unwrap_or(f64::NAN),
+                l.unit,
+                sh.limit.unwrap_or(f64::NAN),
+                l.unit,
+                sh.margin
+                    .map_or(String::new(), |m| format!(", margin {m:+.d$} {}", l.unit))
+            ),
             // Nothing measured (no ceiling reported, unknown): the limit still shows.
             (None, Some(lim)) if !l.unit.is_empty() => {
                 let what = if l.note.is_empty() {
@@ -542,10 +589,11 @@ fn side_lines(label: &str, s: &Side, departure: bool) -> (String, Vec<String>) {
             _ => l.note.clone(),
         };
         out.push(format!(
-            "{} {}: {value} — {}; from {}",
+            "{} {}: {value} — {}{}; from {}",
             l.state.glyph(),
             l.label(),
             l.state.word(),
+            if is_limiting { LIMITING_MARK } else { "" },
             l.source
         ));
     }
@@ -572,12 +620,13 @@ fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
             .map_or(String::new(), |p| format!(", {}", p.name))
     );
     let mut sections = vec![("Why".to_string(), r.reasons.clone())];
+    let at = r.limiting.as_ref().map(|l| l.at);
     // Only the ends that are not `within`: the chain of what is short, not of all.
     if r.departure.state != State::Within {
-        sections.push(side_lines("Departure", &r.departure, true));
+        sections.push(side_lines("Departure", &r.departure, true, at));
     }
     if r.arrival.state != State::Within {
-        sections.push(side_lines("Arrival", &r.arrival, false));
+        sections.push(side_lines("Arrival", &r.arrival, false, at));
     }
     let mut tail = vec![format!(
         "headroom: {}",

@@ -229,7 +229,10 @@ impl Figures {
         Figures {
             state: r.state.word().to_string(),
             limiting_check: r.limiting.as_ref().map(|l| l.check.clone()),
-            limiting_margin: r.limiting.as_ref().map(|l| l.margin.clone()),
+            limiting_margin: r
+                .limiting
+                .as_ref()
+                .and_then(|l| l.margin_words().map(str::to_string)),
             headroom_c: r.headroom.map(|h| h.warming_c).filter(|h| h.is_finite()),
             headroom_table_ends: r.headroom.is_some_and(|h| h.table_ends),
             takeoff_mass_kg: r.takeoff_mass_kg,

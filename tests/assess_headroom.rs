@@ -116,12 +116,33 @@ fn a_bound_reads_as_a_bound() {
     assert_eq!(h(-38.7, true).figure(), "≤-38.7°C");
     assert_eq!(h(12.0, true).figure(), "≥+12.0°C");
     assert_eq!(h(-3.2, false).figure(), "-3.2°C");
-    let w = h(-38.7, true).words();
-    assert!(w.contains("at least 38.7 °C cooler"), "{w}");
-    assert!(w.contains("still below"), "{w}");
-    let w = h(-3.2, false).words();
-    assert!(
-        w.contains("needs 3.2 °C cooler") && !w.contains("at least"),
-        "{w}"
+    // The four cases in plain words: how much warming it takes (or cooling it needs),
+    // then the departure OAT where that happens, a table's end said as a bound.
+    assert_eq!(
+        h(-38.7, true).words(),
+        "below now: needs at least 38.7 °C of cooling, still below at a departure OAT of \
+         -10.0 °C, where the flight-manual table ends"
     );
+    assert_eq!(
+        h(-3.2, false).words(),
+        "below now: needs 3.2 °C of cooling, not below at a departure OAT of 25.5 °C or colder"
+    );
+    assert_eq!(
+        h(6.2, false).words(),
+        "takes 6.2 °C more warming: turns below at a departure OAT of 34.9 °C"
+    );
+    assert_eq!(
+        h(12.0, true).words(),
+        "takes at least 12.0 °C more warming: the flight-manual table ends at a departure \
+         OAT of 40.7 °C"
+    );
+    // Under the search's 0.1 °C grain (rounded down to 0.0): less than a step, not "0.0".
+    assert_eq!(
+        h(0.0, false).words(),
+        "takes less than 0.1 °C more warming: turns below at a departure OAT of 28.7 °C"
+    );
+    // No word of the old "not below from … down" form.
+    for w in [h(-3.2, false).words(), h(6.2, false).words()] {
+        assert!(!w.contains("below from") && !w.contains(" down"), "{w}");
+    }
 }

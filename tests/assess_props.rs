@@ -561,3 +561,109 @@ fn no_ceiling_reported_still_shows_the_limit_and_its_unit() {
     );
     assert_eq!(c.state, State::Within);
 }
+
+/// The demo day's reports as `check` reads them (each day file against its own date).
+fn demo_day_store(ops: &Ops) -> Store {
+    let stale = chrono::TimeDelta::seconds((ops.operator.policy.stale_after_min * 60.0) as i64);
+    let mut s = Store::new(stale);
+    for (file, text) in ops
+        .observations
+        .iter()
+        .filter(|(f, _)| f.starts_with("observations/"))
+    {
+        for r in rhoboard::observation::decode_all(text, at(12, 0)) {
+            let _ = s.insert(r.report);
+        }
+        assert!(file.contains("2026-06-14"), "a demo day file: {file}");
+    }
+    s
+}
+
+/// `Limiting::at` is a stable reference: at every hour of the demo day, for every leg,
+/// the check it points to is the one `Limiting::check` names (the same airfield, runway
+/// and rule or limit label), its margin is that check's margin as shown (a limit row's
+/// `LimitCheck::margin_text`, whole percent rounded down for a distance or climb), and
+/// a check with no margin in numbers says `—`, never a state word.
+#[test]
+fn the_limiting_reference_points_at_the_check_it_names() {
+    use rhoboard::assess::leg::{LimitingAt, NO_MARGIN, percent_text};
+    let ops = demo_ops();
+    let model = Model::new(&ops, &DaySettings::default());
+    let store = demo_day_store(&ops);
+    let (mut limits, mut distances, mut hard) = (0, 0, 0);
+    for h in 6..=18 {
+        let ctx = Context {
+            ops: &ops,
+            model: &model,
+            store: &store,
+            at: at(h, 0),
+        };
+        for i in 0..ops.legs.len() {
+            let r = assess_leg(&ctx, i).unwrap();
+            let Some(l) = &r.limiting else { continue };
+            let side = r.limiting_side().expect("a side");
+            let place = format!("{} {}", side.airfield, side.runway.as_deref().unwrap_or(""));
+            let (name, margin) = match l.at {
+                LimitingAt::Takeoff(k) => {
+                    let c = &side.takeoff.as_ref().unwrap().checks[k];
+                    distances += 1;
+                    (
+                        format!("{place} takeoff {}", c.rule),
+                        percent_text(c.result.margin),
+                    )
+                }
+                LimitingAt::Landing(k) => {
+                    let c = &side.landing.as_ref().unwrap().checks[k];
+                    distances += 1;
+                    (
+                        format!("{place} landing {}", c.rule),
+                        percent_text(c.result.margin),
+                    )
+                }
+                LimitingAt::Climb => {
+                    let c = side.climb.as_ref().unwrap();
+                    let name = match c.chain.gradient_margin {
+                        Some(g) if g < c.chain.rate_margin => "climb gradient",
+                        _ => "climb rate",
+                    };
+                    (format!("{place} {name}"), percent_text(c.chain.margin()))
+                }
+                LimitingAt::Limit { .. } => {
+                    let c = r.limiting_check().expect("the limit row");
+                    let m = c.margin_text();
+                    if m.is_none() {
+                        hard += 1;
+                    } else {
+                        limits += 1;
+                    }
+                    (
+                        format!("{} {}", side.airfield, c.label()),
+                        m.unwrap_or_else(|| NO_MARGIN.to_string()),
+                    )
+                }
+            };
+            assert_eq!(l.check, name, "{h}Z {}", r.id);
+            assert_eq!(l.margin, margin, "{h}Z {} {}", r.id, l.check);
+            assert!(
+                !["below", "thin", "within", "no-data"].contains(&l.margin.as_str()),
+                "{h}Z {}: {}",
+                r.id,
+                l.margin
+            );
+            assert_eq!(l.has_margin(), l.margin_words().is_some());
+            // The change list and the look-ahead phrase: the check, then a number or
+            // nothing, never a dash or a state word.
+            let words = l.words();
+            assert!(words.starts_with(&l.check), "{words}");
+            assert!(
+                !words.ends_with(NO_MARGIN) && !words.ends_with("below"),
+                "{words}"
+            );
+        }
+    }
+    // The demo day has all three kinds: L08's lapsed endorsement is the hard limit.
+    assert!(
+        limits > 10 && distances > 10 && hard > 0,
+        "{limits} {distances} {hard}"
+    );
+}

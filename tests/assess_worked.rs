@@ -302,67 +302,107 @@ fn crosswind_component_check() {
     close("headwind", c.headwind_kt, 17.320_508, 1e-6);
 }
 
-/// Margins as shown: the shown value minus the shown limit, never more than the true
-/// margin (hand arithmetic beside each case).
-#[test]
-fn shown_margins_are_the_difference_of_the_shown_figures() {
+/// A limit row for the shown-margin tests (a fuel row: a minimum in litres, or as a
+/// maximum when `minimum` is false).
+fn shown_row(value: f64, limit: f64, minimum: bool) -> rhoboard::assess::limits::LimitCheck {
     use rhoboard::assess::limits::{LimitCheck, LimitKind};
-    let row = |value: f64, limit: f64, minimum: bool| LimitCheck {
+    let margin = if minimum {
+        value - limit
+    } else {
+        limit - value
+    };
+    LimitCheck {
         kind: LimitKind::FuelReserve,
         value: Some(value),
         limit: Some(limit),
         unit: "L",
-        margin: if minimum {
-            value - limit
-        } else {
-            limit - value
-        },
+        margin,
         band: 0.0,
-        state: State::Within,
+        state: if margin < 0.0 {
+            State::Below
+        } else {
+            State::Within
+        },
         source: String::new(),
         note: String::new(),
         subject: String::new(),
         open_ended: false,
-    };
-    // 60.4 L against 48.75 L: margin 11.65 L; shown 60 and 49, so margin 11 (≤ 11.65).
+    }
+}
+
+/// Margins as shown: value and limit rounded conservatively at the unit's precision
+/// (toward each other), the margin exactly their difference, never more than the true
+/// margin (hand arithmetic beside each case).
+#[test]
+fn shown_margins_are_the_difference_of_the_shown_figures() {
+    let row = shown_row;
+    let all = |s: rhoboard::assess::limits::Shown| (s.value, s.limit, s.margin, s.decimals);
+    // 60.4 L against a minimum of 48.75 L: margin 11.65 L; value down to 60, limit up
+    // to 49, margin 60 − 49 = 11 (≤ 11.65).
     let s = row(60.4, 48.75, true).shown(|x| x, 0);
-    assert_eq!(
-        (s.value, s.limit, s.margin, s.decimals),
-        (Some(60.0), Some(49.0), Some(11.0), 0)
-    );
-    // 60.6 L against 48.4 L: 61 − 48 = 13 would exceed 12.2; one decimal more is exact.
+    assert_eq!(all(s), (Some(60.0), Some(49.0), Some(11.0), 0));
+    // 60.6 L against 48.4 L: nearest rounding would give 61 − 48 = 13 > 12.2; value
+    // down to 60, limit up to 49: 11, whole units, no extra decimals.
     let s = row(60.6, 48.4, true).shown(|x| x, 0);
-    assert_eq!(
-        (s.value, s.limit, s.margin, s.decimals),
-        (Some(60.6), Some(48.4), Some(12.2), 1)
-    );
-    // A maximum: 8336.28 ft density altitude against 8000 ft: margin −336.28 ft;
-    // 8000 − 8336 = −336 would read better, so a decimal more: 8000.0 − 8336.3 = −336.3.
+    assert_eq!(all(s), (Some(60.0), Some(49.0), Some(11.0), 0));
+    // A maximum: 986.24 kg against 1150 kg (margin 163.76 kg): the value up to 987,
+    // margin 1150 − 987 = 163.
+    let s = row(986.24, 1150.0, false).shown(|x| x, 0);
+    assert_eq!(all(s), (Some(987.0), Some(1150.0), Some(163.0), 0));
+    // A missed maximum: 8336.28 ft density altitude against 8000 ft (margin −336.28):
+    // value up to 8337, margin 8000 − 8337 = −337, more missed than there is, not less.
     let s = row(8336.28, 8000.0, false).shown(|x| x, 0);
-    assert_eq!(s.margin, Some(-336.3));
-    assert_eq!((s.value, s.limit), (Some(8336.3), Some(8000.0)));
-    // In another unit (ft → m, 0.3048 m/ft exactly): 3000 ft against 2500 ft is 914.4 m
-    // against 762 m, margin 152.4 m; shown 914 − 762 = 152 ≤ 152.4.
+    assert_eq!(all(s), (Some(8337.0), Some(8000.0), Some(-337.0), 0));
+    // In another unit (ft → m, 0.3048 m/ft exactly): 3000 ft against a minimum of
+    // 2500 ft is 914.4 m against 762 m, margin 152.4 m; shown 914 − 762 = 152.
     let s = row(3000.0, 2500.0, true).shown(|x| x * 0.3048, 0);
-    assert_eq!(
-        (s.value, s.limit, s.margin),
-        (Some(914.0), Some(762.0), Some(152.0))
-    );
-    // Every case: margin shown = ±(value shown − limit shown) and ≤ the true margin.
-    for (v, l, min) in [
-        (10.45, 3.46, true),
-        (99.95, 0.05, false),
-        (1.005, 2.996, false),
-    ] {
-        let r = row(v, l, min);
-        let s = r.shown(|x| x, 0);
-        let sign = if min { 1.0 } else { -1.0 };
-        let diff = sign * (s.value.unwrap() - s.limit.unwrap());
-        assert!((s.margin.unwrap() - diff).abs() < 1e-9, "{s:?}");
-        assert!(
-            s.margin.unwrap() <= r.margin + 1e-9,
-            "{s:?} vs {}",
-            r.margin
-        );
+    assert_eq!(all(s), (Some(914.0), Some(762.0), Some(152.0), 0));
+    // Passing by less than a step: 1499 ft against a maximum of 1500 ft in metres is
+    // 456.895 m against 457.2 m; 457 − 457 = 0 rather than a missed-looking 457 − 458.
+    let s = row(1499.0, 1500.0, false).shown(|x| x * 0.3048, 0);
+    assert_eq!(all(s), (Some(457.0), Some(457.0), Some(0.0), 0));
+    // Exactly at the limit: 15 kt against 15 kt, margin +0 (not −0, not −1).
+    let s = row(15.0, 15.0, false).shown(|x| x, 0);
+    assert_eq!(all(s), (Some(15.0), Some(15.0), Some(0.0), 0));
+    assert!(s.margin.unwrap().is_sign_positive());
+    // At one decimal (visibility in SM): 4.97 SM against a minimum of 3 SM: 4.9 − 3.0.
+    let s = row(4.97, 3.0, true).shown(|x| x, 1);
+    assert_eq!(all(s), (Some(4.9), Some(3.0), Some(1.9), 1));
+}
+
+proptest::proptest! {
+    #![proptest_config(proptest::prelude::ProptestConfig::with_cases(2000))]
+
+    /// For any value, limit, kind (minimum or maximum), precision and a linear unit
+    /// change: the shown margin is exactly the shown value minus the shown limit (a
+    /// maximum: the reverse), never more than the true margin, less by under two steps,
+    /// on the same side of zero, and the figures sit on the grid of the precision.
+    #[test]
+    fn shown_margin_is_the_shown_difference_and_never_more_than_the_true_one(
+        value in -20_000.0f64..20_000.0,
+        limit in -20_000.0f64..20_000.0,
+        near in proptest::prelude::any::<bool>(),
+        nudge in -2.0f64..2.0,
+        minimum in proptest::prelude::any::<bool>(),
+        decimals in 0usize..3,
+        scale in proptest::sample::select(vec![1.0, 0.3048, 1.0 / 0.3048, 1.852]),
+    ) {
+        // Half the cases put the value within a couple of units of the limit, where
+        // rounding matters most.
+        let value = if near { limit + nudge } else { value };
+        let r = shown_row(value, limit, minimum);
+        let s = r.shown(|x| x * scale, decimals);
+        let (v, l, m) = (s.value.unwrap(), s.limit.unwrap(), s.margin.unwrap());
+        let step = 10f64.powi(-(decimals as i32));
+        let true_m = r.margin * scale;
+        let diff = if minimum { v - l } else { l - v };
+        proptest::prop_assert!((m - diff).abs() < 1e-6 * step, "{s:?}");
+        proptest::prop_assert!(m <= true_m + 1e-6 * step, "{s:?} vs {true_m}");
+        proptest::prop_assert!(true_m - m < 2.0 * step + 1e-6, "{s:?} vs {true_m}");
+        proptest::prop_assert_eq!(m < 0.0, true_m < 0.0, "{:?} vs {}", s, true_m);
+        for x in [v, l, m] {
+            proptest::prop_assert!(((x / step) - (x / step).round()).abs() < 1e-6, "{s:?}");
+        }
+        proptest::prop_assert_eq!(s.decimals, decimals);
     }
 }

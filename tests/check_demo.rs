@@ -563,9 +563,11 @@ fn text_headroom_marks_a_bound_as_the_report_does() {
 }
 
 /// A limit row's margin in the text table is the shown value minus the shown limit (a
-/// maximum: limit minus value) at the decimals shown, and never more than the true
-/// margin (`LimitCheck::shown`): whole units where they do not round up, else a decimal
-/// or two more. Checked against each leg's JSON limits at four times.
+/// maximum: limit minus value), each rounded toward the other at whole units (value
+/// down and limit up for a minimum, the reverse for a maximum), so never more than the
+/// true margin and less by under two units (`LimitCheck::shown`); JSON's
+/// `limiting_margin` is the same text. Checked against each leg's JSON limits at four
+/// times.
 #[test]
 fn text_limit_margins_are_the_shown_difference_and_never_rounded_up() {
     let mut checked = 0;
@@ -592,10 +594,13 @@ fn text_limit_margins_are_the_shown_difference_and_never_rounded_up() {
                 continue;
             };
             let (text, unit) = (cols[k - 1], cols[k]);
+            assert_eq!(
+                leg["limiting_margin"].as_str(),
+                Some(format!("{text} {unit}").as_str()),
+                "{at} {id}: JSON and text differ"
+            );
+            assert!(!text.contains('.'), "{at} {id}: {text} has decimals");
             let shown: f64 = text.parse().unwrap();
-            let decimals = text.split('.').nth(1).map_or(0, str::len) as i32;
-            let p = 10f64.powi(decimals);
-            let round = |x: f64| (x * p).round() / p;
             let limits: Vec<&Value> = ["departure", "arrival"]
                 .iter()
                 .flat_map(|s| leg[*s]["limits"].as_array().unwrap())
@@ -606,16 +611,16 @@ fn text_limit_margins_are_the_shown_difference_and_never_rounded_up() {
                 let (Some(val), Some(lim)) = (l["value"].as_f64(), l["limit"].as_f64()) else {
                     return false;
                 };
-                // Rounded, or where two more decimals still round up, the value moved
-                // towards the limit by its last digit (floored or ceiled).
-                let figures = |x: f64| [round(x), (x * p).floor() / p, (x * p).ceil() / p];
-                let same = figures(val).iter().any(|&vs| {
-                    figures(lim).iter().any(|&ls| {
-                        (round(vs - ls) - shown).abs() < 1e-9
-                            || (round(ls - vs) - shown).abs() < 1e-9
-                    })
-                });
-                same && shown <= m + 1e-9 && m - shown < 1.0
+                let minimum = (val - lim - m).abs() < 1e-6;
+                let (vs, ls) = if minimum {
+                    (val.floor(), lim.ceil())
+                } else {
+                    (val.ceil(), lim.floor())
+                };
+                let diff = if minimum { vs - ls } else { ls - vs };
+                // Passing by less than a unit shows +0, at the limit.
+                let diff = if m >= 0.0 { diff.max(0.0) } else { diff };
+                (diff - shown).abs() < 1e-9 && shown <= m + 1e-9 && m - shown < 2.0
             });
             assert!(
                 matched,
@@ -625,4 +630,41 @@ fn text_limit_margins_are_the_shown_difference_and_never_rounded_up() {
         }
     }
     assert!(checked > 10, "only {checked} limit margins checked");
+}
+
+/// A hard limit (L08's lapsed solo endorsement, 14 CFR 61.87(n)'s 90 days, from memory)
+/// has no margin in numbers: the text's margin column reads `—`, not the state word
+/// again, and JSON's `limiting_margin` is null, at every time of the demo day.
+#[test]
+fn a_hard_limit_has_no_margin_word_and_a_null_json_margin() {
+    for at in ["2026-06-14T08:00:00Z", "2026-06-14T14:00:00Z"] {
+        let (_, out, _) = rhoboard(&["check", "--at", at]);
+        let line = out
+            .lines()
+            .find(|l| l.split_whitespace().nth(1) == Some("L08"))
+            .expect("L08 in the table");
+        let cols: Vec<&str> = line.split_whitespace().collect();
+        // 1100Z L08 X-TRNC XSHT-XSEA student solo ✗ below — — XSHT endorsement
+        let state = cols.iter().position(|c| *c == "below").expect("below");
+        assert_eq!(cols[state + 1], "—", "margin column: {line}");
+        assert_eq!(
+            line.matches("below").count(),
+            1,
+            "the state alone says below: {line}"
+        );
+        assert!(line.ends_with("XSHT endorsement"), "{line}");
+        let v = check_json(at);
+        let l08 = v["legs"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|l| l["id"] == "L08")
+            .unwrap();
+        assert_eq!(l08["limiting_check"], "XSHT endorsement");
+        assert!(
+            l08["limiting_margin"].is_null(),
+            "{}",
+            l08["limiting_margin"]
+        );
+    }
 }

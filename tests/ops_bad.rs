@@ -123,6 +123,7 @@ const CASES: &[&str] = &[
     "leg-loads",
     "leg-maintenance",
     "leg-overlap-and-position",
+    "leg-typo-no-follow-on",
     "leg-unknown-refs",
     "leg-wrong-day-file",
     "loads-fuel-units",
@@ -269,6 +270,22 @@ fn leg_overlap_and_position() {
     insta::assert_snapshot!(validate_case("leg-overlap-and-position"), @r#"
     1 error(s):
       legs/2026-06-14.json:7:32: legs[1].departs_at: aircraft X-TINA is on leg T1 until 0900Z, which overlaps leg T2
+    1 warning(s):
+      legs/2026-06-14.json:10:53: legs[2].from: aircraft X-TINA departs XBBB on leg T3 at 1200Z but its previous leg T2 landed at XAAA
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
+    exit 2
+    "#);
+}
+
+/// A typo'd airfield (`XBBX` for `XBBB`) is one error on its own field; the next leg
+/// of the aircraft, departing the real XBBB, gets no warning that only repeats it ("the
+/// previous leg landed at XBBX"). A real break in the aircraft's positions (T3 departs
+/// XBBB after T2 landed at XAAA) still warns.
+#[test]
+fn leg_typo_no_follow_on() {
+    insta::assert_snapshot!(validate_case("leg-typo-no-follow-on"), @r#"
+    1 error(s):
+      legs/2026-06-14.json:6:76: legs[0].to: unknown airfield 'XBBX'; add airfields/XBBX.json or fix the id; did you mean XBBB?
     1 warning(s):
       legs/2026-06-14.json:10:53: legs[2].from: aircraft X-TINA departs XBBB on leg T3 at 1200Z but its previous leg T2 landed at XAAA
     Fix the errors above and run `rhoboard validate --ops DIR` again.

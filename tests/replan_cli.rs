@@ -333,3 +333,38 @@ fn an_overlapping_pilot_or_a_broken_chain_is_warned_on_stderr_and_in_the_json() 
     assert!(v["saved"].is_null());
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// A leg below on a hard limit (L08's lapsed solo endorsement) summarises as the check
+/// alone: no dash and no second "below" where a margin in numbers would go.
+#[test]
+fn a_hard_limit_summary_names_the_check_without_a_margin_word() {
+    let (dir, home, d) = init_folder("hard-limit");
+    let (code, out, err) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L08",
+            "--etd",
+            "11:30Z",
+            "--dry-run",
+            "--ops",
+            &d,
+            "--at",
+            "2026-06-14T13:00:00Z",
+        ],
+    );
+    assert_eq!(code, 1, "{out}{err}");
+    let lines: Vec<&str> = out
+        .lines()
+        .filter(|l| l.contains("before:") || l.contains("after:"))
+        .collect();
+    assert_eq!(lines.len(), 2, "{out}");
+    for line in lines {
+        assert!(
+            line.ends_with("✗ below XSHT endorsement, headroom —"),
+            "{line}"
+        );
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}

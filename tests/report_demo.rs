@@ -309,3 +309,60 @@ fn chains_say_whose_wind_factoring_they_use() {
     }
     assert!(manual > 0 && policy > 0, "{manual} manual, {policy} policy");
 }
+
+/// The report's chain words the headroom as the board and `check` do
+/// (`Headroom::words`), and marks the one row that decides each leg not `within` with
+/// "(limiting)", found by `Limiting::at`, not by its name.
+#[test]
+fn the_chain_uses_the_headroom_words_and_marks_the_limiting_row() {
+    for at in ["2026-06-14T13:00:00Z", "2026-06-14T15:00:00Z"] {
+        let (loaded, days) = assessed(at);
+        let rs = results(&loaded, &days);
+        let model = Model::new(&loaded.ops, &DaySettings::default());
+        let ctx = Context {
+            ops: &loaded.ops,
+            model: &model,
+            store: &loaded.store,
+            at: loaded.at,
+        };
+        let md = report::markdown(&report::build(&ctx, &rs, Err("no log".to_string())));
+        assert!(!md.contains("below from"), "the old wording is gone");
+        let mut marked = 0;
+        for r in rs
+            .iter()
+            .filter(|r| r.state != rhoboard::assess::State::Within)
+        {
+            // The leg's chain: from its heading to the next leg's.
+            let start = md
+                .find(&format!("### {}", r.id))
+                .unwrap_or_else(|| panic!("{at} {}: no chain in\n{md}", r.id));
+            let chain = &md[start..];
+            let chain = &chain[..chain[4..].find("### ").map_or(chain.len(), |e| e + 4)];
+            if let Some(h) = r.headroom {
+                assert!(
+                    chain.contains(&format!("- headroom: {}\n", h.words())),
+                    "{at} {}: {}\n{chain}",
+                    r.id,
+                    h.words()
+                );
+            }
+            let Some(l) = &r.limiting else { continue };
+            let rows: Vec<&str> = chain.lines().filter(|x| x.contains("(limiting)")).collect();
+            assert_eq!(rows.len(), 1, "{at} {} ({}): {rows:?}", r.id, l.check);
+            // The marked row is the limit (by its label) or the rule the check names.
+            let name = match r.limiting_check() {
+                Some(c) => format!("{}:", c.label()),
+                None => l.check.rsplit(" takeoff ").next().unwrap().to_string(),
+            };
+            let name = name.rsplit(" landing ").next().unwrap();
+            assert!(
+                rows[0].contains(name) || l.check.contains("climb"),
+                "{at} {}: {name} vs {}",
+                r.id,
+                rows[0]
+            );
+            marked += 1;
+        }
+        assert!(marked > 3, "{at}: only {marked} chains marked");
+    }
+}

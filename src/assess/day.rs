@@ -25,7 +25,7 @@ pub struct Change {
 fn why(r: &LegResult) -> String {
     r.limiting
         .as_ref()
-        .map(|l| format!("{} {}", l.check, l.margin))
+        .map(|l| l.words())
         .or_else(|| r.reasons.first().cloned())
         .unwrap_or_default()
 }

@@ -514,10 +514,90 @@ pub struct Side {
 pub struct Limiting {
     /// Its name, e.g. `XHIG 30 takeoff distance_50ft × 1.33 ≤ TODA`.
     pub check: String,
-    /// Its margin in words, e.g. `-7 %` or `2 kt`.
+    /// Its margin in words, e.g. `-7 %` or `+2 kt` (a limit row's as
+    /// [`LimitCheck::margin_text`] shows it); `—` for a check with no numeric margin
+    /// (an endorsement, a hazard, the named airfields: see [`Limiting::has_margin`]).
     pub margin: String,
     /// Margin ÷ buffer.
     pub score: f64,
+    /// Where the check is in the leg's result ([`LegResult::limiting_check`]).
+    pub at: LimitingAt,
+}
+
+/// The margin of a [`Limiting`] check that has none in numbers.
+pub const NO_MARGIN: &str = "—";
+
+impl Limiting {
+    /// Whether the check has a margin in numbers (`+2 kt`, `-7 %`), not [`NO_MARGIN`].
+    pub fn has_margin(&self) -> bool {
+        self.margin != NO_MARGIN
+    }
+
+    /// The margin in numbers, `None` for a check with none (a lapsed endorsement).
+    pub fn margin_words(&self) -> Option<&str> {
+        self.has_margin().then_some(self.margin.as_str())
+    }
+
+    /// The check and its margin in one phrase (`XHIG density altitude -9 ft`), the
+    /// check alone where it has no margin in numbers (`XSHT endorsement`).
+    pub fn words(&self) -> String {
+        match self.margin_words() {
+            Some(m) => format!("{} {m}", self.check),
+            None => self.check.clone(),
+        }
+    }
+}
+
+/// Which check a [`Limiting`] names, by its place in the leg's result (a stable
+/// reference, not a name to match).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum LimitingAt {
+    /// The departure's takeoff check at this index of its `checks`.
+    Takeoff(usize),
+    /// The arrival's landing check at this index of its `checks`.
+    Landing(usize),
+    /// The departure's climb.
+    Climb,
+    /// The limit at `index` of the departure's (`departure`) or the arrival's `limits`.
+    Limit {
+        /// On the departure side, else the arrival.
+        departure: bool,
+        /// Index in that side's `limits`.
+        index: usize,
+    },
+}
+
+impl LegResult {
+    /// The limit row the limiting check is, when it is one (not a distance or climb
+    /// check).
+    pub fn limiting_check(&self) -> Option<&LimitCheck> {
+        match self.limiting.as_ref()?.at {
+            LimitingAt::Limit { departure, index } => {
+                let side = if departure {
+                    &self.departure
+                } else {
+                    &self.arrival
+                };
+                side.limits.get(index)
+            }
+            _ => None,
+        }
+    }
+
+    /// The side (departure or arrival) of the limiting check.
+    pub fn limiting_side(&self) -> Option<&Side> {
+        Some(match self.limiting.as_ref()?.at {
+            LimitingAt::Takeoff(_) | LimitingAt::Climb => &self.departure,
+            LimitingAt::Landing(_) => &self.arrival,
+            LimitingAt::Limit {
+                departure: true, ..
+            } => &self.departure,
+            LimitingAt::Limit {
+                departure: false, ..
+            } => &self.arrival,
+        })
+    }
 }
 
 /// Degrees of warming a leg can take.
@@ -557,7 +637,12 @@ impl Headroom {
         format!("{mark}{:+.1}{unit}", diff(self.warming_c))
     }
 
-    /// The headroom in words, saying when the figure is only a bound.
+    /// The headroom in words, saying when the figure is only a bound: "takes 6.2 °C
+    /// more warming: turns below at a departure OAT of 24.4 °C", "takes at least 8.0 °C
+    /// more warming: the flight-manual table ends at a departure OAT of 40.0 °C", "below now: needs 3.2 °C of cooling, not below at a
+    /// departure OAT of 24.4 °C or colder", "below now: needs at least 38.7 °C of
+    /// cooling, still below at a departure OAT of -10.0 °C, where the flight-manual
+    /// table ends". The board's detail and the report's chain print these words.
     pub fn words(&self) -> String {
         self.words_in(|d| d, |t| t, "°C")
     }
@@ -571,21 +656,28 @@ impl Headroom {
         unit: &str,
     ) -> String {
         let (w, t) = (diff(self.warming_c), temp(self.warmest_oat_c));
+        const TABLE_ENDS: &str = "where the flight-manual table ends";
         match (self.table_ends, self.warming_c >= 0.0) {
+            // The search's grain is 0.1 °C, rounded down: 0.0 is less than a step.
+            (false, true) if w < 0.05 => format!(
+                "takes less than 0.1 {unit} more warming: turns below at a departure OAT of \
+                 {t:.1} {unit}"
+            ),
             (false, true) => format!(
-                "{w:+.1} {unit} of warming left (below from a departure OAT of {t:.1} {unit})"
+                "takes {w:.1} {unit} more warming: turns below at a departure OAT of {t:.1} {unit}"
             ),
             (true, true) => format!(
-                "≥ {w:+.1} {unit} of warming left (the flight-manual table ends at {t:.1} {unit})"
+                "takes at least {w:.1} {unit} more warming: the flight-manual table ends at a \
+                 departure OAT of {t:.1} {unit}"
             ),
             (false, false) => format!(
-                "below now; needs {:.1} {unit} cooler (not below from a departure OAT of \
-                 {t:.1} {unit} down)",
+                "below now: needs {:.1} {unit} of cooling, not below at a departure OAT of \
+                 {t:.1} {unit} or colder",
                 -w
             ),
             (true, false) => format!(
-                "below now; needs at least {:.1} {unit} cooler (still below at a departure OAT \
-                 of {t:.1} {unit}, where the flight-manual table ends)",
+                "below now: needs at least {:.1} {unit} of cooling, still below at a \
+                 departure OAT of {t:.1} {unit}, {TABLE_ENDS}",
                 -w
             ),
         }
@@ -712,8 +804,16 @@ pub fn landing_mass_assumed(leg: &Leg) -> bool {
     leg.takeoff_mass_kg.is_some() && leg.landing_mass_kg.is_none()
 }
 
+/// A distance or climb margin (a fraction) in whole percent, rounded down so that it
+/// never shows more margin than there is (+9.6 % is `+9 %`, −0.3 % is `-1 %`).
+pub fn percent_text(margin: f64) -> String {
+    // A hair of slack so that an exact figure is not floored one step down; `+ 0.0`
+    // turns a −0 into 0.
+    format!("{:+.0} %", (margin * 100.0 + 1e-9).floor() + 0.0)
+}
+
 fn pct(margin: f64) -> String {
-    format!("{:+.0} %", margin * 100.0)
+    percent_text(margin)
 }
 
 struct SideInput<'a> {
@@ -1498,12 +1598,13 @@ fn evaluate_end(
 
 fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<Limiting> {
     let at = |s: &Side| format!("{} {}", s.airfield, s.runway.as_deref().unwrap_or(""));
-    let (check, margin) = match what {
+    let (check, margin, place) = match what {
         What::Takeoff(i) => {
             let c = dep.takeoff.as_ref()?.checks.get(i)?;
             (
                 format!("{} takeoff {}", at(dep), c.rule),
                 pct(c.result.margin),
+                LimitingAt::Takeoff(i),
             )
         }
         What::Landing(i) => {
@@ -1511,6 +1612,7 @@ fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<L
             (
                 format!("{} landing {}", at(arr), c.rule),
                 pct(c.result.margin),
+                LimitingAt::Landing(i),
             )
         }
         What::Climb => {
@@ -1519,24 +1621,35 @@ fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<L
                 Some(g) if g < c.chain.rate_margin => "climb gradient",
                 _ => "climb rate",
             };
-            (format!("{} {name}", at(dep)), pct(c.chain.margin()))
+            (
+                format!("{} {name}", at(dep)),
+                pct(c.chain.margin()),
+                LimitingAt::Climb,
+            )
         }
         What::Limit(usize::MAX) => return None,
         What::Limit(i) => {
-            let l = dep.limits.iter().chain(arr.limits.iter()).nth(i)?;
-            let side = if i < dep.limits.len() { dep } else { arr };
-            let margin = if l.unit.is_empty() || l.margin.is_nan() || l.margin.is_infinite() {
-                l.state.word().to_string()
+            let departure = i < dep.limits.len();
+            let (side, index) = if departure {
+                (dep, i)
             } else {
-                format!("{:+.0} {}", l.margin, l.unit)
+                (arr, i - dep.limits.len())
             };
-            (format!("{} {}", side.airfield, l.label()), margin)
+            let l = side.limits.get(index)?;
+            (
+                format!("{} {}", side.airfield, l.label()),
+                // A hard limit (a lapsed endorsement) has no margin in numbers: its
+                // state already says below.
+                l.margin_text().unwrap_or_else(|| NO_MARGIN.to_string()),
+                LimitingAt::Limit { departure, index },
+            )
         }
     };
     Some(Limiting {
         check,
         margin,
         score,
+        at: place,
     })
 }
 
@@ -1606,9 +1719,15 @@ fn collect_reasons(
             }
             let mut s = format!("{role} {}: {} {}", side.airfield, l.label(), l.state.word());
             // The source follows "from", never inside parentheses: it often has its own.
-            if let (Some(v), Some(lim)) = (l.value, l.limit) {
+            // The figures as every margin shows them ([`LimitCheck::shown`]): rounded
+            // toward each other, their difference the margin shown.
+            let sh = l.shown(|x| x, 0);
+            if let (Some(v), Some(lim)) = (sh.value, sh.limit) {
+                let margin = l
+                    .margin_text()
+                    .map_or(String::new(), |m| format!(", margin {m}"));
                 s.push_str(&format!(
-                    " — {v:.0} {} against {lim:.0} {}; from {}",
+                    " — {v:.0} {} against {lim:.0} {}{margin}; from {}",
                     l.unit, l.unit, l.source
                 ));
             } else if !l.note.is_empty() {

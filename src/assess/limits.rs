@@ -148,99 +148,95 @@ impl LimitCheck {
     }
 }
 
-/// A limit's value, limit and margin as shown at some number of decimals, so that the
+/// A limit's value, limit and margin as shown at the unit's precision, so that the
 /// margin shown is the shown value minus the shown limit (a maximum: the shown limit
 /// minus the shown value) and never more than the true margin ([`LimitCheck::shown`]).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Shown {
-    /// The value, rounded to `decimals`.
+    /// The value at `decimals`, rounded toward the limit where a margin is shown.
     pub value: Option<f64>,
-    /// The limit, rounded to `decimals`.
+    /// The limit at `decimals`, rounded toward the value where a margin is shown.
     pub limit: Option<f64>,
     /// The margin, equal to the shown value and limit's difference where both are
     /// shown, never rounded up.
     pub margin: Option<f64>,
-    /// Decimals to print all three with.
+    /// Decimals to print all three with (the `decimals` asked for).
     pub decimals: usize,
 }
 
 impl LimitCheck {
     /// Value, limit and margin for display in the unit `convert` gives (the identity
-    /// for the check's own unit; a linear scaling such as ft → m), at `decimals` or,
-    /// where rounding would show a margin larger than the true one (60.6 L against
-    /// 48.4 L shown as 61 and 48, margin 13 for 12.2), one or two more. The margin
-    /// shown is then the difference of the figures shown.
+    /// for the check's own unit; a linear scaling such as ft → m), at `decimals`, the
+    /// unit's normal precision. Value and limit are rounded conservatively, each to the
+    /// side that makes the margin smaller (a maximum's value up and limit down, a
+    /// minimum's value down and limit up), and the margin is exactly the difference of
+    /// the figures shown: 986.24 kg against a maximum of 1150 kg shows as 987 kg, limit
+    /// 1150 kg, margin +163 kg, never more margin than there is. Where that rounding
+    /// would show a passing check as missed (value and limit inside one step), the
+    /// value shows at the limit with a margin of 0; a missed check always shows a
+    /// margin below 0.
     pub fn shown(&self, convert: impl Fn(f64) -> f64, decimals: usize) -> Shown {
         let margin = self.margin.is_finite().then(|| convert(self.margin));
         let (v, l) = (self.value.map(&convert), self.limit.map(&convert));
-        let round = |x: f64, d: usize| {
-            let p = 10f64.powi(d as i32);
-            (x * p).round() / p
-        };
-        let floor = |x: f64, d: usize| {
-            let p = 10f64.powi(d as i32);
-            // A hair of slack so that an exact figure is not floored one step down.
-            ((x * p) + 1e-9).floor() / p
+        let p = 10f64.powi(decimals as i32);
+        let step = 1.0 / p;
+        let round = |x: f64| (x * p).round() / p;
+        // A hair of slack so that an exact figure (or one a conversion left a hair off
+        // it) is not moved one step.
+        let down = |x: f64| ((x * p) + 1e-9).floor() / p;
+        let up = |x: f64| ((x * p) - 1e-9).ceil() / p;
+        let shown = |value: Option<f64>, limit: Option<f64>, margin: Option<f64>| Shown {
+            value,
+            limit,
+            margin,
+            decimals,
         };
         let Some(m) = margin else {
-            return Shown {
-                value: v.map(|x| round(x, decimals)),
-                limit: l.map(|x| round(x, decimals)),
-                margin: None,
-                decimals,
-            };
+            return shown(v.map(round), l.map(round), None);
         };
         let (Some(v), Some(l)) = (v, l) else {
-            return Shown {
-                value: v.map(|x| round(x, decimals)),
-                limit: l.map(|x| round(x, decimals)),
-                margin: Some(floor(m, decimals)),
-                decimals,
-            };
+            return shown(v.map(round), l.map(round), Some(down(m)));
         };
         // A minimum's margin is value − limit, a maximum's limit − value.
         let tol = 1e-6 * (1.0 + m.abs());
-        let sign = if (v - l - m).abs() <= tol {
-            1.0
+        let minimum = if (v - l - m).abs() <= tol {
+            true
         } else if (l - v - m).abs() <= tol {
-            -1.0
+            false
         } else {
-            // Not a plain difference: the margin on its own, floored.
-            return Shown {
-                value: Some(round(v, decimals)),
-                limit: Some(round(l, decimals)),
-                margin: Some(floor(m, decimals)),
-                decimals,
-            };
+            // Not a plain difference: the margin on its own, rounded down.
+            return shown(Some(round(v)), Some(round(l)), Some(down(m)));
         };
-        for d in decimals..=decimals + 2 {
-            let (vs, ls) = (round(v, d), round(l, d));
-            let ms = round(sign * (vs - ls), d);
-            let same_side = (ms >= 0.0) == (m >= 0.0) || ms == 0.0;
-            if ms <= m + 1e-9 && same_side {
-                return Shown {
-                    value: Some(vs),
-                    limit: Some(ls),
-                    margin: Some(ms),
-                    decimals: d,
-                };
-            }
-        }
-        // Two more decimals still round up: the value towards the limit, so the shown
-        // difference is below the true margin by less than two steps of the last digit.
-        let d = decimals + 2;
-        let p = 10f64.powi(d as i32);
-        let (vs, ls) = if sign > 0.0 {
-            ((v * p).floor() / p, (l * p).ceil() / p)
+        let (mut vs, ls) = if minimum {
+            (down(v), up(l))
         } else {
-            ((v * p).ceil() / p, (l * p).floor() / p)
+            (up(v), down(l))
         };
-        Shown {
-            value: Some(vs),
-            limit: Some(ls),
-            margin: Some(round(sign * (vs - ls), d)),
-            decimals: d,
+        // `+ 0.0` turns a −0 into 0, so an exact margin never prints as "-0".
+        let diff = |vs: f64| round(if minimum { vs - ls } else { ls - vs }) + 0.0;
+        if m >= 0.0 && diff(vs) < 0.0 {
+            // Passing by less than a step: at the limit, not beyond it.
+            vs = ls;
+        } else if m < 0.0 && diff(vs) >= 0.0 {
+            // Missed by less than the slack: one step beyond the limit.
+            vs = if minimum { ls - step } else { ls + step };
         }
+        // Keep the figures on the grid of `decimals` (no 0.30000000000000004).
+        let vs = round(vs);
+        shown(Some(vs), Some(ls), Some(diff(vs)))
+    }
+}
+
+impl LimitCheck {
+    /// The margin in the check's own unit at its normal precision, as
+    /// [`LimitCheck::shown`] rounds it (`+163 kg`, `-337 ft`); `None` for a check with
+    /// no margin in numbers (a flag such as an endorsement or a hazard, or no data).
+    pub fn margin_text(&self) -> Option<String> {
+        if self.unit.is_empty() || !self.margin.is_finite() {
+            return None;
+        }
+        let m = self.shown(|x| x, 0).margin?;
+        Some(format!("{m:+.0} {}", self.unit))
     }
 }
 

@@ -191,7 +191,7 @@ pub fn look_ahead(
     } else {
         r.state
     };
-    let limiting = r.limiting.map(|l| format!("{} {}", l.check, l.margin));
+    let limiting = r.limiting.map(|l| l.words());
     let fails_from = if observed == State::Below {
         None
     } else {

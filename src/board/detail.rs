@@ -84,6 +84,21 @@ fn shown_figures(
     (fig(s.value), fig(s.limit), margin)
 }
 
+/// A weather or pilot limit's value, limit and margin in the display unit, at that
+/// unit's precision ([`shown_figures`]).
+fn limit_figures(l: &crate::assess::limits::LimitCheck, show: Show) -> (String, String, String) {
+    let vis = l.kind == crate::assess::limits::LimitKind::Visibility;
+    let (_, unit) = show.limit_value(0.0, l.unit, vis);
+    let decimals = if matches!(unit, "SM" | "in") { 1 } else { 0 };
+    shown_figures(
+        l,
+        "-",
+        |v| show.limit_value(v, l.unit, vis).0,
+        unit,
+        decimals,
+    )
+}
+
 fn indented(depth: usize, text: impl Into<String>) -> Line<'static> {
     Line::from(format!("{}{}", "  ".repeat(depth), text.into()))
 }
@@ -123,11 +138,19 @@ pub fn lines(
         Span::raw("  "),
         state_span(t, r.state),
     ]));
-    let limiting = r
-        .limiting
-        .as_ref()
-        .map_or("—".to_string(), |l| format!("{} ({})", l.check, l.margin));
     let show = Show::of(ops);
+    let limiting = r.limiting.as_ref().map_or("—".to_string(), |l| {
+        // A limit row's margin in the display unit, as its row below shows it; a hard
+        // limit (a lapsed endorsement) has none in numbers and names only the check.
+        match r.limiting_check() {
+            Some(c) => match limit_figures(c, show).2.as_str() {
+                "—" => l.check.clone(),
+                m => format!("{} ({m})", l.check),
+            },
+            None if l.has_margin() => format!("{} ({})", l.check, l.margin),
+            None => l.check.clone(),
+        }
+    });
     // One line where both fit; else each on its own, so "Headroom:" never ends a
     // line without its value (finding 27).
     let limiting = format!("Limiting: {limiting}");
@@ -624,16 +647,7 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, show: Show, t: Theme
     if !s.limits.is_empty() {
         out.push(plain("Limits:"));
         for l in &s.limits {
-            let vis = l.kind == crate::assess::limits::LimitKind::Visibility;
-            let (_, unit) = show.limit_value(0.0, l.unit, vis);
-            let decimals = if matches!(unit, "SM" | "in") { 1 } else { 0 };
-            let (v, lim, margin) = shown_figures(
-                l,
-                "-",
-                |v| show.limit_value(v, l.unit, vis).0,
-                unit,
-                decimals,
-            );
+            let (v, lim, margin) = limit_figures(l, show);
             limit_row(out, t, &l.label(), &v, &lim, &margin, l.state);
             // A row with no value ("— limit 3000 ft") says why ("no ceiling reported").
             if !l.note.is_empty() && (l.state != State::Within || l.value.is_none()) {

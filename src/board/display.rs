@@ -191,7 +191,7 @@ mod tests {
     #[test]
     fn a_bounded_headroom_keeps_its_mark_in_fahrenheit() {
         // A temperature difference of 1 °C is 1.8 °F and 0 °C is 32 °F (NIST SP 811,
-        // appendix B): 38.7 °C cooler is 69.7 °F, a table end at -10 °C is 14 °F.
+        // appendix B): 38.7 °C of cooling is 69.7 °F, a table end at -10 °C is 14 °F.
         let h = crate::assess::leg::Headroom {
             warming_c: -38.7,
             warmest_oat_c: -10.0,
@@ -206,8 +206,8 @@ mod tests {
         let w = h.words_in(|d| s.warming_value(d), |c| s.temp_value(c), s.temp_unit());
         assert_eq!(
             w,
-            "below now; needs at least 69.7 °F cooler (still below at a departure OAT of \
-             14.0 °F, where the flight-manual table ends)"
+            "below now: needs at least 69.7 °F of cooling, still below at a departure OAT of \
+             14.0 °F, where the flight-manual table ends"
         );
         // In °C the words are the report's own.
         assert_eq!(h.words_in(|d| d, |c| c, "°C"), h.words());

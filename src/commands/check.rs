@@ -8,7 +8,7 @@ use anyhow::Context as _;
 use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
 
-use crate::assess::leg::{LegResult, PhaseResult, Side};
+use crate::assess::leg::{LegResult, NO_MARGIN, PhaseResult, Side};
 use crate::assess::lookahead::{LookAhead, TafSource, look_ahead};
 use crate::assess::pairing::{self, Matrix};
 use crate::assess::{Context, DaySettings, Model, State, assess_leg};
@@ -271,7 +271,8 @@ pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
         "to": r.arrival.airfield,
         "state": r.state,
         "limiting_check": r.limiting.as_ref().map(|l| l.check.clone()),
-        "limiting_margin": r.limiting.as_ref().map(|l| l.margin.clone()),
+        // The margin as the text shows it; null where there is none in numbers.
+        "limiting_margin": r.limiting.as_ref().and_then(|l| l.margin_words()),
         "headroom_c": r.headroom.map(|h| h.warming_c),
         "headroom_table_ends": r.headroom.map(|h| h.table_ends),
         "survives_expected_high": r.headroom.and_then(|h| h.survives_expected_high),
@@ -325,31 +326,19 @@ pub fn headroom_text(r: &LegResult) -> String {
     r.headroom.map_or("—".to_string(), |h| h.figure())
 }
 
-/// The limiting check's margin for a text table. A limit row (wind, ceiling, density
-/// altitude, a mass …) is shown through [`LimitCheck::shown`], so the margin is the shown
-/// value minus the shown limit and never rounded up (`+11 kt`, or `+11.5 kt` where whole
-/// units would round up); a distance or climb check keeps its percentage.
+/// The limiting check's margin for a text table ([`Limiting::margin`]): a limit row
+/// (wind, ceiling, density altitude, a mass …) as [`LimitCheck::shown`] rounds it, value
+/// and limit toward each other with the margin their difference, so never more than
+/// there is (`+4 kt`, `+163 kg`); a distance or climb check in whole percent, rounded
+/// down; `—` where there is no margin in numbers (a lapsed endorsement: its state says
+/// below).
 ///
+/// [`Limiting::margin`]: crate::assess::leg::Limiting::margin
 /// [`LimitCheck::shown`]: crate::assess::limits::LimitCheck::shown
 pub fn limiting_margin_text(r: &LegResult) -> String {
-    let Some(l) = &r.limiting else {
-        return "—".to_string();
-    };
-    let row = [&r.departure, &r.arrival].into_iter().find_map(|side| {
-        side.limits
-            .iter()
-            .find(|c| format!("{} {}", side.airfield, c.label()) == l.check)
-    });
-    match row {
-        Some(c) if !c.unit.is_empty() && c.margin.is_finite() => {
-            let shown = c.shown(|x| x, 0);
-            match shown.margin {
-                Some(m) => format!("{:+.*} {}", shown.decimals, m, c.unit),
-                None => l.margin.clone(),
-            }
-        }
-        _ => l.margin.clone(),
-    }
+    r.limiting
+        .as_ref()
+        .map_or(NO_MARGIN.to_string(), |l| l.margin.clone())
 }
 
 fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io::Result<()> {

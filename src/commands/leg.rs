@@ -10,8 +10,7 @@ use chrono::{DateTime, NaiveTime, Utc};
 use crate::assess::{Context, DaySettings, LegResult, Model, assess_leg};
 use crate::commands::Outcome;
 use crate::commands::check::{
-    headroom_text, leg_json, limiting_margin_text, load, unknown_aircraft, unknown_airfield,
-    unknown_leg,
+    headroom_text, leg_json, load, unknown_aircraft, unknown_airfield, unknown_leg,
 };
 use crate::ops::config::{self, Choice};
 use crate::ops::legs::LegsFile;
@@ -111,11 +110,8 @@ fn summary(r: &LegResult) -> String {
     format!(
         "{} {}, headroom {}",
         r.state,
-        r.limiting.as_ref().map_or("—".to_string(), |l| format!(
-            "{} {}",
-            l.check,
-            limiting_margin_text(r)
-        )),
+        // `XHIG density altitude -9 ft`; a hard limit names only the check.
+        r.limiting.as_ref().map_or("—".to_string(), |l| l.words()),
         headroom_text(r)
     )
 }

@@ -1293,7 +1293,13 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                         b.id
                     ),
                 );
-            } else if b.from != a.to {
+            } else if b.from != a.to
+                // An unknown airfield on either side is already an error on its own
+                // field; a position warning would only repeat the typo ("the previous
+                // leg landed at XPNI").
+                && ops.airfield(&a.to).is_some()
+                && ops.airfield(&b.from).is_some()
+            {
                 c.warn(
                     file,
                     &format!("legs[{k}].from"),
