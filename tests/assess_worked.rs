@@ -71,10 +71,13 @@ fn rules_easa_fallbacks() -> PhaseRules {
     }
 }
 
-/// EASA Air Operations, CAT.POL.A.305 and AMC1 CAT.POL.A.305 (performance class B
-/// take-off; from memory): not more than 50 % of the reported headwind, dry grass
-/// ×1.2, +5 % per 1 % upslope (2 % upslope: ×1.10), and with no stopway or clearway the
-/// take-off distance × 1.25 must not exceed TORA.
+/// EASA Air Operations, Regulation (EU) No 965/2012, performance class B take-off:
+/// CAT.POL.A.305(b)(1) "the unfactored take-off distance … when multiplied by a factor
+/// of 1.25, [shall not exceed] the take-off run available (TORA)"; (c)(6) not more than
+/// 50 % of the reported headwind, not less than 150 % of the tailwind; AMC2
+/// CAT.POL.A.305 "increased by 5 % for each 1 % of upslope" (2 % upslope: ×1.10); dry
+/// grass ×1.2 (AMC1 CAT.POL.A.305 Table 1, from memory; UK CAA Safety Sense Leaflet 7
+/// gives the same).
 ///
 /// By hand: table distance to 50 ft 500 m, ground roll 300 m, reported headwind 10 kt.
 ///   headwind counted: 10 × 0.5 = 5 kt; wind factor 1 − 5 × 1 % = 0.95 → 475 m
@@ -132,8 +135,9 @@ fn easa_class_b_takeoff_worked_example() {
 /// Landing at 70 % of LDA (distance from 50 ft × 1/0.7 ≈ × 1.43; EASA CAT.POL.A.330(a),
 /// Regulation (EU) No 965/2012: "a full-stop landing from 50 ft above the threshold within
 /// 70 % of the LDA"; UK CAA SSL 7) on a wet paved runway, a further × 1.15 (EASA
-/// CAT.POL.A.335; 1.15 is "the wet factor" in GM1 CAT.POL.A.335(b), the rule's paragraph
-/// from memory), the manual silent on wet runways.
+/// CAT.POL.A.335; "the wet factor (1.15)" in GM1 CAT.POL.A.335(b), as the UK CAA's
+/// copy of the regulation's guidance gives it; the rule's own paragraph number from
+/// memory), the manual silent on wet runways.
 ///
 /// By hand: table landing distance 400 m, calm, paved, level.
 ///   required 400 × 1.43 × 1.15 = 657.8 m against LDA 700 m: margin 700/657.8 − 1 = 6.4 %.

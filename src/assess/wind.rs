@@ -201,8 +201,9 @@ mod tests {
 
     // EASA performance class B: "not more than 50 % of the headwind component or not
     // less than 150 % of the tailwind component" (Regulation (EU) No 965/2012,
-    // CAT.POL.A.330(c)(2), landing; CAT.POL.A.305 says the same for take-off, its
-    // paragraph from memory).
+    // CAT.POL.A.330(c)(2), landing; CAT.POL.A.305(c)(6), take-off: "not more than 50 %
+    // of the reported headwind component or not less than 150 % of the reported
+    // tailwind component").
     #[test]
     fn class_b_wind_factoring() {
         close(factored_headwind_kt(10.0, 0.5, 1.5), 5.0, 1e-12);

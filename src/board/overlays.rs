@@ -269,9 +269,12 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             t.state(r.state),
         ),
         Span::raw(format!(
-            " · {} {} · headroom {}",
+            " · {}{} · headroom {}",
             fig.limiting_check.clone().unwrap_or_else(|| "—".into()),
-            fig.limiting_margin.clone().unwrap_or_default(),
+            // A hard limit (an endorsement, a currency) has no margin to show.
+            fig.limiting_margin
+                .as_deref()
+                .map_or(String::new(), |m| format!(" {m}")),
             super::view::headroom_cell(show, r)
         )),
     ]));
