@@ -3,8 +3,14 @@
 
 use std::fmt::Write as _;
 
+use chrono::{TimeZone, Utc};
+use ratatui::Terminal;
+use ratatui::backend::TestBackend;
 use ratatui::buffer::Buffer;
+use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
 use ratatui::style::{Color, Modifier};
+
+use super::{App, Msg, Settings};
 
 const CELL_W: f64 = 8.4;
 const CELL_H: f64 = 18.0;
@@ -100,6 +106,91 @@ pub fn svg(buf: &Buffer) -> String {
     }
     out.push_str("</svg>\n");
     out
+}
+
+// ---- The demo day's screenshots (written by `cargo run --example screenshots`,
+// compared with the committed files by `tests/screenshots_current.rs`).
+
+fn key(app: &mut App, code: KeyCode) {
+    app.update(Msg::Key(KeyEvent::new(code, KeyModifiers::NONE)));
+}
+
+fn demo_at(hour: u32) -> anyhow::Result<App> {
+    let start = Utc.with_ymd_and_hms(2026, 6, 14, 6, 30, 0).unwrap();
+    let mut app = App::demo(start, Settings::default())?;
+    key(&mut app, KeyCode::Char(' '));
+    for _ in 7..=hour {
+        key(&mut app, KeyCode::Char('n'));
+    }
+    Ok(app)
+}
+
+fn shoot(app: &mut App, w: u16, h: u16) -> anyhow::Result<String> {
+    app.update(Msg::Resize(w, h));
+    let mut t = Terminal::new(TestBackend::new(w, h))?;
+    t.draw(|f| f.render_widget(&*app, f.area()))?;
+    Ok(svg(t.backend().buffer()))
+}
+
+/// Every screenshot of the demo day, as `(file stem, SVG)`: what `screenshots/` holds.
+pub fn demo_shots() -> anyhow::Result<Vec<(&'static str, String)>> {
+    let mut shots = Vec::new();
+    let mut morning = demo_at(8)?;
+    shots.push(("morning-legs", shoot(&mut morning, 120, 32)?));
+    let mut afternoon = demo_at(15)?;
+    shots.push(("afternoon-legs", shoot(&mut afternoon, 120, 32)?));
+    // The detail of a below leg beside the legs.
+    key(&mut afternoon, KeyCode::Char('s'));
+    key(&mut afternoon, KeyCode::Home);
+    while afternoon.selected_leg().is_some_and(|r| r.id != "L14") {
+        key(&mut afternoon, KeyCode::Down);
+    }
+    shots.push(("afternoon-detail-wide", shoot(&mut afternoon, 200, 50)?));
+    key(&mut afternoon, KeyCode::Char('s'));
+    key(&mut afternoon, KeyCode::Char('s'));
+    key(&mut afternoon, KeyCode::Tab);
+    shots.push(("afternoon-pairings", shoot(&mut afternoon, 120, 32)?));
+    // L16's mass and balance: the loading table beside the CG envelope.
+    let mut mb = demo_at(15)?;
+    while mb.selected_leg().is_some_and(|r| r.id != "L16") {
+        key(&mut mb, KeyCode::Down);
+    }
+    key(&mut mb, KeyCode::Enter);
+    mb.update(Msg::Resize(120, 40));
+    for _ in 0..400 {
+        let Some(r) = mb.selected_leg() else {
+            anyhow::bail!("the demo has no leg L16");
+        };
+        let lines =
+            super::detail::lines(&mb.ops, r, None, super::theme::Theme { color: true }, 119);
+        let at = lines
+            .iter()
+            .position(|l| l.to_string().contains("── Mass and balance"))
+            .unwrap_or(0);
+        if usize::from(mb.ui.detail_scroll) >= at {
+            break;
+        }
+        key(&mut mb, KeyCode::Down);
+    }
+    shots.push(("afternoon-mass-and-balance", shoot(&mut mb, 120, 40)?));
+    // The Airfields pane with sunset, after closing XBRK 36 until 18:00Z from the board.
+    let mut fields = demo_at(15)?;
+    key(&mut fields, KeyCode::Tab);
+    key(&mut fields, KeyCode::Tab);
+    key(&mut fields, KeyCode::Char('r'));
+    for c in "y".chars() {
+        key(&mut fields, KeyCode::Char(c));
+    }
+    key(&mut fields, KeyCode::Tab);
+    for c in "18:00Z".chars() {
+        key(&mut fields, KeyCode::Char(c));
+    }
+    key(&mut fields, KeyCode::Enter);
+    shots.push(("afternoon-airfields", shoot(&mut fields, 120, 36)?));
+    let mut help = demo_at(8)?;
+    key(&mut help, KeyCode::Char('?'));
+    shots.push(("help", shoot(&mut help, 120, 40)?));
+    Ok(shots)
 }
 
 #[cfg(test)]
