@@ -113,6 +113,34 @@ fn an_operator_folder_that_goes_away_is_an_error_naming_it() {
     let _ = std::fs::remove_dir_all(&dir);
 }
 
+/// The remembered default folder broken by hand (a truncated pilots.json): `check` and
+/// `report` fail with the folder's name and exit 2, never assess the demo in its place
+/// (a script's `rhoboard check && …` must not pass on invented legs).
+#[test]
+fn a_broken_default_folder_is_an_error_not_the_demo() {
+    let dir = temp("broken-default");
+    let ops = dir.join("ops");
+    let home = dir.join("home");
+    let d = ops.to_str().unwrap();
+    assert_eq!(rhoboard(&home, &["init", d, "--make-default"]).0, 0);
+    let (code, _, err) = rhoboard(&home, &["check"]);
+    assert_ne!(code, 2, "the copy of the demo loads: {err}");
+    std::fs::write(ops.join("pilots.json"), "{").unwrap();
+    for args in [&["check"][..], &["report"][..]] {
+        let (code, out, err) = rhoboard(&home, args);
+        assert_eq!(code, 2, "{args:?}: {err}");
+        assert!(
+            err.contains(d) && err.contains("rhoboard validate"),
+            "{err}"
+        );
+        assert!(
+            !out.contains("Fictional Skies"),
+            "{args:?} printed the demo: {out}"
+        );
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
 /// A device in place of the month's log file (here /dev/full, which reads as endless
 /// zeros) is refused with a clear message, never read without end.
 #[test]

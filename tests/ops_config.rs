@@ -29,7 +29,7 @@ fn explicit_over_configured_over_demo() {
 }
 
 #[test]
-fn a_failing_explicit_folder_is_an_error_and_a_failing_default_falls_back() {
+fn a_failing_folder_is_an_error_whether_explicit_or_the_default() {
     let d = temp("fallback");
     let missing = d.join("nowhere");
     let err = config::load_for_use(&Choice::Explicit(missing.clone())).unwrap_err();
@@ -37,20 +37,20 @@ fn a_failing_explicit_folder_is_an_error_and_a_failing_default_falls_back() {
         format!("{err:#}").contains("reading operator folder"),
         "{err:#}"
     );
-    let (ops, warning) = config::load_for_use(&Choice::Configured(missing)).unwrap();
-    assert_eq!(ops.airfields.len(), 9, "the demo");
-    let warning = warning.unwrap();
+    // A remembered default that fails is an error too, never the demo in its place.
+    let err = config::load_for_use(&Choice::Configured(missing)).unwrap_err();
+    let err = format!("{err:#}");
     assert!(
-        warning.contains("did not load") && warning.contains("built-in demo"),
-        "{warning}"
+        err.contains("default operator folder") && err.contains("rhoboard validate"),
+        "{err}"
     );
-    let (_, warning) = config::load_for_use(&Choice::Demo).unwrap();
-    assert!(warning.is_none());
+    let demo = config::load_for_use(&Choice::Demo).unwrap();
+    assert_eq!(demo.airfields.len(), 9, "the demo");
     // A folder that loads is used as is.
     rhoboard::ops::demo::files()
         .write_dir(&d.join("ok"))
         .unwrap();
-    let (_, warning) = config::load_for_use(&Choice::Configured(d.join("ok"))).unwrap();
-    assert!(warning.is_none());
+    let ok = config::load_for_use(&Choice::Configured(d.join("ok"))).unwrap();
+    assert_eq!(ok.airfields.len(), 9, "the folder written from the demo");
     std::fs::remove_dir_all(&d).unwrap();
 }

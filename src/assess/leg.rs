@@ -1123,6 +1123,15 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             reasons.push(why);
             side.state = State::NoData;
             worst.add(State::NoData, f64::NAN, What::Limit(usize::MAX));
+            // A stale report is no basis for a check: its air is shown (the detail's
+            // "as last reported"), but no limit or distance is assessed on it, so
+            // nothing at this end reads `within` or `thin`.
+            weatherless_pilot_checks(
+                side_in.departure,
+                &mut all_limits,
+                &mut temperature_independent_below,
+            );
+            continue;
         }
 
         // Every end, then the runway in use.

@@ -89,8 +89,8 @@ pub fn load(
 ) -> anyhow::Result<Loaded> {
     let choice = config::choose(ops_dir, config::config_file().as_deref());
     let demo = choice == Choice::Demo;
-    let (ops, warning) = config::load_for_use(&choice)?;
-    let mut warnings: Vec<String> = warning.into_iter().collect();
+    let ops = config::load_for_use(&choice)?;
+    let mut warnings: Vec<String> = Vec::new();
     let at = match at {
         Some(t) => parse_at(t)?,
         None if demo => demo_morning(),

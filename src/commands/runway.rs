@@ -330,7 +330,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             "the built-in demo has no operator folder to keep a runway state in; write one with `rhoboard init DIR` and pass --ops DIR"
         ),
     };
-    let (ops, _) = config::load_for_use(&choice)?;
+    let ops = config::load_for_use(&choice)?;
     let date = match &args.date {
         Some(d) => NaiveDate::parse_from_str(d, "%Y-%m-%d")
             .map_err(|_| anyhow::anyhow!("--date '{d}': expected YYYY-MM-DD"))?,

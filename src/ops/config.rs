@@ -45,21 +45,22 @@ pub fn choose(explicit: Option<&Path>, config: Option<&Path>) -> Choice {
     }
 }
 
-/// Loads the chosen operator for use (board, check, report). An explicit folder that
-/// fails is an error; a configured default that fails falls back to the demo and the
-/// returned warning says why; the demo always loads.
-pub fn load_for_use(choice: &Choice) -> anyhow::Result<(super::Ops, Option<String>)> {
+/// Loads the chosen operator for use (board, check, report). A folder that fails —
+/// given with `--ops` or remembered as the default — is an error naming it: the demo
+/// is never shown in place of a real operator's folder (its invented legs could be
+/// taken for the day's, and a script would read its verdict as the operator's).
+pub fn load_for_use(choice: &Choice) -> anyhow::Result<super::Ops> {
     let demo = || {
         super::demo::load().ops.ok_or_else(|| {
             anyhow::anyhow!("the built-in demo failed its own checks (a bug; please report it)")
         })
     };
     match choice {
-        Choice::Demo => Ok((demo()?, None)),
+        Choice::Demo => demo(),
         Choice::Explicit(dir) => {
             let loaded = super::load_dir(dir)?;
             match loaded.ops {
-                Some(ops) => Ok((ops, None)),
+                Some(ops) => Ok(ops),
                 None => Err(anyhow::anyhow!(
                     "operator folder {} has {} problem(s); run `rhoboard validate --ops {}`",
                     dir.display(),
@@ -71,17 +72,14 @@ pub fn load_for_use(choice: &Choice) -> anyhow::Result<(super::Ops, Option<Strin
         Choice::Configured(dir) => {
             let why = match super::load_dir(dir) {
                 Ok(loaded) => match loaded.ops {
-                    Some(ops) => return Ok((ops, None)),
+                    Some(ops) => return Ok(ops),
                     None => format!("{} problem(s)", loaded.report.errors.len()),
                 },
                 Err(e) => format!("{e:#}"),
             };
-            Ok((
-                demo()?,
-                Some(format!(
-                    "the configured operator folder {} did not load ({why}); showing the built-in demo — run `rhoboard validate`",
-                    dir.display()
-                )),
+            Err(anyhow::anyhow!(
+                "the default operator folder {} did not load ({why}); run `rhoboard validate` to see the problems, or pass --ops DIR for another folder",
+                dir.display()
             ))
         }
     }
