@@ -231,8 +231,26 @@ fn split_number(text: &str, kind: Kind) -> Result<(f64, String), UnitError> {
         end += 1;
     }
     let digits_start = end;
-    while end < bytes.len() && (bytes[end].is_ascii_digit() || bytes[end] == b'.') {
-        end += 1;
+    // Digits and a decimal point; a comma only as a thousands separator, before three
+    // digits that end the group (`5,900ft`, `12,500 ft`), never after the point.
+    let group_follows = |at: usize| {
+        bytes.get(at) == Some(&b',')
+            && bytes.len() >= at + 4
+            && bytes[at + 1..at + 4].iter().all(u8::is_ascii_digit)
+            && bytes.get(at + 4).is_none_or(|b| !b.is_ascii_digit())
+    };
+    let mut seen_point = false;
+    while end < bytes.len() {
+        match bytes[end] {
+            b'0'..=b'9' => end += 1,
+            // A second point makes the number unreadable (`1.2.3kt`), not a unit.
+            b'.' => {
+                seen_point = true;
+                end += 1;
+            }
+            b',' if !seen_point && end > digits_start && group_follows(end) => end += 1,
+            _ => break,
+        }
     }
     let no_number = || UnitError::NoNumber {
         text: text.to_string(),
@@ -242,7 +260,16 @@ fn split_number(text: &str, kind: Kind) -> Result<(f64, String), UnitError> {
         return Err(no_number());
     }
     // `end` only advanced over ASCII bytes, so it is a char boundary.
-    let value: f64 = t[..end].parse().map_err(|_| no_number())?;
+    let number = &t[..end];
+    // The first group before a comma has one to three digits.
+    if number.contains(',') {
+        let first = number[digits_start..].split(',').next().unwrap_or("");
+        if first.is_empty() || first.len() > 3 {
+            return Err(no_number());
+        }
+    }
+    let plain: String = number.chars().filter(|&c| c != ',').collect();
+    let value: f64 = plain.parse().map_err(|_| no_number())?;
     if !value.is_finite() {
         return Err(no_number());
     }
@@ -371,6 +398,16 @@ mod tests {
         assert_eq!(parse_length("5900ft").unwrap(), Length::Ft(5900.0));
         assert_eq!(parse_length("1800m").unwrap(), Length::M(1800.0));
         assert_eq!(parse_length("-200 FT").unwrap(), Length::Ft(-200.0));
+        // Thousands separators, as the program itself prints them ("5,900 ft").
+        assert_eq!(parse_length("5,900ft").unwrap(), Length::Ft(5900.0));
+        assert_eq!(parse_length("12,500 ft").unwrap(), Length::Ft(12500.0));
+        assert_eq!(parse_length("-1,500ft").unwrap(), Length::Ft(-1500.0));
+        assert!(parse_length("5,90ft").is_err(), "not a group of three");
+        assert!(parse_length("1234,567ft").is_err(), "first group too long");
+        assert!(
+            parse_length("1.5,000ft").is_err(),
+            "no comma after the point"
+        );
         assert!((parse_length("1nm").unwrap().m() - 1852.0).abs() < 1e-9);
         assert!((parse_pressure_hpa("30.12inHg").unwrap() - 1019.98).abs() < 0.01);
         assert_eq!(parse_pressure_hpa("1019hPa").unwrap(), 1019.0);

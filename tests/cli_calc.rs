@@ -235,3 +235,30 @@ fn no_arguments_prints_the_overview_with_a_worked_example() {
     assert!(stdout.contains("density altitude 8,9"), "{stdout}");
     assert!(!stdout.to_lowercase().contains("not implemented"));
 }
+
+/// A value typed as the program prints it ("5,900 ft") reads the same as without the
+/// comma; without a dew point the dry-air figure is given once, not twice.
+#[test]
+fn thousands_separators_and_one_dry_air_line() {
+    let mut args = DONE_WHEN[..7].to_vec();
+    let (code, plain, stderr) = rhoboard(&args);
+    assert_eq!(code, 0, "{stderr}");
+    args[2] = "5,900ft";
+    let (code, grouped, stderr) = rhoboard(&args);
+    assert_eq!(code, 0, "{stderr}");
+    assert_eq!(plain, grouped);
+    assert_eq!(plain.matches("dry air").count(), 2, "{plain}");
+    assert!(plain.contains("no dew point (dry air assumed)"), "{plain}");
+    assert!(!plain.contains("\n    dry air"), "{plain}");
+    let (code, _, stderr) = rhoboard(&[
+        "calc",
+        "--elevation",
+        "5,90ft",
+        "--altimeter",
+        "1013hPa",
+        "--temp",
+        "15C",
+    ]);
+    assert_eq!(code, 2);
+    assert!(stderr.contains("'5,90ft'"), "{stderr}");
+}

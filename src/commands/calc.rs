@@ -244,7 +244,7 @@ fn write_human(c: &CalcJson, out: &mut dyn Write) -> std::io::Result<()> {
     )?;
     writeln!(out)?;
     let sign = if c.isa_deviation_c >= 0.0 { "+" } else { "-" };
-    let rows: [(&str, String, String); 9] = [
+    let mut rows: Vec<(&str, String, String)> = vec![
         (
             "station pressure",
             format!("{:.1} hPa", c.station_pressure_hpa),
@@ -275,11 +275,6 @@ fn write_human(c: &CalcJson, out: &mut dyn Write) -> std::io::Result<()> {
             },
         ),
         (
-            "  dry air",
-            format!("{} ft", feet(c.density_altitude_dry_ft)),
-            String::new(),
-        ),
-        (
             "  120 ft/°C estimate",
             format!("{} ft", feet(c.density_altitude_rule_of_thumb_ft)),
             "rule of thumb, cross-check only".to_string(),
@@ -301,6 +296,17 @@ fn write_human(c: &CalcJson, out: &mut dyn Write) -> std::io::Result<()> {
             },
         ),
     ];
+    // With a dew point, the dry-air figure beside it shows what the humidity adds.
+    if c.dewpoint_c.is_some() {
+        rows.insert(
+            5,
+            (
+                "  dry air",
+                format!("{} ft", feet(c.density_altitude_dry_ft)),
+                String::new(),
+            ),
+        );
+    }
     for (name, value, note) in rows {
         writeln!(out, "  {name:<22}{value:>14}   {note}")?;
     }
