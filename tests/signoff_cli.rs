@@ -411,3 +411,29 @@ fn log_show_marks_a_sign_off_in_force_that_needs_a_re_check() {
         "{shown}"
     );
 }
+
+/// A leg already gone at the assessment's time, and an override where nothing needs
+/// one: both are signed (the record is the signer's word) but the signer is told.
+#[test]
+fn signing_a_gone_leg_or_overriding_a_within_one_warns() {
+    let dir = demo_folder();
+    // L03 departs 0800Z; at 13:00Z it has left.
+    let o = sign(dir.path(), "L03", AFTERNOON, &[]);
+    assert!(o.status.success(), "{}", text(&o));
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert!(
+        err.contains("L03 departed at 0800Z") && err.contains("1300Z"),
+        "{err}"
+    );
+    // L09 (1200Z) is within at 08:00Z: an override is not needed.
+    let o = sign(
+        dir.path(),
+        "L09",
+        MORNING,
+        &["--override", "checked by hand"],
+    );
+    assert!(o.status.success(), "{}", text(&o));
+    let err = String::from_utf8_lossy(&o.stderr);
+    assert!(err.contains("no override is needed"), "{err}");
+    assert!(!err.contains("departed"), "{err}");
+}

@@ -137,6 +137,36 @@ pub fn load_operator(
     Ok((dir, loaded))
 }
 
+/// What a signer is told before the record is written: a leg already gone at the
+/// assessment's time, and an override given where nothing needs one.
+pub fn sign_warnings(
+    leg: &crate::ops::legs::Leg,
+    result: &crate::assess::LegResult,
+    req: &Request<'_>,
+) -> Vec<String> {
+    let mut warnings = Vec::new();
+    if leg.departs_utc() < req.basis_at {
+        warnings.push(format!(
+            "leg {} departed at {}, before the assessment's time {} (--at): this signs off on the reports known then, after the leg left",
+            leg.id,
+            leg.departs_utc().format("%H%MZ"),
+            req.basis_at.format("%H%MZ")
+        ));
+    }
+    if req.override_reason.is_some()
+        && !matches!(
+            result.state,
+            crate::assess::State::Below | crate::assess::State::NoData
+        )
+    {
+        warnings.push(format!(
+            "--override on a leg that is {}, neither below nor no-data: no override is needed; the reason is recorded with the sign-off",
+            result.state.word()
+        ));
+    }
+    warnings
+}
+
 /// Runs `rhoboard signoff`.
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let (dir, loaded) = load_operator(args.ops.as_deref(), args.at.as_deref())?;
@@ -165,6 +195,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         };
         let result = assess_leg(&ctx, index)
             .ok_or_else(|| anyhow::anyhow!("leg '{}' could not be assessed", args.leg))?;
+        for w in sign_warnings(&ops.legs[index], &result, &req) {
+            eprintln!("rhoboard: warning: {w}");
+        }
         sign(&log, ops, &result, &req, &opts)
     };
     match done {
