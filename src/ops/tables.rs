@@ -261,14 +261,51 @@ impl Grid {
         mass_kg: f64,
         pressure_altitude_ft: f64,
     ) -> Result<Slice, OutsideTable> {
-        let (mi, md, mf) = locate_axis(Axis::Mass, &self.mass_kg, mass_kg)?;
+        self.locate_mass(mass_kg)?
+            .slice(self, pressure_altitude_ft)
+    }
+
+    /// Locates a mass on the mass axis only: a matrix holds an aircraft's mass at every
+    /// airfield, so it locates it once and then calls [`MassAt::slice`] per pressure
+    /// altitude, which gives exactly the [`Slice`] (bit for bit) of
+    /// [`Grid::locate_slice`].
+    #[inline]
+    pub fn locate_mass(&self, mass_kg: f64) -> Result<MassAt, OutsideTable> {
+        let (index, step, fraction) = locate_axis(Axis::Mass, &self.mass_kg, mass_kg)?;
+        Ok(MassAt {
+            index,
+            step,
+            fraction,
+            grid_len: self.len() as u32,
+        })
+    }
+}
+
+/// A mass located on a [`Grid`]'s mass axis: lower index, upper-index step and
+/// fraction, waiting for a pressure altitude ([`MassAt::slice`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct MassAt {
+    index: usize,
+    step: usize,
+    fraction: f64,
+    /// Number of points of the grid it came from.
+    grid_len: u32,
+}
+
+impl MassAt {
+    /// The slice at `pressure_altitude_ft` on `grid` (the grid the mass was located on);
+    /// outside the pressure-altitude axis is [`OutsideTable`].
+    #[inline]
+    pub fn slice(&self, grid: &Grid, pressure_altitude_ft: f64) -> Result<Slice, OutsideTable> {
+        debug_assert_eq!(self.grid_len, grid.len() as u32, "another grid");
+        let (mi, md, mf) = (self.index, self.step, self.fraction);
         let (pi, pd, pf) = locate_axis(
             Axis::PressureAltitude,
-            &self.pressure_altitude_ft,
+            &grid.pressure_altitude_ft,
             pressure_altitude_ft,
         )?;
-        let n_t = self.oat_c.len();
-        let n_p = self.pressure_altitude_ft.len();
+        let n_t = grid.oat_c.len();
+        let n_p = grid.pressure_altitude_ft.len();
         let base = (mi * n_p + pi) * n_t;
         let sm = md * n_p * n_t;
         let sp = pd * n_t;
@@ -286,7 +323,7 @@ impl Grid {
         Ok(Slice {
             bases,
             weights,
-            grid_len: self.len() as u32,
+            grid_len: self.grid_len,
         })
     }
 }
