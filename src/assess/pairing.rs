@@ -23,9 +23,9 @@ use super::perf;
 use super::state::{State, verdict};
 use crate::atmosphere::{WarmAir, Warming};
 use crate::observation::Report;
-use crate::ops::operator::Buffers;
+use crate::ops::operator::{Buffers, Minimums};
 use crate::ops::tables::{MassAt, Slice};
-use crate::ops::{Axis, Category, Cell, Leg, Ops, Performance, Status};
+use crate::ops::{Axis, Category, Leg, Ops, Performance, Status};
 
 /// What decided a pairing's state.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -388,6 +388,9 @@ struct FieldPrep<'a> {
     /// Field-level weather state per category (ceiling, visibility, wind, hazards);
     /// only the categories some row of the matrix is assessed under.
     weather: [FieldWeather; 4],
+    /// The minimums of each category, by [`cat_index`] (looked up once per field, not
+    /// once per pairing).
+    minimums: [Option<&'a Minimums>; 4],
     stale: bool,
     /// The warmed air at the table tops this field's searches asked for.
     tops: std::cell::RefCell<Tops>,
@@ -416,10 +419,23 @@ impl Default for Tops {
     }
 }
 
-/// Field `fi`'s report at the reference time, with its age.
-fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> Option<(&'a Report, ReportAge)> {
-    let id = &ctx.ops.airfields[fi].id;
-    report_for(ctx.store, id, ctx.at, ctx.at, ctx.model.stale_after_min)
+/// Field `fi`'s report at the reference time, with its age, and the weather read from
+/// it.
+fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> FieldReport<'a> {
+    let field = &ctx.ops.airfields[fi];
+    let found = report_for(ctx.store, &field.id, ctx.at, ctx.at, ctx.model.stale_after_min);
+    FieldReport {
+        wx: found
+            .as_ref()
+            .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft)),
+        found,
+    }
+}
+
+/// A field's report ([`field_report`]).
+struct FieldReport<'a> {
+    found: Option<(&'a Report, ReportAge)>,
+    wx: Option<FieldWx>,
 }
 
 /// Buffers reused from one airfield to the next.
@@ -445,17 +461,14 @@ impl<'a> FieldPrep<'a> {
     fn new(
         ctx: &Context<'a>,
         fi: usize,
-        found: Option<(&'a Report, ReportAge)>,
+        report: FieldReport<'a>,
         categories: &[bool; 4],
         scratch: &mut Scratch,
     ) -> FieldPrep<'a> {
         let ops = ctx.ops;
         let model = ctx.model;
-        let field = &ops.airfields[fi];
         let ends = model.field_ends(fi);
-        let wx = found
-            .as_ref()
-            .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
+        let FieldReport { found, wx } = report;
         let stale = found.as_ref().is_some_and(|(_, u)| u.stale);
         let mut winds = std::mem::take(&mut scratch.winds);
         winds.clear();
@@ -479,6 +492,10 @@ impl<'a> FieldPrep<'a> {
                     .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
             }
         });
+        let mut minimums = [None; 4];
+        for c in Category::ALL {
+            minimums[cat_index(c)] = ops.minimums(c);
+        }
         let mut weather = [FieldWeather::NO_DATA; 4];
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
             let date = ctx.at.date_naive();
@@ -492,7 +509,7 @@ impl<'a> FieldPrep<'a> {
                 if !categories[cat_index(c)] {
                     continue;
                 }
-                let Some(mins) = ops.minimums(c) else {
+                let Some(mins) = minimums[cat_index(c)] else {
                     continue;
                 };
                 let who = Who {
@@ -524,6 +541,7 @@ impl<'a> FieldPrep<'a> {
             ends,
             in_use,
             weather,
+            minimums,
             stale,
             tops: Default::default(),
         }
@@ -736,7 +754,7 @@ impl Prepared {
         &self,
         ctx: &Context<'_>,
         fi: usize,
-        found: Option<(&Report, ReportAge)>,
+        found: FieldReport<'_>,
         scratch: &mut Scratch,
         per_class: &mut [PairCell],
         exceptions: &mut [PairCell],
@@ -788,7 +806,7 @@ impl Prepared {
         if field.stale {
             return PairCell::NO_DATA;
         }
-        let Some(mins) = ops.minimums(class.category) else {
+        let Some(mins) = field.minimums[cat_index(class.category)] else {
             return PairCell::NO_DATA;
         };
         let ty = &model.types[t];
@@ -809,10 +827,17 @@ impl Prepared {
         };
         // Mass and pressure altitude are located once; per temperature only the OAT.
         let lookup = Lookup::located(&setup, &self.packed[t], masses, wx.air.pressure_altitude_ft);
-        // The landing rules of the category, resolved once for every end.
-        let landing_rules = perf::landing_rules(&ty.landing, mins.wet_paved_landing_factor);
+        // The landing rules of the category, resolved once per class.
+        let resolved;
+        let landing_rules = match &masses.landing_rules {
+            Some(r) => r,
+            None => {
+                resolved = perf::landing_rules(&ty.landing, mins.wet_paved_landing_factor);
+                &resolved
+            }
+        };
         let corrections =
-            |k: usize| EndCorrections::new(&setup, &landing_rules, &field.ends[k], &field.winds[k]);
+            |k: usize| EndCorrections::new(&setup, landing_rules, &field.ends[k], &field.winds[k]);
         let eval = |k: usize, air: &WarmAir, tv: Option<&TableValues>, c: &EndCorrections| {
             evaluate(&setup, b, &field.ends[k], air, tv, &field.winds[k], c)
         };
@@ -991,13 +1016,16 @@ impl HotEnd<'_> {
 }
 
 /// A class's takeoff and landing masses located on its type's mass axis (held at the
-/// lightest table mass for a conservative type), once per matrix: they do not depend on
-/// the field. `None`: outside the table.
+/// lightest table mass for a conservative type), and its landing rules, once per
+/// matrix: they do not depend on the field. `None`: outside the table.
 #[derive(Debug, Clone, Copy, Default)]
 struct Masses {
     takeoff: Option<MassAt>,
     /// `None` with a landing mass equal to the takeoff mass (the takeoff cell serves).
     landing: Option<Option<MassAt>>,
+    /// `perf::landing_rules` of the type and the category's wet paved factor (`None`:
+    /// not resolved, [`Prepared::pair`] resolves them).
+    landing_rules: Option<PhaseRules>,
 }
 
 impl Masses {
@@ -1016,6 +1044,7 @@ impl Masses {
         Masses {
             takeoff: at(s.takeoff_mass_kg),
             landing: (s.landing_mass_kg != s.takeoff_mass_kg).then(|| at(s.landing_mass_kg)),
+            landing_rules: None,
         }
     }
 
@@ -1027,16 +1056,23 @@ impl Masses {
         let Some(mins) = ctx.ops.minimums(class.category) else {
             return Masses::default();
         };
-        Masses::located(&Setup {
-            model: ctx.model,
-            ty: &ctx.model.types[t],
-            perf: &ctx.ops.types[t].performance,
-            mins,
-            takeoff_mass_kg: tom,
-            landing_mass_kg: lm,
-            distance_buffer: f64::NAN,
-            climb_buffer: f64::NAN,
-        })
+        let ty = &ctx.model.types[t];
+        Masses {
+            landing_rules: Some(perf::landing_rules(
+                &ty.landing,
+                mins.wet_paved_landing_factor,
+            )),
+            ..Masses::located(&Setup {
+                model: ctx.model,
+                ty,
+                perf: &ctx.ops.types[t].performance,
+                mins,
+                takeoff_mass_kg: tom,
+                landing_mass_kg: lm,
+                distance_buffer: f64::NAN,
+                climb_buffer: f64::NAN,
+            })
+        }
     }
 }
 
@@ -1086,7 +1122,8 @@ impl<'a> Lookup<'a> {
         }
     }
 
-    /// The five table values at `oat_c`; `None` outside the tables.
+    /// The five table values at `oat_c`; `None` outside the tables. The OAT is located
+    /// once for both masses, and each mass's cell reads only the tables it serves.
     #[inline]
     fn at(&self, oat_c: f64) -> Option<TableValues> {
         let grid = &self.perf.grid;
@@ -1095,18 +1132,30 @@ impl<'a> Lookup<'a> {
         } else {
             oat_c
         };
-        let t = self.takeoff?.at_oat(grid, oat).ok()?;
-        let vt = read_packed(self.packed, &t);
-        let vl = match &self.landing {
-            None => vt,
-            Some(l) => read_packed(self.packed, &l.as_ref()?.at_oat(grid, oat).ok()?),
-        };
-        Some(TableValues {
-            takeoff_ground_roll_m: vt[0],
-            takeoff_distance_50ft_m: vt[1],
-            climb_rate_fpm: vt[2],
-            landing_ground_roll_m: vl[3],
-            landing_distance_50ft_m: vl[4],
+        let takeoff = self.takeoff?;
+        let oat = grid.locate_oat(oat).ok()?;
+        Some(match &self.landing {
+            None => {
+                let v = takeoff.read_rows::<5, 0, 5>(&oat, self.packed);
+                TableValues {
+                    takeoff_ground_roll_m: v[0],
+                    takeoff_distance_50ft_m: v[1],
+                    climb_rate_fpm: v[2],
+                    landing_ground_roll_m: v[3],
+                    landing_distance_50ft_m: v[4],
+                }
+            }
+            Some(l) => {
+                let vl = l.as_ref()?.read_rows::<5, 3, 2>(&oat, self.packed);
+                let vt = takeoff.read_rows::<5, 0, 3>(&oat, self.packed);
+                TableValues {
+                    takeoff_ground_roll_m: vt[0],
+                    takeoff_distance_50ft_m: vt[1],
+                    climb_rate_fpm: vt[2],
+                    landing_ground_roll_m: vl[0],
+                    landing_distance_50ft_m: vl[1],
+                }
+            }
         })
     }
 }
@@ -1126,21 +1175,6 @@ fn pack(perf: &Performance) -> Vec<[f64; 5]> {
     (0..perf.grid.len())
         .map(|i| tables.map(|t| t.values().get(i).copied().unwrap_or(0.0)))
         .collect()
-}
-
-/// The five tables at a cell: for each, `Σ value · weight` over the eight corners in
-/// order from zero, the sum [`crate::ops::Table::at`] forms.
-#[inline]
-fn read_packed(packed: &[[f64; 5]], cell: &Cell) -> [f64; 5] {
-    let (offsets, weights) = (cell.offsets(), cell.weights());
-    let mut sum = [0.0; 5];
-    for k in 0..8 {
-        let v = packed.get(offsets[k] as usize).copied().unwrap_or([0.0; 5]);
-        for j in 0..5 {
-            sum[j] += v[j] * weights[k];
-        }
-    }
-    sum
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -1284,8 +1318,9 @@ pub fn matrix(ctx: &Context<'_>) -> Matrix {
     let mut per_class = vec![PairCell::NO_DATA; n_classes];
     let mut exception_cells = vec![PairCell::NO_DATA; prep.exceptions.len()];
     let mut scratch = Scratch::default();
-    // Every field's report first: the look-ups are independent of each other, so their
-    // cache misses overlap instead of waiting one by one between the fields' pairings.
+    // Every field's report and its weather first: the look-ups and the reads of the
+    // reports are independent of each other, so their cache misses overlap instead of
+    // waiting one by one between the fields' pairings.
     let found: Vec<_> = (0..fields).map(|fi| field_report(ctx, fi)).collect();
     for (fi, found) in found.into_iter().enumerate() {
         let span = prep.exception_start[fi]..prep.exception_start[fi + 1];
