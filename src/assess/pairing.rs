@@ -423,7 +423,13 @@ impl Default for Tops {
 /// it.
 fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> FieldReport<'a> {
     let field = &ctx.ops.airfields[fi];
-    let found = report_for(ctx.store, &field.id, ctx.at, ctx.at, ctx.model.stale_after_min);
+    let found = report_for(
+        ctx.store,
+        &field.id,
+        ctx.at,
+        ctx.at,
+        ctx.model.stale_after_min,
+    );
     FieldReport {
         wx: found
             .as_ref()
@@ -700,11 +706,7 @@ impl Prepared {
                 }
             }
         }
-        prep.class_masses = prep
-            .classes
-            .iter()
-            .map(|c| Masses::of(ctx, c))
-            .collect();
+        prep.class_masses = prep.classes.iter().map(|c| Masses::of(ctx, c)).collect();
         prep.exceptions.sort_unstable();
         prep.exceptions.dedup();
         let fields = ops.airfields.len();

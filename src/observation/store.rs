@@ -238,7 +238,10 @@ impl Store {
 
     /// The last report of `station` that was rejected, if any.
     pub fn last_rejected(&self, station: &str) -> Option<&Report> {
-        self.stations.get(&Key::of(station))?.last_rejected.as_deref()
+        self.stations
+            .get(&Key::of(station))?
+            .last_rejected
+            .as_deref()
     }
 
     /// Station identifiers with at least one stored or rejected report, sorted.
@@ -348,13 +351,23 @@ mod tests {
     /// the texts back, sorted.
     #[test]
     fn station_keys_short_long_and_padded_are_distinct() {
-        let ids = ["XQAB", "AB", "AB\0", "ABCDEFGHIJKLMNOP", "ABCDEFGHIJKLMNOPQ"];
+        let ids = [
+            "XQAB",
+            "AB",
+            "AB\0",
+            "ABCDEFGHIJKLMNOP",
+            "ABCDEFGHIJKLMNOPQ",
+        ];
         let mut s = Store::default();
         let mut r = rep("XQAB 141250Z 27012KT 9999 FEW040 21/09 Q1015");
         for (k, id) in ids.iter().enumerate() {
             r.station = id.to_string();
             r.temperature_c = Some(k as f64);
-            assert_eq!(s.insert(r.clone()), Insert::Added { current: true }, "{id:?}");
+            assert_eq!(
+                s.insert(r.clone()),
+                Insert::Added { current: true },
+                "{id:?}"
+            );
         }
         for (k, id) in ids.iter().enumerate() {
             let v = s.valid_at(id, reference()).expect(id);

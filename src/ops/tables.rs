@@ -261,8 +261,7 @@ impl Grid {
         mass_kg: f64,
         pressure_altitude_ft: f64,
     ) -> Result<Slice, OutsideTable> {
-        self.locate_mass(mass_kg)?
-            .slice(self, pressure_altitude_ft)
+        self.locate_mass(mass_kg)?.slice(self, pressure_altitude_ft)
     }
 
     /// Locates a mass on the mass axis only: a matrix holds an aircraft's mass at every
