@@ -5,12 +5,13 @@
 //! This is the hot path. Each airfield's air and per-end winds are computed once per
 //! report, its weather limits judged without writing their texts and its daylight read
 //! from the model (kept per date); rows alike in type, masses and category (a class)
-//! are computed and kept once per airfield. Each pairing locates its
-//! mass and pressure altitude in the tables once (`Lookup`); the cell at the report's
+//! are computed and kept once per airfield. A class's masses are located on its type's
+//! mass axis and its landing rules resolved once per matrix (`Masses`); each pairing
+//! locates its pressure altitude in the tables once (`Lookup`); the cell at the report's
 //! OAT is shared by the takeoff, climb and landing tables and every runway end, and the
 //! headroom search asks only for the OAT again, with the runway in use's corrections
-//! resolved once (`HotEnd`) and only the warmed air's density figures
-//! ([`Warming`]). Nothing here allocates per pairing, and every result equals, bit for
+//! resolved once for both (`EndCorrections`, `HotEnd`) and only the warmed air's density
+//! figures ([`Warming`]). Nothing here allocates per pairing, and every result equals, bit for
 //! bit, the plain cell-by-cell computation kept in the tests.
 
 use serde_json::{Value, json};
