@@ -5,30 +5,28 @@
 //! This is the hot path. Each airfield's air and per-end winds are computed once per
 //! report, its weather limits judged without writing their texts and its daylight read
 //! from the model (kept per date); rows alike in type, masses and category (a class)
-//! are computed and kept once per airfield. Each pairing locates its
-//! mass and pressure altitude in the tables once (`Lookup`); the cell at the report's
+//! are computed and kept once per airfield. A class's masses are located on its type's
+//! mass axis and its landing rules resolved once per matrix (`Masses`); each pairing
+//! locates its pressure altitude in the tables once (`Lookup`); the cell at the report's
 //! OAT is shared by the takeoff, climb and landing tables and every runway end, and the
 //! headroom search asks only for the OAT again, with the runway in use's corrections
-//! resolved once (`HotEnd`) and only the warmed air's density figures
-//! ([`Warming`]). Nothing here allocates per pairing, and every result equals, bit for
+//! resolved once for both (`EndCorrections`, `HotEnd`) and only the warmed air's density
+//! figures ([`Warming`]). Nothing here allocates per pairing, and every result equals, bit for
 //! bit, the plain cell-by-cell computation kept in the tests.
 
 use serde_json::{Value, json};
 
 use super::leg::LegResult;
-use super::leg::{
-    Context, EndWind, FieldWx, ReportAge, Setup, TableValues, departure_at, landing_with,
-    report_for,
-};
+use super::leg::{Context, EndWind, FieldWx, ReportAge, Setup, TableValues, report_for};
 use super::limits::{self, Who};
-use super::model::{EndModel, Model, SunDay};
+use super::model::{EndModel, Model, PhaseRules, SunDay};
 use super::perf;
 use super::state::{State, verdict};
 use crate::atmosphere::{WarmAir, Warming};
 use crate::observation::Report;
-use crate::ops::operator::Buffers;
-use crate::ops::tables::Slice;
-use crate::ops::{Axis, Category, Cell, Leg, Ops, Performance, Status};
+use crate::ops::operator::{Buffers, Minimums};
+use crate::ops::tables::{MassAt, Slice};
+use crate::ops::{Axis, Category, Leg, Ops, Performance, Status};
 
 /// What decided a pairing's state.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -391,6 +389,9 @@ struct FieldPrep<'a> {
     /// Field-level weather state per category (ceiling, visibility, wind, hazards);
     /// only the categories some row of the matrix is assessed under.
     weather: [FieldWeather; 4],
+    /// The minimums of each category, by [`cat_index`] (looked up once per field, not
+    /// once per pairing).
+    minimums: [Option<&'a Minimums>; 4],
     stale: bool,
     /// The warmed air at the table tops this field's searches asked for.
     tops: std::cell::RefCell<Tops>,
@@ -419,10 +420,29 @@ impl Default for Tops {
     }
 }
 
-/// Field `fi`'s report at the reference time, with its age.
-fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> Option<(&'a Report, ReportAge)> {
-    let id = &ctx.ops.airfields[fi].id;
-    report_for(ctx.store, id, ctx.at, ctx.at, ctx.model.stale_after_min)
+/// Field `fi`'s report at the reference time, with its age, and the weather read from
+/// it.
+fn field_report<'a>(ctx: &Context<'a>, fi: usize) -> FieldReport<'a> {
+    let field = &ctx.ops.airfields[fi];
+    let found = report_for(
+        ctx.store,
+        &field.id,
+        ctx.at,
+        ctx.at,
+        ctx.model.stale_after_min,
+    );
+    FieldReport {
+        wx: found
+            .as_ref()
+            .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft)),
+        found,
+    }
+}
+
+/// A field's report ([`field_report`]).
+struct FieldReport<'a> {
+    found: Option<(&'a Report, ReportAge)>,
+    wx: Option<FieldWx>,
 }
 
 /// Buffers reused from one airfield to the next.
@@ -448,17 +468,14 @@ impl<'a> FieldPrep<'a> {
     fn new(
         ctx: &Context<'a>,
         fi: usize,
-        found: Option<(&'a Report, ReportAge)>,
+        report: FieldReport<'a>,
         categories: &[bool; 4],
         scratch: &mut Scratch,
     ) -> FieldPrep<'a> {
         let ops = ctx.ops;
         let model = ctx.model;
-        let field = &ops.airfields[fi];
         let ends = model.field_ends(fi);
-        let wx = found
-            .as_ref()
-            .and_then(|(r, _)| FieldWx::from_report(r, field.elevation_ft));
+        let FieldReport { found, wx } = report;
         let stale = found.as_ref().is_some_and(|(_, u)| u.stale);
         let mut winds = std::mem::take(&mut scratch.winds);
         winds.clear();
@@ -482,6 +499,10 @@ impl<'a> FieldPrep<'a> {
                     .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
             }
         });
+        let mut minimums = [None; 4];
+        for c in Category::ALL {
+            minimums[cat_index(c)] = ops.minimums(c);
+        }
         let mut weather = [FieldWeather::NO_DATA; 4];
         if let (Some((report, _)), Some(wx)) = (&found, &wx) {
             let date = ctx.at.date_naive();
@@ -495,7 +516,7 @@ impl<'a> FieldPrep<'a> {
                 if !categories[cat_index(c)] {
                     continue;
                 }
-                let Some(mins) = ops.minimums(c) else {
+                let Some(mins) = minimums[cat_index(c)] else {
                     continue;
                 };
                 let who = Who {
@@ -527,6 +548,7 @@ impl<'a> FieldPrep<'a> {
             ends,
             in_use,
             weather,
+            minimums,
             stale,
             tops: Default::default(),
         }
@@ -592,6 +614,8 @@ struct Prepared {
     rows: Vec<usize>,
     /// The distinct classes of the rows away from their legs' airfields.
     classes: Vec<Class>,
+    /// Each class's masses located on its type's mass axis, parallel to `classes`.
+    class_masses: Vec<Masses>,
     /// The class of each row (index into `classes`).
     row_class: Vec<usize>,
     /// (airfield, row) where a row's leg gives other masses than its class, sorted by
@@ -653,6 +677,7 @@ impl Prepared {
         let mut prep = Prepared {
             aircraft,
             classes: Vec::new(),
+            class_masses: Vec::new(),
             rows: rows.to_vec(),
             row_class: Vec::with_capacity(rows.len()),
             exceptions: Vec::new(),
@@ -682,6 +707,7 @@ impl Prepared {
                 }
             }
         }
+        prep.class_masses = prep.classes.iter().map(|c| Masses::of(ctx, c)).collect();
         prep.exceptions.sort_unstable();
         prep.exceptions.dedup();
         let fields = ops.airfields.len();
@@ -731,14 +757,19 @@ impl Prepared {
         &self,
         ctx: &Context<'_>,
         fi: usize,
-        found: Option<(&Report, ReportAge)>,
+        found: FieldReport<'_>,
         scratch: &mut Scratch,
         per_class: &mut [PairCell],
         exceptions: &mut [PairCell],
     ) {
         let field = FieldPrep::new(ctx, fi, found, &self.categories, scratch);
-        for (c, out) in self.classes.iter().zip(per_class.iter_mut()) {
-            *out = self.pair(ctx, &field, c);
+        for ((c, m), out) in self
+            .classes
+            .iter()
+            .zip(&self.class_masses)
+            .zip(per_class.iter_mut())
+        {
+            *out = self.pair(ctx, &field, c, m);
         }
         let mut seen: Vec<(CellKey, PairCell)> = Vec::new();
         let span = self.exception_start[fi]..self.exception_start[fi + 1];
@@ -748,7 +779,7 @@ impl Prepared {
             let cell = match seen.iter().find(|(k, _)| *k == key) {
                 Some((_, c)) => *c,
                 None => {
-                    let c = self.pair(ctx, &field, &class);
+                    let c = self.pair(ctx, &field, &class, &Masses::of(ctx, &class));
                     seen.push((key, c));
                     c
                 }
@@ -758,7 +789,13 @@ impl Prepared {
         field.recycle(scratch);
     }
 
-    fn pair(&self, ctx: &Context<'_>, field: &FieldPrep<'_>, class: &Class) -> PairCell {
+    fn pair(
+        &self,
+        ctx: &Context<'_>,
+        field: &FieldPrep<'_>,
+        class: &Class,
+        masses: &Masses,
+    ) -> PairCell {
         let ops = ctx.ops;
         let model = ctx.model;
         let (Some(t), Some(wx), Some(warming), Some(in_use)) = (
@@ -772,7 +809,7 @@ impl Prepared {
         if field.stale {
             return PairCell::NO_DATA;
         }
-        let Some(mins) = ops.minimums(class.category) else {
+        let Some(mins) = field.minimums[cat_index(class.category)] else {
             return PairCell::NO_DATA;
         };
         let ty = &model.types[t];
@@ -792,9 +829,20 @@ impl Prepared {
             climb_buffer: self.climb_buf,
         };
         // Mass and pressure altitude are located once; per temperature only the OAT.
-        let lookup = Lookup::new(&setup, &self.packed[t], wx.air.pressure_altitude_ft);
-        let eval = |k: usize, air: &WarmAir, tv: Option<&TableValues>| -> Outcome {
-            evaluate(&setup, b, &field.ends[k], air, tv, &field.winds[k])
+        let lookup = Lookup::located(&setup, &self.packed[t], masses, wx.air.pressure_altitude_ft);
+        // The landing rules of the category, resolved once per class.
+        let resolved;
+        let landing_rules = match &masses.landing_rules {
+            Some(r) => r,
+            None => {
+                resolved = perf::landing_rules(&ty.landing, mins.wet_paved_landing_factor);
+                &resolved
+            }
+        };
+        let corrections =
+            |k: usize| EndCorrections::new(&setup, landing_rules, &field.ends[k], &field.winds[k]);
+        let eval = |k: usize, air: &WarmAir, tv: Option<&TableValues>, c: &EndCorrections| {
+            evaluate(&setup, b, &field.ends[k], air, tv, &field.winds[k], c)
         };
         let air0 = WarmAir {
             oat_c: wx.air.oat_c,
@@ -805,7 +853,8 @@ impl Prepared {
         // One cell lookup for this air, shared by every runway end.
         let tv0 = lookup.at(wx.air.oat_c);
         let weather = field.weather[cat_index(class.category)];
-        let now = eval(in_use, &air0, tv0.as_ref());
+        let in_use_corrections = corrections(in_use);
+        let now = eval(in_use, &air0, tv0.as_ref(), &in_use_corrections);
         // An end's state is the worst of its checks' (`Outcome::add`), so its wind and
         // density-altitude limits alone bound it from below, as `evaluate` judges them:
         // an end bounded at or above the best so far cannot better it.
@@ -828,7 +877,7 @@ impl Prepared {
                 break; // No end can do better.
             }
             if k != in_use && field.usable[k] && wind_bound(k) < best {
-                best = best.min(eval(k, &air0, tv0.as_ref()).state);
+                best = best.min(eval(k, &air0, tv0.as_ref(), &corrections(k)).state);
             }
         }
         let (state, score, limiting, margin, minimum, searched) =
@@ -841,7 +890,13 @@ impl Prepared {
         let found = if searched {
             super::headroom::search(
                 {
-                    let hot = HotEnd::new(&setup, b, &field.ends[in_use], &field.winds[in_use]);
+                    let hot = HotEnd {
+                        setup: &setup,
+                        buffers: b,
+                        end: &field.ends[in_use],
+                        wind: &field.winds[in_use],
+                        corrections: &in_use_corrections,
+                    };
                     move |dt| {
                         if dt == 0.0 && zero_is_now {
                             return now.temperature_score;
@@ -875,6 +930,42 @@ impl Prepared {
     }
 }
 
+/// The distance corrections of one class on one runway end in the report's wind,
+/// resolved once and applied to the table values at the report's OAT and at every
+/// temperature of the headroom search: the chains of `leg::departure_with` and
+/// `leg::landing_with` (`perf::distances` is `perf::corrections` then
+/// `Corrections::chain`), by the same operations.
+#[derive(Debug, Clone, Copy)]
+struct EndCorrections {
+    /// `None`: a correction the manual lacks (no-data at every temperature).
+    takeoff: Option<perf::Corrections>,
+    landing: Option<perf::Corrections>,
+    /// The extra factor on the landing checks (the category's wet paved factor).
+    landing_extra: f64,
+}
+
+impl EndCorrections {
+    /// `landing_rules`: `perf::landing_rules` of the type's landing rules and the
+    /// category's wet paved factor.
+    fn new(s: &Setup<'_>, landing_rules: &PhaseRules, end: &EndModel, w: &EndWind) -> Self {
+        let wind = perf::WindInput {
+            headwind_kt: w.headwind_kt,
+            headwind_credit: s.model.headwind_credit,
+            tailwind_factor: s.model.tailwind_factor,
+        };
+        let takeoff = perf::corrections(&s.ty.takeoff, wind, end.surface, end.slope_percent).ok();
+        // A downhill landing is the adverse one.
+        let landing = perf::corrections(landing_rules, wind, end.surface, -end.slope_percent).ok();
+        EndCorrections {
+            takeoff,
+            landing_extra: landing.map_or(1.0, |c| {
+                c.landing_extra_factor(s.mins.wet_paved_landing_factor)
+            }),
+            landing,
+        }
+    }
+}
+
 /// The runway in use of one pairing, for the headroom search: its distance corrections
 /// resolved once, then per temperature only what the temperature changes.
 struct HotEnd<'a> {
@@ -882,41 +973,10 @@ struct HotEnd<'a> {
     buffers: &'a Buffers,
     end: &'a EndModel,
     wind: &'a EndWind,
-    /// `None`: a correction the manual lacks (no-data at every temperature).
-    takeoff: Option<perf::Corrections>,
-    landing: Option<perf::Corrections>,
-    landing_extra: f64,
+    corrections: &'a EndCorrections,
 }
 
-impl<'a> HotEnd<'a> {
-    fn new(s: &'a Setup<'a>, b: &'a Buffers, end: &'a EndModel, w: &'a EndWind) -> HotEnd<'a> {
-        let wind = perf::WindInput {
-            headwind_kt: w.headwind_kt,
-            headwind_credit: s.model.headwind_credit,
-            tailwind_factor: s.model.tailwind_factor,
-        };
-        let wet = s.mins.wet_paved_landing_factor;
-        // As `leg::departure_with` and `leg::landing_with` resolve them (a downhill
-        // landing is the adverse one).
-        let takeoff = perf::corrections(&s.ty.takeoff, wind, end.surface, end.slope_percent).ok();
-        let landing = perf::corrections(
-            &perf::landing_rules(&s.ty.landing, wet),
-            wind,
-            end.surface,
-            -end.slope_percent,
-        )
-        .ok();
-        HotEnd {
-            setup: s,
-            buffers: b,
-            end,
-            wind: w,
-            takeoff,
-            landing_extra: landing.map_or(1.0, |c| c.landing_extra_factor(wet)),
-            landing,
-        }
-    }
-
+impl HotEnd<'_> {
     /// [`Outcome::temperature_score`] of [`evaluate`] on this end, the same value by the
     /// same operations in the same order, without the wind limits and the chains' other
     /// figures.
@@ -927,7 +987,7 @@ impl<'a> HotEnd<'a> {
         let step =
             |t: f64, margin: f64, buffer: f64| (!margin.is_nan()).then(|| t.min(margin / buffer));
         let tv = tv?;
-        let c = self.takeoff.as_ref()?;
+        let c = self.corrections.takeoff.as_ref()?;
         let [_, _, gr, d50] = c.figures(tv.takeoff_ground_roll_m, tv.takeoff_distance_50ft_m);
         let m = perf::min_margin_of(gr, d50, end, &mins.takeoff_checks, 1.0);
         let t = step(f64::INFINITY, m, s.distance_buffer)?;
@@ -940,15 +1000,82 @@ impl<'a> HotEnd<'a> {
             end.required_gradient_ft_per_nm,
         );
         let t = step(t, climb.margin(), s.climb_buffer)?;
-        let l = self.landing.as_ref()?;
+        let l = self.corrections.landing.as_ref()?;
         let [_, _, gr, d50] = l.figures(tv.landing_ground_roll_m, tv.landing_distance_50ft_m);
-        let m = perf::min_margin_of(gr, d50, end, &mins.landing_checks, self.landing_extra);
+        let m = perf::min_margin_of(
+            gr,
+            d50,
+            end,
+            &mins.landing_checks,
+            self.corrections.landing_extra,
+        );
         let t = step(t, m, s.distance_buffer)?;
         step(
             t,
             mins.max_density_altitude_ft - air.density_altitude_ft,
             self.buffers.density_altitude_ft,
         )
+    }
+}
+
+/// A class's takeoff and landing masses located on its type's mass axis (held at the
+/// lightest table mass for a conservative type), and its landing rules, once per
+/// matrix: they do not depend on the field. `None`: outside the table.
+#[derive(Debug, Clone, Copy, Default)]
+struct Masses {
+    takeoff: Option<MassAt>,
+    /// `None` with a landing mass equal to the takeoff mass (the takeoff cell serves).
+    landing: Option<Option<MassAt>>,
+    /// `perf::landing_rules` of the type and the category's wet paved factor (`None`:
+    /// not resolved, [`Prepared::pair`] resolves them).
+    landing_rules: Option<PhaseRules>,
+}
+
+impl Masses {
+    /// The masses of `s`.
+    fn located(s: &Setup<'_>) -> Masses {
+        let grid = &s.perf.grid;
+        let conservative = s.ty.conservative_below;
+        let at = |mass_kg: f64| {
+            let m = if conservative {
+                grid.hold_below(Axis::Mass, mass_kg).0
+            } else {
+                mass_kg
+            };
+            grid.locate_mass(m).ok()
+        };
+        Masses {
+            takeoff: at(s.takeoff_mass_kg),
+            landing: (s.landing_mass_kg != s.takeoff_mass_kg).then(|| at(s.landing_mass_kg)),
+            landing_rules: None,
+        }
+    }
+
+    /// The masses of a class (none for an unknown type or no masses).
+    fn of(ctx: &Context<'_>, class: &Class) -> Masses {
+        let (Some(t), Some((tom, lm))) = (class.ty, class.masses) else {
+            return Masses::default();
+        };
+        let Some(mins) = ctx.ops.minimums(class.category) else {
+            return Masses::default();
+        };
+        let ty = &ctx.model.types[t];
+        Masses {
+            landing_rules: Some(perf::landing_rules(
+                &ty.landing,
+                mins.wet_paved_landing_factor,
+            )),
+            ..Masses::located(&Setup {
+                model: ctx.model,
+                ty,
+                perf: &ctx.ops.types[t].performance,
+                mins,
+                takeoff_mass_kg: tom,
+                landing_mass_kg: lm,
+                distance_buffer: f64::NAN,
+                climb_buffer: f64::NAN,
+            })
+        }
     }
 }
 
@@ -965,31 +1092,41 @@ struct Lookup<'a> {
 }
 
 impl<'a> Lookup<'a> {
+    #[cfg(test)]
     fn new(s: &Setup<'a>, packed: &'a [[f64; 5]], pressure_altitude_ft: f64) -> Lookup<'a> {
+        let masses = Masses::located(s);
+        Lookup::located(s, packed, &masses, pressure_altitude_ft)
+    }
+
+    /// With the setup's masses already located ([`Masses`]): only the pressure altitude
+    /// is located here.
+    fn located(
+        s: &Setup<'a>,
+        packed: &'a [[f64; 5]],
+        masses: &Masses,
+        pressure_altitude_ft: f64,
+    ) -> Lookup<'a> {
         let grid = &s.perf.grid;
         let conservative = s.ty.conservative_below;
-        let slice = |mass_kg: f64| {
-            let (m, p) = if conservative {
-                (
-                    grid.hold_below(Axis::Mass, mass_kg).0,
-                    grid.hold_below(Axis::PressureAltitude, pressure_altitude_ft)
-                        .0,
-                )
-            } else {
-                (mass_kg, pressure_altitude_ft)
-            };
-            grid.locate_slice(m, p).ok()
+        let p = if conservative {
+            grid.hold_below(Axis::PressureAltitude, pressure_altitude_ft)
+                .0
+        } else {
+            pressure_altitude_ft
         };
+        // A mass outside the table is no slice, as `locate_slice` refuses it first.
+        let slice = |m: &Option<MassAt>| m.as_ref().and_then(|m| m.slice(grid, p).ok());
         Lookup {
             perf: s.perf,
             packed,
             conservative,
-            takeoff: slice(s.takeoff_mass_kg),
-            landing: (s.landing_mass_kg != s.takeoff_mass_kg).then(|| slice(s.landing_mass_kg)),
+            takeoff: slice(&masses.takeoff),
+            landing: masses.landing.as_ref().map(slice),
         }
     }
 
-    /// The five table values at `oat_c`; `None` outside the tables.
+    /// The five table values at `oat_c`; `None` outside the tables. The OAT is located
+    /// once for both masses, and each mass's cell reads only the tables it serves.
     #[inline]
     fn at(&self, oat_c: f64) -> Option<TableValues> {
         let grid = &self.perf.grid;
@@ -998,18 +1135,30 @@ impl<'a> Lookup<'a> {
         } else {
             oat_c
         };
-        let t = self.takeoff?.at_oat(grid, oat).ok()?;
-        let vt = read_packed(self.packed, &t);
-        let vl = match &self.landing {
-            None => vt,
-            Some(l) => read_packed(self.packed, &l.as_ref()?.at_oat(grid, oat).ok()?),
-        };
-        Some(TableValues {
-            takeoff_ground_roll_m: vt[0],
-            takeoff_distance_50ft_m: vt[1],
-            climb_rate_fpm: vt[2],
-            landing_ground_roll_m: vl[3],
-            landing_distance_50ft_m: vl[4],
+        let takeoff = self.takeoff?;
+        let oat = grid.locate_oat(oat).ok()?;
+        Some(match &self.landing {
+            None => {
+                let v = takeoff.read_rows::<5, 0, 5>(&oat, self.packed);
+                TableValues {
+                    takeoff_ground_roll_m: v[0],
+                    takeoff_distance_50ft_m: v[1],
+                    climb_rate_fpm: v[2],
+                    landing_ground_roll_m: v[3],
+                    landing_distance_50ft_m: v[4],
+                }
+            }
+            Some(l) => {
+                let vl = l.as_ref()?.read_rows::<5, 3, 2>(&oat, self.packed);
+                let vt = takeoff.read_rows::<5, 0, 3>(&oat, self.packed);
+                TableValues {
+                    takeoff_ground_roll_m: vt[0],
+                    takeoff_distance_50ft_m: vt[1],
+                    climb_rate_fpm: vt[2],
+                    landing_ground_roll_m: vl[0],
+                    landing_distance_50ft_m: vl[1],
+                }
+            }
         })
     }
 }
@@ -1029,21 +1178,6 @@ fn pack(perf: &Performance) -> Vec<[f64; 5]> {
     (0..perf.grid.len())
         .map(|i| tables.map(|t| t.values().get(i).copied().unwrap_or(0.0)))
         .collect()
-}
-
-/// The five tables at a cell: for each, `Σ value · weight` over the eight corners in
-/// order from zero, the sum [`crate::ops::Table::at`] forms.
-#[inline]
-fn read_packed(packed: &[[f64; 5]], cell: &Cell) -> [f64; 5] {
-    let (offsets, weights) = (cell.offsets(), cell.weights());
-    let mut sum = [0.0; 5];
-    for k in 0..8 {
-        let v = packed.get(offsets[k] as usize).copied().unwrap_or([0.0; 5]);
-        for j in 0..5 {
-            sum[j] += v[j] * weights[k];
-        }
-    }
-    sum
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -1082,6 +1216,9 @@ impl Outcome {
     }
 }
 
+/// One runway end at one air and its table values, with the end's corrections resolved
+/// ([`EndCorrections`]): the checks of `leg::departure_with` and `leg::landing_with`, the
+/// wind limits and the density altitude.
 #[inline]
 fn evaluate(
     s: &Setup<'_>,
@@ -1090,6 +1227,7 @@ fn evaluate(
     air: &WarmAir,
     tv: Option<&TableValues>,
     w: &EndWind,
+    corrections: &EndCorrections,
 ) -> Outcome {
     let (ty, mins) = (s.ty, s.mins);
     let (dist_buf, climb_buf) = (s.distance_buffer, s.climb_buffer);
@@ -1100,42 +1238,59 @@ fn evaluate(
         limiting: PairLimit::None,
         temperature_score: Some(f64::INFINITY),
     };
-    if tv.is_none() {
-        o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table);
-    }
-    match tv.map(|tv| departure_at(s, tv, end, air.true_airspeed_factor, w.headwind_kt)) {
-        Some(Ok((chain, climb))) => {
-            let m = perf::min_margin(&chain, end, &mins.takeoff_checks, 1.0);
-            o.add(
-                verdict(m, dist_buf),
-                m / dist_buf,
-                m * 100.0,
-                PairLimit::Takeoff,
-            );
-            let c = climb.margin();
-            o.add(
-                verdict(c, climb_buf),
-                c / climb_buf,
-                c * 100.0,
-                PairLimit::Climb,
-            );
+    match tv {
+        None => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+        Some(tv) => {
+            match &corrections.takeoff {
+                Some(c) => {
+                    let [_, _, gr, d50] =
+                        c.figures(tv.takeoff_ground_roll_m, tv.takeoff_distance_50ft_m);
+                    let m = perf::min_margin_of(gr, d50, end, &mins.takeoff_checks, 1.0);
+                    o.add(
+                        verdict(m, dist_buf),
+                        m / dist_buf,
+                        m * 100.0,
+                        PairLimit::Takeoff,
+                    );
+                    let climb = perf::climb(
+                        tv.climb_rate_fpm,
+                        ty.climb_speed_kias,
+                        air.true_airspeed_factor,
+                        w.headwind_kt,
+                        mins.min_climb_rate_fpm,
+                        end.required_gradient_ft_per_nm,
+                    );
+                    let c = climb.margin();
+                    o.add(
+                        verdict(c, climb_buf),
+                        c / climb_buf,
+                        c * 100.0,
+                        PairLimit::Climb,
+                    );
+                }
+                None => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+            }
+            match &corrections.landing {
+                Some(c) => {
+                    let [_, _, gr, d50] =
+                        c.figures(tv.landing_ground_roll_m, tv.landing_distance_50ft_m);
+                    let m = perf::min_margin_of(
+                        gr,
+                        d50,
+                        end,
+                        &mins.landing_checks,
+                        corrections.landing_extra,
+                    );
+                    o.add(
+                        verdict(m, dist_buf),
+                        m / dist_buf,
+                        m * 100.0,
+                        PairLimit::Landing,
+                    );
+                }
+                None => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
+            }
         }
-        Some(Err(_)) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
-        None => {}
-    }
-    match tv.map(|tv| landing_with(s, tv, end, w.headwind_kt)) {
-        Some(Ok(chain)) => {
-            let extra = perf::landing_extra_factor(&chain, mins.wet_paved_landing_factor);
-            let m = perf::min_margin(&chain, end, &mins.landing_checks, extra);
-            o.add(
-                verdict(m, dist_buf),
-                m / dist_buf,
-                m * 100.0,
-                PairLimit::Landing,
-            );
-        }
-        Some(Err(_)) => o.add(State::NoData, f64::NAN, f64::NAN, PairLimit::Table),
-        None => {}
     }
     let max_x = mins.max_crosswind_kt.min(ty.max_demonstrated_crosswind_kt);
     o.limit(max_x - w.crosswind_kt, b.wind_kt, PairLimit::Crosswind);
@@ -1166,8 +1321,9 @@ pub fn matrix(ctx: &Context<'_>) -> Matrix {
     let mut per_class = vec![PairCell::NO_DATA; n_classes];
     let mut exception_cells = vec![PairCell::NO_DATA; prep.exceptions.len()];
     let mut scratch = Scratch::default();
-    // Every field's report first: the look-ups are independent of each other, so their
-    // cache misses overlap instead of waiting one by one between the fields' pairings.
+    // Every field's report and its weather first: the look-ups and the reads of the
+    // reports are independent of each other, so their cache misses overlap instead of
+    // waiting one by one between the fields' pairings.
     let found: Vec<_> = (0..fields).map(|fi| field_report(ctx, fi)).collect();
     for (fi, found) in found.into_iter().enumerate() {
         let span = prep.exception_start[fi]..prep.exception_start[fi + 1];
@@ -1199,7 +1355,7 @@ mod tests {
     //! `leg::departure_with` at every step of the headroom search. Cells must agree bit
     //! for bit (the fast path changes the arithmetic's route, never its operations).
     use super::*;
-    use crate::assess::leg::{Gap, departure_with, table_values};
+    use crate::assess::leg::{Gap, departure_with, landing_with, table_values};
     use crate::assess::model::DaySettings;
     use crate::atmosphere::AirData;
     use crate::observation::{Store, decode_all};
@@ -1578,9 +1734,10 @@ mod tests {
     proptest! {
         #![proptest_config(ProptestConfig::with_cases(3000))]
         /// The headroom search's score on the runway in use (lean warming, slice lookup,
-        /// resolved corrections) equals, bit for bit, `evaluate`'s temperature score on
-        /// the full air of `with_oat` and `leg::table_values`, on every demo type, field,
-        /// end and category, in any wind, dry or moist, warming or cooling.
+        /// resolved corrections) and the whole outcome of `evaluate` with those
+        /// corrections equal, bit for bit, the reference outcome on the full air of
+        /// `with_oat` and `leg::table_values`, on every demo type, field, end and
+        /// category, in any wind, dry or moist, warming or cooling.
         #[test]
         fn hot_end_score_equals_the_full_evaluation(
             t in 0usize..16, f in 0usize..64, k in 0usize..8, cat in 0usize..4,
@@ -1609,13 +1766,24 @@ mod tests {
             let w = wx.on_end(end.heading_true_deg);
             let b = &ops.operator.policy.buffers;
             let warm = air.with_oat(oat_c + dt_c);
-            let want = evaluate_reference(&setup, b, end, &warm, &table_values(&setup, &warm), &w)
-                .temperature_score;
+            let full = evaluate_reference(&setup, b, end, &warm, &table_values(&setup, &warm), &w);
+            let want = full.temperature_score;
             let packed = pack(perf);
             let lookup = Lookup::new(&setup, &packed, air.pressure_altitude_ft);
             let lean = Warming::new(&air).at(oat_c + dt_c);
-            let got = HotEnd::new(&setup, b, end, &w).temperature_score(&lean, lookup.at(lean.oat_c).as_ref());
+            let landing_rules = perf::landing_rules(&ty.landing, mins.wet_paved_landing_factor);
+            let corrections = EndCorrections::new(&setup, &landing_rules, end, &w);
+            let hot = HotEnd { setup: &setup, buffers: b, end, wind: &w, corrections: &corrections };
+            let tv = lookup.at(lean.oat_c);
+            let got = hot.temperature_score(&lean, tv.as_ref());
             prop_assert_eq!(got.map(f64::to_bits), want.map(f64::to_bits), "{:?} vs {:?}", got, want);
+            // The whole outcome with the resolved corrections, too.
+            let fast = evaluate(&setup, b, end, &lean, tv.as_ref(), &w, &corrections);
+            prop_assert_eq!(fast.state, full.state);
+            prop_assert_eq!(fast.limiting, full.limiting);
+            prop_assert_eq!(fast.score.to_bits(), full.score.to_bits());
+            prop_assert_eq!(fast.margin_percent.to_bits(), full.margin_percent.to_bits());
+            prop_assert_eq!(fast.temperature_score.map(f64::to_bits), want.map(f64::to_bits));
         }
     }
 

@@ -6,6 +6,7 @@
 //! and the rejection is kept per station for display.
 
 use std::collections::HashMap;
+use std::hash::{BuildHasherDefault, Hash, Hasher};
 
 use chrono::{DateTime, TimeDelta, Utc};
 
@@ -50,7 +51,8 @@ struct Station {
     index: Vec<(DateTime<Utc>, u32)>,
     /// Reports in arrival order (a replacement overwrites in place).
     reports: Vec<Report>,
-    last_rejected: Option<Report>,
+    /// Boxed: rarely present, and the stations' table stays small in the cache.
+    last_rejected: Option<Box<Report>>,
 }
 
 impl Station {
@@ -60,10 +62,86 @@ impl Station {
     }
 }
 
+/// A station identifier as the store's key: up to 16 bytes kept inline, so a look-up
+/// compares it in the table itself instead of following a pointer to the text (one
+/// cache miss less per look-up); longer ones on the heap.
+#[derive(Debug, Clone, PartialEq, Eq)]
+enum Key {
+    Short { len: u8, bytes: [u8; 16] },
+    Long(Box<str>),
+}
+
+impl Key {
+    /// The key of `station` (allocating only for an identifier over 16 bytes).
+    fn of(station: &str) -> Key {
+        let b = station.as_bytes();
+        if b.len() <= 16 {
+            let mut bytes = [0u8; 16];
+            bytes[..b.len()].copy_from_slice(b);
+            Key::Short {
+                len: b.len() as u8,
+                bytes,
+            }
+        } else {
+            Key::Long(station.into())
+        }
+    }
+
+    fn as_str(&self) -> &str {
+        match self {
+            // The bytes are a whole `str`'s, so this never fails.
+            Key::Short { len, bytes } => std::str::from_utf8(&bytes[..*len as usize]).unwrap_or(""),
+            Key::Long(s) => s,
+        }
+    }
+}
+
+impl Hash for Key {
+    fn hash<H: Hasher>(&self, h: &mut H) {
+        match self {
+            Key::Short { len, bytes } => {
+                let (lo, hi) = bytes.split_at(8);
+                h.write_u64(u64::from_le_bytes(lo.try_into().unwrap_or_default()));
+                h.write_u64(u64::from_le_bytes(hi.try_into().unwrap_or_default()));
+                h.write_u8(*len);
+            }
+            Key::Long(s) => s.hash(h),
+        }
+    }
+}
+
+/// A multiply-rotate hash of a few words (the station keys are short, and the ids are
+/// the operator's own, so the default hasher's flooding resistance buys nothing here).
+#[derive(Default)]
+struct WordHasher(u64);
+
+impl Hasher for WordHasher {
+    fn finish(&self) -> u64 {
+        self.0
+    }
+
+    fn write(&mut self, bytes: &[u8]) {
+        for chunk in bytes.chunks(8) {
+            let mut word = [0u8; 8];
+            word[..chunk.len()].copy_from_slice(chunk);
+            self.write_u64(u64::from_le_bytes(word));
+        }
+    }
+
+    fn write_u8(&mut self, i: u8) {
+        self.write_u64(u64::from(i));
+    }
+
+    fn write_u64(&mut self, i: u64) {
+        // The multiplier is the 64-bit golden-ratio constant (common practice).
+        self.0 = (self.0.rotate_left(5) ^ i).wrapping_mul(0x9e37_79b9_7f4a_7c15);
+    }
+}
+
 /// Observations per station.
 #[derive(Debug, Clone)]
 pub struct Store {
-    stations: HashMap<String, Station>,
+    stations: HashMap<Key, Station, BuildHasherDefault<WordHasher>>,
     stale_after: TimeDelta,
 }
 
@@ -77,7 +155,7 @@ impl Store {
     /// An empty store; reports older than `stale_after` at the instant asked are stale.
     pub fn new(stale_after: TimeDelta) -> Self {
         Self {
-            stations: HashMap::new(),
+            stations: HashMap::default(),
             stale_after,
         }
     }
@@ -97,15 +175,12 @@ impl Store {
                 .rejection()
                 .unwrap_or_else(|| format!("{}: not usable", report.label()));
             if !report.station.is_empty() {
-                let key = report.station.clone();
-                self.stations.entry(key).or_default().last_rejected = Some(report);
+                let key = Key::of(&report.station);
+                self.stations.entry(key).or_default().last_rejected = Some(Box::new(report));
             }
             return Insert::Rejected(reason);
         };
-        let st = match self.stations.get_mut(report.station.as_str()) {
-            Some(s) => s,
-            None => self.stations.entry(report.station.clone()).or_default(),
-        };
+        let st = self.stations.entry(Key::of(&report.station)).or_default();
         let idx = st.index.partition_point(|(t, _)| *t < at);
         if let Some(&(t, slot)) = st.index.get(idx)
             && t == at
@@ -136,7 +211,7 @@ impl Store {
 
     /// The report valid for `station` at `at`: the latest observed at or before it.
     pub fn valid_at(&self, station: &str, at: DateTime<Utc>) -> Option<Valid<'_>> {
-        let st = self.stations.get(station)?;
+        let st = self.stations.get(&Key::of(station))?;
         let k = st.index.partition_point(|(t, _)| *t <= at).checked_sub(1)?;
         let &(observed, _) = st.index.get(k)?;
         let report = st.at(k)?;
@@ -150,25 +225,28 @@ impl Store {
 
     /// The latest report of `station`, whatever its time.
     pub fn current(&self, station: &str) -> Option<&Report> {
-        let st = self.stations.get(station)?;
+        let st = self.stations.get(&Key::of(station))?;
         st.at(st.index.len().checked_sub(1)?)
     }
 
     /// Every stored report of `station`, oldest first.
     pub fn reports<'a>(&'a self, station: &str) -> impl Iterator<Item = &'a Report> + 'a {
-        let st = self.stations.get(station);
+        let st = self.stations.get(&Key::of(station));
         let n = st.map_or(0, |s| s.index.len());
         (0..n).filter_map(move |k| st.and_then(|s| s.at(k)))
     }
 
     /// The last report of `station` that was rejected, if any.
     pub fn last_rejected(&self, station: &str) -> Option<&Report> {
-        self.stations.get(station)?.last_rejected.as_ref()
+        self.stations
+            .get(&Key::of(station))?
+            .last_rejected
+            .as_deref()
     }
 
     /// Station identifiers with at least one stored or rejected report, sorted.
     pub fn stations(&self) -> Vec<&str> {
-        let mut v: Vec<&str> = self.stations.keys().map(String::as_str).collect();
+        let mut v: Vec<&str> = self.stations.keys().map(Key::as_str).collect();
         v.sort_unstable();
         v
     }
@@ -266,5 +344,40 @@ mod tests {
         assert_eq!(s.current("XQAB").unwrap().temperature_c, Some(23.0));
         assert!(s.last_rejected("XQAB").is_some());
         assert_eq!(s.len(), 1);
+    }
+
+    /// Station keys: short ones inline, long ones on the heap, each found by its own
+    /// text only (a key padded with NUL bytes is another station); `stations()` gives
+    /// the texts back, sorted.
+    #[test]
+    fn station_keys_short_long_and_padded_are_distinct() {
+        let ids = [
+            "XQAB",
+            "AB",
+            "AB\0",
+            "ABCDEFGHIJKLMNOP",
+            "ABCDEFGHIJKLMNOPQ",
+        ];
+        let mut s = Store::default();
+        let mut r = rep("XQAB 141250Z 27012KT 9999 FEW040 21/09 Q1015");
+        for (k, id) in ids.iter().enumerate() {
+            r.station = id.to_string();
+            r.temperature_c = Some(k as f64);
+            assert_eq!(
+                s.insert(r.clone()),
+                Insert::Added { current: true },
+                "{id:?}"
+            );
+        }
+        for (k, id) in ids.iter().enumerate() {
+            let v = s.valid_at(id, reference()).expect(id);
+            assert_eq!(v.report.temperature_c, Some(k as f64), "{id:?}");
+            assert_eq!(s.current(id).map(|r| r.station.as_str()), Some(*id));
+        }
+        assert!(s.valid_at("ABC", reference()).is_none());
+        assert!(s.valid_at("ABCDEFGHIJKLMNOPR", reference()).is_none());
+        let mut want = ids.to_vec();
+        want.sort_unstable();
+        assert_eq!(s.stations(), want);
     }
 }

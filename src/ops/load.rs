@@ -241,6 +241,9 @@ pub struct Collector<'a> {
     spans: HashMap<String, Spans>,
     seen: std::collections::HashSet<Diagnostic>,
     per_file: HashMap<String, usize>,
+    /// Files with an error among the problems past the cap (only warnings past it: the
+    /// count line is a warning, and the file still loads).
+    over_errors: std::collections::HashSet<String>,
     /// Files that failed to parse: the cross-file checks, run on what did load, say so
     /// instead of calling what they hold unknown.
     pub unparsed: std::collections::BTreeSet<String>,
@@ -259,6 +262,7 @@ impl<'a> Collector<'a> {
             spans: HashMap::new(),
             seen: Default::default(),
             per_file: HashMap::new(),
+            over_errors: Default::default(),
             unparsed: Default::default(),
             unparsed_named: Default::default(),
             report: Report::default(),
@@ -300,6 +304,9 @@ impl<'a> Collector<'a> {
             && *n >= MAX_PER_FILE
         {
             *n += 1;
+            if severity == Severity::Error {
+                self.over_errors.insert(file.to_string());
+            }
             return;
         }
         let (line, column) = self.spans(file).position(path);
@@ -354,6 +361,9 @@ impl<'a> Collector<'a> {
         };
         let count = self.per_file.entry(d.file.clone()).or_insert(0);
         if *count >= MAX_PER_FILE {
+            if severity == Severity::Error {
+                self.over_errors.insert(d.file.clone());
+            }
             if self.seen.insert(d) {
                 *count += 1;
             }
@@ -385,8 +395,13 @@ impl<'a> Collector<'a> {
                 .files
                 .get(&file)
                 .map_or(1, |t| t.lines().count().max(1));
-            self.report.errors.push(Diagnostic {
-                severity: Severity::Error,
+            let (severity, list) = if self.over_errors.contains(&file) {
+                (Severity::Error, &mut self.report.errors)
+            } else {
+                (Severity::Warning, &mut self.report.warnings)
+            };
+            list.push(Diagnostic {
+                severity,
                 file,
                 path: String::new(),
                 line: last_line,

@@ -261,14 +261,50 @@ impl Grid {
         mass_kg: f64,
         pressure_altitude_ft: f64,
     ) -> Result<Slice, OutsideTable> {
-        let (mi, md, mf) = locate_axis(Axis::Mass, &self.mass_kg, mass_kg)?;
+        self.locate_mass(mass_kg)?.slice(self, pressure_altitude_ft)
+    }
+
+    /// Locates a mass on the mass axis only: a matrix holds an aircraft's mass at every
+    /// airfield, so it locates it once and then calls [`MassAt::slice`] per pressure
+    /// altitude, which gives exactly the [`Slice`] (bit for bit) of
+    /// [`Grid::locate_slice`].
+    #[inline]
+    pub fn locate_mass(&self, mass_kg: f64) -> Result<MassAt, OutsideTable> {
+        let (index, step, fraction) = locate_axis(Axis::Mass, &self.mass_kg, mass_kg)?;
+        Ok(MassAt {
+            index,
+            step,
+            fraction,
+            grid_len: self.len() as u32,
+        })
+    }
+}
+
+/// A mass located on a [`Grid`]'s mass axis: lower index, upper-index step and
+/// fraction, waiting for a pressure altitude ([`MassAt::slice`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct MassAt {
+    index: usize,
+    step: usize,
+    fraction: f64,
+    /// Number of points of the grid it came from.
+    grid_len: u32,
+}
+
+impl MassAt {
+    /// The slice at `pressure_altitude_ft` on `grid` (the grid the mass was located on);
+    /// outside the pressure-altitude axis is [`OutsideTable`].
+    #[inline]
+    pub fn slice(&self, grid: &Grid, pressure_altitude_ft: f64) -> Result<Slice, OutsideTable> {
+        debug_assert_eq!(self.grid_len, grid.len() as u32, "another grid");
+        let (mi, md, mf) = (self.index, self.step, self.fraction);
         let (pi, pd, pf) = locate_axis(
             Axis::PressureAltitude,
-            &self.pressure_altitude_ft,
+            &grid.pressure_altitude_ft,
             pressure_altitude_ft,
         )?;
-        let n_t = self.oat_c.len();
-        let n_p = self.pressure_altitude_ft.len();
+        let n_t = grid.oat_c.len();
+        let n_p = grid.pressure_altitude_ft.len();
         let base = (mi * n_p + pi) * n_t;
         let sm = md * n_p * n_t;
         let sp = pd * n_t;
@@ -286,7 +322,7 @@ impl Grid {
         Ok(Slice {
             bases,
             weights,
-            grid_len: self.len() as u32,
+            grid_len: self.grid_len,
         })
     }
 }
@@ -306,7 +342,15 @@ impl Slice {
     /// same products in the same order as a whole-point lookup.
     #[inline]
     pub fn at_oat(&self, grid: &Grid, oat_c: f64) -> Result<Cell, OutsideTable> {
-        let (ti, td, tf) = locate_axis(Axis::Oat, &grid.oat_c, oat_c)?;
+        Ok(self.cell(&grid.locate_oat(oat_c)?))
+    }
+
+    /// The cell at an OAT located on the grid's OAT axis ([`Grid::locate_oat`]), so
+    /// slices of one grid at one OAT (a takeoff and a landing mass) share the location:
+    /// the [`Cell`] of [`Slice::at_oat`], bit for bit.
+    #[inline]
+    pub fn cell(&self, oat: &OatAt) -> Cell {
+        let (ti, td, tf) = (oat.index, oat.step, oat.fraction);
         let mut offsets = [0u32; 8];
         let mut weights = [0.0; 8];
         for j in 0..4 {
@@ -316,10 +360,67 @@ impl Slice {
             weights[2 * j] = self.weights[j] * (1.0 - tf);
             weights[2 * j + 1] = self.weights[j] * tf;
         }
-        Ok(Cell {
+        Cell {
             offsets,
             weights,
             grid_len: self.grid_len,
+        }
+    }
+}
+
+impl Slice {
+    /// `N` columns from `FROM` on of rows laid out like a table's values (one row of
+    /// `W` tables' values per grid point, `rows[offset][table]`), at an OAT on this
+    /// slice: for each column `Σ value · weight` over the eight corners of
+    /// [`Slice::cell`] in order from zero, the sum [`Table::at`] forms, bit for bit (a
+    /// missing row reads as zeros), without building the cell.
+    #[inline]
+    pub fn read_rows<const W: usize, const FROM: usize, const N: usize>(
+        &self,
+        oat: &OatAt,
+        rows: &[[f64; W]],
+    ) -> [f64; N] {
+        let (ti, td, tf) = (oat.index, oat.step, oat.fraction);
+        let mut sum = [0.0; N];
+        for j in 0..4 {
+            let lo = self.bases[j] as usize + ti;
+            let (w_lo, w_hi) = (self.weights[j] * (1.0 - tf), self.weights[j] * tf);
+            let (v_lo, v_hi) = match rows.get(lo..=lo + td) {
+                Some(r) => (r[0], r[td]),
+                None => (
+                    rows.get(lo).copied().unwrap_or([0.0; W]),
+                    rows.get(lo + td).copied().unwrap_or([0.0; W]),
+                ),
+            };
+            for c in 0..N {
+                sum[c] += v_lo[FROM + c] * w_lo;
+            }
+            for c in 0..N {
+                sum[c] += v_hi[FROM + c] * w_hi;
+            }
+        }
+        sum
+    }
+}
+
+/// An OAT located on a [`Grid`]'s OAT axis: lower index, upper-index step and fraction
+/// ([`Grid::locate_oat`], [`Slice::cell`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct OatAt {
+    index: usize,
+    step: usize,
+    fraction: f64,
+}
+
+impl Grid {
+    /// Locates an OAT on the OAT axis only; outside it is [`OutsideTable`].
+    #[inline]
+    pub fn locate_oat(&self, oat_c: f64) -> Result<OatAt, OutsideTable> {
+        let (index, step, fraction) = locate_axis(Axis::Oat, &self.oat_c, oat_c)?;
+        Ok(OatAt {
+            index,
+            step,
+            fraction,
         })
     }
 }
@@ -558,8 +659,10 @@ mod tests {
 
     proptest! {
         #![proptest_config(ProptestConfig::with_cases(2000))]
-        /// The split lookup (slice, then OAT) equals the whole-point reference, bit for
-        /// bit, on random grids (one to six points an axis) and points in and around them.
+        /// The split lookup (mass, then pressure altitude, then OAT) equals the
+        /// whole-point reference, bit for bit, on random grids (one to six points an
+        /// axis) and points in and around them; `Slice::read_rows` sums what the cell's
+        /// corners and weights sum.
         #[test]
         fn slice_then_oat_equals_the_whole_point_lookup(
             m0 in 500.0f64..1500.0, m_steps in proptest::collection::vec(10.0f64..300.0, 0..3),
@@ -577,6 +680,19 @@ mod tests {
                     prop_assert_eq!(w.offsets, c.offsets);
                     for k in 0..8 {
                         prop_assert_eq!(w.weights[k].to_bits(), c.weights[k].to_bits());
+                    }
+                    // Reading rows straight off the slice sums what the cell sums.
+                    let rows: Vec<[f64; 3]> = (0..g.len())
+                        .map(|i| [i as f64 * 37.5 - 400.0, (i as f64).sqrt() * 91.0, 1e3 / (i as f64 + 1.0)])
+                        .collect();
+                    let slice = g.locate_slice(m, p).unwrap();
+                    let got = slice.read_rows::<3, 1, 2>(&g.locate_oat(t).unwrap(), &rows);
+                    for (col, got) in got.iter().enumerate() {
+                        let mut want = 0.0;
+                        for k in 0..8 {
+                            want += rows[c.offsets[k] as usize][1 + col] * c.weights[k];
+                        }
+                        prop_assert_eq!(got.to_bits(), want.to_bits());
                     }
                 }
                 _ => prop_assert_eq!(want, got),
