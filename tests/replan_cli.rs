@@ -49,6 +49,14 @@ fn the_afternoon_charter_is_re_planned_to_the_morning_and_saved() {
         "{out}"
     );
     assert!(out.contains("Dry run"), "{out}");
+    // 06:30Z is before the assessment's 14:00Z: the leg would already have left.
+    assert!(
+        err.contains(
+            "new departure 2026-06-14 0630Z is before the assessment's time 2026-06-14 1400Z"
+        ),
+        "{err}"
+    );
+    assert!(out.starts_with("L16 as of 2026-06-14 1400Z:"), "{out}");
     assert_eq!(std::fs::read_to_string(&legs).unwrap(), original);
     // Dropping the third passenger also makes it go, and says how much room is left.
     let (code, out, _) = rhoboard(
@@ -366,5 +374,31 @@ fn a_hard_limit_summary_names_the_check_without_a_margin_word() {
             "{line}"
         );
     }
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+/// Without `--at`, a leg of another day is assessed on the reports known now: the
+/// heading names both the leg's day and that time.
+#[test]
+fn a_leg_of_another_day_names_its_day_and_the_time_of_the_reports() {
+    let (dir, home, d) = init_folder("other-day");
+    let (code, out, err) = rhoboard(
+        &home,
+        &[
+            "leg",
+            "set",
+            "L16",
+            "--fuel",
+            "100L",
+            "--dry-run",
+            "--ops",
+            &d,
+        ],
+    );
+    assert!(code == 0 || code == 1, "{err}");
+    assert!(
+        out.starts_with("L16 of 2026-06-14, assessed on the reports known at "),
+        "{out}"
+    );
     let _ = std::fs::remove_dir_all(&dir);
 }

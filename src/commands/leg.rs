@@ -223,6 +223,15 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     for w in &vetting.warnings {
         eprintln!("rhoboard: warning: {w}");
     }
+    // A departure moved to a time already past on the assessment's clock, as the
+    // board's what-if warns.
+    if a.etd.is_some() && leg.departs_utc() < loaded.at {
+        eprintln!(
+            "rhoboard: warning: the new departure {} is before the assessment's time {} (--at, default now): the leg would already have left",
+            leg.departs_utc().format("%Y-%m-%d %H%MZ"),
+            loaded.at.format("%Y-%m-%d %H%MZ")
+        );
+    }
     ops.legs[index] = leg.clone();
     let after = {
         let model = Model::new(&ops, &DaySettings::for_date(&ops, day));
@@ -259,7 +268,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     if json.is_some() {
         // Printed once the save is known.
     } else {
-        print_plain(a, &loaded.at, &before, &after, out)?;
+        print_plain(a, day, &loaded.at, &before, &after, out)?;
     }
     if a.dry_run {
         writeln!(out, "Dry run: nothing written.")?;
@@ -320,12 +329,23 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
 /// The readable before/after of `leg set`.
 fn print_plain(
     a: &SetArgs,
+    day: chrono::NaiveDate,
     at: &DateTime<Utc>,
     before: &LegResult,
     after: &LegResult,
     out: &mut dyn Write,
 ) -> anyhow::Result<()> {
-    writeln!(out, "{} as of {}:", a.leg, at.format("%Y-%m-%d %H%MZ"))?;
+    if day == at.date_naive() {
+        writeln!(out, "{} as of {}:", a.leg, at.format("%Y-%m-%d %H%MZ"))?;
+    } else {
+        // A leg on another day than the assessment's (no --at): say both.
+        writeln!(
+            out,
+            "{} of {day}, assessed on the reports known at {} (--at for another time):",
+            a.leg,
+            at.format("%Y-%m-%d %H%MZ")
+        )?;
+    }
     writeln!(out, "  before: {}", summary(before))?;
     writeln!(out, "  after:  {}", summary(after))?;
     if let Some(p) = &after.payload_headroom {
