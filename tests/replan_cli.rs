@@ -402,3 +402,26 @@ fn a_leg_of_another_day_names_its_day_and_the_time_of_the_reports() {
     );
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// The payload in words is rounded the safe way against the JSON's exact figure: room
+/// down (57.5 kg → 57), what must come off up.
+#[test]
+fn payload_words_round_room_down_and_removal_up() {
+    let (dir, home, d) = init_folder("payload");
+    let edits = ["--unload", "rear_seats", "--dry-run"];
+    let (_, out, err) = set_l16(&home, &d, &edits);
+    let mut json_args = edits.to_vec();
+    json_args.push("--json");
+    let (_, json, _) = set_l16(&home, &d, &json_args);
+    let v: serde_json::Value = serde_json::from_str(&json).expect("JSON");
+    let kg = v["after"]["mass_balance"]["payload_headroom_kg"]
+        .as_f64()
+        .expect("a payload figure");
+    let want = if kg >= 0.0 {
+        format!("room for {:.0} kg", kg.floor())
+    } else {
+        format!("remove {:.0} kg", (-kg).ceil())
+    };
+    assert!(out.contains(&want), "{want} in {out}{err}");
+    let _ = std::fs::remove_dir_all(&dir);
+}

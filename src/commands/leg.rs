@@ -349,13 +349,13 @@ fn print_plain(
     writeln!(out, "  before: {}", summary(before))?;
     writeln!(out, "  after:  {}", summary(after))?;
     if let Some(p) = &after.payload_headroom {
-        writeln!(
-            out,
-            "  payload: {} {:.0} kg at {}",
-            if p.kg >= 0.0 { "room for" } else { "remove" },
-            p.kg.abs(),
-            p.station
-        )?;
+        // Rounded the safe way: room down, what must come off up.
+        let (word, kg) = if p.kg >= 0.0 {
+            ("room for", p.kg.floor())
+        } else {
+            ("remove", (-p.kg).ceil())
+        };
+        writeln!(out, "  payload: {word} {kg:.0} kg at {}", p.station)?;
     }
     for why in &after.reasons {
         writeln!(out, "    - {why}")?;
