@@ -278,6 +278,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             super::view::headroom_cell(show, r)
         )),
     ]));
+    let top = std::mem::take(&mut lines);
     for (name, e) in [("departure", &fig.departure), ("arrival", &fig.arrival)] {
         lines.push(Line::from(format!(
             "{name} {} rwy {}: PA {} DA {} OAT {} · headwind {} crosswind {}",
@@ -328,24 +329,37 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             )));
         }
     }
+    let ends = std::mem::take(&mut lines);
     for why in r.reasons.iter().take(3) {
         lines.push(Line::styled(format!("  - {why}"), t.state(r.state)));
     }
+    let reasons = std::mem::take(&mut lines);
     lines.push(Line::default());
-    // The override reason is asked only where the policy lets a below leg be signed.
+    // The override reason is asked only where the policy lets this leg be signed
+    // with one (a below or no-data leg of a category it allows overrides for).
     let hints = [
         "who signs",
         "optional",
-        "only for a below or no-data leg, if allowed",
+        "this leg does not meet the minimums: signing it needs a reason",
     ];
     lines.extend(super::view::field_lines(
-        SIGN_FIELDS.iter().copied().zip(hints),
+        SIGN_FIELDS.iter().copied().zip(hints).take(f.fields()),
         &f.values,
         f.focus,
         |_| None,
         16,
         t,
     ));
+    if !f.offers_override && !r.state.meets_minimums() {
+        lines.push(Line::styled(
+            format!(
+                "{:>16} none: the policy allows no override for {} legs",
+                "",
+                r.category.name().replace('_', " ")
+            ),
+            t.dim(),
+        ));
+    }
     lines.push(Line::default());
     if f.busy {
         lines.push(Line::styled("Writing the record…", t.heading()));
@@ -378,14 +392,67 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         }
     }
     lines.push(Line::styled(crate::CAUTION, t.caution()));
-    boxed(
-        lines,
+    boxed_keeping(
+        [top, ends, reasons, lines],
         format!(" Sign off {} — the basis (S) ", r.id),
         area,
         buf,
         t,
         110,
     );
+}
+
+/// Like [`boxed`] for the sign-off: the parts `[top, ends, reasons, tail]` wrapped
+/// (never cut mid-line); when they do not all fit the height, the per-end lines go
+/// first (a line says how many), so the fields and the message always show.
+fn boxed_keeping(
+    parts: [Vec<Line<'static>>; 4],
+    title: String,
+    area: Rect,
+    buf: &mut Buffer,
+    t: Theme,
+    w: u16,
+) {
+    let inner_w = usize::from(w.min(area.width).saturating_sub(2));
+    let [top, mut ends, reasons, tail] = parts.map(|p| {
+        p.into_iter()
+            .flat_map(|l| super::fit::wrap(l, inner_w, None))
+            .collect::<Vec<_>>()
+    });
+    let room = usize::from(area.height.saturating_sub(2));
+    let fixed = top.len() + reasons.len() + tail.len();
+    if fixed + ends.len() > room {
+        let marker = |dropped: usize| {
+            super::fit::wrap(
+                Line::styled(
+                    format!(
+                        "  … {dropped} more line{} of the basis: a taller terminal shows them, as does the leg's detail",
+                        if dropped == 1 { "" } else { "s" }
+                    ),
+                    t.dim(),
+                ),
+                inner_w,
+                None,
+            )
+        };
+        let marker_h = marker(ends.len()).len();
+        let keep = room.saturating_sub(fixed + marker_h).min(ends.len());
+        let dropped = ends.len() - keep;
+        ends.truncate(keep);
+        ends.extend(marker(dropped));
+    }
+    let mut lines = top;
+    lines.extend(ends);
+    lines.extend(reasons);
+    // Still too tall (a tiny terminal): the end of the form, with the message, shows.
+    let skip = (lines.len() + tail.len()).saturating_sub(room);
+    lines.extend(tail);
+    let lines: Vec<Line<'static>> = lines.into_iter().skip(skip).collect();
+    let r = super::view::centered(area, w, lines.len() as u16 + 2);
+    Clear.render(r, buf);
+    Paragraph::new(lines)
+        .block(Block::bordered().border_style(t.frame()).title(title))
+        .render(r, buf);
 }
 
 /// The what-if panel: the leg as planned, old → new, the pending changes, and the menu.

@@ -1474,7 +1474,6 @@ impl App {
     }
 }
 
-/// A new id for a copy: `L16-2`, `L16-3`, …
 /// A departure at `at`, before the board's `clock`, in words: "0630Z is 6 h 30 min
 /// before the board's clock (1300Z): the leg would have left already", with `how` to go
 /// on (the time prompt's warning) or not (the panel's standing lines).
@@ -1499,6 +1498,9 @@ pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, how: Past) -> String 
             "{head}: the leg would have left already (a what-if to compare, not a departure still ahead)"
         ),
         Past::AsLoaded => format!("{head}: the leg has left already"),
+        Past::Sign => format!(
+            "{head}: the leg has left already. Enter again to sign it anyway, or Esc to cancel"
+        ),
     }
 }
 
@@ -1511,8 +1513,11 @@ pub enum Past {
     Planned,
     /// The panel's line for the leg as loaded (no change to its time).
     AsLoaded,
+    /// The sign-off form's warning: Enter again signs it anyway.
+    Sign,
 }
 
+/// A new id for a copy: `L16-2`, `L16-3`, …
 fn copy_id(slots: &[Slot], id: &str) -> String {
     let base = id.split_once('-').map_or(id, |(b, _)| b);
     (2..)
