@@ -251,7 +251,10 @@ fn a_refusal_at_80x24_is_wrapped_whole_and_no_override_is_offered_where_none_is_
     );
     select_leg(&mut app, "L16");
     app.update(key(KeyCode::Char('S')));
-    assert!(!sign_form(&app).offers_override, "charter legs: no override");
+    assert!(
+        !sign_form(&app).offers_override,
+        "charter legs: no override"
+    );
     type_text(&mut app, "K. Lind");
     let text = screen(&mut app, 80, 24);
     // The refusal's end, on whatever line the wrap puts it.
@@ -260,7 +263,10 @@ fn a_refusal_at_80x24_is_wrapped_whole_and_no_override_is_offered_where_none_is_
     assert!(flat.contains("charter legs"), "{text}");
     assert!(!text.contains("override reason"), "{text}");
     insta::assert_snapshot!("signoff_refused_80x24", render(&mut app, 80, 24).backend());
-    insta::assert_snapshot!("signoff_refused_120x40", render(&mut app, 120, 40).backend());
+    insta::assert_snapshot!(
+        "signoff_refused_120x40",
+        render(&mut app, 120, 40).backend()
+    );
     // Tab skips the hidden field: two fields, so Tab twice is back on the instructor.
     app.update(key(KeyCode::Tab));
     app.update(key(KeyCode::Tab));

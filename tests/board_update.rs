@@ -130,14 +130,20 @@ fn a_state_word_in_the_filter_finds_only_that_state() {
     let count = |app: &rhoboard::board::App, s: State| {
         app.assessment.legs.iter().filter(|r| r.state == s).count()
     };
-    for (word, state) in [("thin", State::Thin), ("within", State::Within), ("below", State::Below)] {
+    for (word, state) in [
+        ("thin", State::Thin),
+        ("within", State::Within),
+        ("below", State::Below),
+    ] {
         app.update(key(KeyCode::Char('/')));
         type_text(&mut app, word);
         app.update(key(KeyCode::Enter));
         assert!(count(&app, state) > 0, "the demo at 13Z has {word} legs");
         assert_eq!(app.rows().len(), count(&app, state), "/{word}");
         assert!(
-            app.rows().iter().all(|&k| app.assessment.legs[k].state == state),
+            app.rows()
+                .iter()
+                .all(|&k| app.assessment.legs[k].state == state),
             "/{word} shows only {word} legs"
         );
         app.update(key(KeyCode::Esc));
