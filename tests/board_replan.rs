@@ -232,14 +232,33 @@ fn destination_fuel_bags_cancel_copy_and_undo() {
         "a new leg has no before"
     );
     assert!(app.compared(copy).unwrap().new.is_some());
+    // The copy goes straight to its own time prompt; Esc keeps it and shows its menu.
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!("no what-if panel")
+    };
+    assert_eq!(ui.slot, copy, "the panel is on the copy");
+    assert!(
+        matches!(&ui.ask, Ask::Type { note: Some(n), .. } if n.contains("L16-2")),
+        "{:?}",
+        ui.ask
+    );
+    app.update(key(KeyCode::Esc));
     app.update(key(KeyCode::Char('x')));
-    assert!(app.compared(slot).unwrap().new.is_none(), "cancelled");
+    assert!(
+        app.compared(copy).unwrap().new.is_none(),
+        "the copy cancelled"
+    );
+    assert!(app.compared(slot).unwrap().new.is_some(), "not its source");
     assert_eq!(app.plan.steps.len(), 5);
     // Undo, one at a time, back to nothing.
     app.update(key(KeyCode::Char('u')));
-    assert!(app.compared(slot).unwrap().new.is_some());
+    assert!(app.compared(copy).unwrap().new.is_some());
     app.update(key(KeyCode::Char('u')));
     assert_eq!(app.plan.slots.len(), app.ops.legs.len(), "the copy is gone");
+    let Mode::Replan(ui) = &app.ui.mode else {
+        panic!("no what-if panel")
+    };
+    assert_eq!(ui.slot, slot, "back on the leg the copy was made of");
     for _ in 0..3 {
         app.update(key(KeyCode::Char('u')));
     }
@@ -743,6 +762,7 @@ fn copies_are_vetted_cancelled_legs_are_gone_and_the_panel_says_so() {
     let l04 = select_leg(&mut app, "L04");
     app.update(key(KeyCode::Char('e')));
     app.update(key(KeyCode::Char('c')));
+    app.update(key(KeyCode::Esc));
     let copy = app.plan.slots.len() - 1;
     let v = app.compared(copy).unwrap().vetting.clone();
     assert!(
@@ -756,12 +776,14 @@ fn copies_are_vetted_cancelled_legs_are_gone_and_the_panel_says_so() {
         "{:?}",
         app.plan_refusals()
     );
+    // The panel is on the copy (c opened its time prompt): its own refusal shows.
     let text = screen(&mut app, 120, 40);
+    assert!(text.contains("new leg, a copy of L04"), "{text}");
     assert!(
-        text.contains("✗ L04-2: validate would refuse (w writes nothing)"),
+        text.contains("✗ validate would refuse (w writes nothing)"),
         "{text}"
     );
-    assert!(text.contains("⚠ L04-2: warning:"), "{text}");
+    assert!(text.contains("⚠ warning:"), "{text}");
     app.update(key(KeyCode::Char('u')));
     // Moving L09 onto L04's time is refused while L04 flies ...
     app.update(key(KeyCode::Esc));
@@ -786,4 +808,92 @@ fn copies_are_vetted_cancelled_legs_are_gone_and_the_panel_says_so() {
     assert!(app.plan.slots[l04].cancelled);
     assert!(app.plan_refusals().is_empty(), "{:?}", app.plan_refusals());
     assert!(app.compared(l09).unwrap().vetting.refusals.is_empty());
+}
+
+/// Finding: at 80×24 the loads list showed 4 of its choices, no position, and the
+/// highlight moved off-screen. The list now scrolls with the highlight and says where.
+#[test]
+fn a_long_pick_list_keeps_the_highlight_on_screen_at_80x24() {
+    let mut app = demo_stepped_to(13);
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('l')));
+    let labels: Vec<String> = match &app.ui.mode {
+        Mode::Replan(ui) => match &ui.ask {
+            Ask::Pick { options, .. } => options.iter().map(|(l, _)| l.clone()).collect(),
+            other => panic!("{other:?}"),
+        },
+        _ => panic!("no what-if panel"),
+    };
+    let n = labels.len();
+    assert!(n > 4, "{labels:?}");
+    for i in 0..n {
+        let text = screen(&mut app, 80, 24);
+        // The highlighted label's start is on screen, and the position with it.
+        let head: String = labels[i].chars().take(30).collect();
+        assert!(
+            text.contains(head.trim_end()),
+            "row {i} off screen:\n{text}"
+        );
+        assert!(
+            text.contains(&format!("({} of {n}; ↑↓ scroll", i + 1)),
+            "no position at row {i}:\n{text}"
+        );
+        app.update(key(KeyCode::Down));
+    }
+}
+
+/// Finding: typing an airfield in the destination list was ignored and Enter took the
+/// first entry. Typing jumps to the match; a key that matches nothing is refused in
+/// words; Enter takes the highlighted choice only.
+#[test]
+fn typing_in_the_destination_list_jumps_and_a_mismatch_is_refused() {
+    let mut app = demo_stepped_to(13);
+    let slot = select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('d')));
+    type_text(&mut app, "xmr");
+    let cursor_label = |app: &App| match &app.ui.mode {
+        Mode::Replan(ui) => match &ui.ask {
+            Ask::Pick {
+                options, cursor, ..
+            } => options[*cursor].0.clone(),
+            other => panic!("{other:?}"),
+        },
+        _ => panic!("no what-if panel"),
+    };
+    assert!(
+        cursor_label(&app).starts_with("XMRS"),
+        "{}",
+        cursor_label(&app)
+    );
+    // Text that matches nothing is said so, and Enter then chooses nothing.
+    app.update(key(KeyCode::Char('Q')));
+    assert!(cursor_label(&app).starts_with("XMRS"));
+    let text = screen(&mut app, 120, 40);
+    assert!(text.contains("no choice matches 'xmrQ'"), "{text}");
+    app.update(key(KeyCode::Enter));
+    assert!(!app.plan.pending(), "nothing chosen");
+    assert!(screen(&mut app, 120, 40).contains("Enter chose nothing"));
+    // Backspace back to a match; Enter takes the highlighted choice and says which.
+    app.update(key(KeyCode::Backspace));
+    app.update(key(KeyCode::Enter));
+    assert!(
+        app.compared(slot)
+            .unwrap()
+            .what
+            .iter()
+            .any(|w| w.contains("XMRS")),
+        "{:?}",
+        app.compared(slot).unwrap().what
+    );
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("what-if: chose XMRS"))
+    );
+    // An airfield not in the list (XSEA is L16's destination now) is refused too.
+    app.update(key(KeyCode::Char('d')));
+    type_text(&mut app, "XSEB");
+    assert!(screen(&mut app, 120, 40).contains("no choice matches 'XSEB'"));
 }

@@ -226,3 +226,123 @@ fn a_board_opened_later_lists_the_recheck_at_load() {
     );
     assert_eq!(later.signoffs.rechecks(), 1);
 }
+
+/// The screen's lines joined, frames and padding trimmed (a wrapped message reads whole).
+fn flatten(text: &str) -> String {
+    text.lines()
+        .map(|l| l.trim_matches(|c| c == '│' || c == ' '))
+        .collect::<Vec<_>>()
+        .join(" ")
+}
+
+fn sign_form(app: &App) -> &rhoboard::board::signoff::SignForm {
+    match &app.ui.mode {
+        Mode::Sign(f) => f,
+        other => panic!("not in the sign-off form: {other:?}"),
+    }
+}
+
+#[test]
+fn a_refusal_at_80x24_is_wrapped_whole_and_no_override_is_offered_where_none_is_allowed() {
+    let mut app = demo_stepped_to(13);
+    app.attach_signoffs(
+        Ok(Log::new("/nonexistent-rhoboard-test/signoffs")),
+        rhoboard::commands::signoff::data_hashes(None),
+    );
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('S')));
+    assert!(
+        !sign_form(&app).offers_override,
+        "charter legs: no override"
+    );
+    type_text(&mut app, "K. Lind");
+    let text = screen(&mut app, 80, 24);
+    // The refusal's end, on whatever line the wrap puts it.
+    let flat = flatten(&text);
+    assert!(flat.contains("would be refused"), "{text}");
+    assert!(flat.contains("charter legs"), "{text}");
+    assert!(!text.contains("override reason"), "{text}");
+    insta::assert_snapshot!("signoff_refused_80x24", render(&mut app, 80, 24).backend());
+    insta::assert_snapshot!(
+        "signoff_refused_120x40",
+        render(&mut app, 120, 40).backend()
+    );
+    // Tab skips the hidden field: two fields, so Tab twice is back on the instructor.
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    assert_eq!(sign_form(&app).focus, 0);
+    // Enter keeps the refusal on screen.
+    app.update(key(KeyCode::Enter));
+    let text = screen(&mut app, 80, 24);
+    assert!(text.contains('✗'), "{text}");
+}
+
+#[test]
+fn a_long_override_reason_never_pushes_the_message_off_screen() {
+    let mut app = demo_stepped_to(15);
+    app.attach_signoffs(
+        Ok(Log::new("/nonexistent-rhoboard-test/signoffs")),
+        rhoboard::commands::signoff::data_hashes(None),
+    );
+    // The first below leg whose category allows an override, if the demo has one.
+    let policy = app.ops.operator.policy.sign_off.override_categories.clone();
+    let Some(id) = app
+        .assessment
+        .legs
+        .iter()
+        .find(|r| !r.state.meets_minimums() && policy.contains(&r.category))
+        .map(|r| r.id.clone())
+    else {
+        panic!("the demo at 15Z has no below leg with an override allowed");
+    };
+    select_leg(&mut app, &id);
+    app.update(key(KeyCode::Char('S')));
+    assert!(sign_form(&app).offers_override);
+    type_text(&mut app, "K. Lind");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(
+        &mut app,
+        "dual lesson with the instructor aboard, circuits only, turning back at the first sign of cloud below the minimums",
+    );
+    let text = screen(&mut app, 80, 24);
+    assert!(text.contains("Enter signs"), "{text}");
+}
+
+#[test]
+fn signing_a_leg_already_gone_warns_first_and_the_second_enter_signs() {
+    let tmp = tempfile::tempdir().unwrap();
+    let mut app = demo_stepped_to(13);
+    with_log(&mut app, tmp.path());
+    select_leg(&mut app, "L03");
+    app.update(key(KeyCode::Char('S')));
+    type_text(&mut app, "M. Ortiz");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(run_effects(&mut app), 0, "the first Enter only warns");
+    let text = screen(&mut app, 120, 40);
+    let flat = flatten(&text);
+    assert!(flat.contains("has left already"), "{text}");
+    assert!(flat.contains("Enter again to sign it anyway"), "{text}");
+    app.update(key(KeyCode::Enter));
+    assert_eq!(run_effects(&mut app), 1, "the second Enter signs");
+}
+
+#[test]
+fn ctrl_u_clears_the_focused_field_of_the_signoff_form() {
+    let mut app = demo_stepped_to(8);
+    select_leg(&mut app, "L09");
+    app.update(key(KeyCode::Char('S')));
+    type_text(&mut app, "M. Ortiz");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "circuits");
+    app.update(rhoboard::board::Msg::Key(
+        ratatui::crossterm::event::KeyEvent::new(
+            KeyCode::Char('u'),
+            ratatui::crossterm::event::KeyModifiers::CONTROL,
+        ),
+    ));
+    let f = sign_form(&app);
+    assert_eq!(f.values[1], "", "the note is cleared");
+    assert_eq!(f.values[0], "M. Ortiz", "the other field stays");
+    assert!(app.ui.filter.is_empty());
+}

@@ -710,15 +710,37 @@ fn afternoon_150x40() {
 /// from" a temperature the search merely stopped at.
 #[test]
 fn headroom_reads_as_the_report_words_it() {
+    use rhoboard::assess::State;
     use rhoboard::board::display::Show;
-    for hour in [8, 15] {
+    let mut below_without_figure = 0;
+    for hour in [8, 13, 15] {
         let app = demo_stepped_to(hour);
         let show = Show::of(&app.ops);
+        below_without_figure += app
+            .assessment
+            .legs
+            .iter()
+            .filter(|r| r.headroom.is_none() && r.state == State::Below)
+            .count();
         for r in &app.assessment.legs {
             let cell = rhoboard::board::view::headroom_cell(show, r);
             let words = rhoboard::board::detail::headroom_words(r, show);
             match r.headroom {
-                None => assert_eq!(cell, "—", "{}", r.id),
+                None => {
+                    assert_eq!(cell, "—", "{}", r.id);
+                    // A below leg says why it has no figure, never "no data".
+                    if r.state == State::Below {
+                        assert!(
+                            words.starts_with("— (below on ")
+                                && words.ends_with("warming or cooling does not change it)"),
+                            "{}: {words}",
+                            r.id
+                        );
+                    } else {
+                        assert_eq!(r.state, State::NoData, "{}", r.id);
+                        assert_eq!(words, "— (no data)", "{}", r.id);
+                    }
+                }
                 Some(h) => {
                     // The demo operator shows °C: the report's own figure and words.
                     assert_eq!(cell, h.figure(), "{}", r.id);
@@ -731,6 +753,10 @@ fn headroom_reads_as_the_report_words_it() {
             }
         }
     }
+    assert!(
+        below_without_figure > 0,
+        "the demo has below legs with no headroom figure to word"
+    );
 }
 
 /// Every limit row of every leg's detail shows a margin that is the difference of the

@@ -123,6 +123,33 @@ fn filter_narrows_the_legs_and_esc_clears_it() {
     assert!(app.ui.filter.is_empty());
 }
 
+/// A state word matches whole from its start: `thin` is not found inside `within`.
+#[test]
+fn a_state_word_in_the_filter_finds_only_that_state() {
+    let mut app = demo_stepped_to(13);
+    let count = |app: &rhoboard::board::App, s: State| {
+        app.assessment.legs.iter().filter(|r| r.state == s).count()
+    };
+    for (word, state) in [
+        ("thin", State::Thin),
+        ("within", State::Within),
+        ("below", State::Below),
+    ] {
+        app.update(key(KeyCode::Char('/')));
+        type_text(&mut app, word);
+        app.update(key(KeyCode::Enter));
+        assert!(count(&app, state) > 0, "the demo at 13Z has {word} legs");
+        assert_eq!(app.rows().len(), count(&app, state), "/{word}");
+        assert!(
+            app.rows()
+                .iter()
+                .all(|&k| app.assessment.legs[k].state == state),
+            "/{word} shows only {word} legs"
+        );
+        app.update(key(KeyCode::Esc));
+    }
+}
+
 /// A kept filter is cleared by reopening it, Ctrl-U (empty the line, as in a shell) and
 /// Enter, as well as by Esc.
 #[test]

@@ -1452,21 +1452,24 @@ impl App {
     }
 }
 
+/// Whether a leg matches the filter text: a substring of its id, aircraft, airfields,
+/// pilot or category; its state word only from the word's start ("thin" finds the thin
+/// legs, not the "within" ones; "no-" finds the no-data ones).
 fn leg_matches(ops: &Ops, r: &LegResult, needle: &str) -> bool {
     let Some(leg) = ops.legs.get(r.index) else {
         return false;
     };
-    [
-        leg.id.as_str(),
-        leg.aircraft.as_str(),
-        leg.from.as_str(),
-        leg.to.as_str(),
-        leg.pilot.as_str(),
-        category_word(leg.category),
-        r.state.word(),
-    ]
-    .iter()
-    .any(|s| s.to_lowercase().contains(needle))
+    r.state.word().to_lowercase().starts_with(needle)
+        || [
+            leg.id.as_str(),
+            leg.aircraft.as_str(),
+            leg.from.as_str(),
+            leg.to.as_str(),
+            leg.pilot.as_str(),
+            category_word(leg.category),
+        ]
+        .iter()
+        .any(|s| s.to_lowercase().contains(needle))
 }
 
 /// The store's stale age from the operator's policy.

@@ -239,6 +239,42 @@ fn moment(kg_mm: f64, unit: MassUnit) -> String {
     }
 }
 
+/// `text` in lines of at most `w` characters, broken between words (a word longer than
+/// `w` is broken inside); the continuation lines are 2 narrower (they are indented).
+fn name_lines(text: &str, w: usize) -> Vec<String> {
+    let mut lines: Vec<String> = Vec::new();
+    let mut cur = String::new();
+    for word in text.split_whitespace() {
+        let room = if lines.is_empty() { w } else { w.saturating_sub(2) }.max(4);
+        let need = cur.chars().count() + usize::from(!cur.is_empty()) + word.chars().count();
+        if need <= room {
+            if !cur.is_empty() {
+                cur.push(' ');
+            }
+            cur.push_str(word);
+            continue;
+        }
+        if !cur.is_empty() {
+            lines.push(std::mem::take(&mut cur));
+        }
+        let mut rest: Vec<char> = word.chars().collect();
+        loop {
+            let room = if lines.is_empty() { w } else { w.saturating_sub(2) }.max(4);
+            if rest.len() <= room {
+                cur = rest.into_iter().collect();
+                break;
+            }
+            let tail = rest.split_off(room);
+            lines.push(rest.into_iter().collect());
+            rest = tail;
+        }
+    }
+    if !cur.is_empty() || lines.is_empty() {
+        lines.push(cur);
+    }
+    lines
+}
+
 fn mass_balance(
     out: &mut Vec<Line<'static>>,
     mb: &MassBalance,
@@ -275,22 +311,25 @@ fn mass_balance(
         ));
         for row in &mb.rows {
             let over = row.max_mass_kg.is_some_and(|m| row.mass_kg > m + 1e-6);
-            // Whole words and "…", never cut inside a word (finding 20).
-            let name = super::fit::words(&row.name, 28).into_owned();
+            // The name whole, wrapped at words within its column (the rest of it on
+            // the lines below), never cut.
+            let mut name = name_lines(&row.name, 28).into_iter();
             let text = format!(
                 "  {:<28} {:>8} {:>9} {:>11} {:>7}{}",
-                name,
+                name.next().unwrap_or_default(),
                 mass(row.mass_kg, unit),
                 arm(row.arm_mm, unit),
                 moment(row.moment_kg_mm, unit),
                 mass_opt(row.max_mass_kg, unit),
                 if over { " ✗ over" } else { "" }
             );
-            left.push(if over {
-                Line::styled(text, t.state(State::Below))
-            } else {
-                plain(text)
-            });
+            for text in std::iter::once(text).chain(name.map(|n| format!("    {n}"))) {
+                left.push(if over {
+                    Line::styled(text, t.state(State::Below))
+                } else {
+                    plain(text)
+                });
+            }
         }
     }
     for (what, p) in [
@@ -505,9 +544,49 @@ fn envelope_drawing(
 
 /// Headroom in words for the detail, as the report words it
 /// ([`Headroom::words`](crate::assess::leg::Headroom::words)), in the display unit.
+/// With no figure, why: no data, or below for what warming or cooling does not change
+/// (the limits the assessment leaves out of its headroom search: every `below` limit but
+/// density altitude, a failed mass and balance, no usable runway end).
 pub fn headroom_words(r: &LegResult, show: Show) -> String {
     match r.headroom {
-        None => "— (no data)".to_string(),
+        None if r.state == State::NoData => "— (no data)".to_string(),
+        None if r.state == State::Below => {
+            let mut why: Vec<String> = Vec::new();
+            let mut add = |w: String| {
+                if !why.contains(&w) {
+                    why.push(w);
+                }
+            };
+            for l in r.departure.limits.iter().chain(&r.arrival.limits) {
+                if l.state == State::Below
+                    && l.kind != crate::assess::limits::LimitKind::DensityAltitude
+                {
+                    add(l.kind.word().to_string());
+                }
+            }
+            if r.mass_balance.as_ref().is_some_and(|m| !m.passes()) {
+                add("mass and balance".to_string());
+            }
+            for side in [&r.departure, &r.arrival] {
+                if side.state == State::Below
+                    && side.gaps.iter().any(|g| g.contains("no usable runway end"))
+                {
+                    add(format!("no usable runway end at {}", side.airfield));
+                }
+            }
+            if why.is_empty() {
+                "— (below for reasons warming or cooling does not change)".to_string()
+            } else {
+                let list = match why.split_last() {
+                    Some((last, rest)) if !rest.is_empty() => {
+                        format!("{} and {last}", rest.join(", "))
+                    }
+                    _ => why.join(""),
+                };
+                format!("— (below on {list}: warming or cooling does not change it)")
+            }
+        }
+        None => "— (not assessed)".to_string(),
         Some(h) => h.words_in(
             |d| show.warming_value(d),
             |c| show.temp_value(c),
@@ -814,5 +893,23 @@ fn climb(out: &mut Vec<Line<'static>>, c: &ClimbResult, t: Theme) {
             "High density altitude: the same indicated speeds mean a higher true airspeed \
              and the ground looks faster — fly the normal indicated speeds.",
         ));
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::name_lines;
+
+    #[test]
+    fn a_long_name_wraps_whole_at_words() {
+        let name = "X-TRNB empty (weighing report 2026-03, with the oil)";
+        let lines = name_lines(name, 28);
+        assert!(lines.len() > 1, "{lines:?}");
+        assert!(lines[0].chars().count() <= 28);
+        assert!(lines[1..].iter().all(|l| l.chars().count() <= 26), "{lines:?}");
+        assert_eq!(lines.join(" "), name, "nothing lost, nothing cut");
+        assert_eq!(name_lines("pilot", 28), ["pilot"]);
+        let long = "a".repeat(60);
+        assert_eq!(name_lines(&long, 28).concat(), long);
     }
 }

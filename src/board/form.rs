@@ -89,7 +89,8 @@ pub enum FieldKey {
 }
 
 /// One key on a form of text fields (every board form: the report by hand, the
-/// runway state): Tab/↓ and Shift-Tab/↑ move, Backspace deletes, characters type.
+/// runway state, the sign-off): Tab/↓ and Shift-Tab/↑ move, Backspace deletes,
+/// Ctrl-U empties the field (as in a shell), characters type.
 pub fn field_key(values: &mut [String], focus: &mut usize, key: &KeyEvent) -> FieldKey {
     let n = values.len().max(1);
     match key.code {
@@ -100,6 +101,11 @@ pub fn field_key(values: &mut [String], focus: &mut usize, key: &KeyEvent) -> Fi
         KeyCode::Backspace => {
             if let Some(v) = values.get_mut(*focus) {
                 v.pop();
+            }
+        }
+        KeyCode::Char('u') if key.modifiers.contains(KeyModifiers::CONTROL) => {
+            if let Some(v) = values.get_mut(*focus) {
+                v.clear();
             }
         }
         KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {

@@ -172,7 +172,7 @@ pub const KEYMAP: &[Binding] = &[
         keys: &[c('/')],
         label: "/",
         action: Action::Filter,
-        help: "filter the legs by text (leg, aircraft, airfield, pilot, state)",
+        help: "filter the legs by text (leg, aircraft, airfield, pilot) or state (thin: only thin)",
     },
     Binding {
         keys: &[c('s')],

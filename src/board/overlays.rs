@@ -112,7 +112,9 @@ pub fn hint(mode: &Mode) -> String {
         Mode::Sign(_) => "Tab/↑↓ field · Enter signs · Esc cancels".into(),
         Mode::Replan(r) => match r.ask {
             Ask::Menu => "a t d l f c x: change · u undo · w write · Esc close".into(),
-            Ask::Pick { .. } => "↑↓ choose · Enter applies · Esc back".into(),
+            Ask::Pick { .. } => {
+                "↑↓ choose · type to jump · Enter applies the highlighted · Esc back".into()
+            }
             Ask::Type { .. } => "type · Enter applies · Esc back".into(),
         },
         Mode::Conflict => "t keep theirs · o our changes onto theirs · Esc decide later".into(),
@@ -278,6 +280,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             super::view::headroom_cell(show, r)
         )),
     ]));
+    let top = std::mem::take(&mut lines);
     for (name, e) in [("departure", &fig.departure), ("arrival", &fig.arrival)] {
         lines.push(Line::from(format!(
             "{name} {} rwy {}: PA {} DA {} OAT {} · headwind {} crosswind {}",
@@ -328,24 +331,37 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             )));
         }
     }
+    let ends = std::mem::take(&mut lines);
     for why in r.reasons.iter().take(3) {
         lines.push(Line::styled(format!("  - {why}"), t.state(r.state)));
     }
+    let reasons = std::mem::take(&mut lines);
     lines.push(Line::default());
-    // The override reason is asked only where the policy lets a below leg be signed.
+    // The override reason is asked only where the policy lets this leg be signed
+    // with one (a below or no-data leg of a category it allows overrides for).
     let hints = [
         "who signs",
         "optional",
-        "only for a below or no-data leg, if allowed",
+        "this leg does not meet the minimums: signing it needs a reason",
     ];
     lines.extend(super::view::field_lines(
-        SIGN_FIELDS.iter().copied().zip(hints),
+        SIGN_FIELDS.iter().copied().zip(hints).take(f.fields()),
         &f.values,
         f.focus,
         |_| None,
         16,
         t,
     ));
+    if !f.offers_override && !r.state.meets_minimums() {
+        lines.push(Line::styled(
+            format!(
+                "{:>16} none: the policy allows no override for {} legs",
+                "",
+                r.category.name().replace('_', " ")
+            ),
+            t.dim(),
+        ));
+    }
     lines.push(Line::default());
     if f.busy {
         lines.push(Line::styled("Writing the record…", t.heading()));
@@ -378,14 +394,69 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         }
     }
     lines.push(Line::styled(crate::CAUTION, t.caution()));
-    boxed(
-        lines,
+    boxed_keeping(
+        [top, ends, reasons, lines],
+        "of the basis: a taller terminal shows them, as does the leg's detail",
         format!(" Sign off {} — the basis (S) ", r.id),
         area,
         buf,
         t,
         110,
     );
+}
+
+/// Like [`boxed`] for the sign-off: the parts `[top, ends, reasons, tail]` wrapped
+/// (never cut mid-line); when they do not all fit the height, the per-end lines go
+/// first (a line says how many), so the fields and the message always show.
+fn boxed_keeping(
+    parts: [Vec<Line<'static>>; 4],
+    what: &str,
+    title: String,
+    area: Rect,
+    buf: &mut Buffer,
+    t: Theme,
+    w: u16,
+) {
+    let inner_w = usize::from(w.min(area.width).saturating_sub(2));
+    let [top, mut ends, reasons, tail] = parts.map(|p| {
+        p.into_iter()
+            .flat_map(|l| super::fit::wrap(l, inner_w, None))
+            .collect::<Vec<_>>()
+    });
+    let room = usize::from(area.height.saturating_sub(2));
+    let fixed = top.len() + reasons.len() + tail.len();
+    if fixed + ends.len() > room {
+        let marker = |dropped: usize| {
+            super::fit::wrap(
+                Line::styled(
+                    format!(
+                        "  … {dropped} more line{} {what}",
+                        if dropped == 1 { "" } else { "s" }
+                    ),
+                    t.dim(),
+                ),
+                inner_w,
+                None,
+            )
+        };
+        let marker_h = marker(ends.len()).len();
+        let keep = room.saturating_sub(fixed + marker_h).min(ends.len());
+        let dropped = ends.len() - keep;
+        ends.truncate(keep);
+        ends.extend(marker(dropped));
+    }
+    let mut lines = top;
+    lines.extend(ends);
+    lines.extend(reasons);
+    // Still too tall (a tiny terminal): the end of the form, with the message, shows.
+    let skip = (lines.len() + tail.len()).saturating_sub(room);
+    lines.extend(tail);
+    let lines: Vec<Line<'static>> = lines.into_iter().skip(skip).collect();
+    let r = super::view::centered(area, w, lines.len() as u16 + 2);
+    Clear.render(r, buf);
+    Paragraph::new(lines)
+        .block(Block::bordered().border_style(t.frame()).title(title))
+        .render(r, buf);
 }
 
 /// The what-if panel: the leg as planned, old → new, the pending changes, and the menu.
@@ -476,6 +547,8 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
         }
     }
     lines.push(Line::default());
+    // Where the choice list starts: the lines above it give way when it does not fit.
+    let mut pick_at: Option<usize> = None;
     match &ui.ask {
         Ask::Menu => {
             lines.push(Line::from(vec![
@@ -507,31 +580,88 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
             title,
             options,
             cursor,
+            typed,
+            error,
         } => {
+            let head_len = lines.len();
+            let inner_w = usize::from(110u16.min(area.width).saturating_sub(2));
+            let height = |l: &Line<'static>| super::fit::wrap(l.clone(), inner_w, None).len();
             lines.push(Line::styled(title.clone(), t.heading()));
             if options.is_empty() {
                 lines.push(Line::styled("  nothing to choose", t.dim()));
             }
-            let shown = 8usize;
-            let first = cursor.saturating_sub(shown - 1);
-            for (i, (label, _)) in options.iter().enumerate().skip(first).take(shown) {
-                let style = if i == *cursor {
-                    t.selected()
-                } else {
-                    Style::new()
-                };
-                lines.push(Line::styled(format!("  {label}"), style));
+            if !typed.is_empty() {
+                lines.push(Line::from(vec![
+                    Span::styled("  typed: ", t.dim()),
+                    Span::raw(typed.clone()),
+                    Span::styled(" (jumps to the first match)", t.dim()),
+                ]));
             }
-            if options.len() > shown {
+            if let Some(e) = error {
+                lines.push(Line::styled(format!("  ✗ {e}"), t.error()));
+            }
+            // As many rows as fit (at most 8), the highlighted one always among them; the
+            // panel above gives way first (down to its first line and a count).
+            let rows: Vec<Line<'static>> = options
+                .iter()
+                .enumerate()
+                .map(|(i, (label, _))| {
+                    let style = if i == *cursor {
+                        t.selected()
+                    } else {
+                        Style::new()
+                    };
+                    Line::styled(format!("  {label}"), style)
+                })
+                .collect();
+            let fixed: usize = lines[head_len..].iter().map(height).sum::<usize>()
+                + usize::from(app.plan.dir.is_none()) * 2
+                + 1 // the position line
+                + 3; // the panel's first line and the count of what it left out
+            let avail = usize::from(area.height.saturating_sub(2))
+                .saturating_sub(fixed)
+                .max(1);
+            let h: Vec<usize> = rows.iter().map(height).collect();
+            let cur = (*cursor).min(rows.len().saturating_sub(1));
+            let mut first = cur;
+            let mut used = h.get(cur).copied().unwrap_or(0);
+            let mut n = 0usize;
+            while first > 0 && used + h[first - 1] <= avail && cur - first + 1 < 8 {
+                first -= 1;
+                used += h[first];
+            }
+            n += cur + 1 - first;
+            let mut last = cur + 1;
+            while last < rows.len() && used + h[last] <= avail && n < 8 {
+                used += h[last];
+                last += 1;
+                n += 1;
+            }
+            if !rows.is_empty() {
+                lines.extend(rows[first..last].iter().cloned());
+            }
+            if n < options.len() {
                 lines.push(Line::styled(
-                    format!("  ({} of {}; ↑↓ scroll)", cursor + 1, options.len()),
+                    format!(
+                        "  ({} of {}; ↑↓ scroll, or type to jump)",
+                        cursor + 1,
+                        options.len()
+                    ),
                     t.dim(),
                 ));
             }
+            pick_at = Some(head_len);
         }
         Ask::Type {
-            what, text, error, ..
+            what,
+            text,
+            error,
+            note,
+            ..
         } => {
+            if let Some(n) = note {
+                lines.push(Line::styled(n.clone(), t.state(State::Thin)));
+            }
             let prompt = match what {
                 Typed::Departs => "New departure time, HHMM UTC (the planned duration is kept):",
                 Typed::Fuel => "Fuel at engine start, litres:",
@@ -551,14 +681,23 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
             t.dim(),
         ));
     }
-    boxed(
-        lines,
-        format!(" What-if {id} — nothing is written until w "),
-        area,
-        buf,
-        t,
-        110,
-    );
+    let title = format!(" What-if {id} — nothing is written until w ");
+    match pick_at {
+        Some(at) if at > 1 => {
+            let tail = lines.split_off(at);
+            let rest = lines.split_off(1);
+            boxed_keeping(
+                [lines, rest, Vec::new(), tail],
+                "of the panel: a taller terminal shows them",
+                title,
+                area,
+                buf,
+                t,
+                110,
+            );
+        }
+        _ => boxed(lines, title, area, buf, t, 110),
+    }
 }
 
 /// A save met a changed file: both versions of the affected legs, and the choice.

@@ -175,6 +175,11 @@ pub enum Ask {
         options: Vec<(String, Step)>,
         /// Cursor.
         cursor: usize,
+        /// What was typed to jump to a choice (the first whose words begin with it,
+        /// else the first that holds it).
+        typed: String,
+        /// Why the last key typed was refused (no choice matches).
+        error: Option<String>,
     },
     /// Type a value.
     Type {
@@ -184,6 +189,8 @@ pub enum Ask {
         text: String,
         /// The last error.
         error: Option<String>,
+        /// Why the prompt opened by itself (a copy asks for its own time).
+        note: Option<String>,
         /// A departure before the board's clock the user was warned about: a second
         /// Enter with the same time plans it (as the hand-report form does for a time
         /// after the clock).
@@ -1125,6 +1132,7 @@ impl App {
                         what: Typed::Departs,
                         text: String::new(),
                         error: None,
+                        note: None,
                         past_warned: None,
                     }
                 }
@@ -1133,12 +1141,41 @@ impl App {
                         what: Typed::Fuel,
                         text: String::new(),
                         error: None,
+                        note: None,
                         past_warned: None,
                     }
                 }
-                KeyCode::Char('c') => self.step_or_note(ui.slot, Step::Copy),
+                KeyCode::Char('c') => {
+                    let before = self.plan.slots.len();
+                    self.step_or_note(ui.slot, Step::Copy);
+                    if self.plan.slots.len() > before {
+                        // The copy flies the same aircraft at the same time, which
+                        // validate refuses: its own time is asked for at once.
+                        let copy = self.plan.slots.len() - 1;
+                        let id = self.plan.slots[copy].leg.id.clone();
+                        ui.slot = copy;
+                        ui.ask = Ask::Type {
+                            what: Typed::Departs,
+                            text: String::new(),
+                            error: None,
+                            note: Some(format!(
+                                "{id} is a copy at the same time, on the same aircraft (validate would refuse it): type its own departure time, or Esc to keep it and change it in the menu (a aircraft, t time)"
+                            )),
+                            past_warned: None,
+                        };
+                    }
+                }
                 KeyCode::Char('x') => self.step_or_note(ui.slot, Step::Cancel),
-                KeyCode::Char('u') => self.plan_undo(),
+                KeyCode::Char('u') => {
+                    // Undoing the copy being shown goes back to the leg it was made of.
+                    let back = self.plan.slots.get(ui.slot).map(|s| match s.origin {
+                        Origin::Original(i) | Origin::CopyOf(i) => i,
+                    });
+                    self.plan_undo();
+                    if ui.slot >= self.plan.slots.len() {
+                        ui.slot = back.unwrap_or(0);
+                    }
+                }
                 KeyCode::Char('w') => {
                     self.plan_write();
                     if !matches!(self.ui.mode, Mode::Normal) {
@@ -1148,18 +1185,70 @@ impl App {
                 _ => {}
             },
             Ask::Pick {
-                options, cursor, ..
+                options,
+                cursor,
+                typed,
+                error,
+                ..
             } => match key.code {
                 KeyCode::Esc => ui.ask = Ask::Menu,
-                KeyCode::Up | KeyCode::Char('k') => *cursor = cursor.saturating_sub(1),
-                KeyCode::Down | KeyCode::Char('j') => {
+                KeyCode::Up => *cursor = cursor.saturating_sub(1),
+                KeyCode::Down => *cursor = (*cursor + 1).min(options.len().saturating_sub(1)),
+                // j and k move until something is typed; then they are letters.
+                KeyCode::Char('k') if typed.is_empty() && !ctrl => {
+                    *cursor = cursor.saturating_sub(1)
+                }
+                KeyCode::Char('j') if typed.is_empty() && !ctrl => {
                     *cursor = (*cursor + 1).min(options.len().saturating_sub(1))
                 }
-                KeyCode::Enter => {
-                    if let Some((_, step)) = options.get(*cursor).cloned() {
-                        self.step_or_note(ui.slot, step);
+                KeyCode::PageUp => *cursor = cursor.saturating_sub(8),
+                KeyCode::PageDown => *cursor = (*cursor + 8).min(options.len().saturating_sub(1)),
+                KeyCode::Home => *cursor = 0,
+                KeyCode::End => *cursor = options.len().saturating_sub(1),
+                KeyCode::Backspace => {
+                    typed.pop();
+                    *error = None;
+                    if let Some(i) = jump(options, typed) {
+                        *cursor = i;
+                    } else if !typed.is_empty() {
+                        *error = Some(no_match(typed));
                     }
-                    ui.ask = Ask::Menu;
+                }
+                KeyCode::Char('u') if ctrl => {
+                    typed.clear();
+                    *error = None;
+                }
+                KeyCode::Enter => {
+                    // Only the highlighted choice, never one the typing did not reach.
+                    match options.get(*cursor).cloned() {
+                        _ if error.is_some() => {
+                            *error = Some(format!("{}; Enter chose nothing", no_match(typed)));
+                        }
+                        Some((label, step)) => {
+                            self.step_or_note(ui.slot, step);
+                            self.notice(
+                                NoteKind::Info,
+                                format!(
+                                    "what-if: chose {}",
+                                    label.split_whitespace().collect::<Vec<_>>().join(" ")
+                                ),
+                            );
+                            ui.ask = Ask::Menu;
+                        }
+                        None => {
+                            *error = Some("nothing to choose here: Esc goes back".into());
+                        }
+                    }
+                }
+                KeyCode::Char(ch) if !ctrl => {
+                    typed.push(ch);
+                    match jump(options, typed) {
+                        Some(i) => {
+                            *cursor = i;
+                            *error = None;
+                        }
+                        None => *error = Some(no_match(typed)),
+                    }
                 }
                 _ => {}
             },
@@ -1168,11 +1257,13 @@ impl App {
                 text,
                 error,
                 past_warned,
+                ..
             } => match key.code {
                 KeyCode::Esc => ui.ask = Ask::Menu,
                 KeyCode::Backspace => {
                     text.pop();
                 }
+                KeyCode::Char('u') if ctrl => text.clear(),
                 KeyCode::Enter => match self.typed_edit(ui.slot, *what, text) {
                     Ok(Edit::Departs(at))
                         if at.with_timezone(&Utc) < self.clock
@@ -1314,6 +1405,8 @@ impl App {
             },
             options: options.into_iter().map(|(_, _, l, s)| (l, s)).collect(),
             cursor: 0,
+            typed: String::new(),
+            error: None,
         }
     }
 
@@ -1337,6 +1430,8 @@ impl App {
             title: format!("Another destination for {} (now {})", leg.id, leg.to),
             options,
             cursor: 0,
+            typed: String::new(),
+            error: None,
         }
     }
 
@@ -1349,6 +1444,8 @@ impl App {
                 title: format!("{} gives a fixed takeoff mass, not loads", leg.id),
                 options: Vec::new(),
                 cursor: 0,
+                typed: String::new(),
+                error: None,
             };
         };
         let stations: Vec<(String, String)> = self
@@ -1443,6 +1540,8 @@ impl App {
             title: format!("Loads of {} (fuel: f in the menu)", leg.id),
             options,
             cursor: 0,
+            typed: String::new(),
+            error: None,
         }
     }
 
@@ -1474,7 +1573,6 @@ impl App {
     }
 }
 
-/// A new id for a copy: `L16-2`, `L16-3`, …
 /// A departure at `at`, before the board's `clock`, in words: "0630Z is 6 h 30 min
 /// before the board's clock (1300Z): the leg would have left already", with `how` to go
 /// on (the time prompt's warning) or not (the panel's standing lines).
@@ -1499,6 +1597,9 @@ pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, how: Past) -> String 
             "{head}: the leg would have left already (a what-if to compare, not a departure still ahead)"
         ),
         Past::AsLoaded => format!("{head}: the leg has left already"),
+        Past::Sign => format!(
+            "{head}: the leg has left already. Enter again to sign it anyway, or Esc to cancel"
+        ),
     }
 }
 
@@ -1511,8 +1612,30 @@ pub enum Past {
     Planned,
     /// The panel's line for the leg as loaded (no change to its time).
     AsLoaded,
+    /// The sign-off form's warning: Enter again signs it anyway.
+    Sign,
 }
 
+/// The choice `typed` jumps to: the first whose label, or a word of it, begins with
+/// it (any case), else the first that holds it; `None` for empty text or no match.
+fn jump(options: &[(String, Step)], typed: &str) -> Option<usize> {
+    let t = typed.to_lowercase();
+    if t.is_empty() {
+        return None;
+    }
+    let labels: Vec<String> = options.iter().map(|(l, _)| l.to_lowercase()).collect();
+    labels
+        .iter()
+        .position(|l| l.split_whitespace().any(|w| w.starts_with(&t)) || l.starts_with(&t))
+        .or_else(|| labels.iter().position(|l| l.contains(&t)))
+}
+
+/// The words for typed text no choice matches.
+fn no_match(typed: &str) -> String {
+    format!("no choice matches '{typed}': Backspace (Ctrl-U clears it), or ↑↓ to choose")
+}
+
+/// A new id for a copy: `L16-2`, `L16-3`, …
 fn copy_id(slots: &[Slot], id: &str) -> String {
     let base = id.split_once('-').map_or(id, |(b, _)| b);
     (2..)

@@ -4,10 +4,11 @@
 //! queues an [`Effect::Sign`](super::effects::Effect) for the event loop.
 
 use chrono::{DateTime, Utc};
-use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+use ratatui::crossterm::event::{KeyCode, KeyEvent};
 
 use super::app::{App, Mode, NoteKind};
 use super::effects::Effect;
+use super::form::FieldKey;
 use crate::assess::LegResult;
 use crate::report::LogLine;
 use crate::signoff::log::{Chain, Log};
@@ -134,6 +135,23 @@ pub struct SignForm {
     pub error: Option<String>,
     /// Waiting for the event loop to write it.
     pub busy: bool,
+    /// Whether the override reason is asked: only for a leg that does not meet the
+    /// minimums, in a category whose overrides the policy allows.
+    pub offers_override: bool,
+    /// The leg had left on the board's clock and the user was told so: the next Enter
+    /// signs it anyway.
+    pub departed_warned: bool,
+}
+
+impl SignForm {
+    /// How many fields the form has (the override reason only where it can be used).
+    pub fn fields(&self) -> usize {
+        if self.offers_override {
+            SIGN_FIELDS.len()
+        } else {
+            SIGN_FIELDS.len() - 1
+        }
+    }
 }
 
 /// The form's field labels.
@@ -251,6 +269,14 @@ impl App {
         let Some(result) = self.assessment.legs.get(k).cloned() else {
             return;
         };
+        let offers_override = !result.state.meets_minimums()
+            && self
+                .ops
+                .operator
+                .policy
+                .sign_off
+                .override_categories
+                .contains(&result.category);
         let mut form = SignForm {
             leg: k,
             result,
@@ -260,6 +286,8 @@ impl App {
             preview: Err(Refusal::NoInstructor),
             error: None,
             busy: false,
+            offers_override,
+            departed_warned: false,
         };
         self.preview_sign(&mut form);
         self.ui.mode = Mode::Sign(Box::new(form));
@@ -271,7 +299,11 @@ impl App {
             files: Vec::new(),
         };
         let data = self.signoffs.data.as_ref().unwrap_or(&empty);
-        let over = f.values[2].trim();
+        let over = if f.offers_override {
+            f.values[2].trim()
+        } else {
+            ""
+        };
         let req = Request {
             instructor: &f.values[0],
             note: f.values[1].trim(),
@@ -295,18 +327,32 @@ impl App {
             }
             return;
         }
-        let n = SIGN_FIELDS.len();
-        match key.code {
-            KeyCode::Esc => return,
-            KeyCode::Tab | KeyCode::Down => f.focus = (f.focus + 1) % n,
-            KeyCode::BackTab | KeyCode::Up => f.focus = (f.focus + n - 1) % n,
-            KeyCode::Backspace => {
-                f.values[f.focus].pop();
+        let n = f.fields();
+        let before = f.values.clone();
+        let form = &mut *f;
+        match super::form::field_key(&mut form.values[..n], &mut form.focus, &key) {
+            FieldKey::Cancel => return,
+            FieldKey::Edited => {
+                if f.values != before {
+                    f.error = None;
+                }
             }
-            KeyCode::Enter => {
+            FieldKey::Submit => {
                 self.preview_sign(&mut f);
+                let departs = self
+                    .ops
+                    .legs
+                    .get(f.result.index)
+                    .map(|l| l.departs_utc())
+                    .filter(|&at| at < self.clock);
                 match (&f.preview, &self.signoffs.log, &self.signoffs.data) {
                     (Err(r), _, _) => f.error = Some(r.to_string()),
+                    (Ok(_), Some(_), Some(_)) if departs.is_some() && !f.departed_warned => {
+                        f.departed_warned = true;
+                        f.error = departs.map(|at| {
+                            super::replan::past_words(at, self.clock, super::replan::Past::Sign)
+                        });
+                    }
                     (Ok(_), None, _) => {
                         f.error = Some(format!(
                             "no sign-off log: {}",
@@ -322,7 +368,11 @@ impl App {
                     (Ok(_), Some(_), Some(_)) => {
                         f.busy = true;
                         f.error = None;
-                        let over = f.values[2].trim().to_string();
+                        let over = if f.offers_override {
+                            f.values[2].trim().to_string()
+                        } else {
+                            String::new()
+                        };
                         self.push_effect(Effect::Sign {
                             result: Box::new(f.result.clone()),
                             instructor: f.values[0].trim().to_string(),
@@ -333,11 +383,6 @@ impl App {
                     }
                 }
             }
-            KeyCode::Char(ch) if !key.modifiers.contains(KeyModifiers::CONTROL) => {
-                f.values[f.focus].push(ch);
-                f.error = None;
-            }
-            _ => {}
         }
         if !f.busy {
             self.preview_sign(&mut f);
