@@ -630,7 +630,8 @@ fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
     }
     let mut tail = vec![format!(
         "headroom: {}",
-        r.headroom.map_or_else(|| "—".to_string(), |h| h.words())
+        r.headroom
+            .map_or_else(|| format!("— ({})", r.headroom_absent_why()), |h| h.words())
     )];
     tail.extend(r.advice.iter().cloned());
     sections.push(("Headroom and advice".to_string(), tail));

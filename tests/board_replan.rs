@@ -827,10 +827,10 @@ fn a_long_pick_list_keeps_the_highlight_on_screen_at_80x24() {
     };
     let n = labels.len();
     assert!(n > 4, "{labels:?}");
-    for i in 0..n {
+    for (i, label) in labels.iter().enumerate() {
         let text = screen(&mut app, 80, 24);
         // The highlighted label's start is on screen, and the position with it.
-        let head: String = labels[i].chars().take(30).collect();
+        let head: String = label.chars().take(30).collect();
         assert!(
             text.contains(head.trim_end()),
             "row {i} off screen:\n{text}"

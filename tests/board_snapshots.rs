@@ -659,7 +659,7 @@ fn headroom_keeps_its_value_on_its_line_at_80_columns() {
 /// Finding 20: at 80 columns a load's name too long for its column ends in whole words
 /// and "…" ("X-UTLB empty (weighing…"), never mid-word.
 #[test]
-fn a_long_load_name_is_cut_at_a_word_with_an_ellipsis_at_80_columns() {
+fn a_long_load_name_wraps_whole_at_words_at_80_columns() {
     let mut app = demo_stepped_to(15);
     select_leg(&mut app, "L16");
     let r = app.selected_leg().unwrap();
@@ -673,13 +673,17 @@ fn a_long_load_name_is_cut_at_a_word_with_an_ellipsis_at_80_columns() {
     .iter()
     .map(|l| l.to_string())
     .collect();
-    let empty = text
+    let at = text
         .iter()
-        .find(|l| l.trim_start().starts_with("X-UTLB empty"))
+        .position(|l| l.trim_start().starts_with("X-UTLB empty"))
         .unwrap_or_else(|| panic!("no empty-aircraft row:\n{}", text.join("\n")));
+    // The name is never cut: the rest of it goes on the next line, indented.
     insta::assert_snapshot!(
-        empty.trim_end(),
-        @"  X-UTLB empty (weighing…       1016 kg   1158 mm 1176.5 kg·m       —"
+        format!("{}\n{}", text[at].trim_end(), text[at + 1].trim_end()),
+        @r"
+      X-UTLB empty (weighing        1016 kg   1158 mm 1176.5 kg·m       —
+        record)
+    "
     );
 }
 
@@ -908,4 +912,52 @@ fn narrow_terminals_keep_the_newest_report_and_the_sort_60x20_80x24_120x40() {
             "{w}:\n{text}"
         );
     }
+}
+
+/// The fuel line's reserve and the fuel-reserve limit row show the same figure for
+/// every leg with loads (both rounded up: the reserve is a minimum to keep), and the
+/// fuel at landing is never shown above the row's value (both rounded down).
+#[test]
+fn the_fuel_line_and_the_reserve_row_agree() {
+    let number_before = |line: &str, word: &str| -> Option<u32> {
+        let at = line.find(word)?;
+        line[..at].split_whitespace().last()?.parse().ok()
+    };
+    let mut compared = 0;
+    for hour in [8, 15] {
+        let app = demo_stepped_to(hour);
+        for r in &app.assessment.legs {
+            let text: Vec<String> = rhoboard::board::detail::lines(
+                &app.ops,
+                r,
+                None,
+                rhoboard::board::theme::Theme { color: false },
+                200,
+            )
+            .iter()
+            .map(|l| l.to_string())
+            .collect();
+            let Some(reserve) = text.iter().find_map(|l| {
+                let l = l.trim();
+                l.strip_prefix("reserve ")
+                    .and_then(|rest| rest.split_whitespace().next()?.parse::<u32>().ok())
+            }) else {
+                continue;
+            };
+            let landing = text
+                .iter()
+                .find_map(|l| number_before(l, "L at landing"))
+                .expect("a fuel line");
+            let row = text
+                .iter()
+                .find(|l| l.trim_start().starts_with("fuel reserve "))
+                .unwrap_or_else(|| panic!("{}: no fuel reserve row", r.id));
+            let limit = number_before(row, "L  margin").expect("the row's limit");
+            let value = number_before(row, "L limit").expect("the row's value");
+            assert_eq!(reserve, limit, "{}: {row}", r.id);
+            assert!(landing <= value, "{}: {landing} L vs {row}", r.id);
+            compared += 1;
+        }
+    }
+    assert!(compared >= 10, "{compared} legs compared");
 }

@@ -518,9 +518,79 @@ fn staleness_is_rechecked_as_the_clock_moves_without_reports() {
     assert_eq!(l05.state, State::NoData, "the 08Z report is stale by 0930Z");
 }
 
+/// The demo replay with one more report, on the 15th, so that it runs past midnight.
+fn demo_over_midnight(h: u32, m: u32) -> rhoboard::board::App {
+    use rhoboard::board::app::{Replay, replay_reports};
+    let ops = rhoboard::ops::demo::load().ops.expect("demo loads");
+    let mut reports = replay_reports(&ops, demo_time(h, m));
+    reports.extend(
+        decode_all(
+            "METAR XSEA 150600Z 27008KT 9999 FEW030 14/08 Q1016",
+            demo_time(23, 0) + chrono::TimeDelta::hours(12),
+        )
+        .into_iter()
+        .map(|r| r.report),
+    );
+    let replay = Replay::new(reports, demo_time(h, m), 1.0);
+    let mut app = rhoboard::board::App::new(
+        ops,
+        rhoboard::observation::Store::default(),
+        demo_time(h, m),
+        Some(replay),
+        rhoboard::board::Settings {
+            color: false,
+            demo: true,
+            ..Default::default()
+        },
+    );
+    app.update(key(KeyCode::Char(' ')));
+    app
+}
+
+#[test]
+fn the_replay_stops_at_the_end_of_its_day() {
+    let mut app = demo(23, 0);
+    app.update(key(KeyCode::Char(' ')));
+    // Two simulated hours at ×1 (an hour every ten seconds): the clock stops at 23:59.
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_secs(20),
+    });
+    assert_eq!(app.clock, demo_time(23, 59));
+    assert!(app.replay.as_ref().unwrap().paused);
+    assert!(app.assessment.legs.len() >= 15, "the day's legs stay");
+    let ends = |app: &rhoboard::board::App| {
+        app.notes
+            .iter()
+            .filter(|n| n.text.contains("the replay ends at 2026-06-14 2359Z"))
+            .count()
+    };
+    assert_eq!(ends(&app), 1);
+    // Ticks while stopped say nothing more; n goes no further and says why again;
+    // space says why it does not run on.
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_secs(5),
+    });
+    assert_eq!(ends(&app), 1, "said once by the clock");
+    app.update(key(KeyCode::Char('n')));
+    assert_eq!(app.clock, demo_time(23, 59));
+    assert_eq!(ends(&app), 2, "n is told");
+    app.update(key(KeyCode::Char(' ')));
+    assert!(app.replay.as_ref().unwrap().paused);
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("nothing to run on to"))
+    );
+    // p still steps back.
+    app.update(key(KeyCode::Char('p')));
+    assert_eq!(app.clock, demo_time(23, 0));
+}
+
 #[test]
 fn past_midnight_the_new_days_legs_replace_the_old() {
-    let mut app = demo(23, 0);
+    let mut app = demo_over_midnight(23, 0);
     assert!(app.assessment.legs.len() >= 15);
     app.update(key(KeyCode::Char('n')));
     assert_eq!(app.clock, demo_time(23, 0) + chrono::TimeDelta::hours(1));
@@ -533,7 +603,7 @@ fn past_midnight_the_new_days_legs_replace_the_old() {
 
 #[test]
 fn stepping_back_over_midnight_brings_the_day_back() {
-    let mut app = demo(23, 30);
+    let mut app = demo_over_midnight(23, 30);
     let day = app.assessment.legs.len();
     app.update(key(KeyCode::Char('n')));
     assert!(app.assessment.legs.is_empty());
@@ -840,4 +910,49 @@ fn a_form_error_clears_when_its_field_is_edited() {
         "{:?}",
         f.errors
     );
+}
+
+/// A hand-typed magnetic wind is kept in degrees true (the airfield's variation added,
+/// +1° at the demo's XSEA): the Airfields pane marks it T, so the number that differs
+/// from the one typed says why; a METAR's (true by definition) goes unmarked.
+#[test]
+fn a_hand_typed_magnetic_wind_shows_as_true_with_a_t() {
+    let mut app = demo_stepped_to(8);
+    app.update(key(KeyCode::Char('o')));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    type_text(&mut app, "XSEA");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "250");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "10kt");
+    for _ in 0..4 {
+        app.update(key(KeyCode::Tab));
+    }
+    type_text(&mut app, "18c");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "1015hpa");
+    app.update(key(KeyCode::Enter));
+    assert!(
+        matches!(app.ui.mode, Mode::Normal),
+        "the form took it: {:?}",
+        app.notes
+    );
+    for _ in 0..2 {
+        app.update(key(KeyCode::Tab));
+    }
+    let text = board_common::screen(&mut app, 120, 40);
+    let row = |id: &str| {
+        text.lines()
+            .find(|l| l.starts_with(id))
+            .unwrap_or_else(|| panic!("no {id} row:\n{text}"))
+            .to_string()
+    };
+    assert!(row("XSEA").contains(" 251T/10kt "), "{}", row("XSEA"));
+    assert!(!row("XFEN").contains("T/"), "{}", row("XFEN"));
 }

@@ -585,6 +585,49 @@ impl LegResult {
         }
     }
 
+    /// Why the leg has no [`Headroom`] figure, in words: "no data"; or, for a leg
+    /// below for what warming or cooling does not change (the limits the headroom
+    /// search leaves out: every `below` limit but density altitude, a failed mass and
+    /// balance, no usable runway end), "below on crosswind and visibility: warming or
+    /// cooling does not change it". The board's detail and the report print it in
+    /// brackets after `—`.
+    pub fn headroom_absent_why(&self) -> String {
+        match self.state {
+            State::NoData => return "no data".to_string(),
+            State::Below => {}
+            _ => return "not assessed".to_string(),
+        }
+        let mut why: Vec<String> = Vec::new();
+        let mut add = |w: String| {
+            if !why.contains(&w) {
+                why.push(w);
+            }
+        };
+        for l in self.departure.limits.iter().chain(&self.arrival.limits) {
+            if l.state == State::Below && l.kind != LimitKind::DensityAltitude {
+                add(l.kind.word().to_string());
+            }
+        }
+        if self.mass_balance.as_ref().is_some_and(|m| !m.passes()) {
+            add("mass and balance".to_string());
+        }
+        for side in [&self.departure, &self.arrival] {
+            if side.state == State::Below
+                && side.gaps.iter().any(|g| g.contains("no usable runway end"))
+            {
+                add(format!("no usable runway end at {}", side.airfield));
+            }
+        }
+        match why.split_last() {
+            None => "below for reasons warming or cooling does not change".to_string(),
+            Some((last, rest)) if !rest.is_empty() => format!(
+                "below on {} and {last}: warming or cooling does not change it",
+                rest.join(", ")
+            ),
+            Some((last, _)) => format!("below on {last}: warming or cooling does not change it"),
+        }
+    }
+
     /// The side (departure or arrival) of the limiting check.
     pub fn limiting_side(&self) -> Option<&Side> {
         Some(match self.limiting.as_ref()?.at {

@@ -285,6 +285,8 @@ pub struct Replay {
     pub start: DateTime<Utc>,
     /// Simulated time not yet applied (sub-second remainders).
     carry_ms: f64,
+    /// [`Replay::end`].
+    end_at: DateTime<Utc>,
 }
 
 impl Replay {
@@ -292,7 +294,15 @@ impl Replay {
     pub fn new(mut reports: Vec<Report>, start: DateTime<Utc>, speed: f64) -> Replay {
         reports.retain(|r| r.observed_at.is_some() || r.rejection().is_some());
         reports.sort_by_key(|r| r.observed_at);
+        let last = reports
+            .iter()
+            .filter_map(|r| r.observed_at)
+            .max()
+            .map_or(start, |t| t.max(start));
+        let midnight = last.duration_trunc(TimeDelta::days(1)).unwrap_or(last);
+        let end_at = midnight + TimeDelta::days(1) - TimeDelta::minutes(1);
         Replay {
+            end_at,
             queue: reports,
             fed: 0,
             paused: false,
@@ -304,6 +314,13 @@ impl Replay {
             start,
             carry_ms: 0.0,
         }
+    }
+
+    /// Where the replay ends: the last minute (23:59Z) of the UTC day of its last
+    /// report, or of the day it starts on when it has none timed later. The clock
+    /// stops there rather than run on into a day with no reports.
+    pub fn end(&self) -> DateTime<Utc> {
+        self.end_at
     }
 }
 
@@ -920,11 +937,34 @@ impl App {
             Some(_) => {}
             None => self.clock = now + self.settings.live_offset.unwrap_or_default(),
         }
+        self.stop_at_replay_end();
         if self.clock.format("%H%M").to_string() != old.format("%H%M").to_string() {
             self.dirty = true;
         }
         if self.clock != old {
             self.advance();
+        }
+    }
+
+    /// A replay's clock stops (paused) at [`Replay::end`], with a note the first time.
+    fn stop_at_replay_end(&mut self) {
+        let Some(rp) = &mut self.replay else {
+            return;
+        };
+        let end = rp.end();
+        if self.clock < end {
+            return;
+        }
+        let first = !rp.paused || self.clock > end;
+        self.clock = end;
+        rp.paused = true;
+        rp.carry_ms = 0.0;
+        if first {
+            let text = format!(
+                "the replay ends at {}: the last day of its reports is over (p steps back)",
+                end.format("%Y-%m-%d %H%MZ")
+            );
+            self.note(NoteKind::Info, text);
         }
     }
 
@@ -1271,6 +1311,13 @@ impl App {
             Action::Left => self.move_by(0, -1),
             Action::Right => self.move_by(0, 1),
             Action::Pause => match &mut self.replay {
+                Some(rp) if rp.paused && self.clock >= rp.end() => {
+                    let text = format!(
+                        "the replay ended at {}: nothing to run on to (p steps back)",
+                        rp.end().format("%H%MZ")
+                    );
+                    self.note(NoteKind::Info, text);
+                }
                 Some(rp) => rp.paused = !rp.paused,
                 None => self.note(
                     NoteKind::Info,
@@ -1305,6 +1352,7 @@ impl App {
             .unwrap_or(self.clock);
         if forward {
             self.clock = floor + TimeDelta::hours(1);
+            self.stop_at_replay_end();
             self.advance();
             self.rebuild_rows();
         } else {

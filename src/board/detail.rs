@@ -217,10 +217,19 @@ fn mass_opt(kg: Option<f64>, unit: MassUnit) -> String {
 
 /// The payload headroom in the dispatcher's words.
 pub fn payload_words(p: &crate::assess::leg::PayloadHeadroom, unit: MassUnit) -> String {
-    if p.kg >= 0.0 {
-        format!("can take {} more at {}", mass(p.kg, unit), p.station)
+    // Rounded the safe way, as `leg set` does: room down, what must come off up.
+    let (value, word) = match unit {
+        MassUnit::Kg => (p.kg, "kg"),
+        MassUnit::Lb => (crate::units::kg_to_lb(p.kg), "lb"),
+    };
+    if value >= 0.0 {
+        format!("can take {:.0} {word} more at {}", value.floor(), p.station)
     } else {
-        format!("{} must come off at {}", mass(-p.kg, unit), p.station)
+        format!(
+            "{:.0} {word} must come off at {}",
+            (-value).ceil(),
+            p.station
+        )
     }
 }
 
@@ -245,7 +254,12 @@ fn name_lines(text: &str, w: usize) -> Vec<String> {
     let mut lines: Vec<String> = Vec::new();
     let mut cur = String::new();
     for word in text.split_whitespace() {
-        let room = if lines.is_empty() { w } else { w.saturating_sub(2) }.max(4);
+        let room = if lines.is_empty() {
+            w
+        } else {
+            w.saturating_sub(2)
+        }
+        .max(4);
         let need = cur.chars().count() + usize::from(!cur.is_empty()) + word.chars().count();
         if need <= room {
             if !cur.is_empty() {
@@ -259,7 +273,12 @@ fn name_lines(text: &str, w: usize) -> Vec<String> {
         }
         let mut rest: Vec<char> = word.chars().collect();
         loop {
-            let room = if lines.is_empty() { w } else { w.saturating_sub(2) }.max(4);
+            let room = if lines.is_empty() {
+                w
+            } else {
+                w.saturating_sub(2)
+            }
+            .max(4);
             if rest.len() <= room {
                 cur = rest.into_iter().collect();
                 break;
@@ -352,16 +371,20 @@ fn mass_balance(
             MassUnit::Kg => String::new(),
             MassUnit::Lb => format!(" ({:.1} US gal)", l / crate::units::L_PER_USGAL),
         };
+        // Rounded the safe way: the fuel on board down, the reserve it must keep up
+        // (as the limits' rows show them).
+        let (start_l, landing_l) = (
+            (mb.fuel_start_l + 1e-6).floor(),
+            (mb.fuel_landing_l + 1e-6).floor(),
+        );
+        let reserve_l = (mb.fuel_reserve_l - 1e-6).ceil();
         left.push(plain(format!(
-            "  fuel {:.0} L{} at engine start, {:.0} L{} at landing,",
-            mb.fuel_start_l,
+            "  fuel {start_l:.0} L{} at engine start, {landing_l:.0} L{} at landing,",
             gal(mb.fuel_start_l),
-            mb.fuel_landing_l,
             gal(mb.fuel_landing_l),
         )));
         left.push(plain(format!(
-            "       reserve {:.0} L{}",
-            mb.fuel_reserve_l,
+            "       reserve {reserve_l:.0} L{}",
             gal(mb.fuel_reserve_l)
         )));
     }
@@ -549,44 +572,7 @@ fn envelope_drawing(
 /// density altitude, a failed mass and balance, no usable runway end).
 pub fn headroom_words(r: &LegResult, show: Show) -> String {
     match r.headroom {
-        None if r.state == State::NoData => "— (no data)".to_string(),
-        None if r.state == State::Below => {
-            let mut why: Vec<String> = Vec::new();
-            let mut add = |w: String| {
-                if !why.contains(&w) {
-                    why.push(w);
-                }
-            };
-            for l in r.departure.limits.iter().chain(&r.arrival.limits) {
-                if l.state == State::Below
-                    && l.kind != crate::assess::limits::LimitKind::DensityAltitude
-                {
-                    add(l.kind.word().to_string());
-                }
-            }
-            if r.mass_balance.as_ref().is_some_and(|m| !m.passes()) {
-                add("mass and balance".to_string());
-            }
-            for side in [&r.departure, &r.arrival] {
-                if side.state == State::Below
-                    && side.gaps.iter().any(|g| g.contains("no usable runway end"))
-                {
-                    add(format!("no usable runway end at {}", side.airfield));
-                }
-            }
-            if why.is_empty() {
-                "— (below for reasons warming or cooling does not change)".to_string()
-            } else {
-                let list = match why.split_last() {
-                    Some((last, rest)) if !rest.is_empty() => {
-                        format!("{} and {last}", rest.join(", "))
-                    }
-                    _ => why.join(""),
-                };
-                format!("— (below on {list}: warming or cooling does not change it)")
-            }
-        }
-        None => "— (not assessed)".to_string(),
+        None => format!("— ({})", r.headroom_absent_why()),
         Some(h) => h.words_in(
             |d| show.warming_value(d),
             |c| show.temp_value(c),
@@ -866,7 +852,7 @@ fn climb(out: &mut Vec<Line<'static>>, c: &ClimbResult, t: Theme) {
     out.push(indented(
         1,
         format!(
-            "gradient {:.0} ft/min × 60 ÷ {:.0} kt = {:.0} ft/NM",
+            "gradient {:.0} ft/min × 60 ÷ {:.1} kt = {:.0} ft/NM",
             ch.rate_fpm, ch.ground_speed_kt, ch.gradient_ft_per_nm
         ),
     ));
@@ -898,7 +884,37 @@ fn climb(out: &mut Vec<Line<'static>>, c: &ClimbResult, t: Theme) {
 
 #[cfg(test)]
 mod tests {
-    use super::name_lines;
+    use super::{name_lines, payload_words};
+    use crate::assess::leg::PayloadHeadroom;
+    use crate::ops::operator::MassUnit;
+
+    /// Payload rounded the safe way, as `leg set` words it: room down, what must come
+    /// off up (32.8 kg of room is 32 kg; 32.2 kg too many is 33 kg to take off), in
+    /// pounds too (1 kg = 2.204 62 lb, the international pound, exact by definition).
+    #[test]
+    fn payload_is_rounded_the_safe_way() {
+        let p = |kg: f64| PayloadHeadroom {
+            kg,
+            station: "Rear row".into(),
+        };
+        assert_eq!(
+            payload_words(&p(32.8), MassUnit::Kg),
+            "can take 32 kg more at Rear row"
+        );
+        assert_eq!(
+            payload_words(&p(-32.2), MassUnit::Kg),
+            "33 kg must come off at Rear row"
+        );
+        // 10 kg = 22.05 lb: room for 22 lb; 10 kg too many: 23 lb off.
+        assert_eq!(
+            payload_words(&p(10.0), MassUnit::Lb),
+            "can take 22 lb more at Rear row"
+        );
+        assert_eq!(
+            payload_words(&p(-10.0), MassUnit::Lb),
+            "23 lb must come off at Rear row"
+        );
+    }
 
     #[test]
     fn a_long_name_wraps_whole_at_words() {
@@ -906,7 +922,10 @@ mod tests {
         let lines = name_lines(name, 28);
         assert!(lines.len() > 1, "{lines:?}");
         assert!(lines[0].chars().count() <= 28);
-        assert!(lines[1..].iter().all(|l| l.chars().count() <= 26), "{lines:?}");
+        assert!(
+            lines[1..].iter().all(|l| l.chars().count() <= 26),
+            "{lines:?}"
+        );
         assert_eq!(lines.join(" "), name, "nothing lost, nothing cut");
         assert_eq!(name_lines("pilot", 28), ["pilot"]);
         let long = "a".repeat(60);

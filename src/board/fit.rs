@@ -165,6 +165,11 @@ impl Column {
         let head = width(&self.head).min(self.short.map_or(usize::MAX, width));
         (cells.max(head) as u16).max(self.min)
     }
+
+    /// The widest a flexible column grows: its richest cells or its full heading.
+    fn widest(&self) -> u16 {
+        self.natural().max(width(&self.head) as u16)
+    }
 }
 
 /// Which columns show in `w` columns (spacing 1), and each one's width: the flexible
@@ -207,7 +212,7 @@ pub fn plan(cols: &[Column], w: u16) -> Vec<Option<u16>> {
             Some(match c.flex {
                 Some(m) => {
                     let base = m.min(*nat);
-                    (base + w.saturating_sub(fixed)).min(*nat.max(&base))
+                    (base + w.saturating_sub(fixed)).min(c.widest().max(base))
                 }
                 None => *nat,
             })

@@ -132,9 +132,12 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let c = app.assessment.counts();
     // `gap` "" is the sparest form: glyph and count alone (`✓6 ~1 ✗8 ?1`), taken before
     // the newest report gives way; the legs table beside names each glyph's state.
+    // `TIGHT`: one space between counts and the glyph against its word (`✓within 11
+    // ~thin 4`), so that "newest" keeps its word at 80 columns.
+    const TIGHT: &str = "\u{0}";
     let counts = |gap: &str| -> Vec<Span<'static>> {
-        let compact = gap.is_empty();
-        let gap = if compact { " " } else { gap };
+        let (compact, tight) = (gap.is_empty(), gap == TIGHT);
+        let gap = if compact || tight { " " } else { gap };
         let mut spans = Vec::new();
         for (i, (s, n)) in [
             (State::Within, c[0]),
@@ -150,6 +153,8 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             }
             let text = if compact {
                 format!("{}{n}", s.glyph())
+            } else if tight {
+                format!("{}{} {n}", s.glyph(), s.word())
             } else {
                 format!("{} {} {n}", s.glyph(), s.word())
             };
@@ -215,6 +220,7 @@ fn header(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         line(&clock, true, true, "  ", Some(newest(true)), false),
         line(&clock, false, true, "  ", Some(newest(true)), false),
         line(&clock, false, true, " ", Some(newest(true)), false),
+        line(&clock, false, true, TIGHT, Some(newest(true)), false),
         line(&clock, false, true, " ", Some(newest(false)), false),
         line(&clock, false, true, "", Some(newest(false)), false),
         line(&clock, false, false, "", Some(newest(false)), false),
@@ -737,7 +743,16 @@ fn wind_text(r: &Report) -> String {
                     .map_or("—".to_string(), |d| format!("{d:03.0}"))
             };
             let gust = w.gust_kt.map_or(String::new(), |g| format!("G{g:.0}"));
-            format!("{dir}/{:.0}{gust}kt", w.speed_kt)
+            // A hand-typed wind is kept in degrees true (a magnetic entry turned by the
+            // airfield's variation): the T says so, where the number differs from the
+            // one typed. A METAR's wind is true by definition and goes unmarked.
+            let mark =
+                if r.kind == Some(crate::observation::Kind::Manual) && w.direction_deg.is_some() {
+                    "T"
+                } else {
+                    ""
+                };
+            format!("{dir}{mark}/{:.0}{gust}kt", w.speed_kt)
         }
     }
 }
@@ -857,13 +872,18 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             )
         })
         .collect();
-    cols.push(Column::flex(
-        "today",
-        10,
-        rows.iter()
-            .map(|r| vec![Line::from(r[11].clone())])
-            .collect(),
-    ));
+    // "rwy state", not "today": beside "sunset" that read as "sunset today"; "rwy"
+    // where the column is narrower.
+    cols.push(
+        Column::flex(
+            "rwy state",
+            10,
+            rows.iter()
+                .map(|r| vec![Line::from(r[11].clone())])
+                .collect(),
+        )
+        .short("rwy"),
+    );
     fit::table(cols, &styles, t.heading(), area, buf);
 }
 
@@ -1185,7 +1205,7 @@ fn help(app: &App, area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
              {} of warming left before the leg is below (≥: the flight-manual table \
              ends first). a/c: aircraft. A text ending in … is shortened at a word; the \
              detail has it whole. Narrow terminals drop columns (category, forecast, \
-             aircraft, headroom, in that order).",
+             aircraft, headroom, route, in that order).",
             show.temp_unit()
         )),
         Line::from(format!(
