@@ -12,9 +12,14 @@ use rhoboard::commands::{self, Outcome};
 /// manual, the pilot in command and local regulations govern.
 #[derive(Parser, Debug)]
 #[command(name = "rhoboard", version, about, long_about = None)]
+#[command(args_conflicts_with_subcommands = true)]
 struct Cli {
     #[command(subcommand)]
     command: Option<Command>,
+    /// With no command, the board's own options open the board (`rhoboard --at …` is
+    /// `rhoboard board --at …`).
+    #[command(flatten)]
+    board: commands::board::Args,
 }
 
 #[derive(Subcommand, Debug)]
@@ -48,10 +53,11 @@ enum Command {
 fn main() -> ExitCode {
     let cli = Cli::parse();
     // The board owns the terminal; with no subcommand it opens only on a terminal, and
-    // piped output keeps the printed overview.
+    // piped output keeps the printed overview (unless a board option asks for the board,
+    // which then says it needs a terminal).
     let board = match &cli.command {
         Some(Command::Board(args)) => Some(args.clone()),
-        None if std::io::stdout().is_terminal() => Some(commands::board::Args::default()),
+        None if std::io::stdout().is_terminal() || cli.board.given() => Some(cli.board.clone()),
         _ => None,
     };
     if let Some(args) = board {

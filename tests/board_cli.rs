@@ -27,6 +27,41 @@ fn bad_board_arguments_are_named() {
     assert!(err.contains("/nonexistent/rhoboard-ops"), "{err}");
 }
 
+/// The board's options work without the word `board`: `rhoboard --speed 0` is the
+/// board's own range check, `rhoboard --at …` off a terminal the board's "needs a
+/// terminal", never the overview that ignores the option; bare `rhoboard` piped still
+/// prints the overview.
+#[test]
+fn board_options_without_the_command_mean_the_board() {
+    let run = |args: &[&str]| {
+        let out = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+            .args(args)
+            .output()
+            .expect("runs");
+        (
+            out.status.code(),
+            String::from_utf8_lossy(&out.stdout).into_owned(),
+            String::from_utf8_lossy(&out.stderr).into_owned(),
+        )
+    };
+    let (code, _, err) = run(&["--speed", "0"]);
+    assert_eq!(code, Some(2));
+    assert!(
+        err.contains("--speed 0: expected a pace between 0.1 and 1000"),
+        "{err}"
+    );
+    let (code, out, err) = run(&["--at", "2026-06-14T11:00:00Z"]);
+    assert_eq!(code, Some(2), "{out}");
+    assert!(err.contains("the board needs a terminal"), "{err}");
+    let (code, out, _) = run(&[]);
+    assert_eq!(code, Some(0));
+    assert!(out.starts_with("rhoboard "), "{out}");
+    // A board option with a command is refused by name.
+    let (code, _, err) = run(&["--bell", "check"]);
+    assert_eq!(code, Some(2));
+    assert!(err.contains("--bell"), "{err}");
+}
+
 fn demo_folder(tag: &str) -> std::path::PathBuf {
     let dir = std::env::temp_dir().join(format!("rhoboard-board-ops-{tag}-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&dir);

@@ -41,6 +41,20 @@ pub struct Args {
     pub bell: bool,
 }
 
+impl Args {
+    /// Whether any option was given (a bare `rhoboard` with none prints the overview
+    /// when its output is not a terminal; with one it means the board).
+    pub fn given(&self) -> bool {
+        self.ops.is_some()
+            || self.replay.is_some()
+            || self.speed.is_some()
+            || self.at.is_some()
+            || self.feed_cmd.is_some()
+            || self.bell
+            || !matches!(self.feed_every.as_str(), "" | "10m")
+    }
+}
+
 /// A date `YYYY-MM-DD` inside a file name, if any.
 fn date_in_name(p: &std::path::Path) -> Option<NaiveDate> {
     let name = p.file_name()?.to_string_lossy().into_owned();
