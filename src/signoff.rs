@@ -647,9 +647,13 @@ pub fn recheck(signed: &Record, now: &LegResult, policy: &SignOffPolicy) -> Fres
         ) {
             let rise = n - b;
             if rise > policy.recheck_density_altitude_rise_ft {
+                // Each figure rounded up, as the limits' rows show density altitude.
+                let (bs, ns) = (crate::units::up0(b), crate::units::up0(n));
                 why.push(format!(
-                    "{end} {} density altitude rose {rise:.0} ft ({b:.0} → {n:.0} ft; step {:.0} ft)",
-                    side.airfield, policy.recheck_density_altitude_rise_ft
+                    "{end} {} density altitude rose {:.0} ft ({bs:.0} → {ns:.0} ft; step {:.0} ft)",
+                    side.airfield,
+                    ns - bs,
+                    policy.recheck_density_altitude_rise_ft
                 ));
             }
         }

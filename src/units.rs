@@ -105,6 +105,22 @@ pub const fn mps_to_kt(mps: f64) -> f64 {
     mps / MPS_PER_KT
 }
 
+/// `x` rounded up to whole units, the way a quantity is shown where more is worse
+/// (density altitude, a mass against its maximum, a distance needed): as the limits'
+/// rows show it ([`LimitCheck::shown`]), so one quantity reads the same on every line.
+/// A hair of slack keeps an exact figure from moving a step.
+///
+/// [`LimitCheck::shown`]: crate::assess::limits::LimitCheck::shown
+pub fn up0(x: f64) -> f64 {
+    (x - 1e-9).ceil() + 0.0
+}
+
+/// `x` rounded down to whole units, where less is worse (fuel on board, a headwind):
+/// the counterpart of [`up0`].
+pub fn down0(x: f64) -> f64 {
+    (x + 1e-9).floor() + 0.0
+}
+
 /// What kind of quantity a typed value was expected to be.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Kind {

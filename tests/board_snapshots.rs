@@ -961,3 +961,113 @@ fn the_fuel_line_and_the_reserve_row_agree() {
     }
     assert!(compared >= 10, "{compared} legs compared");
 }
+
+/// One margin everywhere (trial finding: the detail's takeoff check said -6 % where
+/// the legs table and `check` said -7 %; a pairing cell -8 kt where its chain and
+/// `check --pairings` said -9 kt): a distance check's line in the detail ends in the
+/// limiting margin, and every pairing cell's margin is `check`'s, rounded down.
+#[test]
+fn the_detail_the_pairings_and_check_give_one_margin() {
+    use rhoboard::assess::leg::LimitingAt;
+    use rhoboard::board::display::Show;
+    let mut compared = (0, 0);
+    for hour in [8, 13, 14, 15] {
+        let app = demo_stepped_to(hour);
+        for r in &app.assessment.legs {
+            let Some(l) = &r.limiting else { continue };
+            if !matches!(l.at, LimitingAt::Takeoff(_) | LimitingAt::Landing(_)) {
+                continue;
+            }
+            let text: Vec<String> = rhoboard::board::detail::lines(
+                &app.ops,
+                r,
+                None,
+                rhoboard::board::theme::Theme { color: false },
+                200,
+            )
+            .iter()
+            .map(|l| l.to_string())
+            .collect();
+            // "… 1171 m needed of 1100 m → -7 %  ✗ below"
+            let arrow = format!("→ {}  ", l.margin);
+            assert!(
+                text.iter()
+                    .any(|t| t.contains("needed of") && t.contains(&arrow)),
+                "{hour}Z {}: no line ends in {arrow:?}:\n{}",
+                r.id,
+                text.join("\n")
+            );
+            compared.0 += 1;
+        }
+        let show = Show::of(&app.ops);
+        for c in app.assessment.matrix.cells() {
+            let board = rhoboard::board::view::pair_margin(c, show)
+                .map(|(m, unit, _)| {
+                    let sep = if unit.is_empty() { "" } else { " " };
+                    format!("{m:+.0}{sep}{unit}")
+                })
+                .unwrap_or_else(|| "—".to_string());
+            assert_eq!(board, rhoboard::commands::check::pair_margin_text(c));
+            compared.1 += 1;
+        }
+    }
+    assert!(compared.0 >= 8 && compared.1 >= 100, "{compared:?}");
+}
+
+/// One quantity reads the same on every line (trial finding: a detail's air said
+/// density altitude 8336 ft and its limit row 8337 ft; "Mass: takeoff 1466 kg" beside
+/// "takeoff mass 1467 kg"): each is rounded up on every line, as the limits' rows round
+/// a value against a maximum.
+#[test]
+fn density_altitude_and_mass_read_the_same_on_every_line() {
+    let number_before = |line: &str, word: &str| -> Option<i64> {
+        let at = line.find(word)?;
+        line[..at].split_whitespace().last()?.parse().ok()
+    };
+    let mut compared = 0;
+    for hour in [8, 13, 15] {
+        let app = demo_stepped_to(hour);
+        for r in &app.assessment.legs {
+            let text: Vec<String> = rhoboard::board::detail::lines(
+                &app.ops,
+                r,
+                None,
+                rhoboard::board::theme::Theme { color: false },
+                200,
+            )
+            .iter()
+            .map(|l| l.to_string())
+            .collect();
+            let air: Vec<i64> = text
+                .iter()
+                .filter(|l| l.contains("(cross-check"))
+                .filter_map(|l| number_before(l, "ft (cross-check"))
+                .collect();
+            for row in text.iter().filter(|l| {
+                l.trim_start().starts_with("density altitude ") && l.contains(" limit ")
+            }) {
+                let v = number_before(row, "ft limit").expect("a value");
+                assert!(
+                    air.contains(&v),
+                    "{hour}Z {}: {row} vs the air {air:?}",
+                    r.id
+                );
+                compared += 1;
+            }
+            let head = text
+                .iter()
+                .find(|l| l.starts_with("Mass: takeoff"))
+                .unwrap();
+            let takeoff = number_before(head, "kg, landing").expect("takeoff mass");
+            if let Some(row) = text
+                .iter()
+                .find(|l| l.trim_start().starts_with("takeoff mass ") && l.contains(" limit "))
+            {
+                let v = number_before(row, "kg limit").expect("a value");
+                assert_eq!(takeoff, v, "{hour}Z {}: {head} vs {row}", r.id);
+                compared += 1;
+            }
+        }
+    }
+    assert!(compared >= 20, "{compared} compared");
+}

@@ -410,3 +410,23 @@ fn a_mistyped_temperature_group_is_quoted_with_its_column() {
     );
     assert!(r.usable_for_performance(), "{:?}", r.errors);
 }
+
+/// A dew point above the temperature cannot be (saturation vapour pressure caps it:
+/// WMO No. 8, Guide to Instruments and Methods of Observation, the dew point is the
+/// temperature at which the air is saturated, so at most the air's temperature): the
+/// report is unusable, with the group named; equal (fog) is fine.
+#[test]
+fn a_dew_point_above_the_temperature_is_refused() {
+    let at = utc(2026, 6, 14, 13, 30);
+    let r = decode("METAR XSEA 141300Z 25016KT 9999 30/35 Q1012", at);
+    let why = r.rejection().expect("refused");
+    assert!(why.contains("'30/35' at column 33"), "{why}");
+    assert!(
+        why.contains("dew point 35 °C above the temperature 30 °C"),
+        "{why}"
+    );
+    let r = decode("METAR XSEA 140600Z 00000KT 0200 FG VV001 12/12 Q1012", at);
+    assert!(r.rejection().is_none(), "{:?}", r.rejection());
+    let r = decode("METAR XSEA 140600Z 00000KT 9999 NSC M05/M03 Q1012", at);
+    assert!(r.rejection().is_some(), "-3 °C dew point above -5 °C");
+}

@@ -23,9 +23,11 @@ fn state_span(t: Theme, s: State) -> Span<'static> {
     Span::styled(format!("{} {}", s.glyph(), s.word()), t.state(s))
 }
 
+/// A margin as a whole percent, rounded down as the legs table and `check` show it
+/// (`-6.4 %` is `-7 %`: never larger than it is).
 fn pct(margin: f64) -> String {
     if margin.is_finite() {
-        format!("{:+.0} %", margin * 100.0)
+        crate::assess::leg::percent_text(margin)
     } else {
         "—".to_string()
     }
@@ -164,8 +166,9 @@ pub fn lines(
     let unit = ops.operator.display_units.mass;
     out.push(plain(format!(
         "Mass: takeoff {}, landing {}{}",
-        mass_opt(r.takeoff_mass_kg, unit),
-        mass_opt(r.landing_mass_kg, unit),
+        // Rounded up, as the mass limits' rows show them.
+        mass_opt(r.takeoff_mass_kg.map(crate::units::up0), unit),
+        mass_opt(r.landing_mass_kg.map(crate::units::up0), unit),
         match &r.payload_headroom {
             Some(p) => format!("   Payload: {}", payload_words(p, unit)),
             None => String::new(),
@@ -652,7 +655,11 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, show: Show, t: Theme
         out.push(Line::from(vec![
             Span::raw("     "),
             Span::styled(
-                format!("density altitude {:.0} ft", a.density_altitude_ft),
+                // Rounded up, as the density-altitude limit's row shows it.
+                format!(
+                    "density altitude {:.0} ft",
+                    crate::units::up0(a.density_altitude_ft)
+                ),
                 t.heading(),
             ),
             Span::styled(

@@ -287,7 +287,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             e.airfield,
             e.runway.clone().unwrap_or_else(|| "—".into()),
             opt(e.pressure_altitude_ft, " ft"),
-            opt(e.density_altitude_ft, " ft"),
+            opt(e.density_altitude_ft.map(crate::units::up0), " ft"),
             e.oat_c.map_or("—".to_string(), |c| show.temp(c)),
             opt(e.headwind_kt, " kt"),
             opt(e.crosswind_kt, " kt"),
@@ -316,8 +316,10 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
                 c.rule,
                 show.dist(c.required_m),
                 show.dist(c.available_m),
-                c.margin_percent
-                    .map_or("—".into(), |m| format!("{m:+.0} %"))
+                // Rounded down, as the legs table shows it (-6.4 % is -7 %).
+                c.margin_percent.map_or("—".into(), |m| {
+                    crate::assess::leg::percent_text(m / 100.0)
+                })
             )));
         }
         if let Some(c) = &e.climb {

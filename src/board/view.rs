@@ -594,14 +594,17 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
 
 /// A pairing's margin in the display unit, with its unit: the limiting check's, or
 /// the deciding weather minimum's (`+200ft` of ceiling), `None` where there is none.
-pub(super) fn pair_margin(c: &PairCell, show: Show) -> Option<(f64, &'static str, usize)> {
+pub fn pair_margin(c: &PairCell, show: Show) -> Option<(f64, &'static str, usize)> {
     let m = c.margin()?;
     let vis = c
         .minimum
         .is_some_and(|w| c.limiting == PairLimit::Weather && w.kind == LimitKind::Visibility);
     let (m, unit) = show.limit_value(m, c.margin_unit(), vis);
     let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
-    Some((m, unit, d))
+    // Rounded down to the digits shown, as `check` and the legs table show margins:
+    // never larger than it is (-8.4 kt is -9 kt). `+ 0.0`: never "-0".
+    let p = 10f64.powi(d as i32);
+    Some(((m * p + 1e-9).floor() / p + 0.0, unit, d))
 }
 
 /// A pairing's headroom, marked as a bound where the tables end first (`≥+8.0 °C`,
@@ -799,7 +802,9 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                         if v.stale { " STALE" } else { "" }
                     ),
                     v.report.temperature_c.map_or_else(dash, |c| show.temp0(c)),
-                    wx.map_or_else(dash, |w| format!("{:.0} ft", w.air.density_altitude_ft)),
+                    wx.map_or_else(dash, |w| {
+                        format!("{:.0} ft", crate::units::up0(w.air.density_altitude_ft))
+                    }),
                     wind_text(v.report),
                 )
             }

@@ -880,6 +880,17 @@ impl<'a> Decoder<'a> {
         if dv.is_none() {
             return Parsed::Bad("dew point not reported".into());
         }
+        // Air holds no more water than saturation: the dew point is at most the
+        // temperature (equal in fog). Above it, one of the two is wrong, and the
+        // density computed from them would be too.
+        if let (Some(t), Some(d)) = (t, dv)
+            && d > t
+        {
+            return Parsed::Bad(format!(
+                "dew point {d} °C above the temperature {t} °C (a dew point is at most the \
+                 temperature): one of them is wrong"
+            ));
+        }
         Parsed::Ok(1)
     }
 
