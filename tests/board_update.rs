@@ -956,3 +956,49 @@ fn a_hand_typed_magnetic_wind_shows_as_true_with_a_t() {
     assert!(row("XSEA").contains(" 251T/10kt "), "{}", row("XSEA"));
     assert!(!row("XFEN").contains("T/"), "{}", row("XFEN"));
 }
+
+/// Stepping back (trial finding): the changes listed after the new time go (L12's 14Z
+/// "now below" is not known at 13Z; it is listed again when the clock passes 14Z), and
+/// a run of steps back leaves one note, not eleven.
+#[test]
+fn stepping_back_forgets_the_later_changes_and_notes_once() {
+    let mut app = demo_stepped_to(14);
+    let l12_below = |app: &rhoboard::board::App| {
+        app.notes.iter().any(|n| {
+            matches!(n.kind, NoteKind::Change(_))
+                && n.text.contains("L12 now ✗ below")
+                && n.at == demo_time(14, 0)
+        })
+    };
+    assert!(l12_below(&app));
+    app.update(key(KeyCode::Char('p')));
+    assert_eq!(app.clock, demo_time(13, 0));
+    assert!(!l12_below(&app), "a 14Z change listed at 13Z");
+    assert!(
+        app.notes
+            .iter()
+            .all(|n| n.at <= app.clock || !matches!(n.kind, NoteKind::Change(_)))
+    );
+    for _ in 0..5 {
+        app.update(key(KeyCode::Char('p')));
+    }
+    assert_eq!(app.clock, demo_time(8, 0));
+    let steps = app
+        .notes
+        .iter()
+        .filter(|n| n.text.starts_with("stepped back to"))
+        .count();
+    assert_eq!(steps, 1);
+    assert!(
+        app.notes
+            .front()
+            .unwrap()
+            .text
+            .starts_with("stepped back to 0800Z")
+    );
+    app.update(key(KeyCode::Char('n')));
+    for _ in 9..14 {
+        app.update(key(KeyCode::Char('n')));
+    }
+    assert!(l12_below(&app), "listed again when the clock passes 14Z");
+}

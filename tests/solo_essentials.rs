@@ -133,6 +133,12 @@ fn a_closed_end_leaving_only_a_tailwind_end() {
     assert_ne!(open.state, State::Below);
     let closed = run(&ops, &day, &reports, at(6, 30), &l);
     assert_eq!(closed.departure.runway.as_deref(), Some("09"));
+    // Not "most headwind": the wind did not choose 09 (trial finding).
+    assert_eq!(
+        closed.departure.runway_reason,
+        "the only usable end: 27 is closed"
+    );
+    assert_eq!(open.departure.runway_reason, "most headwind");
     let t = limit(&closed, LimitKind::Tailwind);
     assert!(t.iter().any(|c| c.state == State::Below), "{t:?}");
     assert_eq!(closed.state, State::Below);

@@ -1231,6 +1231,23 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
                 })
                 .map(|k| (k, "most headwind".to_string()))
         };
+        // With the other ends closed, the wind did not choose: say so.
+        let choice = choice.map(|(k, why)| {
+            if usable.len() == 1 && options.len() > 1 && set.is_none() {
+                let closed: Vec<&str> = options
+                    .iter()
+                    .filter(|(o, _)| !o.usable)
+                    .map(|(o, _)| o.designator.as_str())
+                    .collect();
+                let verb = if closed.len() == 1 { "is" } else { "are" };
+                (
+                    k,
+                    format!("the only usable end: {} {verb} closed", closed.join(", ")),
+                )
+            } else {
+                (k, why)
+            }
+        });
         let Some((k, why_end)) = choice else {
             let why = format!("{role} {}: no usable runway end", side_in.field.id);
             side.gaps.push(why.clone());

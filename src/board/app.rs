@@ -270,6 +270,9 @@ pub struct Received {
     pub rejected: Option<String>,
 }
 
+/// How the note of a replay step back starts.
+const STEPPED_BACK: &str = "stepped back to";
+
 /// The replay of a day on a simulated clock.
 #[derive(Debug, Clone)]
 pub struct Replay {
@@ -1365,8 +1368,20 @@ impl App {
             self.clock = back;
             self.rebuild_store();
             self.rebuild_rows();
+            // The changes the replay listed after the new time are not known yet (they
+            // come back as the clock passes them again), and one step-back note stands
+            // for a run of them.
+            self.notes
+                .retain(|n| !(matches!(n.kind, NoteKind::Change(_)) && n.at > back));
+            if self
+                .notes
+                .front()
+                .is_some_and(|n| n.kind == NoteKind::Info && n.text.starts_with(STEPPED_BACK))
+            {
+                self.notes.pop_front();
+            }
             let text = format!(
-                "stepped back to {}: reports after it are not known yet",
+                "{STEPPED_BACK} {}: reports after it are not known yet",
                 self.clock.format("%H%MZ")
             );
             self.note(NoteKind::Info, text);
