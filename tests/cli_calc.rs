@@ -262,3 +262,31 @@ fn thousands_separators_and_one_dry_air_line() {
     assert_eq!(code, 2);
     assert!(stderr.contains("'5,90ft'"), "{stderr}");
 }
+
+/// The README's `calc` sample is the program's output, byte for byte (trial finding:
+/// the sample had lost its closing lines).
+#[test]
+fn the_readme_sample_is_the_output() {
+    let readme =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/README.md")).expect("README");
+    let at = readme.find("## `rhoboard calc`").expect("the calc section");
+    let sample = readme[at..]
+        .split("```\n")
+        .nth(2)
+        .expect("the output block");
+    let out = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args([
+            "calc",
+            "--elevation",
+            "5900ft",
+            "--altimeter",
+            "30.12inHg",
+            "--temp",
+            "31C",
+            "--dewpoint",
+            "8C",
+        ])
+        .output()
+        .expect("runs");
+    assert_eq!(String::from_utf8_lossy(&out.stdout), sample);
+}

@@ -308,7 +308,8 @@ fn write_human(c: &CalcJson, out: &mut dyn Write) -> std::io::Result<()> {
         );
     }
     for (name, value, note) in rows {
-        writeln!(out, "  {name:<22}{value:>14}   {note}")?;
+        let line = format!("  {name:<22}{value:>14}   {note}");
+        writeln!(out, "{}", line.trim_end())?;
     }
     writeln!(out)?;
     writeln!(out, "{}", meaning(c))?;
