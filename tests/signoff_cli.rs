@@ -198,7 +198,7 @@ fn a_student_solo_with_a_lapsed_endorsement_cannot_be_signed_even_with_an_overri
     assert_eq!(o.status.code(), Some(1), "{}", text(&o));
     assert!(
         text(&o).contains(
-            "student solo cannot be signed — solo endorsement for ft2 of 2026-03-10 has lapsed"
+            "student solo cannot be signed — solo endorsement for type ft2 of 2026-03-10 has lapsed"
         ),
         "{}",
         text(&o)

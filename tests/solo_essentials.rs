@@ -338,6 +338,19 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     let (code, _, err) = cmd(&["runway", "XSEA", "99", "--closed", "--ops", d]);
     assert_eq!(code, 2);
     assert!(err.contains("has no runway end '99'"), "{err}");
+    // Without --date the state is today's: a folder whose legs are on another day is
+    // told so (trial finding: a closure silently missed the folder's day).
+    let (code, out, err) = cmd(&["runway", "XSEA", "09", "--ops", d]);
+    assert_eq!(code, 0, "{err}");
+    assert!(out.contains("as declared"), "{out}");
+    if chrono::Utc::now().date_naive().to_string() != "2026-06-14" {
+        assert!(
+            err.contains(
+                "this folder has no legs that day. Its legs are on 2026-06-14: --date 2026-06-14"
+            ),
+            "{err}"
+        );
+    }
     let (code, out, _) = cmd(&["validate", "--ops", d]);
     assert_eq!(code, 0, "{out}");
     let (_, out, _) = cmd(&[
@@ -430,7 +443,7 @@ fn a_student_solo_into_the_night_needs_the_night_endorsement() {
         .unwrap_or_else(|| panic!("{:?}", r.reasons));
     for want in [
         pilot.name.as_str(),
-        "no night solo endorsement for ft2",
+        "no night solo endorsement for type ft2",
         "2040Z–2130Z",
         "to 2130Z",
     ] {

@@ -185,10 +185,11 @@ impl LimitCheck {
         // it) is not moved one step.
         let down = |x: f64| ((x * p) + 1e-9).floor() / p;
         let up = |x: f64| ((x * p) - 1e-9).ceil() / p;
+        // `+ 0.0` turns a −0 into 0: no "tailwind -0 kt".
         let shown = |value: Option<f64>, limit: Option<f64>, margin: Option<f64>| Shown {
-            value,
-            limit,
-            margin,
+            value: value.map(|v| v + 0.0),
+            limit: limit.map(|l| l + 0.0),
+            margin: margin.map(|m| m + 0.0),
             decimals,
         };
         let Some(m) = margin else {
@@ -567,7 +568,7 @@ pub fn night_limits(
             true,
             source,
             format!(
-                "{who_name} holds a night solo endorsement for {type_id} of {}; {when}",
+                "{who_name} holds a night solo endorsement for type {type_id} of {}; {when}",
                 e.date
             ),
         ),
@@ -579,10 +580,10 @@ pub fn night_limits(
                 source,
                 match (lapsed, days) {
                     (Some(d), Some(n)) => format!(
-                        "{who_name}'s night solo endorsement for {type_id} of {d} has lapsed ({n}-day validity); {when}"
+                        "{who_name}'s night solo endorsement for type {type_id} of {d} has lapsed ({n}-day validity); {when}"
                     ),
                     _ => format!(
-                        "{who_name} has no night solo endorsement for {type_id}; {when}"
+                        "{who_name} has no night solo endorsement for type {type_id}; {when}"
                     ),
                 },
             )
@@ -777,6 +778,7 @@ pub fn field_limits_to<S: LimitSink>(
             lim.and_then(|l| l.max_gust_kt),
             true,
         );
+        // With no gust reported, the steady wind stands for it (and says so).
         let gust = w.gust_kt.unwrap_or(w.speed_kt);
         out.put(
             max_check(
@@ -787,7 +789,12 @@ pub fn field_limits_to<S: LimitSink>(
                 b.wind_kt,
                 String::new(),
             ),
-            |c| c.source = src.text(who),
+            |c| {
+                c.source = src.text(who);
+                if w.gust_kt.is_none() {
+                    c.subject = "(none reported: the steady wind)".to_string();
+                }
+            },
         );
         out.put(
             max_check(
@@ -993,7 +1000,7 @@ pub fn pilot_limits(
                     true,
                     src,
                     format!(
-                        "solo endorsement for {type_id} of {} ({left} days left)",
+                        "solo endorsement for type {type_id} of {} ({left} days left)",
                         e.date
                     ),
                 );
@@ -1015,9 +1022,9 @@ pub fn pilot_limits(
                     src,
                     match last {
                         Some(d) => format!(
-                            "solo endorsement for {type_id} of {d} has lapsed ({days}-day validity)"
+                            "solo endorsement for type {type_id} of {d} has lapsed ({days}-day validity)"
                         ),
-                        None => format!("no solo endorsement for {type_id}"),
+                        None => format!("no solo endorsement for type {type_id}"),
                     },
                 )
             }
@@ -1040,9 +1047,9 @@ pub fn pilot_limits(
                 "operator: solo cross-country endorsement".to_string()
             },
             if ok {
-                format!("cross-country endorsement for {type_id}")
+                format!("cross-country endorsement for type {type_id}")
             } else {
-                format!("{from} to {to} is a cross-country flight and there is no cross-country endorsement for {type_id}")
+                format!("{from} to {to} is a cross-country flight and there is no cross-country endorsement for type {type_id}")
             },
         ));
     }

@@ -52,7 +52,7 @@ pub const FIELDS: [FieldSpec; 11] = [
     },
     FieldSpec {
         label: "visibility",
-        hint: "8km, 5sm, 1500m (empty: unknown)",
+        hint: "8km, 5sm, 1500m, 9999 (empty: unknown)",
         error_name: "visibility",
     },
     FieldSpec {

@@ -322,6 +322,29 @@ pub fn write_atomically(path: &Path, text: &str) -> anyhow::Result<()> {
 }
 
 /// Runs `rhoboard runway`.
+/// Without `--date` the state is today's: where the folder has no legs today but has
+/// some on other days (a folder planned ahead, or the demo's day), say so, so that a
+/// closure does not silently miss the day it was meant for.
+fn warn_if_no_legs_that_day(ops: &crate::ops::Ops, date: NaiveDate) {
+    let mut days: Vec<NaiveDate> = ops
+        .legs
+        .iter()
+        .map(|l| l.departs_utc().date_naive())
+        .collect();
+    days.sort_unstable();
+    days.dedup();
+    if days.is_empty() || days.contains(&date) {
+        return;
+    }
+    let list: Vec<String> = days.iter().take(3).map(ToString::to_string).collect();
+    let more = if days.len() > 3 { ", …" } else { "" };
+    eprintln!(
+        "rhoboard: note: dated today, {date} (UTC); this folder has no legs that day. Its legs are on {}{more}: --date {} for that day.",
+        list.join(", "),
+        days[0]
+    );
+}
+
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let choice = config::choose(args.ops.as_deref(), config::config_file().as_deref());
     let dir = match &choice {
@@ -355,6 +378,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         by: args.by.clone().unwrap_or_default(),
     };
     let entry = entry(&ops, &args.field, &args.end, date, &req, Names::Flags)?;
+    if args.date.is_none() {
+        warn_if_no_legs_that_day(&ops, date);
+    }
     let (field, end) = (entry.airfield.clone(), entry.end.clone());
     let state = if changes_something(&entry) {
         let (path, state) = append_entry(&dir, date, entry)?;

@@ -189,6 +189,13 @@ pub fn manual_observation(
 
     // Visibility and ceiling.
     let visibility = match &input.visibility {
+        // As in a METAR's visibility group (WMO No. 306, FM 15): 9999 is 10 km or more,
+        // the one bare number a reader of reports types naturally.
+        Some(v) if v.trim() == "9999" => Some(Visibility {
+            prevailing_m: 10_000.0,
+            bound: Bound::AtLeast,
+            ..Visibility::default()
+        }),
         Some(v) if !v.trim().is_empty() => match parse_length(v) {
             Ok(l) if (0.0..=100_000.0).contains(&l.m()) => Some(Visibility {
                 prevailing_m: l.m(),
@@ -398,6 +405,19 @@ mod tests {
                 .direction_deg,
             Some(350.0)
         );
+    }
+
+    /// 9999 reads as in a METAR's visibility group (WMO No. 306, FM 15): 10 km or
+    /// more, a bound; any other bare number still needs its unit.
+    #[test]
+    fn visibility_9999_is_ten_km_or_more() {
+        let mut f = form();
+        f.visibility = Some("9999".into());
+        let v = manual_observation(&f, 0.0).unwrap().visibility.unwrap();
+        assert_eq!(v.prevailing_m, 10_000.0);
+        assert_eq!(v.bound, Bound::AtLeast);
+        f.visibility = Some("8000".into());
+        assert!(manual_observation(&f, 0.0).is_err());
     }
 
     #[test]
