@@ -53,6 +53,14 @@ fn an_unknown_leg_lists_the_days_leg_ids() {
         out.contains("leg 'L99': no such leg (the legs of 2026-06-14:"),
         "{out}"
     );
+    // Ids are matched exactly; one in another case is named (trial finding: `l16` got
+    // the list but no hint, and the nearest by spelling alone was L06).
+    let (code, out) = rhoboard(home.path(), &["check", "--leg", "l16"]);
+    assert_eq!(code, 2);
+    assert!(
+        out.contains("--leg 'l16': no such leg; did you mean L16? (the legs of"),
+        "{out}"
+    );
 }
 
 #[test]

@@ -148,7 +148,17 @@ pub fn unknown_leg(ops: &Ops, id: &str, at: DateTime<Utc>) -> String {
     if ids.is_empty() {
         return format!("leg '{id}': no such leg; the operator has no legs");
     }
-    format!("leg '{id}': no such leg ({whose}: {})", ids.join(", "))
+    // Only an id in another case is named: leg ids are short, and a near spelling
+    // (L99 → L09) is more likely another leg than the one meant.
+    let hint = ops
+        .legs
+        .iter()
+        .find(|l| l.id.eq_ignore_ascii_case(id))
+        .map_or(String::new(), |l| format!("; did you mean {}?", l.id));
+    format!(
+        "leg '{id}': no such leg{hint} ({whose}: {})",
+        ids.join(", ")
+    )
 }
 
 /// "unknown airfield", with "did you mean" when an airfield id is close.

@@ -933,7 +933,10 @@ pub fn did_you_mean<'a>(word: &str, known: impl IntoIterator<Item = &'a str>) ->
     known
         .into_iter()
         .map(|k| (strsim::osa_distance(&w, &k.to_uppercase()), k))
-        .filter(|&(d, k)| d > 0 && d <= if w.len() <= 4 { 1 } else { 2 } && d < k.len())
+        // A match in another case (`l16` for `L16`) comes first, at distance 0.
+        .filter(|&(d, k)| {
+            (d > 0 || k != word) && d <= if w.len() <= 4 { 1 } else { 2 } && d < k.len()
+        })
         .min_by_key(|&(d, _)| d)
         .map(|(_, k)| k)
 }
