@@ -86,43 +86,69 @@ impl Show {
     }
 
     /// `text` (a sentence from the assessment) with each `<number> m`, `kg`, `hPa` and
-    /// `°C` in the display units; metres are statute miles in a sentence about
-    /// visibility (with distances in ft).
+    /// `°C` in the display units, and `mm` as inches with masses in lb; metres are
+    /// statute miles in a sentence about visibility (with distances in ft). In a range
+    /// (`590 to 1600 kg`) the first figure converts with the second.
     pub fn in_text(self, text: &str) -> String {
+        const TRIM: [char; 5] = [',', ';', ':', ')', '.'];
         let visibility = text.contains("visibility");
+        let convert = |v: f64, unit: &str| -> Option<String> {
+            Some(match unit {
+                "m" if visibility && self.0.distance == DistanceUnit::Ft => {
+                    format!("{:.1} SM", units::m_to_sm(v))
+                }
+                "m" => self.dist(v),
+                "kg" => self.mass(v),
+                "mm" if self.0.mass == MassUnit::Lb => {
+                    let (inches, unit) = self.limit_value(v, "mm", false);
+                    format!("{inches:.1} {unit}")
+                }
+                "hPa" => self.pressure(v),
+                "°C" => self.temp0(v),
+                _ => return None,
+            })
+        };
+        // Whether `unit` changes in the display units (a range's first figure is left
+        // alone where it does not).
+        let changes = |unit: &str| match unit {
+            "m" => self.0.distance == DistanceUnit::Ft,
+            "kg" | "mm" => self.0.mass == MassUnit::Lb,
+            "hPa" => self.0.pressure == PressureUnit::InHg,
+            "°C" => self.0.temperature == TemperatureUnit::F,
+            _ => false,
+        };
         let words: Vec<&str> = text.split(' ').collect();
         let mut out: Vec<String> = Vec::with_capacity(words.len());
         let mut i = 0;
         while i < words.len() {
             let w = words[i];
             let next = words.get(i + 1).copied().unwrap_or("");
-            let unit = next.trim_end_matches([',', ';', ':', ')', '.']);
+            let unit = next.trim_end_matches(TRIM);
             let tail = &next[unit.len()..];
             let (pre, num) = w.split_at(w.len() - w.trim_start_matches('(').len());
             let plus = if num.starts_with('+') { "+" } else { "" };
-            let converted = num.parse::<f64>().ok().and_then(|v| {
-                let shown = match unit {
-                    "m" if visibility && self.0.distance == DistanceUnit::Ft => {
-                        format!("{:.1} SM", units::m_to_sm(v))
-                    }
-                    "m" => self.dist(v),
-                    "kg" => self.mass(v),
-                    "hPa" => self.pressure(v),
-                    "°C" => self.temp0(v),
-                    _ => return None,
-                };
-                Some(format!("{pre}{plus}{shown}{tail}"))
-            });
-            match converted {
-                Some(c) => {
-                    out.push(c);
-                    i += 2;
-                }
-                None => {
-                    out.push(w.to_string());
-                    i += 1;
-                }
+            let value = num.parse::<f64>().ok();
+            if let Some(shown) = value.and_then(|v| convert(v, unit)) {
+                out.push(format!("{pre}{plus}{shown}{tail}"));
+                i += 2;
+                continue;
             }
+            let range_unit = words
+                .get(i + 3)
+                .map(|u| u.trim_end_matches(TRIM))
+                .filter(|u| {
+                    next == "to"
+                        && changes(u)
+                        && words.get(i + 2).is_some_and(|b| b.parse::<f64>().is_ok())
+                });
+            match (value, range_unit) {
+                (Some(v), Some(u)) if let Some(shown) = convert(v, u) => {
+                    let figure = shown.rsplit_once(' ').map_or(shown.as_str(), |(f, _)| f);
+                    out.push(format!("{pre}{plus}{figure}"));
+                }
+                _ => out.push(w.to_string()),
+            }
+            i += 1;
         }
         out.join(" ")
     }
@@ -274,6 +300,19 @@ mod tests {
             s.in_text("maximum takeoff mass (1600 kg): check the loading"),
             "maximum takeoff mass (3527 lb): check the loading"
         );
+        // A range converts whole (590 kg = 1300.7 lb); arms in inches with lb
+        // (1 in = 25.4 mm exactly, NIST SP 811).
+        let range = "mass 1601 kg is outside the flight-manual table (590 to 1600 kg)";
+        assert_eq!(
+            s.in_text(range),
+            "mass 3530 lb is outside the flight-manual table (1301 to 3527 lb)"
+        );
+        assert_eq!(m.in_text(range), range);
+        assert_eq!(
+            s.in_text("CG 1310 mm at 1600 kg (takeoff)"),
+            "CG 51.6 in at 3527 lb (takeoff)"
+        );
+        assert_eq!(m.in_text("CG 1310 mm at 1600 kg"), "CG 1310 mm at 1600 kg");
     }
 
     #[test]
