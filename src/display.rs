@@ -88,11 +88,23 @@ impl Show {
     /// `text` (a sentence from the assessment) with each `<number> m`, `kg`, `hPa` and
     /// `°C` in the display units, and `mm` as inches with masses in lb; metres are
     /// statute miles in a sentence about visibility (with distances in ft). In a range
-    /// (`590 to 1600 kg`) the first figure converts with the second.
+    /// (`590 to 1600 kg`) the first figure converts with the second. A figure already
+    /// in its display unit stays as written.
     pub fn in_text(self, text: &str) -> String {
         const TRIM: [char; 5] = [',', ';', ':', ')', '.'];
         let visibility = text.contains("visibility");
+        // Whether `unit` changes in the display units.
+        let changes = |unit: &str| match unit {
+            "m" => self.0.distance == DistanceUnit::Ft,
+            "kg" | "mm" => self.0.mass == MassUnit::Lb,
+            "hPa" => self.0.pressure == PressureUnit::InHg,
+            "°C" => self.0.temperature == TemperatureUnit::F,
+            _ => false,
+        };
         let convert = |v: f64, unit: &str| -> Option<String> {
+            if !changes(unit) {
+                return None;
+            }
             Some(match unit {
                 "m" if visibility && self.0.distance == DistanceUnit::Ft => {
                     format!("{:.1} SM", units::m_to_sm(v))
@@ -107,15 +119,6 @@ impl Show {
                 "°C" => self.temp0(v),
                 _ => return None,
             })
-        };
-        // Whether `unit` changes in the display units (a range's first figure is left
-        // alone where it does not).
-        let changes = |unit: &str| match unit {
-            "m" => self.0.distance == DistanceUnit::Ft,
-            "kg" | "mm" => self.0.mass == MassUnit::Lb,
-            "hPa" => self.0.pressure == PressureUnit::InHg,
-            "°C" => self.0.temperature == TemperatureUnit::F,
-            _ => false,
         };
         let words: Vec<&str> = text.split(' ').collect();
         let mut out: Vec<String> = Vec::with_capacity(words.len());
@@ -136,10 +139,8 @@ impl Show {
             let range_unit = words
                 .get(i + 3)
                 .map(|u| u.trim_end_matches(TRIM))
-                .filter(|u| {
-                    next == "to"
-                        && changes(u)
-                        && words.get(i + 2).is_some_and(|b| b.parse::<f64>().is_ok())
+                .filter(|_| {
+                    next == "to" && words.get(i + 2).is_some_and(|b| b.parse::<f64>().is_ok())
                 });
             match (value, range_unit) {
                 (Some(v), Some(u)) if let Some(shown) = convert(v, u) => {
@@ -151,6 +152,54 @@ impl Show {
             i += 1;
         }
         out.join(" ")
+    }
+
+    /// The leg's reasons in the display units: a limit row's sentence written afresh
+    /// from the row ([`Show::limit_shown`]), so its value, limit and margin are rounded
+    /// toward each other in the display unit; every other sentence through
+    /// [`Show::in_text`].
+    pub fn reasons(self, r: &LegResult) -> Vec<String> {
+        let rows: Vec<(String, &LimitCheck)> =
+            [("departure", &r.departure), ("arrival", &r.arrival)]
+                .into_iter()
+                .flat_map(|(role, side)| {
+                    side.limits.iter().map(move |l| {
+                        let head =
+                            format!("{role} {}: {} {}", side.airfield, l.label(), l.state.word());
+                        (head, l)
+                    })
+                })
+                .collect();
+        r.reasons
+            .iter()
+            .map(|why| {
+                let row = rows.iter().find(|(head, l)| {
+                    why.strip_prefix(head.as_str())
+                        .is_some_and(|rest| rest.starts_with(" — ") && !l.unit.is_empty())
+                });
+                match row {
+                    Some((head, l)) => self
+                        .limit_reason(head, l)
+                        .unwrap_or_else(|| self.in_text(why)),
+                    None => self.in_text(why),
+                }
+            })
+            .collect()
+    }
+
+    /// A limit row's reason in the display unit: `head — V against L, margin M; from
+    /// source`; `None` without both figures.
+    fn limit_reason(self, head: &str, l: &LimitCheck) -> Option<String> {
+        let (sh, unit) = self.limit_shown(l);
+        let d = sh.decimals;
+        let (v, lim) = (sh.value?, sh.limit?);
+        let margin = sh
+            .margin
+            .map_or(String::new(), |m| format!(", margin {m:+.d$} {unit}"));
+        Some(format!(
+            "{head} — {v:.d$} {unit} against {lim:.d$} {unit}{margin}; from {}",
+            l.source
+        ))
     }
 
     /// A temperature difference in the display unit.

@@ -321,9 +321,9 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                 route: format!("{}–{}", r.departure.airfield, r.arrival.airfield),
                 category: r.category.name().replace('_', " "),
                 state: r.state,
-                limiting: match (&r.limiting, r.reasons.first()) {
+                limiting: match (&r.limiting, show.reasons(r).first()) {
                     (Some(l), _) => l.check.clone(),
-                    (None, Some(why)) => show.in_text(why),
+                    (None, Some(why)) => why.clone(),
                     (None, None) => "—".to_string(),
                 },
                 margin: show.limiting_margin(r),
@@ -633,8 +633,7 @@ fn chain_block(ops: &Ops, r: &LegResult, show: Show) -> ChainBlock {
         leg.and_then(|l| ops.pilot(&l.pilot))
             .map_or(String::new(), |p| format!(", {}", p.name))
     );
-    let reasons = r.reasons.iter().map(|w| show.in_text(w)).collect();
-    let mut sections = vec![("Why".to_string(), reasons)];
+    let mut sections = vec![("Why".to_string(), show.reasons(r))];
     let at = r.limiting.as_ref().map(|l| l.at);
     // Only the ends that are not `within`: the chain of what is short, not of all.
     if r.departure.state != State::Within {

@@ -339,12 +339,13 @@ pub fn limiting_margin_text(r: &LegResult, show: Show) -> String {
 
 fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io::Result<()> {
     let show = Show::of(ops);
+    let reasons: Vec<Vec<String>> = results.iter().map(|r| show.reasons(r)).collect();
     writeln!(
         out,
         "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>9} {:>11}  limiting check",
         "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
     )?;
-    for r in results {
+    for (r, why) in results.iter().zip(&reasons) {
         let Some(leg) = ops.legs.get(r.index) else {
             continue;
         };
@@ -359,24 +360,25 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
             r.state.to_string(),
             limiting_margin_text(r, show),
             headroom_text(r, show),
-            match (&r.limiting, r.reasons.first()) {
-                (Some(l), _) => l.check.clone(),
-                (None, Some(why)) => show.in_text(why),
-                (None, None) => "—".to_string(),
+            match (&r.limiting, why.first()) {
+                (Some(l), _) => l.check.as_str(),
+                (None, Some(why)) => why.as_str(),
+                (None, None) => "—",
             },
         )?;
     }
-    let not_within: Vec<&LegResult> = results
+    let not_within: Vec<(&LegResult, &Vec<String>)> = results
         .iter()
-        .filter(|r| r.state != State::Within)
+        .zip(&reasons)
+        .filter(|(r, _)| r.state != State::Within)
         .collect();
     if !not_within.is_empty() {
         writeln!(out)?;
         writeln!(out, "Why:")?;
-        for r in not_within {
+        for (r, reasons) in not_within {
             writeln!(out, "  {} {}:", r.id, r.state)?;
-            for why in &r.reasons {
-                writeln!(out, "    - {}", show.in_text(why))?;
+            for why in reasons {
+                writeln!(out, "    - {why}")?;
             }
         }
     }

@@ -356,8 +356,8 @@ fn print_plain(
         let word = if room { "room for" } else { "remove" };
         writeln!(out, "  payload: {word} {mass} at {}", p.station)?;
     }
-    for why in &after.reasons {
-        writeln!(out, "    - {}", show.in_text(why))?;
+    for why in show.reasons(after) {
+        writeln!(out, "    - {why}")?;
     }
     writeln!(out, "{}", crate::CAUTION)?;
     Ok(())
