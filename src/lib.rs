@@ -13,6 +13,7 @@ pub mod atmosphere;
 pub mod board;
 pub mod commands;
 pub mod daylight;
+pub mod display;
 pub mod observation;
 pub mod ops;
 pub mod replan;

@@ -14,6 +14,7 @@ use chrono::{DateTime, Utc};
 
 use crate::assess::leg::{FieldWx, LimitingAt, PhaseResult, Side, percent_text};
 use crate::assess::{Context, LegResult, State};
+use crate::display::Show;
 use crate::ops::Ops;
 use crate::signoff::{Chain, Head, Standing, standing};
 
@@ -131,7 +132,7 @@ pub struct FieldLine {
     pub elevation_ft: f64,
     /// The latest report at the reference time: (observed at, age in minutes, text).
     pub report: Option<(DateTime<Utc>, i64, String)>,
-    /// OAT, °C.
+    /// OAT, °C (shown in the sheet's display unit).
     pub oat_c: Option<f64>,
     /// Pressure altitude, ft.
     pub pressure_altitude_ft: Option<f64>,
@@ -184,6 +185,8 @@ pub struct ChainBlock {
 pub struct Sheet {
     /// Operator name.
     pub operator: String,
+    /// The operator's display units, which every figure is shown in.
+    pub show: Show,
     /// The reference time.
     pub at: DateTime<Utc>,
     /// Leg rows.
@@ -283,6 +286,7 @@ fn opt(v: Option<f64>, f: impl Fn(f64) -> String) -> String {
 /// Builds the sheet from the day's assessed legs and the log (if it could be read).
 pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, String>) -> Sheet {
     let ops: &Ops = ctx.ops;
+    let show = Show::of(ops);
     let mut rechecks = Vec::new();
     let legs = results
         .iter()
@@ -317,16 +321,15 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                 route: format!("{}–{}", r.departure.airfield, r.arrival.airfield),
                 category: r.category.name().replace('_', " "),
                 state: r.state,
-                limiting: match (&r.limiting, r.reasons.first()) {
+                limiting: match (&r.limiting, show.reasons(r).first()) {
                     (Some(l), _) => l.check.clone(),
                     (None, Some(why)) => why.clone(),
                     (None, None) => "—".to_string(),
                 },
-                margin: r
-                    .limiting
-                    .as_ref()
-                    .map_or("—".to_string(), |l| l.margin.clone()),
-                headroom: r.headroom.map_or_else(|| "—".to_string(), |h| h.figure()),
+                margin: show.limiting_margin(r),
+                headroom: r
+                    .headroom
+                    .map_or_else(|| "—".to_string(), |h| show.headroom(&h)),
                 mark,
             }
         })
@@ -384,10 +387,11 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
     let chains = results
         .iter()
         .filter(|r| r.state != State::Within)
-        .map(|r| chain_block(ops, r))
+        .map(|r| chain_block(ops, r, show))
         .collect();
     Sheet {
         operator: ops.operator.name.clone(),
+        show,
         at: ctx.at,
         legs,
         log,
@@ -404,11 +408,19 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
 const LIMITING_MARK: &str = " (limiting)";
 
 /// `limiting`: the index of the check that decides the leg, when it is one of these.
-fn phase_lines(name: &str, p: &PhaseResult, limiting: Option<usize>, out: &mut Vec<String>) {
+fn phase_lines(
+    name: &str,
+    p: &PhaseResult,
+    limiting: Option<usize>,
+    show: Show,
+    out: &mut Vec<String>,
+) {
     let c = &p.chain;
     let mut s = format!(
-        "{name} at {:.0} kg: flight-manual table ground roll {:.0} m, 50 ft distance {:.0} m",
-        p.mass_kg, c.table_ground_roll_m, c.table_distance_50ft_m
+        "{name} at {}: flight-manual table ground roll {}, 50 ft distance {}",
+        show.mass(p.mass_kg),
+        show.dist(c.table_ground_roll_m),
+        show.dist(c.table_distance_50ft_m)
     );
     let _ = write!(
         s,
@@ -424,10 +436,10 @@ fn phase_lines(name: &str, p: &PhaseResult, limiting: Option<usize>, out: &mut V
     );
     let _ = write!(
         s,
-        "; {} → ground roll {:.0} m, 50 ft {:.0} m",
+        "; {} → ground roll {}, 50 ft {}",
         c.surface.word(),
-        c.after_surface_ground_roll_m,
-        c.after_surface_distance_50ft_m
+        show.dist(c.after_surface_ground_roll_m),
+        show.dist(c.after_surface_distance_50ft_m)
     );
     if c.adverse_slope_percent > 0.0 {
         let _ = write!(
@@ -440,19 +452,20 @@ fn phase_lines(name: &str, p: &PhaseResult, limiting: Option<usize>, out: &mut V
     }
     let _ = write!(
         s,
-        "; result: ground roll {:.0} m, 50 ft distance {:.0} m",
-        c.ground_roll_m, c.distance_50ft_m
+        "; result: ground roll {}, 50 ft distance {}",
+        show.dist(c.ground_roll_m),
+        show.dist(c.distance_50ft_m)
     );
     out.push(s);
     for (i, k) in p.checks.iter().enumerate() {
         out.push(format!(
-            "{} {}: {:.0} m × {} = {:.0} m required, {:.0} m available, margin {}{}; from {}",
+            "{} {}: {} × {} = {} required, {} available, margin {}{}; from {}",
             k.state.glyph(),
             k.rule,
-            k.result.figure_m,
+            show.dist(k.result.figure_m),
             k.result.factor,
-            k.result.required_m,
-            k.result.available_m,
+            show.dist(k.result.required_m),
+            show.dist(k.result.available_m),
             percent_text(k.result.margin),
             if limiting == Some(i) {
                 LIMITING_MARK
@@ -473,6 +486,7 @@ fn side_lines(
     s: &Side,
     departure: bool,
     limiting: Option<LimitingAt>,
+    show: Show,
 ) -> (String, Vec<String>) {
     let takeoff_at = match limiting {
         Some(LimitingAt::Takeoff(i)) if departure => Some(i),
@@ -500,8 +514,12 @@ fn side_lines(
     }
     if let Some(a) = &s.air {
         out.push(format!(
-            "air: OAT {:.0} °C (ISA {:+.0} °C), pressure altitude {:.0} ft, density altitude {:.0} ft",
-            a.oat_c, a.isa_deviation_c, a.pressure_altitude_ft, a.density_altitude_ft
+            "air: OAT {} (ISA {:+.0} {}), pressure altitude {:.0} ft, density altitude {:.0} ft",
+            show.temp0(a.oat_c),
+            show.warming_value(a.isa_deviation_c),
+            show.temp_unit(),
+            a.pressure_altitude_ft,
+            a.density_altitude_ft
         ));
     }
     if let (Some(rwy), Some(w)) = (&s.runway, &s.wind) {
@@ -518,7 +536,7 @@ fn side_lines(
     }
     if departure {
         if let Some(p) = &s.takeoff {
-            phase_lines("takeoff", p, takeoff_at, &mut out);
+            phase_lines("takeoff", p, takeoff_at, show, &mut out);
         }
         if let Some(c) = &s.climb {
             let ch = &c.chain;
@@ -541,7 +559,7 @@ fn side_lines(
             out.push(l);
         }
     } else if let Some(p) = &s.landing {
-        phase_lines("landing", p, landing_at, &mut out);
+        phase_lines("landing", p, landing_at, show, &mut out);
     }
     for (i, l) in s.limits.iter().enumerate() {
         let is_limiting = limiting
@@ -553,40 +571,36 @@ fn side_lines(
             continue;
         }
         let envelope = l.kind == crate::assess::limits::LimitKind::Envelope;
-        // Where a margin is shown, the figures are those whose difference it is.
-        let sh = l.shown(|x| x, 0);
+        // Where a margin is shown, the figures are those whose difference it is, in
+        // the display unit.
+        let (sh, unit) = show.limit_shown(l);
         let d = sh.decimals;
+        let note = show.in_text(&l.note);
         let value = match (l.value, l.limit) {
             // The envelope's row carries its margin and where on the CG line it is read.
             (Some(_), Some(_)) if envelope && sh.margin.is_some() => format!(
-                "{:.d$} {} against {:.d$} {}, margin {:+.d$} {} ({})",
+                "{:.d$} {unit} against {:.d$} {unit}, margin {:+.d$} {unit} ({note})",
                 sh.value.unwrap_or(f64::NAN),
-                l.unit,
                 sh.limit.unwrap_or(f64::NAN),
-                l.unit,
                 sh.margin.unwrap_or(f64::NAN),
-                l.unit,
-                l.note
             ),
             (Some(_), Some(_)) => format!(
-                "{:.d$} {} against {:.d$} {}{}",
+                "{:.d$} {unit} against {:.d$} {unit}{}",
                 sh.value.unwrap_or(f64::NAN),
-                l.unit,
                 sh.limit.unwrap_or(f64::NAN),
-                l.unit,
                 sh.margin
-                    .map_or(String::new(), |m| format!(", margin {m:+.d$} {}", l.unit))
+                    .map_or(String::new(), |m| format!(", margin {m:+.d$} {unit}"))
             ),
             // Nothing measured (no ceiling reported, unknown): the limit still shows.
-            (None, Some(lim)) if !l.unit.is_empty() => {
-                let what = if l.note.is_empty() {
+            (None, Some(_)) if !l.unit.is_empty() => {
+                let what = if note.is_empty() {
                     "no value".to_string()
                 } else {
-                    l.note.clone()
+                    note
                 };
-                format!("{what}, limit {lim:.0} {}", l.unit)
+                format!("{what}, limit {:.d$} {unit}", sh.limit.unwrap_or(f64::NAN))
             }
-            _ => l.note.clone(),
+            _ => note,
         };
         out.push(format!(
             "{} {}: {value} — {}{}; from {}",
@@ -598,7 +612,7 @@ fn side_lines(
         ));
     }
     for g in &s.gaps {
-        out.push(format!("? {g}"));
+        out.push(format!("? {}", show.in_text(g)));
     }
     (
         format!("{label} {} — {}", s.airfield, s.state),
@@ -606,7 +620,7 @@ fn side_lines(
     )
 }
 
-fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
+fn chain_block(ops: &Ops, r: &LegResult, show: Show) -> ChainBlock {
     let leg = ops.legs.get(r.index);
     let heading = format!(
         "{} {} — {}–{}, {}, {}{}",
@@ -619,21 +633,23 @@ fn chain_block(ops: &Ops, r: &LegResult) -> ChainBlock {
         leg.and_then(|l| ops.pilot(&l.pilot))
             .map_or(String::new(), |p| format!(", {}", p.name))
     );
-    let mut sections = vec![("Why".to_string(), r.reasons.clone())];
+    let mut sections = vec![("Why".to_string(), show.reasons(r))];
     let at = r.limiting.as_ref().map(|l| l.at);
     // Only the ends that are not `within`: the chain of what is short, not of all.
     if r.departure.state != State::Within {
-        sections.push(side_lines("Departure", &r.departure, true, at));
+        sections.push(side_lines("Departure", &r.departure, true, at, show));
     }
     if r.arrival.state != State::Within {
-        sections.push(side_lines("Arrival", &r.arrival, false, at));
+        sections.push(side_lines("Arrival", &r.arrival, false, at, show));
     }
     let mut tail = vec![format!(
         "headroom: {}",
-        r.headroom
-            .map_or_else(|| format!("— ({})", r.headroom_absent_why()), |h| h.words())
+        r.headroom.map_or_else(
+            || format!("— ({})", r.headroom_absent_why()),
+            |h| show.headroom_words(&h)
+        )
     )];
-    tail.extend(r.advice.iter().cloned());
+    tail.extend(r.advice.iter().map(|a| show.in_text(a)));
     sections.push(("Headroom and advice".to_string(), tail));
     ChainBlock {
         heading,
@@ -740,7 +756,7 @@ pub fn markdown(s: &Sheet) -> String {
                     "{} ({age} min)",
                     t.format("%H%MZ")
                 )),
-            opt(f.oat_c, |v| format!("{v:.0} °C")),
+            opt(f.oat_c, |v| s.show.temp0(v)),
             opt(f.pressure_altitude_ft, |v| format!("{v:.0} ft")),
             opt(f.density_altitude_ft, |v| format!("{v:.0} ft")),
             f.wind,
@@ -963,7 +979,7 @@ pub fn html(s: &Sheet) -> String {
                     "{} ({age} min)",
                     t.format("%H%MZ")
                 )),
-            opt(f.oat_c, |v| format!("{v:.0} °C")),
+            opt(f.oat_c, |v| s.show.temp0(v)),
             opt(f.pressure_altitude_ft, |v| format!("{v:.0} ft")),
             opt(f.density_altitude_ft, |v| format!("{v:.0} ft")),
             esc(&f.wind),

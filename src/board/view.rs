@@ -544,11 +544,7 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         )
         // As wide as "? no-data", whichever rows are in view.
         .at_least(9),
-        Column::new(
-            "margin",
-            0,
-            text(&|r| r.limiting.as_ref().map_or("—".into(), |l| l.margin.clone())),
-        ),
+        Column::new("margin", 0, text(&|r| show.limiting_margin(r))),
         Column::new("headroom", 3, text(&|r| headroom_cell(show, r))),
         Column::new(
             "forecast",

@@ -8,11 +8,12 @@ use anyhow::Context as _;
 use chrono::{DateTime, NaiveDate, Utc};
 use serde_json::{Value, json};
 
-use crate::assess::leg::{LegResult, NO_MARGIN, PhaseResult, Side};
+use crate::assess::leg::{LegResult, PhaseResult, Side};
 use crate::assess::lookahead::{LookAhead, TafSource, look_ahead};
 use crate::assess::pairing::{self, Matrix};
 use crate::assess::{Context, DaySettings, Model, State, assess_leg};
 use crate::commands::Outcome;
+use crate::display::Show;
 pub use crate::observation::day_of_file;
 use crate::observation::{Insert, Store, decode_all};
 use crate::ops::config::{self, Choice};
@@ -327,37 +328,34 @@ pub fn leg_json(ops: &Ops, r: &LegResult) -> Value {
     })
 }
 
-/// Headroom as a figure, as the report and the board print it ([`Headroom::figure`]):
-/// `+4.2°C`, `≥+8.0°C` (still passing at the table's top), `≤-38.7°C` (still below at
-/// the table's coldest column), `—`.
-///
-/// [`Headroom::figure`]: crate::assess::leg::Headroom::figure
-pub fn headroom_text(r: &LegResult) -> String {
-    r.headroom.map_or("—".to_string(), |h| h.figure())
+/// Headroom as a figure in the display unit, as the report and the board print it
+/// ([`Show::headroom`]): `+4.2°C`, `≥+8.0°C` (still passing at the table's top),
+/// `≤-38.7°C` (still below at the table's coldest column), `—`.
+pub fn headroom_text(r: &LegResult, show: Show) -> String {
+    r.headroom.map_or("—".to_string(), |h| show.headroom(&h))
 }
 
-/// The limiting check's margin for a text table ([`Limiting::margin`]): a limit row
-/// (wind, ceiling, density altitude, a mass …) as [`LimitCheck::shown`] rounds it, value
-/// and limit toward each other with the margin their difference, so never more than
-/// there is (`+4 kt`, `+163 kg`); a distance or climb check in whole percent, rounded
-/// down; `—` where there is no margin in numbers (a lapsed endorsement: its state says
-/// below).
+/// The limiting check's margin for a text table ([`Show::limiting_margin`]): a limit
+/// row (wind, ceiling, density altitude, a mass …) in the display unit as
+/// [`LimitCheck::shown`] rounds it, value and limit toward each other with the margin
+/// their difference, so never more than there is (`+4 kt`, `+163 kg`); a distance or
+/// climb check in whole percent, rounded down; `—` where there is no margin in numbers
+/// (a lapsed endorsement: its state says below).
 ///
-/// [`Limiting::margin`]: crate::assess::leg::Limiting::margin
 /// [`LimitCheck::shown`]: crate::assess::limits::LimitCheck::shown
-pub fn limiting_margin_text(r: &LegResult) -> String {
-    r.limiting
-        .as_ref()
-        .map_or(NO_MARGIN.to_string(), |l| l.margin.clone())
+pub fn limiting_margin_text(r: &LegResult, show: Show) -> String {
+    show.limiting_margin(r)
 }
 
 fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io::Result<()> {
+    let show = Show::of(ops);
+    let reasons: Vec<Vec<String>> = results.iter().map(|r| show.reasons(r)).collect();
     writeln!(
         out,
         "{:<6} {:<5} {:<8} {:<11} {:<12} {:<10} {:>9} {:>11}  limiting check",
         "dep", "leg", "aircraft", "route", "category", "state", "margin", "headroom"
     )?;
-    for r in results {
+    for (r, why) in results.iter().zip(&reasons) {
         let Some(leg) = ops.legs.get(r.index) else {
             continue;
         };
@@ -370,25 +368,26 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
             format!("{}-{}", leg.from, leg.to),
             r.category.name().replace('_', " "),
             r.state.to_string(),
-            limiting_margin_text(r),
-            headroom_text(r),
-            match (&r.limiting, r.reasons.first()) {
+            limiting_margin_text(r, show),
+            headroom_text(r, show),
+            match (&r.limiting, why.first()) {
                 (Some(l), _) => l.check.as_str(),
                 (None, Some(why)) => why.as_str(),
                 (None, None) => "—",
             },
         )?;
     }
-    let not_within: Vec<&LegResult> = results
+    let not_within: Vec<(&LegResult, &Vec<String>)> = results
         .iter()
-        .filter(|r| r.state != State::Within)
+        .zip(&reasons)
+        .filter(|(r, _)| r.state != State::Within)
         .collect();
     if !not_within.is_empty() {
         writeln!(out)?;
         writeln!(out, "Why:")?;
-        for r in not_within {
+        for (r, reasons) in not_within {
             writeln!(out, "  {} {}:", r.id, r.state)?;
-            for why in &r.reasons {
+            for why in reasons {
                 writeln!(out, "    - {why}")?;
             }
         }
@@ -487,36 +486,49 @@ fn write_forecast(
 }
 
 /// A pairing's margin for the text table: the deciding check's or the deciding weather
-/// minimum's, with its unit, floored to a whole unit so it never reads larger than it
-/// is (`-12 kt`, `+4 %`); `—` where the deciding check has no number.
-pub fn pair_margin_text(c: &pairing::PairCell) -> String {
+/// minimum's, in the display unit ([`Show::limit_value`]) with its unit, floored to a
+/// whole unit (a tenth for SM) so it never reads larger than it is (`-12 kt`, `+4 %`);
+/// `—` where the deciding check has no number.
+pub fn pair_margin_text(c: &pairing::PairCell, show: Show) -> String {
     match c.margin() {
         Some(m) => {
-            let unit = c.margin_unit();
+            let vis = c.limiting == pairing::PairLimit::Weather
+                && c.minimum
+                    .is_some_and(|w| w.kind == crate::assess::limits::LimitKind::Visibility);
+            let (m, unit) = show.limit_value(m, c.margin_unit(), vis);
+            let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
+            let p = 10f64.powi(d as i32);
             let sep = if unit.is_empty() { "" } else { " " };
-            // +0.0 for a floored -0: a margin short of the limit by less than one unit.
-            let f = (m + 1e-9).floor();
-            format!("{:+.0}{sep}{unit}", if f == 0.0 { 0.0 } else { f })
+            // +0.0 for a floored -0: a margin short of the limit by less than one step.
+            let f = ((m * p + 1e-9).floor() / p) + 0.0;
+            format!("{f:+.d$}{sep}{unit}")
         }
         None => "—".to_string(),
     }
 }
 
-/// A pairing's headroom for the text table, marked as a bound where the search reached
-/// an end of the flight-manual tables (`≥+8°C`, `≤-30°C`); `—` where there is none
-/// (no-data, or below for a reason temperature cannot change).
-pub fn pair_headroom_text(c: &pairing::PairCell) -> String {
+/// A pairing's headroom for the text table in the display unit, marked as a bound
+/// where the search reached an end of the flight-manual tables (`≥+8°C`, `≤-30°C`);
+/// `—` where there is none (no-data, or below for a reason temperature cannot change).
+pub fn pair_headroom_text(c: &pairing::PairCell, show: Show) -> String {
     match c.headroom_c {
         None => "—".to_string(),
-        Some(h) => format!("{}{h:+.1}°C", c.headroom_mark()),
+        Some(h) => format!(
+            "{}{:+.1}{}",
+            c.headroom_mark(),
+            show.warming_value(h),
+            show.temp_unit()
+        ),
     }
 }
 
 fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<()> {
+    let show = Show::of(ops);
     writeln!(out)?;
     writeln!(
         out,
-        "Pairings (runway in use; the deciding check, its margin, headroom in °C of warming left):"
+        "Pairings (runway in use; the deciding check, its margin, headroom in {} of warming left):",
+        show.temp_unit()
     )?;
     writeln!(
         out,
@@ -537,8 +549,8 @@ fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<(
                 field.id,
                 runway,
                 c.state.to_string(),
-                pair_margin_text(c),
-                pair_headroom_text(c),
+                pair_margin_text(c, show),
+                pair_headroom_text(c, show),
                 c.limiting_words(),
             )?;
         }

@@ -12,6 +12,7 @@ use crate::commands::Outcome;
 use crate::commands::check::{
     headroom_text, leg_json, load, unknown_aircraft, unknown_airfield, unknown_leg,
 };
+use crate::display::Show;
 use crate::ops::config::{self, Choice};
 use crate::ops::legs::LegsFile;
 use crate::replan::{self, Edit, Saved};
@@ -106,13 +107,13 @@ fn parse_load(text: &str) -> anyhow::Result<Edit> {
     })
 }
 
-fn summary(r: &LegResult) -> String {
+fn summary(r: &LegResult, show: Show) -> String {
     format!(
         "{} {}, headroom {}",
         r.state,
         // `XHIG density altitude -9 ft`; a hard limit names only the check.
-        r.limiting.as_ref().map_or("—".to_string(), |l| l.words()),
-        headroom_text(r)
+        show.limiting_words(r),
+        headroom_text(r, show)
     )
 }
 
@@ -268,7 +269,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     if json.is_some() {
         // Printed once the save is known.
     } else {
-        print_plain(a, day, &loaded.at, &before, &after, out)?;
+        print_plain(a, day, &loaded.at, &before, &after, Show::of(&ops), out)?;
     }
     if a.dry_run {
         writeln!(out, "Dry run: nothing written.")?;
@@ -333,6 +334,7 @@ fn print_plain(
     at: &DateTime<Utc>,
     before: &LegResult,
     after: &LegResult,
+    show: Show,
     out: &mut dyn Write,
 ) -> anyhow::Result<()> {
     if day == at.date_naive() {
@@ -346,18 +348,15 @@ fn print_plain(
             at.format("%Y-%m-%d %H%MZ")
         )?;
     }
-    writeln!(out, "  before: {}", summary(before))?;
-    writeln!(out, "  after:  {}", summary(after))?;
+    writeln!(out, "  before: {}", summary(before, show))?;
+    writeln!(out, "  after:  {}", summary(after, show))?;
     if let Some(p) = &after.payload_headroom {
-        // Rounded the safe way: room down, what must come off up.
-        let (word, kg) = if p.kg >= 0.0 {
-            ("room for", p.kg.floor())
-        } else {
-            ("remove", (-p.kg).ceil())
-        };
-        writeln!(out, "  payload: {word} {kg:.0} kg at {}", p.station)?;
+        // Rounded the safe way in the display unit: room down, what must come off up.
+        let (room, mass) = show.payload(p.kg);
+        let word = if room { "room for" } else { "remove" };
+        writeln!(out, "  payload: {word} {mass} at {}", p.station)?;
     }
-    for why in &after.reasons {
+    for why in show.reasons(after) {
         writeln!(out, "    - {why}")?;
     }
     writeln!(out, "{}", crate::CAUTION)?;
