@@ -294,6 +294,27 @@ impl Show {
             self.temp_unit(),
         )
     }
+
+    /// A pairing's margin in the display unit, with its unit and the digits to show:
+    /// the deciding check's, or the deciding weather minimum's (`+200 ft` of ceiling),
+    /// rounded down to those digits so it never reads larger than it is (-8.4 kt is
+    /// -9 kt; a tenth for SM and in); `None` where there is none. The board's cells and
+    /// `check --pairings` both print this figure.
+    pub fn pair_margin(
+        self,
+        c: &crate::assess::pairing::PairCell,
+    ) -> Option<(f64, &'static str, usize)> {
+        use crate::assess::pairing::PairLimit;
+        let m = c.margin()?;
+        let vis = c
+            .minimum
+            .is_some_and(|w| c.limiting == PairLimit::Weather && w.kind == LimitKind::Visibility);
+        let (m, unit) = self.limit_value(m, c.margin_unit(), vis);
+        let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
+        let p = 10f64.powi(d as i32);
+        // `+ 0.0`: never "-0".
+        Some(((m * p + 1e-9).floor() / p + 0.0, unit, d))
+    }
 }
 
 #[cfg(test)]

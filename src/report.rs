@@ -376,7 +376,8 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                 }),
                 oat_c: wx.map(|w| w.air.oat_c),
                 pressure_altitude_ft: wx.map(|w| w.air.pressure_altitude_ft),
-                density_altitude_ft: wx.map(|w| w.air.density_altitude_ft),
+                // Rounded up, as the density-altitude limit's row shows it.
+                density_altitude_ft: wx.map(|w| crate::units::up0(w.air.density_altitude_ft)),
                 wind: valid
                     .and_then(|v| v.report.wind.as_ref())
                     .map_or("—".to_string(), wind_words),
@@ -519,7 +520,7 @@ fn side_lines(
             show.warming_value(a.isa_deviation_c),
             show.temp_unit(),
             a.pressure_altitude_ft,
-            a.density_altitude_ft
+            crate::units::up0(a.density_altitude_ft)
         ));
     }
     if let (Some(rwy), Some(w)) = (&s.runway, &s.wind) {

@@ -1007,7 +1007,7 @@ fn the_detail_the_pairings_and_check_give_one_margin() {
                     format!("{m:+.0}{sep}{unit}")
                 })
                 .unwrap_or_else(|| "—".to_string());
-            assert_eq!(board, rhoboard::commands::check::pair_margin_text(c));
+            assert_eq!(board, rhoboard::commands::check::pair_margin_text(c, show));
             compared.1 += 1;
         }
     }

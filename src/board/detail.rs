@@ -166,9 +166,9 @@ pub fn lines(
     let unit = ops.operator.display_units.mass;
     out.push(plain(format!(
         "Mass: takeoff {}, landing {}{}",
-        // Rounded up, as the mass limits' rows show them.
-        mass_opt(r.takeoff_mass_kg.map(crate::units::up0), unit),
-        mass_opt(r.landing_mass_kg.map(crate::units::up0), unit),
+        // Rounded up in the display unit, as the mass limits' rows show them.
+        mass_up(r.takeoff_mass_kg, unit),
+        mass_up(r.landing_mass_kg, unit),
         match &r.payload_headroom {
             Some(p) => format!("   Payload: {}", payload_words(p, unit)),
             None => String::new(),
@@ -212,6 +212,15 @@ fn mass(kg: f64, unit: MassUnit) -> String {
         MassUnit::Kg => format!("{kg:.0} kg"),
         MassUnit::Lb => format!("{:.0} lb", crate::units::kg_to_lb(kg)),
     }
+}
+
+/// A mass against a maximum, rounded up after conversion (`986.2 kg` is `987 kg`,
+/// `2174.2 lb` is `2175 lb`), as the limits' rows show it; `—` for none.
+fn mass_up(kg: Option<f64>, unit: MassUnit) -> String {
+    kg.map_or("—".to_string(), |kg| match unit {
+        MassUnit::Kg => format!("{:.0} kg", crate::units::up0(kg)),
+        MassUnit::Lb => format!("{:.0} lb", crate::units::up0(crate::units::kg_to_lb(kg))),
+    })
 }
 
 fn mass_opt(kg: Option<f64>, unit: MassUnit) -> String {

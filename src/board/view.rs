@@ -17,8 +17,7 @@ use super::layout::{BoardLayout, LayoutSettings, MIN_SIZE};
 use super::runway_form::{RUNWAY_FIELDS, RunwayForm};
 use super::theme::Theme;
 use crate::assess::leg::FieldWx;
-use crate::assess::limits::LimitKind;
-use crate::assess::pairing::{PairCell, PairLimit};
+use crate::assess::pairing::PairCell;
 use crate::assess::{LegResult, State};
 use crate::observation::Report;
 
@@ -588,19 +587,9 @@ fn legs(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     fit::table(table, &styles, t.heading(), area, buf);
 }
 
-/// A pairing's margin in the display unit, with its unit: the limiting check's, or
-/// the deciding weather minimum's (`+200ft` of ceiling), `None` where there is none.
+/// A pairing's margin in the display unit ([`Show::pair_margin`]).
 pub fn pair_margin(c: &PairCell, show: Show) -> Option<(f64, &'static str, usize)> {
-    let m = c.margin()?;
-    let vis = c
-        .minimum
-        .is_some_and(|w| c.limiting == PairLimit::Weather && w.kind == LimitKind::Visibility);
-    let (m, unit) = show.limit_value(m, c.margin_unit(), vis);
-    let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
-    // Rounded down to the digits shown, as `check` and the legs table show margins:
-    // never larger than it is (-8.4 kt is -9 kt). `+ 0.0`: never "-0".
-    let p = 10f64.powi(d as i32);
-    Some(((m * p + 1e-9).floor() / p + 0.0, unit, d))
+    show.pair_margin(c)
 }
 
 /// A pairing's headroom, marked as a bound where the tables end first (`≥+8.0 °C`,
@@ -1534,7 +1523,8 @@ fn field_panel(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::assess::pairing::WeatherMinimum;
+    use crate::assess::limits::LimitKind;
+    use crate::assess::pairing::{PairLimit, WeatherMinimum};
     use crate::ops::operator::{
         DisplayUnits, DistanceUnit, MassUnit, PressureUnit, TemperatureUnit,
     };
@@ -1575,6 +1565,7 @@ mod tests {
         // in ft.
         let v = weather(LimitKind::Visibility, -1609.344, "m");
         assert_eq!(cell_text(&v, show(DistanceUnit::Ft)), "✗-1.0SM");
-        assert_eq!(limit_word(&v, m), "visibility (-1609 m)");
+        // Rounded down, never larger than it is: -1609.344 m shows as -1610 m.
+        assert_eq!(limit_word(&v, m), "visibility (-1610 m)");
     }
 }

@@ -490,18 +490,10 @@ fn write_forecast(
 /// whole unit (a tenth for SM) so it never reads larger than it is (`-12 kt`, `+4 %`);
 /// `—` where the deciding check has no number.
 pub fn pair_margin_text(c: &pairing::PairCell, show: Show) -> String {
-    match c.margin() {
-        Some(m) => {
-            let vis = c.limiting == pairing::PairLimit::Weather
-                && c.minimum
-                    .is_some_and(|w| w.kind == crate::assess::limits::LimitKind::Visibility);
-            let (m, unit) = show.limit_value(m, c.margin_unit(), vis);
-            let d = if matches!(unit, "SM" | "in") { 1 } else { 0 };
-            let p = 10f64.powi(d as i32);
+    match show.pair_margin(c) {
+        Some((m, unit, d)) => {
             let sep = if unit.is_empty() { "" } else { " " };
-            // +0.0 for a floored -0: a margin short of the limit by less than one step.
-            let f = ((m * p + 1e-9).floor() / p) + 0.0;
-            format!("{f:+.d$}{sep}{unit}")
+            format!("{m:+.d$}{sep}{unit}")
         }
         None => "—".to_string(),
     }
