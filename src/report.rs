@@ -219,20 +219,39 @@ pub struct ForecastLine {
 }
 
 /// The sheet's forecast lines from the look-ahead results.
+/// A leg already gone at the sheet's time `at` says when it left or landed, never a
+/// departure forecast as if still ahead (as the board's forecast column).
 pub fn forecast_lines(
+    ops: &crate::ops::Ops,
+    at: chrono::DateTime<chrono::Utc>,
     results: &[LegResult],
     looks: &[Option<crate::assess::lookahead::LookAhead>],
 ) -> Vec<ForecastLine> {
+    use crate::assess::lookahead::Progress;
     results
         .iter()
         .zip(looks)
-        .map(|(r, l)| ForecastLine {
+        .map(|(r, l)| (r, l, ops.legs.get(r.index).map(|leg| Progress::of(leg, at))))
+        .map(|(r, l, progress)| ForecastLine {
             leg: r.id.clone(),
-            state: l.as_ref().map(|l| l.state),
+            // A gone leg has no forecast state: "—".
+            state: l
+                .as_ref()
+                .filter(|_| matches!(progress, Some(Progress::Ahead)))
+                .map(|l| l.state),
             observation_missing: l.as_ref().is_some_and(|l| l.observation_missing),
-            outlook: match l {
-                None => "no forecast covers it".to_string(),
-                Some(l) => {
+            outlook: match (l, progress) {
+                (_, Some(Progress::Airborne { left, .. })) => {
+                    format!("left {}: departed, no forecast ahead", left.format("%H%MZ"))
+                }
+                (_, Some(Progress::Landed { landed, .. })) => {
+                    format!(
+                        "landed {}: flown, no forecast ahead",
+                        landed.format("%H%MZ")
+                    )
+                }
+                (None, _) => "no forecast covers it".to_string(),
+                (Some(l), _) => {
                     let when = match l.fails_from {
                         Some(t) => format!("would be below if flown from ~{}", t.format("%H%MZ")),
                         None if r.state == State::Below => "below now".to_string(),

@@ -100,16 +100,64 @@ fn an_observed_no_data_leg_shows_its_forecast_as_forecast_only() {
         }
     }
     assert!(seen >= 1, "the 14Z demo has a leg observed no-data");
+    // On the sheet a leg gone by then says so (L10 landed 1345Z), so L10 is moved to
+    // 1345Z in a copy of the demo and seen at 1330Z: still ahead, XSHT's 12Z report stale.
     let dir = std::env::temp_dir().join(format!("rhoboard-fc-sheet-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
     std::fs::create_dir_all(&dir).unwrap();
+    let ops = dir.join("ops");
+    let run = |args: &[&str]| {
+        Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+            .args(args)
+            .env("XDG_CONFIG_HOME", &dir)
+            .env("HOME", &dir)
+            .env("RHOBOARD_DATA_DIR", &dir)
+            .output()
+            .unwrap()
+    };
+    let d = ops.to_str().unwrap();
+    assert!(run(&["init", d]).status.success());
+    let o = run(&[
+        "leg",
+        "set",
+        "L10",
+        "--etd",
+        "13:45Z",
+        "--at",
+        "2026-06-14T13:30:00Z",
+        "--ops",
+        d,
+    ]);
+    // Saved (exit 1: the moved leg is no-data at 14Z, as `check` would say).
+    assert_eq!(
+        o.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let text = String::from_utf8_lossy(
+        &run(&[
+            "check",
+            "--forecast",
+            "--at",
+            "2026-06-14T13:30:00Z",
+            "--ops",
+            d,
+        ])
+        .stdout,
+    )
+    .into_owned();
+    assert!(text.contains("  L10   forecast forecast only: "), "{text}");
     let md = dir.join("sheet.md");
-    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args(["report", "--at", "2026-06-14T14:00:00Z", "--out"])
-        .arg(&md)
-        .env("XDG_CONFIG_HOME", &dir)
-        .env("HOME", &dir)
-        .output()
-        .unwrap();
+    let o = run(&[
+        "report",
+        "--at",
+        "2026-06-14T13:30:00Z",
+        "--ops",
+        d,
+        "--out",
+        md.to_str().unwrap(),
+    ]);
     // Exit status 1: some leg is below or no-data, as for `check`.
     assert_eq!(
         o.status.code(),

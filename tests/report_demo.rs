@@ -366,3 +366,31 @@ fn the_chain_uses_the_headroom_words_and_marks_the_limiting_row() {
         assert!(marked > 3, "{at}: only {marked} chains marked");
     }
 }
+
+/// A leg already gone at the sheet's time says when it left or landed, with no
+/// forecast state (trial finding: "L01 | ✓ within | would be below if flown from
+/// ~1311Z" for a leg that landed at 0750Z); a leg still ahead keeps its look-ahead.
+#[test]
+fn the_forecast_of_a_gone_leg_says_it_is_gone() {
+    let data = tempfile::tempdir().expect("temp dir");
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(["report", "--at", "2026-06-14T13:00:00Z"])
+        .env("RHOBOARD_DATA_DIR", data.path())
+        .env("XDG_CONFIG_HOME", data.path())
+        .env("HOME", data.path())
+        .output()
+        .expect("run");
+    let md = String::from_utf8_lossy(&o.stdout);
+    assert!(
+        md.contains("| L01 | — | landed 0750Z: flown, no forecast ahead |"),
+        "{md}"
+    );
+    assert!(
+        md.contains("| L09 | — | left 1200Z: departed, no forecast ahead |"),
+        "{md}"
+    );
+    assert!(
+        md.contains("| L10 | ~ thin | would be below if flown from ~1400Z |"),
+        "{md}"
+    );
+}

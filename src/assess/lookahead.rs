@@ -366,3 +366,43 @@ mod tests {
         assert!(la.fails_from.is_none());
     }
 }
+
+/// Where a leg stands at a clock (the board's, or a sheet's time): the look-ahead ("flown from ~1340Z, the
+/// forecast makes it below") is about a departure still ahead, so a leg already gone
+/// shows when it left instead.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Progress {
+    /// Departs at or after the board's clock.
+    Ahead,
+    /// Departed before the clock, lands at or after it.
+    Airborne {
+        /// Departure (UTC).
+        left: DateTime<Utc>,
+        /// Planned arrival (UTC).
+        lands: DateTime<Utc>,
+    },
+    /// Departed and landed before the clock.
+    Landed {
+        /// Departure (UTC).
+        left: DateTime<Utc>,
+        /// Planned arrival (UTC).
+        landed: DateTime<Utc>,
+    },
+}
+
+impl Progress {
+    /// The leg's progress at `clock` (its planned times; the board has no actual ones).
+    pub fn of(leg: &crate::ops::legs::Leg, clock: DateTime<Utc>) -> Progress {
+        let (left, lands) = (leg.departs_utc(), leg.arrives_utc());
+        if left >= clock {
+            Progress::Ahead
+        } else if lands >= clock {
+            Progress::Airborne { left, lands }
+        } else {
+            Progress::Landed {
+                left,
+                landed: lands,
+            }
+        }
+    }
+}

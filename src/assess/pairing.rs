@@ -204,6 +204,26 @@ fn wind_below(s: &Setup<'_>, b: &Buffers, w: &EndWind) -> bool {
 }
 
 impl PairCell {
+    /// Why the cell has no headroom figure, in words (`None` where it has one): no
+    /// data, or below for what warming or cooling does not change — the deciding
+    /// wind or weather minimum, or, where a temperature-dependent check decides, the
+    /// wind or the field's weather as well (the cell keeps only the deciding check).
+    pub fn headroom_absent_why(&self) -> Option<String> {
+        if self.headroom_c.is_some() {
+            return None;
+        }
+        Some(match (self.state, self.limiting) {
+            (State::NoData, _) => "no data".to_string(),
+            (_, PairLimit::Crosswind | PairLimit::Tailwind | PairLimit::Weather) => format!(
+                "below on {}, which warming or cooling does not change",
+                self.limiting_words()
+            ),
+            _ => "also below on the wind or the field's weather, which warming or cooling \
+                  does not change"
+                .to_string(),
+        })
+    }
+
     /// The bound mark of the headroom: `≥` (warming left beyond the tables' top) or `≤`
     /// (at least that much cooling, the tables' bottom reached first); empty when exact.
     pub fn headroom_mark(&self) -> &'static str {
@@ -1822,5 +1842,42 @@ mod tests {
             ]);
             prop_assert_eq!(bits(got), bits(want));
         }
+    }
+}
+
+#[cfg(test)]
+mod headroom_words {
+    use super::*;
+
+    /// A cell without headroom says why: no data; the deciding wind limit; or a
+    /// temperature-dependent check that decides while the wind or weather is below too
+    /// (trial finding: "density altitude" with headroom "—" read as "cooling cannot
+    /// help a density-altitude failure").
+    #[test]
+    fn a_cell_without_headroom_says_why() {
+        assert_eq!(
+            PairCell::NO_DATA.headroom_absent_why().as_deref(),
+            Some("no data")
+        );
+        let below = |limiting| PairCell {
+            state: State::Below,
+            limiting,
+            ..PairCell::NO_DATA
+        };
+        assert_eq!(
+            below(PairLimit::Crosswind).headroom_absent_why().as_deref(),
+            Some("below on crosswind, which warming or cooling does not change")
+        );
+        assert!(
+            below(PairLimit::DensityAltitude)
+                .headroom_absent_why()
+                .unwrap()
+                .starts_with("also below on the wind or the field's weather")
+        );
+        let with = PairCell {
+            headroom_c: Some(-2.0),
+            ..below(PairLimit::DensityAltitude)
+        };
+        assert_eq!(with.headroom_absent_why(), None);
     }
 }

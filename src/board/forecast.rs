@@ -13,47 +13,8 @@ use crate::assess::lookahead::{LookAhead, TafSource, look_ahead};
 use crate::assess::{Context, Model, State};
 use crate::observation::Store;
 use crate::ops::Ops;
-use crate::ops::legs::Leg;
 
-/// Where a leg stands on the board's clock: the look-ahead ("flown from ~1340Z, the
-/// forecast makes it below") is about a departure still ahead, so a leg already gone
-/// shows when it left instead.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum Progress {
-    /// Departs at or after the board's clock.
-    Ahead,
-    /// Departed before the clock, lands at or after it.
-    Airborne {
-        /// Departure (UTC).
-        left: DateTime<Utc>,
-        /// Planned arrival (UTC).
-        lands: DateTime<Utc>,
-    },
-    /// Departed and landed before the clock.
-    Landed {
-        /// Departure (UTC).
-        left: DateTime<Utc>,
-        /// Planned arrival (UTC).
-        landed: DateTime<Utc>,
-    },
-}
-
-impl Progress {
-    /// The leg's progress at `clock` (its planned times; the board has no actual ones).
-    pub fn of(leg: &Leg, clock: DateTime<Utc>) -> Progress {
-        let (left, lands) = (leg.departs_utc(), leg.arrives_utc());
-        if left >= clock {
-            Progress::Ahead
-        } else if lands >= clock {
-            Progress::Airborne { left, lands }
-        } else {
-            Progress::Landed {
-                left,
-                landed: lands,
-            }
-        }
-    }
-}
+pub use crate::assess::lookahead::Progress;
 
 /// The look-ahead of every leg on the board, parallel to `Assessment::legs`.
 pub fn looks(

@@ -686,7 +686,10 @@ fn pairings(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
             state_text(c.state),
             limit_word(c, show),
             state_text(c.best_end_state),
-            pair_headroom(c, show)
+            match c.headroom_absent_why() {
+                Some(why) => format!("— ({why})"),
+                None => pair_headroom(c, show),
+            }
         )
     } else {
         String::new()

@@ -452,6 +452,8 @@ pub fn forecast_json(l: Option<&LookAhead>) -> Value {
 }
 
 fn write_forecast(
+    ops: &Ops,
+    at: DateTime<Utc>,
     results: &[LegResult],
     looks: &[Option<LookAhead>],
     out: &mut dyn Write,
@@ -461,25 +463,20 @@ fn write_forecast(
         out,
         "Forecast look-ahead (from the TAFs; a forecast, not an observation):"
     )?;
-    for (r, l) in results.iter().zip(looks) {
-        match l {
-            None => writeln!(out, "  {:<5} no forecast covers it", r.id)?,
-            Some(l) => writeln!(
+    // The sheet's words: a leg gone at `at` says when it left or landed.
+    for (f, l) in crate::report::forecast_lines(ops, at, results, looks)
+        .iter()
+        .zip(looks)
+    {
+        match (l, f.state) {
+            (Some(l), Some(_)) => writeln!(
                 out,
-                "  {:<5} forecast {:<10} {}{}",
-                r.id,
+                "  {:<5} forecast {:<10} {}",
+                f.leg,
                 l.state_words(),
-                match l.fails_from {
-                    Some(t) => format!("would be below if flown from ~{}", t.format("%H%MZ")),
-                    None if r.state == State::Below => "below now".to_string(),
-                    None => "holds through the forecast".to_string(),
-                },
-                if l.worst_case {
-                    " (includes a TEMPO/PROB worst case)"
-                } else {
-                    ""
-                },
+                f.outlook
             )?,
+            _ => writeln!(out, "  {:<5} {}", f.leg, f.outlook)?,
         }
     }
     Ok(())
@@ -543,10 +540,20 @@ fn write_matrix(ops: &Ops, m: &Matrix, out: &mut dyn Write) -> std::io::Result<(
                 c.state.to_string(),
                 pair_margin_text(c, show),
                 pair_headroom_text(c, show),
-                c.limiting_words(),
+                match c.headroom_absent_why() {
+                    Some(why) if why.starts_with("also below") => {
+                        format!("{} (also below on the wind or weather)", c.limiting_words())
+                    }
+                    _ => c.limiting_words().to_string(),
+                },
             )?;
         }
     }
+    writeln!(
+        out,
+        "(headroom —: no data, or below on the wind or the field's weather, which warming or \
+         cooling does not change)"
+    )?;
     Ok(())
 }
 
@@ -643,7 +650,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             write_table(ops, &results, out)?;
         }
         if args.forecast && !results.is_empty() {
-            write_forecast(&results, &looks, out)?;
+            write_forecast(ops, loaded.at, &results, &looks, out)?;
         }
         if let Some(m) = &matrix {
             write_matrix(ops, m, out)?;

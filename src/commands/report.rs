@@ -59,7 +59,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let mut sheet = report::build(&ctx, &results, chain.as_ref().map_err(String::clone));
     let looks = crate::commands::check::look_aheads(&ctx, &loaded.store, &results);
     if looks.iter().any(Option::is_some) {
-        sheet.forecast = report::forecast_lines(&results, &looks);
+        sheet.forecast = report::forecast_lines(ops, loaded.at, &results, &looks);
     }
     let text = match args.format {
         Format::Markdown => report::markdown(&sheet),
