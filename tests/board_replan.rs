@@ -897,3 +897,52 @@ fn typing_in_the_destination_list_jumps_and_a_mismatch_is_refused() {
     type_text(&mut app, "XSEB");
     assert!(screen(&mut app, 120, 40).contains("no choice matches 'XSEB'"));
 }
+
+/// The loads list says what a change does to a station stated by mass (trial finding:
+/// "front_seats: add a passenger (0 → 1)" where the pilot's 84 kg sits, and "empty it"
+/// that would empty the pilot's seat without saying so); an empty aircraft list says
+/// why rather than "nothing to choose".
+#[test]
+fn the_pick_lists_say_what_they_change_and_why_they_are_empty() {
+    let mut app = demo_stepped_to(13);
+    select_leg(&mut app, "L16");
+    app.update(key(KeyCode::Char('e')));
+    app.update(key(KeyCode::Char('l')));
+    let labels: Vec<String> = match &app.ui.mode {
+        Mode::Replan(ui) => match &ui.ask {
+            Ask::Pick { options, .. } => options.iter().map(|(l, _)| l.clone()).collect(),
+            other => panic!("{other:?}"),
+        },
+        _ => panic!("no what-if panel"),
+    };
+    assert!(
+        labels
+            .iter()
+            .any(|l| l == "front_seats: add a standard adult (84 kg stated, one more)"),
+        "{labels:?}"
+    );
+    assert!(
+        labels
+            .iter()
+            .any(|l| l.starts_with("front_seats: empty it (") && l.ends_with(": all of it, 84 kg)")),
+        "{labels:?}"
+    );
+    app.update(key(KeyCode::Esc));
+    app.update(key(KeyCode::Char('a')));
+    match &app.ui.mode {
+        Mode::Replan(ui) => match &ui.ask {
+            // At 13Z no other aircraft is not-below at XPIN (docs/board.md).
+            Ask::Pick { options, title, .. } => {
+                assert!(options.is_empty(), "{options:?}");
+                assert!(
+                    title.starts_with(
+                        "No other aircraft for L16: every other available one is below at XPIN now"
+                    ),
+                    "{title}"
+                );
+            }
+            other => panic!("{other:?}"),
+        },
+        _ => panic!("no what-if panel"),
+    }
+}

@@ -1389,7 +1389,14 @@ impl App {
         }
         options.sort_by(|a, b| a.0.cmp(&b.0).then(b.1.total_cmp(&a.1)));
         Ask::Pick {
-            title: if refused.is_empty() {
+            // An empty list says why (trial finding: "nothing to choose" alone).
+            title: if options.is_empty() && refused.is_empty() {
+                format!(
+                    "No other aircraft for {}: every other available one is below at {} now \
+                     (the Pairings pane shows why; one in maintenance is not offered). Esc goes back",
+                    leg.id, leg.from
+                )
+            } else if refused.is_empty() {
                 format!(
                     "Another aircraft for {} (pairings at {} not below, best first)",
                     leg.id, leg.from
@@ -1490,8 +1497,15 @@ impl App {
                         },
                     ));
                 }
+                // A station stated by mass (the pilot's, say) counts its people by
+                // mass: the label says what is added to what.
+                let now = match mass {
+                    Some(kg) if adults == 0 => format!("{} stated", show.mass(kg)),
+                    Some(kg) => format!("{} and {adults} adult(s)", show.mass(kg)),
+                    None => format!("{adults} adult(s)"),
+                };
                 options.push((
-                    format!("{id}: add a passenger ({adults} → {})", adults + 1),
+                    format!("{id}: add a standard adult ({now}, one more)"),
                     Step::Edit(Edit::Load {
                         station: id.clone(),
                         mass_kg: mass,
@@ -1530,8 +1544,14 @@ impl App {
                 ));
             }
             if cur.is_some() {
+                // Everything at the station goes, a pilot stated there too.
+                let what = match (mass, adults) {
+                    (Some(kg), 0) => show.mass(kg),
+                    (Some(kg), n) => format!("{} and {n} adult(s)", show.mass(kg)),
+                    (None, n) => format!("{n} adult(s)"),
+                };
                 options.push((
-                    format!("{id}: empty it ({name})"),
+                    format!("{id}: empty it ({name}: all of it, {what})"),
                     Step::Edit(Edit::Unload(id.clone())),
                 ));
             }
