@@ -155,6 +155,18 @@ fn a_runway_state_changed_by_another_process_reaches_the_board_and_a_broken_one_
         "the last good state stays"
     );
     assert_eq!(l01_runway(&app).as_deref(), Some("09"));
+    // Mended back to the good file: the state is as the board holds it, and the board
+    // says the file reads again (trial finding: the error stood as its last word).
+    std::fs::write(&path, serde_json::to_string_pretty(&written).unwrap()).unwrap();
+    assert!(poll_runway_state(&mut watch, &tx));
+    for m in rx.try_iter() {
+        app.update(m);
+    }
+    assert_eq!(
+        app.notes.front().map(|n| n.text.as_str()),
+        Some("runway-state/2026-06-14.json: reads again; the runway state is as before")
+    );
+    assert_eq!(l01_runway(&app).as_deref(), Some("09"));
     // A runway end the airfield does not have is named by its field.
     std::fs::write(
         &path,

@@ -665,6 +665,18 @@ impl App {
                 {
                     self.note(NoteKind::Info, format!("{source}: changed on disk, read"));
                     self.apply_runway_state(state, &source);
+                } else if self
+                    .notes
+                    .iter()
+                    .find(|n| n.text.starts_with(&format!("{source}: ")))
+                    .is_some_and(|n| n.kind == NoteKind::Error)
+                {
+                    // Mended back to what the board holds: say so, or the error would
+                    // stand as the file's last word.
+                    self.note(
+                        NoteKind::Info,
+                        format!("{source}: reads again; the runway state is as before"),
+                    );
                 }
             }
             Msg::Quit => self.quit = true,
