@@ -29,8 +29,9 @@ fn texts(rx: &mpsc::Receiver<Msg>) -> Vec<String> {
 
 #[test]
 fn new_files_and_appended_lines_are_read_once() {
-    let dir = std::env::temp_dir().join(format!("rhoboard-feed-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&dir);
+    let root = std::env::temp_dir().join(format!("rhoboard-feed-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&root);
+    let dir = root.join("observations");
     std::fs::create_dir_all(&dir).unwrap();
     let reference = Utc.with_ymd_and_hms(2026, 6, 14, 23, 0, 0).unwrap();
     let (tx, rx) = mpsc::channel();
@@ -44,7 +45,7 @@ fn new_files_and_appended_lines_are_read_once() {
     assert!(poll_folder(&dir, &mut files, reference, &tx));
     assert_eq!(
         texts(&rx),
-        ["a.txt: METAR XSEA 140600Z 23004KT 9999 FEW030 14/11 Q1019"]
+        ["observations/a.txt: METAR XSEA 140600Z 23004KT 9999 FEW030 14/11 Q1019"]
     );
     assert!(poll_folder(&dir, &mut files, reference, &tx));
     assert!(texts(&rx).is_empty(), "nothing new");
@@ -62,8 +63,8 @@ fn new_files_and_appended_lines_are_read_once() {
     assert_eq!(
         texts(&rx),
         [
-            "a.txt: METAR XSEA 140700Z 23005KT 9999 FEW030 17/11 Q1018",
-            "b.txt: METAR XFEN 140700Z 22005KT 9999 FEW030 16/10 Q1018"
+            "observations/a.txt: METAR XSEA 140700Z 23005KT 9999 FEW030 17/11 Q1018",
+            "observations/b.txt: METAR XFEN 140700Z 22005KT 9999 FEW030 16/10 Q1018"
         ]
     );
     std::fs::remove_dir_all(&dir).unwrap();
@@ -82,7 +83,7 @@ fn new_files_and_appended_lines_are_read_once() {
         !poll_folder(&dir, &mut files, reference, &tx),
         "stops when the board has gone"
     );
-    std::fs::remove_dir_all(&dir).unwrap();
+    std::fs::remove_dir_all(&root).unwrap();
 }
 
 /// L01's departure runway in use (the demo at 08:00: L01 leaves XSEA).
@@ -219,8 +220,9 @@ fn a_runway_state_changed_by_another_process_reaches_the_board_and_a_broken_one_
 /// the June reports of an `init` folder dated in November).
 #[test]
 fn a_day_file_is_dated_against_its_own_day() {
-    let dir = std::env::temp_dir().join(format!("rhoboard-feed-day-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&dir);
+    let root = std::env::temp_dir().join(format!("rhoboard-feed-day-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&root);
+    let dir = root.join("observations");
     std::fs::create_dir_all(&dir).unwrap();
     std::fs::write(
         dir.join("2026-06-14.txt"),
@@ -251,14 +253,15 @@ fn a_day_file_is_dated_against_its_own_day() {
         times,
         [
             (
-                "2026-06-14.txt".to_string(),
+                // Named with its folder, as `validate` names it.
+                "observations/2026-06-14.txt".to_string(),
                 Some(Utc.with_ymd_and_hms(2026, 6, 14, 12, 0, 0).unwrap())
             ),
             (
-                "live.txt".to_string(),
+                "observations/live.txt".to_string(),
                 Some(Utc.with_ymd_and_hms(2026, 12, 1, 12, 0, 0).unwrap())
             ),
         ]
     );
-    std::fs::remove_dir_all(&dir).unwrap();
+    std::fs::remove_dir_all(&root).unwrap();
 }

@@ -334,7 +334,10 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         d,
     ]);
     assert_eq!(code, 2);
-    assert!(err.contains("is for grass"), "{err}");
+    assert!(
+        err.contains("--condition 'soft' (soft ground) is for grass"),
+        "{err}"
+    );
     let (code, _, err) = cmd(&["runway", "XSEA", "99", "--closed", "--ops", d]);
     assert_eq!(code, 2);
     assert!(err.contains("has no runway end '99'"), "{err}");

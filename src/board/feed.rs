@@ -219,10 +219,14 @@ pub fn poll_folder(
         let f = files
             .entry(p.clone())
             .or_insert_with(|| ObservationFile::new(p.clone()));
-        let name = p.file_name().map_or_else(
-            || p.display().to_string(),
-            |n| n.to_string_lossy().into_owned(),
-        );
+        // Named with its folder (`observations/2026-06-14.txt`), as `validate` names it.
+        let name = match (
+            dir.file_name().map(|d| d.to_string_lossy()),
+            p.file_name().map(|n| n.to_string_lossy()),
+        ) {
+            (Some(d), Some(n)) => format!("{d}/{n}"),
+            _ => p.display().to_string(),
+        };
         // A day file (`2026-06-14.txt`) is dated against its own day, as `check` does.
         let msg = match f.read_new(crate::observation::day_of_file(&p).unwrap_or(reference)) {
             Ok(reports) if reports.is_empty() => continue,

@@ -191,14 +191,16 @@ pub fn entry(
         None => None,
         Some(c) => {
             let flag = names.of("condition");
+            let typed = c;
             let c = DayCondition::parse(c).ok_or_else(|| {
                 anyhow::anyhow!("{flag} '{c}': expected dry, wet, soft, long-grass or water")
             })?;
             if end.surface == Surface::Paved
                 && matches!(c, DayCondition::SoftGround | DayCondition::LongGrass)
             {
+                // Quoted as typed, with what it means.
                 bail!(
-                    "{flag} '{}' is for grass; {} {} is paved",
+                    "{flag} '{typed}' ({}) is for grass; {} {} is paved",
                     c.word(),
                     field.id,
                     end.designator
