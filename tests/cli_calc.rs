@@ -290,3 +290,25 @@ fn the_readme_sample_is_the_output() {
         .expect("runs");
     assert_eq!(String::from_utf8_lossy(&out.stdout), sample);
 }
+
+/// A unit typed apart from its number (`--elevation 5900 ft`) is named with the fix
+/// (trial finding: clap's bare "unexpected argument 'ft'").
+#[test]
+fn a_unit_apart_from_its_number_is_named_with_the_fix() {
+    let (code, out, err) = rhoboard(&[
+        "calc",
+        "--elevation",
+        "5900",
+        "ft",
+        "--altimeter",
+        "1013hPa",
+        "--temp",
+        "20C",
+    ]);
+    assert_eq!(code, 2);
+    assert!(out.is_empty(), "{out}");
+    assert!(
+        err.contains("'ft' is not an option: a unit goes with its number, with no space between"),
+        "{err}"
+    );
+}

@@ -31,6 +31,10 @@ pub struct Args {
     /// Print JSON instead of the readable summary.
     #[arg(long)]
     pub json: bool,
+    /// Words after the options (a unit typed apart from its number, `5900 ft`): named
+    /// in the error, with the fix.
+    #[arg(hide = true, num_args = 0.., trailing_var_arg = false)]
+    pub stray: Vec<String>,
 }
 
 /// Validated inputs of one calculation, in internal units.
@@ -320,6 +324,12 @@ fn write_human(c: &CalcJson, out: &mut dyn Write) -> std::io::Result<()> {
 
 /// Runs `rhoboard calc`.
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
+    if let Some(word) = args.stray.first() {
+        anyhow::bail!(
+            "'{word}' is not an option: a unit goes with its number, with no space between \
+             (--elevation 5900ft, --temp 31C, --altimeter 30.12inHg)"
+        );
+    }
     let inputs = Inputs::from_args(args)?;
     let result = compute(&inputs);
     if args.json {

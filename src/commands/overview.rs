@@ -26,6 +26,7 @@ pub fn run(out: &mut dyn Write) -> anyhow::Result<Outcome> {
         dewpoint: Some(EXAMPLE[3].into()),
         ias: Some("65kt".into()),
         json: false,
+        stray: Vec::new(),
     };
     writeln!(
         out,
