@@ -91,8 +91,10 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             writeln!(
                 out,
                 "Fix the errors above and run `rhoboard validate{}` again.",
-                // The same folder again (its path is the one just typed).
-                if args.ops.is_some() { " --ops DIR" } else { "" }
+                // The same folder again, as typed.
+                args.ops
+                    .as_ref()
+                    .map_or(String::new(), |d| format!(" --ops {}", d.display()))
             )?;
             Ok(Outcome::BadInput)
         }
