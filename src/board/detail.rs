@@ -176,11 +176,10 @@ pub fn lines(
     )));
     if !r.reasons.is_empty() {
         out.push(Line::styled("Why:", t.heading()));
-        for why in &r.reasons {
-            out.push(Line::styled(
-                format!("  - {}", show.in_text(why)),
-                t.state(r.state),
-            ));
+        // As `check` and the sheet word them: a limit row's reason rebuilt from the
+        // row in the display unit, not converted from its rounded text.
+        for why in show.reasons(r) {
+            out.push(Line::styled(format!("  - {why}"), t.state(r.state)));
         }
     }
     side(&mut out, "Departure", &r.departure, show, t);
