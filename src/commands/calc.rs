@@ -353,6 +353,7 @@ mod tests {
             dewpoint: d.map(Into::into),
             ias: None,
             json: false,
+            stray: Vec::new(),
         }
     }
 
