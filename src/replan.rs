@@ -59,6 +59,17 @@ pub enum EditError {
     /// A fixed-mass edit on a leg with loads.
     #[error("leg {0} gives loads; change the loads or the fuel instead of the mass")]
     HasLoads(String),
+    /// Emptying a station the leg has nothing at (a mistyped station id, or one already
+    /// empty): nothing would change, and saying nothing would read as done.
+    #[error("leg {leg} has nothing at '{station}' to take off (loaded: {loaded})")]
+    NotLoaded {
+        /// The leg.
+        leg: String,
+        /// The station asked for.
+        station: String,
+        /// The stations the leg loads, comma-separated.
+        loaded: String,
+    },
 }
 
 /// Applies one edit to a leg.
@@ -96,6 +107,18 @@ pub fn apply(leg: &mut Leg, edit: &Edit) -> Result<(), EditError> {
                 .loads
                 .as_mut()
                 .ok_or_else(|| EditError::NoLoads(leg.id.clone()))?;
+            if !loads.stations.iter().any(|s| &s.station == station) {
+                let loaded: Vec<&str> = loads.stations.iter().map(|s| s.station.as_str()).collect();
+                return Err(EditError::NotLoaded {
+                    leg: leg.id.clone(),
+                    station: station.clone(),
+                    loaded: if loaded.is_empty() {
+                        "nothing".to_string()
+                    } else {
+                        loaded.join(", ")
+                    },
+                });
+            }
             loads.stations.retain(|s| &s.station != station);
         }
         Edit::FuelL(l) => {

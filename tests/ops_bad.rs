@@ -129,6 +129,7 @@ const CASES: &[&str] = &[
     "leg-arrives-first",
     "leg-loads",
     "leg-maintenance",
+    "leg-nobody-at-the-controls",
     "leg-overlap-and-position",
     "leg-typo-no-follow-on",
     "leg-unknown-refs",
@@ -249,6 +250,18 @@ fn leg_arrives_first() {
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
+}
+
+/// A leg whose loads put nobody at the type's first seats (where the pilot sits) has
+/// nobody to fly it (trial finding: emptying the pilot's seat improved the leg).
+#[test]
+fn leg_nobody_at_the_controls() {
+    insta::assert_snapshot!(validate_case("leg-nobody-at-the-controls"), @r"
+    1 error(s):
+      legs/2026-06-14.json:7:28: legs[0].loads.stations: nobody at seats (Pilot and passenger), the type's first seats, where the pilot sits: give the pilot's mass_kg or standard_adults there
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
+    exit 2
+    ");
 }
 
 #[test]

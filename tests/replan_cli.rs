@@ -425,3 +425,36 @@ fn payload_words_round_room_down_and_removal_up() {
     assert!(out.contains(&want), "{want} in {out}{err}");
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+/// `--unload` of a station the leg has nothing at (a typo) is refused by name, never a
+/// silent no-op that reads as done; emptying the pilot's seat is refused as validate
+/// would (trial findings).
+#[test]
+fn unloading_nothing_or_the_pilot_is_refused() {
+    let home = tempfile::tempdir().unwrap();
+    let at = ["--dry-run", "--at", "2026-06-14T13:00:00Z"];
+    let run = |extra: &[&str]| {
+        let mut args = vec!["leg", "set", "L16"];
+        args.extend_from_slice(extra);
+        args.extend_from_slice(&at);
+        rhoboard(home.path(), &args)
+    };
+    let (code, out, err) = run(&["--unload", "rear_seat"]);
+    assert_eq!(code, 2, "{out}");
+    assert!(
+        err.contains(
+            "leg L16 has nothing at 'rear_seat' to take off (loaded: front_seats, middle_seats, rear_seats, baggage)"
+        ),
+        "{err}"
+    );
+    let (code, out, err) = run(&["--unload", "front_seats"]);
+    assert_eq!(code, 2, "{out}");
+    assert!(
+        err.contains("nobody at front_seats (Pilot and front passenger), the type's first seats, where the pilot sits"),
+        "{err}"
+    );
+    // A real change still goes through.
+    let (code, out, err) = run(&["--unload", "rear_seats"]);
+    assert_ne!(code, 2, "{err}");
+    assert!(out.contains("Dry run"), "{out}");
+}

@@ -1473,6 +1473,15 @@ impl App {
                     .map(|s| (s.station.clone(), s.station.clone()))
                     .collect()
             });
+        // The pilot's station (the type's first seated one, as validate takes it) is
+        // never offered empty.
+        let pilot_station: Option<String> = self
+            .ops
+            .aircraft(&leg.aircraft)
+            .and_then(|a| self.ops.aircraft_type(&a.type_id))
+            .and_then(|t| t.file.mass_balance.as_ref())
+            .and_then(|mb| mb.stations.iter().find(|s| s.seats > 0))
+            .map(|s| s.id.clone());
         // A bag's mass moves in steps of 10 kg (shown in the display unit).
         const STEP_KG: f64 = 10.0;
         let show = Show::of(&self.ops);
@@ -1543,8 +1552,8 @@ impl App {
                     }),
                 ));
             }
-            if cur.is_some() {
-                // Everything at the station goes, a pilot stated there too.
+            if cur.is_some() && pilot_station.as_ref() != Some(&id) {
+                // Everything at the station goes.
                 let what = match (mass, adults) {
                     (Some(kg), 0) => show.mass(kg),
                     (Some(kg), n) => format!("{} and {n} adult(s)", show.mass(kg)),

@@ -1131,8 +1131,10 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                     ),
                 ),
                 Some(mb) => {
+                    let mut unknown_station = false;
                     for (k, sl) in loads.stations.iter().enumerate() {
                         if !mb.stations.iter().any(|s| s.id == sl.station) {
+                            unknown_station = true;
                             let known: Vec<&str> =
                                 mb.stations.iter().map(|s| s.id.as_str()).collect();
                             c.error(
@@ -1143,6 +1145,34 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
                                     t.file.id,
                                     sl.station,
                                     known.join(", ")
+                                ),
+                            );
+                        }
+                    }
+                    // The pilot sits at the type's first seated station (the front row,
+                    // as a loading sheet lists it): a leg that loads nobody there has
+                    // nobody to fly it.
+                    // (Not after a mistyped station: that is the error to fix.)
+                    if let Some(first) = mb
+                        .stations
+                        .iter()
+                        .find(|s| s.seats > 0)
+                        .filter(|_| !unknown_station)
+                    {
+                        let aboard = loads.stations.iter().any(|sl| {
+                            sl.station == first.id
+                                && (sl.mass_kg.is_some_and(|m| m > 0.0)
+                                    || sl.standard_adults > 0
+                                    || sl.standard_children > 0)
+                        });
+                        if !aboard {
+                            c.error(
+                                file,
+                                &format!("{p}.loads.stations"),
+                                format!(
+                                    "nobody at {} ({}), the type's first seats, where the pilot \
+                                     sits: give the pilot's mass_kg or standard_adults there",
+                                    first.id, first.name
                                 ),
                             );
                         }
