@@ -31,6 +31,13 @@ impl Show {
         format!("{v:.0} {unit}")
     }
 
+    /// A mass against a maximum (takeoff, landing, ramp), rounded up in the display
+    /// unit as the mass limits' rows show it: `986.2 kg` is `987 kg`.
+    pub fn mass_up(self, kg: f64) -> String {
+        let (v, unit) = self.mass_value(kg);
+        format!("{:.0} {unit}", units::up0(v))
+    }
+
     /// A pressure: `1014.0 hPa` or `29.94 inHg`.
     pub fn pressure(self, hpa: f64) -> String {
         match self.0.pressure {

@@ -438,15 +438,15 @@ fn phase_lines(
     let c = &p.chain;
     let mut s = format!(
         "{name} at {}: flight-manual table ground roll {}, 50 ft distance {}",
-        show.mass(p.mass_kg),
+        show.mass_up(p.mass_kg),
         show.dist(c.table_ground_roll_m),
         show.dist(c.table_distance_50ft_m)
     );
     let _ = write!(
         s,
-        "; wind {:+.0} kt reported, {:+.0} kt counted ({}) → × {:.3}",
-        c.headwind_reported_kt,
-        c.headwind_used_kt,
+        "; wind: {} reported, {} counted ({}) → × {:.3}",
+        crate::assess::leg::along_wind(c.headwind_reported_kt, 1),
+        crate::assess::leg::along_wind(c.headwind_used_kt, 1),
         if c.wind_factoring_in_manual {
             "the manual's table factors the wind itself"
         } else {
@@ -543,11 +543,12 @@ fn side_lines(
         ));
     }
     if let (Some(rwy), Some(w)) = (&s.runway, &s.wind) {
+        // As the board's detail words them.
         out.push(format!(
-            "runway {rwy} ({}): headwind {:+.0} kt, crosswind {:.0} kt from the {}",
+            "runway {rwy} ({}): {}, crosswind {:.0} kt from the {}",
             s.runway_reason,
-            w.headwind_kt,
-            w.crosswind_kt,
+            w.along_words(),
+            w.crosswind_shown_kt(),
             serde_json::to_value(w.crosswind_from)
                 .ok()
                 .and_then(|v| v.as_str().map(str::to_string))

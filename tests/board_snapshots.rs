@@ -1059,6 +1059,26 @@ fn density_altitude_and_mass_read_the_same_on_every_line() {
                 .find(|l| l.starts_with("Mass: takeoff"))
                 .unwrap();
             let takeoff = number_before(head, "kg, landing").expect("takeoff mass");
+            // The takeoff chain's heading and the loading table's row say the same.
+            if let Some(phase) = text.iter().find(|l| l.starts_with("Takeoff at ")) {
+                assert_eq!(
+                    number_before(phase, "kg  "),
+                    Some(takeoff),
+                    "{phase} vs {head}"
+                );
+                compared += 1;
+            }
+            if let Some(row) = text
+                .iter()
+                .find(|l| l.trim_start().starts_with("takeoff  mass"))
+            {
+                assert_eq!(
+                    number_before(row, "kg  CG"),
+                    Some(takeoff),
+                    "{row} vs {head}"
+                );
+                compared += 1;
+            }
             if let Some(row) = text
                 .iter()
                 .find(|l| l.trim_start().starts_with("takeoff mass ") && l.contains(" limit "))

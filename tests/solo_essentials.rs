@@ -139,6 +139,15 @@ fn a_closed_end_leaving_only_a_tailwind_end() {
         "the only usable end: 27 is closed"
     );
     assert_eq!(open.departure.runway_reason, "most headwind");
+    // And it is among the reasons the leg is below (check's "Why:").
+    assert!(
+        closed
+            .reasons
+            .iter()
+            .any(|r| r == "departure XSEA: runway 09 in use, the only usable end: 27 is closed"),
+        "{:?}",
+        closed.reasons
+    );
     let t = limit(&closed, LimitKind::Tailwind);
     assert!(t.iter().any(|c| c.state == State::Below), "{t:?}");
     assert_eq!(closed.state, State::Below);

@@ -187,6 +187,37 @@ pub struct EndWind {
     pub tailwind_limit_kt: f64,
 }
 
+/// An along-runway component in words, a tailwind as a tailwind (`headwind 9 kt`,
+/// `tailwind 5.7 kt`), at `decimals`; the figure as given, not rounded the safe way.
+pub fn along_wind(kt: f64, decimals: usize) -> String {
+    if kt >= 0.0 {
+        format!("headwind {kt:.decimals$} kt")
+    } else {
+        format!("tailwind {:.decimals$} kt", -kt)
+    }
+}
+
+impl EndWind {
+    /// The along-runway wind in words, rounded the safe way as the limits' rows show
+    /// it: "headwind 9 kt" (steady, rounded down) or "tailwind 5 kt" (with the gust,
+    /// rounded up).
+    pub fn along_words(&self) -> String {
+        if self.headwind_kt >= 0.0 {
+            format!("headwind {:.0} kt", crate::units::down0(self.headwind_kt))
+        } else {
+            format!(
+                "tailwind {:.0} kt",
+                crate::units::up0(self.tailwind_limit_kt.max(-self.headwind_kt))
+            )
+        }
+    }
+
+    /// The crosswind with the gust, rounded up as the crosswind limit's row shows it.
+    pub fn crosswind_shown_kt(&self) -> f64 {
+        crate::units::up0(self.crosswind_kt)
+    }
+}
+
 /// Why a performance figure could not be found.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum Gap {
@@ -1242,7 +1273,7 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
                 let verb = if closed.len() == 1 { "is" } else { "are" };
                 (
                     k,
-                    format!("the only usable end: {} {verb} closed", closed.join(", ")),
+                    format!("{ONLY_USABLE_END}: {} {verb} closed", closed.join(", ")),
                 )
             } else {
                 (k, why)
@@ -1722,6 +1753,9 @@ fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<L
     })
 }
 
+/// How the reason for a runway in use starts when the other ends are closed.
+const ONLY_USABLE_END: &str = "the only usable end";
+
 fn collect_reasons(
     reasons: &mut Vec<String>,
     dep: &Side,
@@ -1729,6 +1763,15 @@ fn collect_reasons(
     buffers: &crate::ops::operator::Buffers,
 ) {
     for (side, role) in [(dep, "departure"), (arr, "arrival")] {
+        // A closure that left one end is part of why (the wind did not choose it).
+        if side.state != State::Within && side.runway_reason.starts_with(ONLY_USABLE_END) {
+            reasons.push(format!(
+                "{role} {}: runway {} in use, {}",
+                side.airfield,
+                side.runway.as_deref().unwrap_or("?"),
+                side.runway_reason
+            ));
+        }
         let at = format!(
             "{} {}",
             side.airfield,

@@ -374,7 +374,8 @@ fn mass_balance(
         };
         left.push(plain(format!(
             "  {what:<8} mass {:>8}  CG {cg:>9}",
-            mass(p.mass_kg, unit)
+            // Rounded up, as the mass limits' rows show it.
+            mass_up(Some(p.mass_kg), unit)
         )));
     }
     if !mb.rows.is_empty() {
@@ -677,14 +678,14 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, show: Show, t: Theme
         ]));
     }
     if !s.ends.is_empty() {
-        out.push(plain("Wind per runway end (steady; limits use the gust):"));
+        out.push(plain(
+            "Wind per runway end (headwind steady; crosswind and tailwind with the gust, as the \
+             limits take them):",
+        ));
         for e in &s.ends {
             let w = e.wind;
-            let head = if w.headwind_kt >= 0.0 {
-                format!("headwind {:.0} kt", w.headwind_kt)
-            } else {
-                format!("tailwind {:.0} kt", -w.headwind_kt)
-            };
+            // Rounded the safe way, as the limits' rows show them.
+            let head = w.along_words();
             let from = match w.crosswind_from {
                 XSide::Left => "left",
                 XSide::Right => "right",
@@ -699,7 +700,9 @@ fn side(out: &mut Vec<Line<'static>>, what: &str, s: &Side, show: Show, t: Theme
             let mut spans = vec![
                 Span::raw(format!(
                     "  {:<4} {:<11} {head}, crosswind {:.0} kt from the {from}  ",
-                    e.designator, tag, w.crosswind_kt
+                    e.designator,
+                    tag,
+                    w.crosswind_shown_kt()
                 )),
                 // A closed end is not assessed: its state would only say "no data".
                 if e.usable {
@@ -750,7 +753,10 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, show: Show, 
     let c = &p.chain;
     let d = |m: f64| show.dist(m);
     out.push(Line::from(vec![
-        Span::styled(format!("{what} at {}  ", show.mass(p.mass_kg)), t.heading()),
+        Span::styled(
+            format!("{what} at {}  ", show.mass_up(p.mass_kg)),
+            t.heading(),
+        ),
         state_span(t, p.state),
         Span::raw(format!("  margin {}", pct(p.margin))),
     ]));
@@ -762,16 +768,21 @@ fn phase(out: &mut Vec<Line<'static>>, what: &str, p: &PhaseResult, show: Show, 
             d(c.table_distance_50ft_m)
         ),
     ));
+    // A tailwind in words as a tailwind, not a negative headwind.
+    let along = crate::assess::leg::along_wind;
     let wind = if c.wind_factoring_in_manual {
         format!(
-            "wind: {:+.1} kt headwind reported, counted as it is (the manual's table factors \
-             the wind itself) → × {:.3}",
-            c.headwind_used_kt, c.wind_factor
+            "wind: {} reported, counted as it is (the manual's table factors the wind \
+             itself) → × {:.3}",
+            along(c.headwind_used_kt, 1),
+            c.wind_factor
         )
     } else {
         format!(
-            "wind: {:+.0} kt headwind reported, {:+.1} kt counted (policy factoring) → × {:.3}",
-            c.headwind_reported_kt, c.headwind_used_kt, c.wind_factor
+            "wind: {} reported, {} counted (policy factoring) → × {:.3}",
+            along(c.headwind_reported_kt, 1),
+            along(c.headwind_used_kt, 1),
+            c.wind_factor
         )
     };
     out.push(indented(1, wind));
@@ -852,7 +863,7 @@ fn climb(out: &mut Vec<Line<'static>>, c: &ClimbResult, t: Theme) {
     out.push(indented(
         1,
         format!(
-            "rate {:.0} ft/min at {:.0} KIAS = {:.0} kt true airspeed; ground speed {:.0} kt{}",
+            "rate {:.0} ft/min at {:.0} KIAS = {:.0} kt true airspeed; ground speed {:.1} kt{}",
             ch.rate_fpm,
             ch.climb_speed_kias,
             ch.true_airspeed_kt,
