@@ -289,7 +289,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             opt(e.pressure_altitude_ft, " ft"),
             opt(e.density_altitude_ft.map(crate::units::up0), " ft"),
             e.oat_c.map_or("—".to_string(), |c| show.temp(c)),
-            opt(e.headwind_kt, " kt"),
+            opt(e.headwind_kt.map(crate::units::down0), " kt"),
             opt(e.crosswind_kt.map(crate::units::up0), " kt"),
         )));
         match &e.report {
