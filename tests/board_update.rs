@@ -1002,3 +1002,43 @@ fn stepping_back_forgets_the_later_changes_and_notes_once() {
     }
     assert!(l12_below(&app), "listed again when the clock passes 14Z");
 }
+
+/// A hand report whose dew point is above its temperature marks the dew point and puts
+/// the cursor there (trial finding: "fix the marked fields" with none marked).
+#[test]
+fn a_contradiction_in_a_hand_report_marks_its_field() {
+    let mut app = demo_stepped_to(8);
+    app.update(key(KeyCode::Char('o')));
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "250");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "10kt");
+    for _ in 0..4 {
+        app.update(key(KeyCode::Tab));
+    }
+    type_text(&mut app, "33c");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "40c");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "1015hpa");
+    app.update(key(KeyCode::Enter));
+    let dew = rhoboard::board::form::FIELDS
+        .iter()
+        .position(|f| f.error_name == "dew point")
+        .unwrap();
+    match &app.ui.mode {
+        Mode::Form(f) => {
+            assert_eq!(f.focus, dew, "{:?}", f.errors);
+            assert!(
+                f.errors
+                    .iter()
+                    .any(|(i, e)| *i == Some(dew) && e.contains("above the temperature")),
+                "{:?}",
+                f.errors
+            );
+        }
+        _ => panic!("the form should stay open"),
+    }
+}

@@ -241,10 +241,11 @@ impl Form {
             Err(errors) => {
                 for e in errors {
                     let idx = match &e {
-                        ManualError::Missing { field, .. } | ManualError::Value { field, .. } => {
+                        ManualError::Missing { field, .. }
+                        | ManualError::Value { field, .. }
+                        | ManualError::Inconsistent { field, .. } => {
                             FIELDS.iter().position(|f| f.error_name == *field)
                         }
-                        ManualError::Inconsistent { .. } => None,
                     };
                     if idx == Some(1) && self.error_for(1).is_some() {
                         continue;

@@ -83,6 +83,8 @@ pub enum ManualError {
     Inconsistent {
         /// Station as typed.
         station: String,
+        /// The field to correct (the form marks it).
+        field: &'static str,
         /// What contradicts what.
         problem: String,
     },
@@ -173,6 +175,7 @@ pub fn manual_observation(
                 Ok(v) if v < speed_kt => {
                     errors.push(ManualError::Inconsistent {
                         station: label.clone(),
+                        field: "gust",
                         problem: format!("gust '{g}' is below the mean wind speed"),
                     });
                     None
@@ -275,6 +278,7 @@ pub fn manual_observation(
     {
         errors.push(ManualError::Inconsistent {
             station: label.clone(),
+            field: "dew point",
             problem: format!(
                 "dew point {d:.1} °C is above the temperature {t:.1} °C; the dew point can be at most the temperature"
             ),
