@@ -226,7 +226,10 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     }
     // A departure moved to a time already past on the assessment's clock, as the
     // board's what-if warns.
-    if a.etd.is_some() && leg.departs_utc() < loaded.at {
+    // Not for a leg of another day assessed without --at (a folder planned ahead, or
+    // the demo's day): "now" is then no clock for it.
+    let same_day = leg.departs_utc().date_naive() == loaded.at.date_naive();
+    if a.etd.is_some() && leg.departs_utc() < loaded.at && (a.at.is_some() || same_day) {
         eprintln!(
             "rhoboard: warning: the new departure {} is before the assessment's time {} (--at, default now): the leg would already have left",
             leg.departs_utc().format("%Y-%m-%d %H%MZ"),
