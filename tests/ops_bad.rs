@@ -350,6 +350,8 @@ fn missing_field() {
     insta::assert_snapshot!(validate_case("missing-field"), @r#"
     1 error(s):
       fleet/aircraft.json:4:5: aircraft[0]: missing field `empty_mass_kg`
+    1 warning(s):
+      fleet/aircraft.json:1:1: the cross-file checks (legs against airfields, aircraft and pilots) wait for fleet/aircraft.json to load: fix it and run validate again
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -360,6 +362,8 @@ fn missing_file() {
     insta::assert_snapshot!(validate_case("missing-file"), @r#"
     1 error(s):
       pilots.json:1:1: file is missing; every operator folder needs one (`rhoboard init DIR` writes a template)
+    1 warning(s):
+      pilots.json:1:1: the cross-file checks (legs against airfields, aircraft and pilots) wait for pilots.json to load: fix it and run validate again
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
@@ -403,6 +407,8 @@ fn operator_two_categories() {
     2 error(s):
       operator.json:109:7: categories.student_solo.min_ceiling: unknown field `min_ceiling`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `land_before_sunset_min`, `depart_after_sunrise_min`, `sources`
       operator.json:225:7: categories.dual.max_crosswind_kts: unknown field `max_crosswind_kts`, expected one of `takeoff_checks`, `landing_checks`, `wet_paved_landing_factor`, `min_climb_rate_fpm`, `min_ceiling_ft`, `min_visibility_m`, `max_wind_kt`, `max_gust_kt`, `max_gust_spread_kt`, `max_crosswind_kt`, `max_tailwind_kt`, `max_density_altitude_ft`, `daylight_only`, `refuse_hazards`, `solo_endorsement_valid_days`, `land_before_sunset_min`, `depart_after_sunrise_min`, `sources`
+    1 warning(s):
+      operator.json:1:1: the cross-file checks (legs against airfields, aircraft and pilots) wait for operator.json to load: fix it and run validate again
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);

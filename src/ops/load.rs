@@ -667,7 +667,26 @@ fn parse_all(c: &mut Collector<'_>, files: &OpsFiles) -> Option<Ops> {
             v::check_legs_file(file, l, c);
         }
     }
+    let missing_anchor = [operator.is_none(), pilots.is_none(), aircraft.is_none()];
     let (Some(operator), Some(pilots), Some(aircraft)) = (operator, pilots, aircraft) else {
+        // The cross-file checks (legs against airfields, aircraft and pilots) hang on
+        // these three files: say that they wait, so a clean rest is not read as clean.
+        let missing: Vec<&str> = ["operator.json", "pilots.json", "fleet/aircraft.json"]
+            .into_iter()
+            .zip(missing_anchor)
+            .filter(|(_, m)| *m)
+            .map(|(f, _)| f)
+            .collect();
+        c.warn(
+            missing[0],
+            "",
+            format!(
+                "the cross-file checks (legs against airfields, aircraft and pilots) wait for \
+                 {} to load: fix {} and run validate again",
+                missing.join(", "),
+                if missing.len() == 1 { "it" } else { "them" }
+            ),
+        );
         return None;
     };
     // The cross-file checks run on what did load, so one run lists every problem;
