@@ -1042,3 +1042,37 @@ fn a_contradiction_in_a_hand_report_marks_its_field() {
         _ => panic!("the form should stay open"),
     }
 }
+
+/// Reports fed together after a clock jump (a fast replay) go into the store before any
+/// leg is re-assessed (trial finding at ×64: "L15 now ? no-data" at XKNL's report, its
+/// XPIN end's old report stale, then "now ✗ below" at XPIN's a moment later).
+#[test]
+fn reports_fed_together_never_flicker_a_leg_through_no_data() {
+    let mut app = demo_stepped_to(14);
+    app.update(key(KeyCode::Char(' ')));
+    let before = app.notes.len();
+    // 14:00 → 15:31 in one tick: the 15Z reports of every station arrive at once.
+    app.update(Msg::Tick {
+        now: demo_time(0, 0),
+        elapsed: Duration::from_millis(15_170),
+    });
+    assert!(app.clock >= demo_time(15, 30), "{}", app.clock);
+    let new: Vec<&str> = app
+        .notes
+        .iter()
+        .take(app.notes.len() - before)
+        .map(|n| n.text.as_str())
+        .collect();
+    assert!(
+        !new.iter().any(|t| t.contains("L15 now ? no-data")),
+        "{new:#?}"
+    );
+    // Each leg changes at most once in the batch.
+    for id in ["L13", "L14", "L15"] {
+        let n = new
+            .iter()
+            .filter(|t| t.contains(&format!("{id} now")))
+            .count();
+        assert!(n <= 1, "{id} changed {n} times: {new:#?}");
+    }
+}

@@ -824,6 +824,11 @@ impl App {
         // Many stations at once (a folder read at start): one full pass instead.
         let one_pass = groups.len() > 32;
         let mut any = false;
+        // Every report goes into the store before any leg is re-assessed, so a leg
+        // between two stations reported together never passes through a state that
+        // neither report gives (the one end's old report stale while the other's new
+        // one is read); each change is put down to the first station that made it.
+        let mut touched: Vec<(String, String)> = Vec::new();
         for (station, group) in groups {
             let mut label = None;
             for r in group {
@@ -857,15 +862,34 @@ impl App {
                 continue;
             };
             any = true;
-            if !one_pass {
+            touched.push((station, label));
+        }
+        if !one_pass {
+            let mut all: Vec<(String, Change)> = Vec::new();
+            for (station, label) in &touched {
                 let ctx = Context {
                     ops: &self.ops,
                     model: &self.model,
                     store: &self.store,
                     at: self.clock,
                 };
-                let changes = self.assessment.on_report(&ctx, &station);
-                self.note_changes(&label, changes);
+                let changes = self.assessment.on_report(&ctx, station);
+                all.extend(changes.into_iter().map(|c| (label.clone(), c)));
+            }
+            // Put each change down to the report of the end that decides it now, where
+            // that station reported in this batch.
+            for (label, ch) in all {
+                let deciding = self
+                    .assessment
+                    .legs
+                    .iter()
+                    .find(|r| r.index == ch.leg)
+                    .and_then(|r| r.limiting_side())
+                    .map(|side| side.airfield.clone());
+                let label = deciding
+                    .and_then(|f| touched.iter().find(|(s, _)| *s == f))
+                    .map_or(label, |(_, l)| l.clone());
+                self.note_changes(&label, vec![ch]);
             }
         }
         if !any {
