@@ -562,7 +562,7 @@ fn side_lines(
         if let Some(c) = &s.climb {
             let ch = &c.chain;
             let mut l = format!(
-                "{} climb: {:.0} ft/min (minimum {:.0}) at {:.0} kt TAS, ground speed {:.0} kt → {:.0} ft/NM",
+                "{} climb: {:.0} ft/min (minimum {:.0}) at {:.0} kt TAS, ground speed {:.1} kt → {:.0} ft/NM",
                 c.state.glyph(),
                 ch.rate_fpm,
                 ch.min_rate_fpm,

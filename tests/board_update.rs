@@ -1076,3 +1076,61 @@ fn reports_fed_together_never_flicker_a_leg_through_no_data() {
         assert!(n <= 1, "{id} changed {n} times: {new:#?}");
     }
 }
+
+/// A closure set on the board starts at the board's clock (trial finding: closing XSEA
+/// 27 at 13Z turned L05, landed at 1020Z, from within to below): the legs already flown
+/// keep the end; a leg after it loses it.
+#[test]
+fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
+    let mut app = demo_stepped_to(13);
+    let state = |app: &rhoboard::board::App, id: &str| {
+        app.assessment
+            .legs
+            .iter()
+            .find(|r| r.id == id)
+            .unwrap()
+            .state
+    };
+    let l05 = state(&app, "L05");
+    // The Airfields pane, XSEA (the 8th airfield), `r`, end 27 closed, no end time.
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Tab));
+    let xsea = app
+        .ops
+        .airfields
+        .iter()
+        .position(|a| a.id == "XSEA")
+        .unwrap();
+    for _ in 0..xsea {
+        app.update(key(KeyCode::Down));
+    }
+    app.update(key(KeyCode::Char('r')));
+    // The cursor starts on "closed" with the end in use filled in; make it 27.
+    app.update(key(KeyCode::BackTab));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    type_text(&mut app, "27");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "y");
+    app.update(key(KeyCode::Enter));
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("XSEA 27: closed from 1300Z")),
+        "{:?}",
+        app.notes.iter().take(5).collect::<Vec<_>>()
+    );
+    assert_eq!(
+        state(&app, "L05"),
+        l05,
+        "L05 landed at 1020Z: not re-graded"
+    );
+    let l12 = app.assessment.legs.iter().find(|r| r.id == "L12").unwrap();
+    assert_eq!(
+        l12.departure.runway.as_deref(),
+        Some("09"),
+        "L12 at 1400Z loses 27"
+    );
+}

@@ -347,6 +347,39 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         err.contains("--condition 'soft' (soft ground) is for grass"),
         "{err}"
     );
+    // A closure's start: before its end, and only with --closed.
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "09",
+        "--closed",
+        "--from",
+        "16:00Z",
+        "--until",
+        "15:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 2);
+    assert!(
+        err.contains("--from 1600Z is not before --until 1500Z"),
+        "{err}"
+    );
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "09",
+        "--from",
+        "16:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 2);
+    assert!(err.contains("--from goes with --closed"), "{err}");
     let (code, _, err) = cmd(&["runway", "XSEA", "99", "--closed", "--ops", d]);
     assert_eq!(code, 2);
     assert!(err.contains("has no runway end '99'"), "{err}");
@@ -627,4 +660,41 @@ fn rhoboard_in(home: &std::path::Path, args: &[&str]) -> (i32, String, String) {
         String::from_utf8_lossy(&o.stdout).into_owned(),
         String::from_utf8_lossy(&o.stderr).into_owned(),
     )
+}
+
+/// A closure with a start (`from`, set by `rhoboard runway --from` or the board's
+/// clock) keeps the end for the legs before it and takes it from the legs after.
+#[test]
+fn a_closure_from_a_time_keeps_the_end_for_the_legs_before_it() {
+    let ops = rhoboard::ops::demo::load().ops.unwrap();
+    let l = ops.legs.iter().find(|l| l.id == "L01").unwrap().clone();
+    let date = chrono::NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    let mut state = RunwayStateFile::new(date);
+    state.entries.push(EndState {
+        airfield: "XSEA".into(),
+        end: "27".into(),
+        closed: Some(true),
+        from: Some(at(12, 0)),
+        ..EndState::default()
+    });
+    let mut with = ops.clone();
+    with.runway_states.push(state);
+    let day = DaySettings::for_date(&with, date);
+    let reports = ["METAR XSEA 140600Z 27006KT 9999 FEW040 18/08 Q1016".to_string()];
+    let early = run(&with, &day, &reports, at(6, 30), &l);
+    assert_eq!(
+        early.departure.runway.as_deref(),
+        Some("27"),
+        "before 1200Z: open"
+    );
+    let mut late = l.clone();
+    late.departs_at = at(13, 0).fixed_offset();
+    late.arrives_at = at(13, 50).fixed_offset();
+    let reports = ["METAR XSEA 141300Z 27006KT 9999 FEW040 18/08 Q1016".to_string()];
+    let r = run(&with, &day, &reports, at(13, 10), &late);
+    assert_eq!(
+        r.departure.runway.as_deref(),
+        Some("09"),
+        "from 1200Z: closed"
+    );
 }

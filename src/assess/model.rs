@@ -228,6 +228,8 @@ pub struct EndModel {
     pub required_gradient_ft_per_nm: Option<f64>,
     /// Usable today (not closed all day).
     pub usable: bool,
+    /// Closed from this time today (with `closed_until`, a window).
+    pub closed_from: Option<chrono::DateTime<chrono::Utc>>,
     /// Closed until this time today.
     pub closed_until: Option<chrono::DateTime<chrono::Utc>>,
     /// Today's runway state for this end, when one is set (shown and signed).
@@ -235,9 +237,14 @@ pub struct EndModel {
 }
 
 impl EndModel {
-    /// Whether the end can be used at `t` (a closure with an end time lifts then).
+    /// Whether the end can be used at `t`: not closed all day, and `t` outside the
+    /// closure's window (from its start, else the day's; to its end, else the day's).
     pub fn usable_at(&self, t: chrono::DateTime<chrono::Utc>) -> bool {
-        self.usable && self.closed_until.is_none_or(|u| t >= u)
+        let in_window = match (self.closed_from, self.closed_until) {
+            (None, None) => false,
+            (from, until) => from.is_none_or(|f| t >= f) && until.is_none_or(|u| t < u),
+        };
+        self.usable && !in_window
     }
 }
 
@@ -408,13 +415,13 @@ impl Model {
                 let (mut tora, mut toda, mut asda, mut lda) =
                     (e.tora_m, e.toda_m, e.asda_m, e.lda_m);
                 let mut surface = SurfaceCase::of(e.surface, e.condition);
-                let mut closed_until = None;
+                let (mut closed_from, mut closed_until) = (None, None);
                 let mut day_note = None;
                 if let Some(t) = &today {
                     if t.closed == Some(true) {
-                        match t.until {
-                            Some(u) => closed_until = Some(u),
-                            None => usable = false,
+                        match (t.from, t.until) {
+                            (None, None) => usable = false,
+                            (from, until) => (closed_from, closed_until) = (from, until),
                         }
                     }
                     // Reduced distances only ever reduce.
@@ -442,6 +449,7 @@ impl Model {
                         .as_ref()
                         .map(|g| g.ft_per_nm),
                     usable,
+                    closed_from,
                     closed_until,
                     day_note,
                 });
@@ -527,9 +535,15 @@ impl Model {
 /// Today's state of an end in words: "closed until 1800Z (works); TORA 900 m; wet".
 pub fn describe(t: &EndState) -> String {
     let mut parts = Vec::new();
-    match (t.closed, t.until) {
-        (Some(true), Some(u)) => parts.push(format!("closed until {}", u.format("%H%MZ"))),
-        (Some(true), None) => parts.push("closed".to_string()),
+    match (t.closed, t.from, t.until) {
+        (Some(true), Some(f), Some(u)) => parts.push(format!(
+            "closed {}–{}",
+            f.format("%H%MZ"),
+            u.format("%H%MZ")
+        )),
+        (Some(true), Some(f), None) => parts.push(format!("closed from {}", f.format("%H%MZ"))),
+        (Some(true), None, Some(u)) => parts.push(format!("closed until {}", u.format("%H%MZ"))),
+        (Some(true), None, None) => parts.push("closed".to_string()),
         _ => {}
     }
     for (name, v) in [

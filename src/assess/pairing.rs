@@ -269,7 +269,7 @@ impl PairCell {
             (PairLimit::Tailwind, _) => "tailwind",
             (PairLimit::DensityAltitude, _) => "density altitude",
             (PairLimit::Weather, None) => "the field's weather",
-            (PairLimit::Observation, _) => "no usable report",
+            (PairLimit::Observation, _) => "no usable report (none, or stale)",
             (PairLimit::Table, _) => "the flight-manual tables",
         }
     }

@@ -1241,7 +1241,8 @@ impl App {
 
     /// The runway-state entry: saved (or kept, on the demo), or the form again.
     fn submit_runway(&mut self, mut f: Box<RunwayForm>) {
-        match f.submit(&self.ops, self.day) {
+        let now = (self.clock.date_naive() == self.day).then_some(self.clock);
+        match f.submit(&self.ops, self.day, now) {
             Some(entry) => self.runway_entry(entry),
             None => self.ui.mode = Mode::Runway(f),
         }

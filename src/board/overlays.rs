@@ -203,7 +203,8 @@ fn comparison(
         } else {
             b
         };
-        let a: String = a.chars().take(43).collect();
+        // Shortened at a word with "…", never cut inside one (the help's promise).
+        let a = super::fit::words(&a, 43).into_owned();
         lines.push(Line::from(vec![
             Span::styled(format!("  {name:<10}"), t.dim()),
             Span::styled(format!("{a:<44}"), sa),

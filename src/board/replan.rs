@@ -1606,12 +1606,16 @@ impl App {
 /// before the board's clock (1300Z): the leg would have left already", with `how` to go
 /// on (the time prompt's warning) or not (the panel's standing lines).
 pub fn past_words(at: DateTime<Utc>, clock: DateTime<Utc>, how: Past) -> String {
-    // Whole minutes, rounded up: 20 s before says 1 min.
-    let min = ((clock - at).num_seconds() + 59) / 60;
+    // Between the two times as shown (whole minutes, HHMM): 1000Z against a clock of
+    // 13:00:30 is 3 h 0 min, as the reader subtracts them; under a minute says so.
+    let whole = |t: DateTime<Utc>| t.timestamp().div_euclid(60);
+    let min = whole(clock) - whole(at);
     let ago = if min >= 60 {
         format!("{} h {} min", min / 60, min % 60)
-    } else {
+    } else if min >= 1 {
         format!("{min} min")
+    } else {
+        "less than a minute".to_string()
     };
     let head = format!(
         "{} is {ago} before the board's clock ({})",
@@ -1719,4 +1723,27 @@ fn merge_value(
     };
     clashes.push(format!("{path}: theirs {}, ours {}", show(t), show(o)));
     t.clone()
+}
+
+#[cfg(test)]
+mod past_words_tests {
+    use super::{Past, past_words};
+    use chrono::{TimeZone, Utc};
+
+    /// The gap between two times as shown (HHMM), as a reader subtracts them (trial
+    /// finding: "1000Z is 3 h 1 min before the board's clock (1300Z)" at 13:00:30).
+    #[test]
+    fn the_gap_is_between_the_times_shown() {
+        let at = Utc.with_ymd_and_hms(2026, 6, 14, 10, 0, 0).unwrap();
+        let clock = Utc.with_ymd_and_hms(2026, 6, 14, 13, 0, 30).unwrap();
+        assert!(
+            past_words(at, clock, Past::AsLoaded)
+                .starts_with("1000Z is 3 h 0 min before the board's clock (1300Z)")
+        );
+        let at = Utc.with_ymd_and_hms(2026, 6, 14, 13, 0, 10).unwrap();
+        assert!(
+            past_words(at, clock, Past::AsLoaded)
+                .starts_with("1300Z is less than a minute before the board's clock")
+        );
+    }
 }

@@ -34,7 +34,7 @@ pub const RUNWAY_FIELDS: [RunwayField; 11] = [
     },
     RunwayField {
         label: "until",
-        hint: "with closed: 18:00Z (empty: all day)",
+        hint: "closes from now; 18:00Z (empty: rest of day)",
     },
     RunwayField {
         label: "TORA",
@@ -114,8 +114,14 @@ impl RunwayForm {
     }
 
     /// Builds the day's entry for `date`, or fills `errors` (the cursor goes to the
-    /// first field with one).
-    pub fn submit(&mut self, ops: &Ops, date: NaiveDate) -> Option<EndState> {
+    /// first field with one). A closure starts at `now` (the board's clock, on the
+    /// board's own day): the legs already flown keep the end.
+    pub fn submit(
+        &mut self,
+        ops: &Ops,
+        date: NaiveDate,
+        now: Option<chrono::DateTime<chrono::Utc>>,
+    ) -> Option<EndState> {
         self.errors.clear();
         let v = &self.values;
         let closed = match yes_no(&v[2]) {
@@ -140,8 +146,12 @@ impl RunwayForm {
             }
         };
         let opt = |s: &String| (!s.trim().is_empty()).then(|| s.trim().to_string());
+        let from = now
+            .filter(|_| closed == Some(true))
+            .map(|t| t.format("%Y-%m-%dT%H:%M:00Z").to_string());
         let req = Request {
             closed,
+            from,
             until: opt(&v[3]),
             tora: opt(&v[4]),
             toda: opt(&v[5]),
@@ -172,6 +182,9 @@ impl RunwayForm {
                     Some(0)
                 } else if msg.contains("has no runway end") {
                     Some(1)
+                } else if msg.starts_with("from ") {
+                    // The start is the board's clock: the end time is what to change.
+                    Some(3)
                 } else {
                     RUNWAY_FIELDS
                         .iter()

@@ -21,12 +21,17 @@ pub struct Args {
     pub field: String,
     /// Runway end designator, e.g. 27.
     pub end: String,
-    /// Close the end (until `--until`, else all day).
+    /// Close the end (from `--from`, else the day's start; until `--until`, else all day).
     #[arg(long, conflicts_with = "open")]
     pub closed: bool,
     /// Open it again.
     #[arg(long)]
     pub open: bool,
+    /// The closure starts at this time: `13:00Z` on the day, or RFC 3339. Legs before it
+    /// keep the end (give it for a closure that starts now, so the morning's flown legs
+    /// are not re-graded).
+    #[arg(long, value_name = "TIME")]
+    pub from: Option<String>,
     /// The closure ends at this time: `18:00Z` on the day, or RFC 3339.
     #[arg(long, value_name = "TIME")]
     pub until: Option<String>,
@@ -97,6 +102,8 @@ fn parse_until(flag: &str, text: &str, date: NaiveDate) -> anyhow::Result<DateTi
 pub struct Request {
     /// `Some(true)` closes the end, `Some(false)` opens it again.
     pub closed: Option<bool>,
+    /// When the closure starts (`13:00Z`, `1300` or RFC 3339); none: the day's start.
+    pub from: Option<String>,
     /// When the closure ends (`18:00Z`, `1800` or RFC 3339).
     pub until: Option<String>,
     /// Reduced take-off run available (`900m`, `2950ft`).
@@ -219,6 +226,27 @@ pub fn entry(
     if until.is_some() && req.closed != Some(true) {
         bail!("{} goes with {}", names.of("until"), names.of("closed"));
     }
+    let from = req
+        .from
+        .as_deref()
+        .map(str::trim)
+        .filter(|f| !f.is_empty())
+        .map(|f| parse_until(&names.of("from"), f, date))
+        .transpose()?;
+    if from.is_some() && req.closed != Some(true) {
+        bail!("{} goes with {}", names.of("from"), names.of("closed"));
+    }
+    if let (Some(f), Some(u)) = (from, until)
+        && f >= u
+    {
+        bail!(
+            "{} {} is not before {} {}: the closure would never start",
+            names.of("from"),
+            f.format("%H%MZ"),
+            names.of("until"),
+            u.format("%H%MZ")
+        );
+    }
     let reduced = |name: &'static str,
                    text: Option<&str>,
                    declared: f64|
@@ -240,6 +268,7 @@ pub fn entry(
         airfield: field.id.clone(),
         end: end.designator.clone(),
         closed: req.closed,
+        from,
         until,
         tora_m: reduced("tora", req.tora.as_deref(), end.tora_m)?,
         toda_m: reduced("toda", req.toda.as_deref(), end.toda_m)?,
@@ -369,6 +398,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         } else {
             None
         },
+        from: args.from.clone(),
         until: args.until.clone(),
         tora: args.tora.clone(),
         toda: args.toda.clone(),

@@ -55,9 +55,12 @@ pub struct EndState {
     pub airfield: String,
     /// Runway end designator.
     pub end: String,
-    /// Closed (until `until`, else all day).
+    /// Closed (from `from`, else the start of the day; until `until`, else all day).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub closed: Option<bool>,
+    /// The closure starts at this time (UTC): legs before it keep the end.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub from: Option<DateTime<Utc>>,
     /// The closure ends at this time (UTC).
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub until: Option<DateTime<Utc>>,
@@ -125,9 +128,13 @@ impl RunwayStateFile {
             macro_rules! take {
                 ($($f:ident),*) => {$( if e.$f.is_some() { o.$f = e.$f.clone(); } )*};
             }
-            take!(
-                closed, until, tora_m, toda_m, asda_m, lda_m, condition, in_use
-            );
+            // A closure's times go with it: a later closing or opening replaces both.
+            if e.closed.is_some() {
+                o.closed = e.closed;
+                o.from = e.from;
+                o.until = e.until;
+            }
+            take!(tora_m, toda_m, asda_m, lda_m, condition, in_use);
             if !e.note.is_empty() {
                 o.note = e.note.clone();
             }
