@@ -142,6 +142,7 @@ const CASES: &[&str] = &[
     "non-positive-distance",
     "observation-rejected",
     "operator-two-categories",
+    "runway-state-closure-window",
     "runway-state-unknown-end",
     "schema-errors-top-and-list",
     "schema-version",
@@ -250,6 +251,17 @@ fn leg_arrives_first() {
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     "#);
+}
+
+/// A closure that ends before it starts is named at its start.
+#[test]
+fn runway_state_closure_window() {
+    insta::assert_snapshot!(validate_case("runway-state-closure-window"), @r"
+    1 error(s):
+      runway-state/2026-06-14.json:5:63: entries[0].from: the closure's start 1600Z is not before its end 1500Z
+    Fix the errors above and run `rhoboard validate --ops DIR` again.
+    exit 2
+    ");
 }
 
 /// A leg whose loads put nobody at the type's first seats (where the pilot sits) has

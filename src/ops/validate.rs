@@ -1491,6 +1491,19 @@ pub fn check_runway_states(
                 );
                 continue;
             };
+            if let (Some(f), Some(u)) = (e.from, e.until)
+                && f >= u
+            {
+                c.error(
+                    file,
+                    &format!("{p}.from"),
+                    format!(
+                        "the closure's start {} is not before its end {}",
+                        f.format("%H%MZ"),
+                        u.format("%H%MZ")
+                    ),
+                );
+            }
             for (name, v, declared) in [
                 ("tora_m", e.tora_m, end.tora_m),
                 ("toda_m", e.toda_m, end.toda_m),
