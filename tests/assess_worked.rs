@@ -27,6 +27,7 @@ fn end(tora_m: f64, toda_m: f64, lda_m: f64, surface: SurfaceCase, slope_percent
         slope_percent,
         required_gradient_ft_per_nm: None,
         usable: true,
+        closed_from: None,
         closed_until: None,
         day_note: None,
     }

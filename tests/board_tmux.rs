@@ -62,9 +62,8 @@ fn the_runway_form_closes_an_end_on_the_demo_and_l01_goes_below() {
     s.wait_for_all("the first frame", &["L01", "replay"]);
     s.keys(&["Space"]);
     s.wait_for_all("paused", &["paused"]);
-    s.keys(&["n", "n"]);
-    s.wait_for_all("08:00", &["08:00Z"]);
-    // L01 is selected: r opens the form on XSEA and its runway in use, the cursor on
+    // Still before L01's 0700Z departure (a closure starts at the board's clock: the
+    // legs already flown keep the end). L01 is selected: r opens the form on XSEA and its runway in use, the cursor on
     // "closed".
     s.keys(&["g", "r"]);
     // Wait for the whole form, not only its title (a frame can be caught mid-draw).
@@ -79,11 +78,11 @@ fn the_runway_form_closes_an_end_on_the_demo_and_l01_goes_below() {
     s.keys(&["y", "Enter"]);
     // The note and L01's row, whole, in one frame.
     s.wait_for("the change and L01 below", |t| {
-        t.contains(
-            "XSEA 27: closed: kept in memory only — the built-in demo has no operator folder",
-        ) && t
-            .lines()
-            .any(|l| l.contains(" L01 ") && l.contains("✗ below") && l.contains("XSEA tailwind"))
+        t.contains("XSEA 27: closed from 06")
+            && t.contains("kept in memory only — the built-in demo has no operator folder")
+            && t.lines().any(|l| {
+                l.contains(" L01 ") && l.contains("✗ below") && l.contains("XSEA tailwind")
+            })
     });
     s.keys(&["q"]);
     s.wait_for_all("exit", &["rhoboard exited 0"]);

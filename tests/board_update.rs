@@ -668,7 +668,7 @@ fn temp_dir(name: &str) -> std::path::PathBuf {
 
 #[test]
 fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
-    let mut app = demo_stepped_to(8);
+    let mut app = demo(6, 30);
     let dir = temp_dir("board-runway");
     app.settings.demo = false;
     app.settings.ops_dir = Some(dir.clone());
@@ -720,19 +720,20 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
         .find(|e| e.designator == "27")
         .unwrap();
     assert!(!on_27.usable);
-    assert_eq!(on_27.today.as_deref(), Some("closed"));
+    // Closed from the board's clock: the legs flown before it keep the end.
+    assert_eq!(on_27.today.as_deref(), Some("closed from 0630Z"));
     assert_eq!(r.state, State::Below, "{:?}", r.reasons);
     assert!(
         app.notes
             .iter()
-            .any(|n| n.text.contains("XSEA 27: closed: saved in")),
+            .any(|n| n.text.contains("XSEA 27: closed from 0630Z: saved in")),
         "{:?}",
         app.notes
     );
     assert!(
-        app.notes
-            .iter()
-            .any(|n| n.text.starts_with("XSEA 27: closed: L01 now ✗ below")),
+        app.notes.iter().any(|n| n
+            .text
+            .starts_with("XSEA 27: closed from 0630Z: L01 now ✗ below")),
         "{:?}",
         app.notes
     );
@@ -755,7 +756,7 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
 
 #[test]
 fn a_failed_write_shows_on_screen_and_changes_nothing() {
-    let mut app = demo_stepped_to(8);
+    let mut app = demo(6, 30);
     let dir = temp_dir("board-runway-fail");
     // A file where the folder should be: the write fails.
     std::fs::write(dir.join("runway-state"), "not a folder").unwrap();
@@ -774,7 +775,7 @@ fn a_failed_write_shows_on_screen_and_changes_nothing() {
     assert_eq!(n.kind, NoteKind::Error);
     assert!(
         n.text
-            .starts_with("XSEA 27: closed: not saved, nothing changed:"),
+            .starts_with("XSEA 27: closed from 0630Z: not saved, nothing changed:"),
         "{}",
         n.text
     );
@@ -783,7 +784,7 @@ fn a_failed_write_shows_on_screen_and_changes_nothing() {
 
 #[test]
 fn on_the_demo_the_runway_state_is_kept_in_memory_and_said_so() {
-    let mut app = demo_stepped_to(8);
+    let mut app = demo(6, 30);
     close_l01_runway(&mut app);
     assert!(app.take_effects().is_empty(), "no folder: nothing to write");
     let r = app.selected_leg().unwrap();
@@ -803,7 +804,10 @@ fn on_the_demo_the_runway_state_is_kept_in_memory_and_said_so() {
         .find(|l| l.trim_start().starts_with("27 "))
         .expect("27's wind line");
     assert!(on_27.contains("not usable"), "{on_27}");
-    assert!(on_27.ends_with("✗ closed  today: closed"), "{on_27}");
+    assert!(
+        on_27.ends_with("✗ closed  today: closed from 0630Z"),
+        "{on_27}"
+    );
     assert!(
         app.notes
             .iter()
