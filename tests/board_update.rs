@@ -1137,4 +1137,61 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
         Some("09"),
         "L12 at 1400Z loses 27"
     );
+    // Opened again at 14Z: the closure ends then, not erased (L10 left at 1300Z under
+    // it and keeps it); L12 at 1400Z has 27 again.
+    app.update(key(KeyCode::Char('n')));
+    app.update(key(KeyCode::Char('r')));
+    app.update(key(KeyCode::BackTab));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    type_text(&mut app, "27");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "n");
+    app.update(key(KeyCode::Enter));
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("XSEA 27: closed 1300Z–1400Z")),
+        "{:?}",
+        app.notes.iter().take(5).collect::<Vec<_>>()
+    );
+    let runway = |app: &rhoboard::board::App, id: &str| {
+        let r = app.assessment.legs.iter().find(|r| r.id == id).unwrap();
+        r.departure.runway.clone()
+    };
+    assert_eq!(
+        runway(&app, "L10").as_deref(),
+        Some("09"),
+        "L10 left under the closure"
+    );
+    assert_eq!(
+        runway(&app, "L12").as_deref(),
+        Some("27"),
+        "L12 at 1400Z: open again"
+    );
+    // The end in use set at 14Z holds for the whole day, and the board says which
+    // legs already flown it re-grades.
+    app.update(key(KeyCode::Char('r')));
+    app.update(key(KeyCode::BackTab));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    type_text(&mut app, "09");
+    for _ in 0..8 {
+        app.update(key(KeyCode::Tab));
+    }
+    type_text(&mut app, "y");
+    app.update(key(KeyCode::Enter));
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.contains("holds for the whole day")
+                && n.text.contains("L01")
+                && n.text.contains("L05")),
+        "{:?}",
+        app.notes.iter().take(5).collect::<Vec<_>>()
+    );
 }

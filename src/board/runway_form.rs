@@ -163,7 +163,9 @@ impl RunwayForm {
             by: "board".to_string(),
         };
         let end = v[1].trim().to_ascii_uppercase();
-        match entry(ops, &self.airfield(), &end, date, &req, Names::Labels) {
+        match entry(ops, &self.airfield(), &end, date, &req, Names::Labels)
+            .map(|e| crate::commands::runway::reopen_at(ops, date, e, now))
+        {
             Ok(e) if self.errors.is_empty() => {
                 if changes_something(&e) {
                     return Some(e);

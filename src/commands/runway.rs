@@ -6,7 +6,7 @@ use std::io::Write;
 use std::path::{Path, PathBuf};
 
 use anyhow::{Context as _, bail};
-use chrono::{DateTime, NaiveDate, NaiveTime, Utc};
+use chrono::{DateTime, DurationRound, NaiveDate, NaiveTime, Utc};
 
 use crate::commands::Outcome;
 use crate::ops::airfield::Surface;
@@ -281,6 +281,54 @@ pub fn entry(
     })
 }
 
+/// Opening an end again at `now` ends its closure then rather than erase it: the legs
+/// flown under the closure keep it (an entry closed from its start until `now`). An
+/// entry that opens nothing closed at `now`, or with no `now`, is returned as it is.
+pub fn reopen_at(
+    ops: &crate::ops::Ops,
+    date: NaiveDate,
+    entry: EndState,
+    now: Option<DateTime<Utc>>,
+) -> EndState {
+    let Some(now) = now.filter(|_| entry.closed == Some(false)) else {
+        return entry;
+    };
+    let current = ops
+        .runway_states
+        .iter()
+        .find(|s| s.date == date)
+        .and_then(|s| s.end(&entry.airfield, &entry.end));
+    match current {
+        Some(c)
+            if c.closed == Some(true)
+                && c.from.is_none_or(|f| f < now)
+                && c.until.is_none_or(|u| u > now) =>
+        {
+            EndState {
+                closed: Some(true),
+                from: c.from,
+                until: Some(
+                    now.duration_trunc(chrono::TimeDelta::minutes(1))
+                        .unwrap_or(now),
+                ),
+                ..entry
+            }
+        }
+        _ => entry,
+    }
+}
+
+/// Whether an entry sets something that holds for the whole day (only a closure has
+/// times): a reduced distance, a surface condition, the end in use.
+pub fn whole_day(e: &EndState) -> bool {
+    e.tora_m.is_some()
+        || e.toda_m.is_some()
+        || e.asda_m.is_some()
+        || e.lda_m.is_some()
+        || e.condition.is_some()
+        || e.in_use == Some(true)
+}
+
 /// Whether an entry changes anything (a note alone does not).
 pub fn changes_something(e: &EndState) -> bool {
     e.closed.is_some()
@@ -410,6 +458,19 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         by: args.by.clone().unwrap_or_default(),
     };
     let entry = entry(&ops, &args.field, &args.end, date, &req, Names::Flags)?;
+    // Opened today: the closure ends now, the legs flown under it keep it.
+    let today = Utc::now();
+    let entry = reopen_at(
+        &ops,
+        date,
+        entry,
+        (today.date_naive() == date).then_some(today),
+    );
+    if whole_day(&entry) {
+        eprintln!(
+            "rhoboard: note: a reduced distance, a surface condition or the end in use holds for the whole of {date}: the legs already flown that day are graded with it too (only a closure has times)"
+        );
+    }
     if args.date.is_none() {
         warn_if_no_legs_that_day(&ops, date);
     }
@@ -428,6 +489,10 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 parts.push("in use".to_string());
             }
             parts.retain(|p| !p.is_empty());
+            if parts.is_empty() {
+                // Opened again with nothing else set (trial finding: an empty line).
+                parts.push("open; as declared".to_string());
+            }
             writeln!(out, "{field} {end} on {date}: {}", parts.join("; "))?
         }
         None => writeln!(
