@@ -562,13 +562,14 @@ fn side_lines(
         if let Some(c) = &s.climb {
             let ch = &c.chain;
             let mut l = format!(
-                "{} climb: {:.0} ft/min (minimum {:.0}) at {:.0} kt TAS, ground speed {:.1} kt → {:.0} ft/NM",
+                "{} climb: {:.0} ft/min (minimum {:.0}) at {:.1} kt TAS, ground speed {:.1} kt → {:.0} ft/NM",
                 c.state.glyph(),
                 ch.rate_fpm,
                 ch.min_rate_fpm,
                 ch.true_airspeed_kt,
                 ch.ground_speed_kt,
-                ch.gradient_ft_per_nm
+                // Rounded down, as a figure against a minimum is shown (and the board).
+                crate::units::down0(ch.gradient_ft_per_nm)
             );
             if let Some(g) = ch.required_gradient_ft_per_nm {
                 let _ = write!(l, " (required {g:.0} ft/NM)");

@@ -7,6 +7,20 @@ use board_common::{demo, demo_stepped_to, key, render, screen, type_text};
 use ratatui::crossterm::event::KeyCode;
 use rhoboard::board::App;
 
+/// A leg's detail at `width` columns, line by line, without colour.
+fn detail_text(app: &App, r: &rhoboard::assess::LegResult, width: u16) -> Vec<String> {
+    rhoboard::board::detail::lines(
+        &app.ops,
+        r,
+        None,
+        rhoboard::board::theme::Theme { color: false },
+        width,
+    )
+    .iter()
+    .map(|l| l.to_string())
+    .collect()
+}
+
 fn select_leg(app: &mut App, id: &str) {
     app.update(key(KeyCode::Home));
     for _ in 0..app.rows().len() {
@@ -360,16 +374,7 @@ fn mass_and_balance_follows_the_display_unit() {
     app.ops.operator.display_units.mass = rhoboard::ops::operator::MassUnit::Lb;
     select_leg(&mut app, "L16");
     let r = app.selected_leg().unwrap();
-    let text: Vec<String> = rhoboard::board::detail::lines(
-        &app.ops,
-        r,
-        None,
-        rhoboard::board::theme::Theme { color: false },
-        120,
-    )
-    .iter()
-    .map(|l| l.to_string())
-    .collect();
+    let text = detail_text(&app, r, 120);
     let text = text.join("\n");
     // 1466 kg × 2.20462 ≈ 3233 lb; 1355 mm ÷ 25.4 ≈ 53.3 in.
     let section = &text[text.find("── Mass and balance").expect("the section")..];
@@ -664,16 +669,7 @@ fn a_long_load_name_wraps_whole_at_words_at_80_columns() {
     let mut app = demo_stepped_to(15);
     select_leg(&mut app, "L16");
     let r = app.selected_leg().unwrap();
-    let text: Vec<String> = rhoboard::board::detail::lines(
-        &app.ops,
-        r,
-        None,
-        rhoboard::board::theme::Theme { color: false },
-        80,
-    )
-    .iter()
-    .map(|l| l.to_string())
-    .collect();
+    let text = detail_text(&app, r, 80);
     let at = text
         .iter()
         .position(|l| l.trim_start().starts_with("X-UTLB empty"))
@@ -781,16 +777,7 @@ fn limit_rows_show_a_margin_equal_to_the_shown_difference() {
     for hour in [8, 15] {
         let app = demo_stepped_to(hour);
         for r in &app.assessment.legs {
-            let text: Vec<String> = rhoboard::board::detail::lines(
-                &app.ops,
-                r,
-                None,
-                rhoboard::board::theme::Theme { color: false },
-                160,
-            )
-            .iter()
-            .map(|l| l.to_string())
-            .collect();
+            let text = detail_text(&app, r, 160);
             for (i, line) in text.iter().enumerate() {
                 let Some((head, rest)) = line.split_once(" limit ") else {
                     continue;
@@ -928,16 +915,7 @@ fn the_fuel_line_and_the_reserve_row_agree() {
     for hour in [8, 15] {
         let app = demo_stepped_to(hour);
         for r in &app.assessment.legs {
-            let text: Vec<String> = rhoboard::board::detail::lines(
-                &app.ops,
-                r,
-                None,
-                rhoboard::board::theme::Theme { color: false },
-                200,
-            )
-            .iter()
-            .map(|l| l.to_string())
-            .collect();
+            let text = detail_text(&app, r, 200);
             let Some(reserve) = text.iter().find_map(|l| {
                 let l = l.trim();
                 l.strip_prefix("reserve ")
@@ -979,16 +957,7 @@ fn the_detail_the_pairings_and_check_give_one_margin() {
             if !matches!(l.at, LimitingAt::Takeoff(_) | LimitingAt::Landing(_)) {
                 continue;
             }
-            let text: Vec<String> = rhoboard::board::detail::lines(
-                &app.ops,
-                r,
-                None,
-                rhoboard::board::theme::Theme { color: false },
-                200,
-            )
-            .iter()
-            .map(|l| l.to_string())
-            .collect();
+            let text = detail_text(&app, r, 200);
             // "… 1171 m needed of 1100 m → -7 %  ✗ below"
             let arrow = format!("→ {}  ", l.margin);
             assert!(
@@ -1029,16 +998,7 @@ fn density_altitude_and_mass_read_the_same_on_every_line() {
     for hour in [8, 13, 15] {
         let app = demo_stepped_to(hour);
         for r in &app.assessment.legs {
-            let text: Vec<String> = rhoboard::board::detail::lines(
-                &app.ops,
-                r,
-                None,
-                rhoboard::board::theme::Theme { color: false },
-                200,
-            )
-            .iter()
-            .map(|l| l.to_string())
-            .collect();
+            let text = detail_text(&app, r, 200);
             let air: Vec<i64> = text
                 .iter()
                 .filter(|l| l.contains("(cross-check"))
@@ -1091,4 +1051,36 @@ fn density_altitude_and_mass_read_the_same_on_every_line() {
         }
     }
     assert!(compared >= 20, "{compared} compared");
+}
+
+/// The climb's arithmetic adds up from the figures shown (trial findings: "× 60 ÷
+/// 100 kt = 487 ft/NM" where 807 × 60 ÷ 100 is 484; the ground speed is now shown to a
+/// tenth, the gradient rounded down): within a ft/NM of the shown operands.
+#[test]
+fn the_climb_arithmetic_adds_up_from_the_figures_shown() {
+    let mut checked = 0;
+    for hour in [8, 13, 15] {
+        let app = demo_stepped_to(hour);
+        for r in &app.assessment.legs {
+            let text = detail_text(&app, r, 200);
+            for l in text
+                .iter()
+                .filter(|l| l.trim_start().starts_with("gradient "))
+            {
+                // "gradient 807 ft/min × 60 ÷ 99.5 kt = 486 ft/NM"
+                let w: Vec<&str> = l.split_whitespace().collect();
+                let rate: f64 = w[1].parse().unwrap();
+                let gs: f64 = w[6].parse().unwrap();
+                let shown: f64 = w[9].parse().unwrap();
+                let sum = rate * 60.0 / gs;
+                assert!(
+                    (sum - shown).abs() < 1.5,
+                    "{hour}Z {}: {l} ({sum:.1})",
+                    r.id
+                );
+                checked += 1;
+            }
+        }
+    }
+    assert!(checked >= 10, "{checked} climbs");
 }

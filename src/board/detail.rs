@@ -863,7 +863,7 @@ fn climb(out: &mut Vec<Line<'static>>, c: &ClimbResult, t: Theme) {
     out.push(indented(
         1,
         format!(
-            "rate {:.0} ft/min at {:.0} KIAS = {:.0} kt true airspeed; ground speed {:.1} kt{}",
+            "rate {:.0} ft/min at {:.0} KIAS = {:.1} kt true airspeed; ground speed {:.1} kt{}",
             ch.rate_fpm,
             ch.climb_speed_kias,
             ch.true_airspeed_kt,
@@ -879,7 +879,10 @@ fn climb(out: &mut Vec<Line<'static>>, c: &ClimbResult, t: Theme) {
         1,
         format!(
             "gradient {:.0} ft/min × 60 ÷ {:.1} kt = {:.0} ft/NM",
-            ch.rate_fpm, ch.ground_speed_kt, ch.gradient_ft_per_nm
+            ch.rate_fpm,
+            ch.ground_speed_kt,
+            // Rounded down, as a figure against a minimum is shown.
+            crate::units::down0(ch.gradient_ft_per_nm)
         ),
     ));
     out.push(indented(

@@ -145,7 +145,13 @@ pub fn detail_extra(app: &App, k: usize, t: Theme) -> Vec<Line<'static>> {
     {
         lines.push(Line::default());
         lines.push(Line::styled("What-if (pending, not written)", t.heading()));
-        lines.extend(comparison(c.old.as_ref(), c.new.as_ref(), &c.what, t));
+        lines.extend(comparison(
+            c.old.as_ref(),
+            c.new.as_ref(),
+            &c.what,
+            t,
+            usize::MAX,
+        ));
     }
     lines
 }
@@ -167,11 +173,14 @@ fn fig_cell(f: Option<&Figures>, row: usize) -> (String, Style) {
 }
 
 /// Old → new, one row per figure.
+/// Old → new figures; the new side shortened at a word to fit `width` (the panel's
+/// inner width; `usize::MAX` where the lines wrap on their own).
 fn comparison(
     old: Option<&Figures>,
     new: Option<&Figures>,
     what: &[String],
     t: Theme,
+    width: usize,
 ) -> Vec<Line<'static>> {
     let mut lines = vec![Line::from(vec![
         Span::styled(format!("  {:<10}", ""), t.dim()),
@@ -203,8 +212,11 @@ fn comparison(
         } else {
             b
         };
-        // Shortened at a word with "…", never cut inside one (the help's promise).
+        // Shortened at a word with "…", never cut inside one (the help's promise); the
+        // what-if side to what is left of the line (at 80 columns a wrapped value read
+        // as the old one).
         let a = super::fit::words(&a, 43).into_owned();
+        let b = super::fit::words(&b, width.saturating_sub(2 + 10 + 44 + 3)).into_owned();
         lines.push(Line::from(vec![
             Span::styled(format!("  {name:<10}"), t.dim()),
             Span::styled(format!("{a:<44}"), sa),
@@ -476,7 +488,14 @@ pub fn replan(app: &App, ui: &ReplanUi, area: Rect, buf: &mut Buffer, t: Theme) 
     ))];
     match app.compared(ui.slot) {
         Some(c) => {
-            lines.extend(comparison(c.old.as_ref(), c.new.as_ref(), &c.what, t));
+            let inner_w = usize::from(110u16.min(area.width).saturating_sub(2));
+            lines.extend(comparison(
+                c.old.as_ref(),
+                c.new.as_ref(),
+                &c.what,
+                t,
+                inner_w,
+            ));
             // What `validate` would say of it in the plan as a whole, here and not only
             // as a passing notice: `w` writes nothing while a refusal stands.
             for r in &c.vetting.refusals {
