@@ -132,6 +132,8 @@ pub struct FieldLine {
     pub elevation_ft: f64,
     /// The latest report at the reference time: (observed at, age in minutes, text).
     pub report: Option<(DateTime<Utc>, i64, String)>,
+    /// That report is older than the policy allows (no basis for a check).
+    pub report_stale: bool,
     /// OAT, °C (shown in the sheet's display unit).
     pub oat_c: Option<f64>,
     /// Pressure altitude, ft.
@@ -216,6 +218,21 @@ pub struct ForecastLine {
     pub outlook: String,
     /// The leg is observed `no-data`: the forecast stands alone.
     pub observation_missing: bool,
+}
+
+impl FieldLine {
+    /// The report column: `1300Z (0 min)`, `1200Z (120 min, STALE)`, `none`.
+    pub fn report_cell(&self) -> String {
+        self.report
+            .as_ref()
+            .map_or("none".to_string(), |(t, age, _)| {
+                format!(
+                    "{} ({age} min{})",
+                    t.format("%H%MZ"),
+                    if self.report_stale { ", STALE" } else { "" }
+                )
+            })
+    }
 }
 
 /// The sheet's forecast lines from the look-ahead results.
@@ -393,6 +410,7 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                         .observed_at
                         .map(|t| (t, v.age.num_minutes(), v.report.text.clone()))
                 }),
+                report_stale: valid.is_some_and(|v| v.stale),
                 oat_c: wx.map(|w| w.air.oat_c),
                 pressure_altitude_ft: wx.map(|w| w.air.pressure_altitude_ft),
                 // Rounded up, as the density-altitude limit's row shows it.
@@ -772,12 +790,7 @@ pub fn markdown(s: &Sheet) -> String {
             f.id,
             md_cell(&f.name),
             f.elevation_ft,
-            f.report
-                .as_ref()
-                .map_or("none".to_string(), |(t, age, _)| format!(
-                    "{} ({age} min)",
-                    t.format("%H%MZ")
-                )),
+            f.report_cell(),
             opt(f.oat_c, |v| s.show.temp0(v)),
             opt(f.pressure_altitude_ft, |v| format!("{v:.0} ft")),
             opt(f.density_altitude_ft, |v| format!("{v:.0} ft")),
@@ -995,12 +1008,7 @@ pub fn html(s: &Sheet) -> String {
             esc(&f.id),
             esc(&f.name),
             f.elevation_ft,
-            f.report
-                .as_ref()
-                .map_or("none".to_string(), |(t, age, _)| format!(
-                    "{} ({age} min)",
-                    t.format("%H%MZ")
-                )),
+            f.report_cell(),
             opt(f.oat_c, |v| s.show.temp0(v)),
             opt(f.pressure_altitude_ft, |v| format!("{v:.0} ft")),
             opt(f.density_altitude_ft, |v| format!("{v:.0} ft")),

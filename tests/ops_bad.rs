@@ -253,12 +253,13 @@ fn leg_arrives_first() {
     "#);
 }
 
-/// A closure that ends before it starts is named at its start.
+/// A closure that ends before it starts, or starts on another day, is named at its start.
 #[test]
 fn runway_state_closure_window() {
     insta::assert_snapshot!(validate_case("runway-state-closure-window"), @r"
-    1 error(s):
+    2 error(s):
       runway-state/2026-06-14.json:5:63: entries[0].from: the closure's start 1600Z is not before its end 1500Z
+      runway-state/2026-06-14.json:6:63: entries[1].from: 2026-06-13 2200Z is not on 2026-06-14: a day's runway state holds for its own UTC day
     Fix the errors above and run `rhoboard validate --ops DIR` again.
     exit 2
     ");

@@ -399,3 +399,26 @@ fn the_forecast_of_a_gone_leg_says_it_is_gone() {
         "{md}"
     );
 }
+
+/// The sheet's Airfields table marks a report older than the policy (trial finding:
+/// XSHT's 1200Z report, 120 min old at 14Z, carried no mark, while the legs there are
+/// no-data for it).
+#[test]
+fn a_stale_report_is_marked_on_the_sheet() {
+    let data = tempfile::tempdir().expect("temp dir");
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(["report", "--at", "2026-06-14T14:00:00Z"])
+        .env("RHOBOARD_DATA_DIR", data.path())
+        .env("XDG_CONFIG_HOME", data.path())
+        .env("HOME", data.path())
+        .output()
+        .expect("run");
+    let md = String::from_utf8_lossy(&o.stdout);
+    let xsht = md
+        .lines()
+        .find(|l| l.starts_with("| XSHT "))
+        .unwrap_or_else(|| panic!("{md}"));
+    assert!(xsht.contains("| 1200Z (120 min, STALE) |"), "{xsht}");
+    let xsea = md.lines().find(|l| l.starts_with("| XSEA ")).unwrap();
+    assert!(xsea.contains("| 1400Z (0 min) |"), "{xsea}");
+}

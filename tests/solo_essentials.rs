@@ -380,6 +380,23 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     ]);
     assert_eq!(code, 2);
     assert!(err.contains("--from goes with --closed"), "{err}");
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "09",
+        "--closed",
+        "--from",
+        "2026-06-15T01:00:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 2);
+    assert!(
+        err.contains("--from 2026-06-15 0100Z is not on 2026-06-14"),
+        "{err}"
+    );
     let (code, _, err) = cmd(&["runway", "XSEA", "99", "--closed", "--ops", d]);
     assert_eq!(code, 2);
     assert!(err.contains("has no runway end '99'"), "{err}");

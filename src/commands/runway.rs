@@ -236,6 +236,21 @@ pub fn entry(
     if from.is_some() && req.closed != Some(true) {
         bail!("{} goes with {}", names.of("from"), names.of("closed"));
     }
+    // A day's runway state holds for its own UTC day: times on it (until may be the
+    // midnight that ends it).
+    let start = date.and_time(NaiveTime::MIN).and_utc();
+    let day_end = start + chrono::TimeDelta::days(1);
+    for (name, t) in [("from", from), ("until", until)] {
+        if let Some(t) = t
+            && (t < start || t > day_end || (name == "from" && t == day_end))
+        {
+            bail!(
+                "{} {} is not on {date}: a day's runway state holds for its own UTC day",
+                names.of(name),
+                t.format("%Y-%m-%d %H%MZ")
+            );
+        }
+    }
     if let (Some(f), Some(u)) = (from, until)
         && f >= u
     {

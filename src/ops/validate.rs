@@ -1491,6 +1491,22 @@ pub fn check_runway_states(
                 );
                 continue;
             };
+            let start = st.date.and_time(chrono::NaiveTime::MIN).and_utc();
+            for (name, t) in [("from", e.from), ("until", e.until)] {
+                if let Some(t) = t
+                    && (t < start || t > start + chrono::TimeDelta::days(1))
+                {
+                    c.error(
+                        file,
+                        &format!("{p}.{name}"),
+                        format!(
+                            "{} is not on {}: a day's runway state holds for its own UTC day",
+                            t.format("%Y-%m-%d %H%MZ"),
+                            st.date
+                        ),
+                    );
+                }
+            }
             if let (Some(f), Some(u)) = (e.from, e.until)
                 && f >= u
             {
