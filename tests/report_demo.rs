@@ -377,15 +377,7 @@ fn the_chain_uses_the_headroom_words_and_marks_the_limiting_row() {
 /// ~1311Z" for a leg that landed at 0750Z); a leg still ahead keeps its look-ahead.
 #[test]
 fn the_forecast_of_a_gone_leg_says_it_is_gone() {
-    let data = tempfile::tempdir().expect("temp dir");
-    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args(["report", "--at", "2026-06-14T13:00:00Z"])
-        .env("RHOBOARD_DATA_DIR", data.path())
-        .env("XDG_CONFIG_HOME", data.path())
-        .env("HOME", data.path())
-        .output()
-        .expect("run");
-    let md = String::from_utf8_lossy(&o.stdout);
+    let md = sheet_cli("2026-06-14T13:00:00Z");
     assert!(
         md.contains("| L01 | — | landed 0750Z: flown, no forecast ahead |"),
         "{md}"
@@ -405,15 +397,7 @@ fn the_forecast_of_a_gone_leg_says_it_is_gone() {
 /// no-data for it).
 #[test]
 fn a_stale_report_is_marked_on_the_sheet() {
-    let data = tempfile::tempdir().expect("temp dir");
-    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args(["report", "--at", "2026-06-14T14:00:00Z"])
-        .env("RHOBOARD_DATA_DIR", data.path())
-        .env("XDG_CONFIG_HOME", data.path())
-        .env("HOME", data.path())
-        .output()
-        .expect("run");
-    let md = String::from_utf8_lossy(&o.stdout);
+    let md = sheet_cli("2026-06-14T14:00:00Z");
     let xsht = md
         .lines()
         .find(|l| l.starts_with("| XSHT "))
@@ -421,4 +405,17 @@ fn a_stale_report_is_marked_on_the_sheet() {
     assert!(xsht.contains("| 1200Z (120 min, STALE) |"), "{xsht}");
     let xsea = md.lines().find(|l| l.starts_with("| XSEA ")).unwrap();
     assert!(xsea.contains("| 1400Z (0 min) |"), "{xsea}");
+}
+
+/// `rhoboard report --at AT` on the demo, in a fresh home: the markdown sheet.
+fn sheet_cli(at: &str) -> String {
+    let data = tempfile::tempdir().expect("temp dir");
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(["report", "--at", at])
+        .env("RHOBOARD_DATA_DIR", data.path())
+        .env("XDG_CONFIG_HOME", data.path())
+        .env("HOME", data.path())
+        .output()
+        .expect("run");
+    String::from_utf8_lossy(&o.stdout).into_owned()
 }

@@ -347,56 +347,25 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         err.contains("--condition 'soft' (soft ground) is for grass"),
         "{err}"
     );
-    // A closure's start: before its end, and only with --closed.
-    let (code, _, err) = cmd(&[
-        "runway",
-        "XSEA",
-        "09",
-        "--closed",
-        "--from",
-        "16:00Z",
-        "--until",
-        "15:00Z",
-        "--date",
-        "2026-06-14",
-        "--ops",
-        d,
-    ]);
-    assert_eq!(code, 2);
-    assert!(
-        err.contains("--from 1600Z is not before --until 1500Z"),
-        "{err}"
-    );
-    let (code, _, err) = cmd(&[
-        "runway",
-        "XSEA",
-        "09",
-        "--from",
-        "16:00Z",
-        "--date",
-        "2026-06-14",
-        "--ops",
-        d,
-    ]);
-    assert_eq!(code, 2);
-    assert!(err.contains("--from goes with --closed"), "{err}");
-    let (code, _, err) = cmd(&[
-        "runway",
-        "XSEA",
-        "09",
-        "--closed",
-        "--from",
-        "2026-06-15T01:00:00Z",
-        "--date",
-        "2026-06-14",
-        "--ops",
-        d,
-    ]);
-    assert_eq!(code, 2);
-    assert!(
-        err.contains("--from 2026-06-15 0100Z is not on 2026-06-14"),
-        "{err}"
-    );
+    // A closure's start: before its end, on the state's day, and only with --closed.
+    for (args, said) in [
+        (
+            &["--closed", "--from", "16:00Z", "--until", "15:00Z"][..],
+            "--from 1600Z is not before --until 1500Z",
+        ),
+        (&["--from", "16:00Z"][..], "--from goes with --closed"),
+        (
+            &["--closed", "--from", "2026-06-15T01:00:00Z"][..],
+            "--from 2026-06-15 0100Z is not on 2026-06-14",
+        ),
+    ] {
+        let mut all = vec!["runway", "XSEA", "09"];
+        all.extend_from_slice(args);
+        all.extend_from_slice(&["--date", "2026-06-14", "--ops", d]);
+        let (code, _, err) = cmd(&all);
+        assert_eq!(code, 2, "{args:?}");
+        assert!(err.contains(said), "{args:?}: {err}");
+    }
     let (code, _, err) = cmd(&["runway", "XSEA", "99", "--closed", "--ops", d]);
     assert_eq!(code, 2);
     assert!(err.contains("has no runway end '99'"), "{err}");
