@@ -704,6 +704,12 @@ fn the_runway_form_asks_the_loop_to_write_and_the_answer_re_checks_the_legs() {
         serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
     assert_eq!(written.entries.len(), 1);
     app.update(answer);
+    // The answer replaces the "saving…" line.
+    assert!(
+        !app.notes.iter().any(|n| n.text.ends_with("saving…")),
+        "{:?}",
+        app.notes
+    );
     let r = app.selected_leg().unwrap();
     assert_eq!(r.departure.runway.as_deref(), Some("09"), "27 closed: 09");
     let on_09 = r

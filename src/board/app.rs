@@ -699,6 +699,9 @@ impl App {
 
     /// The event loop's answer to [`Effect::SaveRunwayState`](super::effects::Effect).
     fn runway_saved(&mut self, what: &str, result: Result<(PathBuf, RunwayStateFile), String>) {
+        // The answer replaces the "saving…" line (it would stand as a save under way).
+        let saving = format!("{what}: saving…");
+        self.notes.retain(|n| n.text != saving);
         match result {
             Ok((path, state)) => {
                 // The legs' changes first, so the line saying where it went is on top.
