@@ -138,6 +138,18 @@ impl Ops {
         self.pilot_index.get(id).map(|&i| &self.pilots[i])
     }
 
+    /// The UTC days the operator has legs on, earliest first, each once.
+    pub fn leg_days(&self) -> Vec<chrono::NaiveDate> {
+        let mut days: Vec<chrono::NaiveDate> = self
+            .legs
+            .iter()
+            .map(|l| l.departs_utc().date_naive())
+            .collect();
+        days.sort_unstable();
+        days.dedup();
+        days
+    }
+
     /// The airfield with this id.
     pub fn airfield(&self, id: &str) -> Option<&Airfield> {
         self.airfield_index.get(id).map(|&i| &self.airfields[i])

@@ -437,14 +437,7 @@ fn lines_of(v: Vec<String>) -> Vec<Line<'static>> {
 /// words `rhoboard check` uses, and how to start the board on one.
 pub fn no_legs_text(app: &App) -> String {
     let day = app.clock.format("%Y-%m-%d");
-    let mut days: Vec<chrono::NaiveDate> = app
-        .ops
-        .legs
-        .iter()
-        .map(|l| l.departs_utc().date_naive())
-        .collect();
-    days.sort();
-    days.dedup();
+    let days = app.ops.leg_days();
     match days.first() {
         Some(d) => format!(
             "No legs depart on {day}. The operator has legs on {}: pass --at, e.g. rhoboard board --at {d}T08:00:00Z.",

@@ -624,13 +624,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         writeln!(out, "{}", crate::CAUTION)?;
         writeln!(out)?;
         if results.is_empty() {
-            let mut days: Vec<chrono::NaiveDate> = ops
-                .legs
-                .iter()
-                .map(|l| l.departs_utc().date_naive())
-                .collect();
-            days.sort();
-            days.dedup();
+            let days = ops.leg_days();
             match days.first() {
                 Some(d) => writeln!(
                     out,

@@ -415,18 +415,11 @@ pub fn write_atomically(path: &Path, text: &str) -> anyhow::Result<()> {
     Ok(())
 }
 
-/// Runs `rhoboard runway`.
 /// Without `--date` the state is today's: where the folder has no legs today but has
 /// some on other days (a folder planned ahead, or the demo's day), say so, so that a
 /// closure does not silently miss the day it was meant for.
 fn warn_if_no_legs_that_day(ops: &crate::ops::Ops, date: NaiveDate) {
-    let mut days: Vec<NaiveDate> = ops
-        .legs
-        .iter()
-        .map(|l| l.departs_utc().date_naive())
-        .collect();
-    days.sort_unstable();
-    days.dedup();
+    let days = ops.leg_days();
     if days.is_empty() || days.contains(&date) {
         return;
     }
@@ -439,6 +432,7 @@ fn warn_if_no_legs_that_day(ops: &crate::ops::Ops, date: NaiveDate) {
     );
 }
 
+/// Runs `rhoboard runway`.
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let choice = config::choose(args.ops.as_deref(), config::config_file().as_deref());
     let dir = match &choice {
