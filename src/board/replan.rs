@@ -271,7 +271,7 @@ fn leg_words_kg(l: &Leg) -> String {
         },
     );
     format!(
-        "{} {} {}-{} {} · {}",
+        "{} {} {}-{} pilot {} · {}",
         l.departs_utc().format("%H%MZ"),
         l.aircraft,
         l.from,
