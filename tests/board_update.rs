@@ -1177,8 +1177,10 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
         Some("27"),
         "L12 at 1400Z: open again"
     );
-    // The end in use set at 14Z holds for the whole day, and the board says which
-    // legs already flown it re-grades.
+    // The end in use set at 14Z holds from 14Z (trial finding: it re-graded L01 and
+    // L05, flown that morning, and turned L05's sign-off to re-check): L05 keeps its
+    // grade and runway, L12 at 1400Z takes 09.
+    let l05_before = state(&app, "L05");
     app.update(key(KeyCode::Char('r')));
     app.update(key(KeyCode::BackTab));
     app.update(Msg::Key(KeyEvent::new(
@@ -1194,10 +1196,15 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
     assert!(
         app.notes
             .iter()
-            .any(|n| n.text.contains("holds for the whole day")
-                && n.text.contains("L01")
-                && n.text.contains("L05")),
+            .any(|n| n.text.starts_with("XSEA 09: in use")),
         "{:?}",
         app.notes.iter().take(5).collect::<Vec<_>>()
+    );
+    assert_eq!(state(&app, "L05"), l05_before, "L05 flew before 14Z");
+    assert_eq!(runway(&app, "L05").as_deref(), Some("27"));
+    assert_eq!(
+        runway(&app, "L12").as_deref(),
+        Some("09"),
+        "L12 at 1400Z: 09 set in use"
     );
 }

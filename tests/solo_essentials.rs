@@ -347,13 +347,12 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         err.contains("--condition 'soft' (soft ground) is for grass"),
         "{err}"
     );
-    // A closure's start: before its end, on the state's day, and only with --closed.
+    // A change's start: before a closure's end, and on the state's day.
     for (args, said) in [
         (
             &["--closed", "--from", "16:00Z", "--until", "15:00Z"][..],
             "--from 1600Z is not before --until 1500Z",
         ),
-        (&["--from", "16:00Z"][..], "--from goes with --closed"),
         (
             &["--closed", "--from", "2026-06-15T01:00:00Z"][..],
             "--from 2026-06-15 0100Z is not on 2026-06-14",
@@ -682,5 +681,45 @@ fn a_closure_from_a_time_keeps_the_end_for_the_legs_before_it() {
         r.departure.runway.as_deref(),
         Some("09"),
         "from 1200Z: closed"
+    );
+}
+
+/// Any change made during the day holds from its start (`from`): wet grass set at 12Z
+/// leaves the morning's legs on the dry runway they flew from, and the afternoon's get
+/// the wet factor; with no start it holds for the whole day.
+#[test]
+fn a_change_made_during_the_day_holds_from_its_start() {
+    let ops = rhoboard::ops::demo::load().ops.unwrap();
+    let date = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    let surface = |from: Option<DateTime<Utc>>, t: DateTime<Utc>| {
+        let mut state = RunwayStateFile::new(date);
+        state.entries.push(EndState {
+            airfield: "XMRS".into(),
+            end: "22".into(),
+            condition: Some(DayCondition::Wet),
+            from,
+            ..EndState::default()
+        });
+        let mut with = ops.clone();
+        with.runway_states.push(state);
+        let model = Model::new(&with, &DaySettings::for_date(&with, date));
+        let fi = with.airfields.iter().position(|a| a.id == "XMRS").unwrap();
+        let k = with.airfields[fi]
+            .runway_ends
+            .iter()
+            .position(|e| e.designator == "22")
+            .unwrap();
+        model.field_ends_at(fi, t)[k].day_note.clone()
+    };
+    assert_eq!(
+        surface(Some(at(12, 0)), at(8, 0)),
+        None,
+        "before 12Z: as declared"
+    );
+    assert_eq!(surface(Some(at(12, 0)), at(13, 0)).as_deref(), Some("wet"));
+    assert_eq!(
+        surface(None, at(8, 0)).as_deref(),
+        Some("wet"),
+        "no start: all day"
     );
 }

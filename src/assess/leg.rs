@@ -1209,7 +1209,9 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         }
 
         // Every end, then the runway in use.
-        let ends = model.field_ends(side_in.field_index);
+        // The ends as the day's state has them at the event (a change set later in
+        // the day leaves it as it was).
+        let ends = model.field_ends_at(side_in.field_index, side_in.event_at);
         let mut options: Vec<(EndOption, Option<Evaluated>)> = Vec::with_capacity(ends.len());
         for (k, end) in ends.iter().enumerate() {
             let w = wx.on_end(end.heading_true_deg);
@@ -1234,7 +1236,9 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         let usable: Vec<usize> = (0..options.len())
             .filter(|&k| options[k].1.is_some())
             .collect();
-        let set = model.set_in_use[side_in.field_index].filter(|&k| usable.contains(&k));
+        let set = model
+            .set_in_use_at(side_in.field_index, side_in.event_at)
+            .filter(|&k| usable.contains(&k));
         let choice = if let Some(k) = set {
             Some((k, "set for the day".to_string()))
         } else if wx.calm() {

@@ -290,6 +290,41 @@ impl DaySettings {
         }
         d
     }
+
+    /// These settings as they stand at `t` ([`RunwayStateFile::as_of`]): the state's
+    /// entries in force then, and an end in use that the state set taken from them.
+    pub fn as_of(&self, ops: &Ops, t: Option<chrono::DateTime<chrono::Utc>>) -> DaySettings {
+        let Some(full) = &self.state else {
+            return self.clone();
+        };
+        let state = full.as_of(t);
+        let mut runway_in_use = self.runway_in_use.clone();
+        for a in &ops.airfields {
+            if full.in_use(&a.id).is_some() {
+                match state.in_use(&a.id) {
+                    Some(e) => runway_in_use.insert(a.id.clone(), e),
+                    None => runway_in_use.remove(&a.id),
+                };
+            }
+        }
+        DaySettings {
+            runway_in_use,
+            closed: self.closed.clone(),
+            state: Some(state),
+        }
+    }
+}
+
+/// The runway ends as a day's state has them from `from` on (a change set during the
+/// day: [`Model::field_ends_at`]).
+#[derive(Debug, Clone)]
+pub struct Epoch {
+    /// From when.
+    pub from: chrono::DateTime<chrono::Utc>,
+    /// All runway ends, grouped by airfield as [`Model::ends`].
+    pub ends: Vec<EndModel>,
+    /// Per `Ops::airfields`: the end set in use, as [`Model::set_in_use`].
+    pub set_in_use: Vec<Option<usize>>,
 }
 
 /// The whole operator, compiled.
@@ -305,6 +340,9 @@ pub struct Model {
     pub aircraft_type: Vec<Option<usize>>,
     /// Per `Ops::airfields`: the end set in use today, index into the field's ends.
     pub set_in_use: Vec<Option<usize>>,
+    /// The ends as changes made during the day have them, from each change's time on
+    /// (`ends` and `set_in_use` are the state from the day's start), earliest first.
+    pub epochs: Vec<Epoch>,
     /// Headwind credit, fraction (0.5).
     pub headwind_credit: f64,
     /// Tailwind penalty, fraction (1.5).
@@ -404,65 +442,34 @@ impl Model {
             })
             .collect();
         let mut fields = Vec::with_capacity(ops.airfields.len());
-        let mut ends = Vec::new();
-        let mut set_in_use = Vec::with_capacity(ops.airfields.len());
-        for (fi, a) in ops.airfields.iter().enumerate() {
-            let closed = day.closed.get(&a.id);
-            let first_end = ends.len();
-            for (ei, e) in a.runway_ends.iter().enumerate() {
-                let mut usable = closed.is_none_or(|c| !c.contains(&e.designator));
-                let today = day.state.as_ref().and_then(|s| s.end(&a.id, &e.designator));
-                let (mut tora, mut toda, mut asda, mut lda) =
-                    (e.tora_m, e.toda_m, e.asda_m, e.lda_m);
-                let mut surface = SurfaceCase::of(e.surface, e.condition);
-                let (mut closed_from, mut closed_until) = (None, None);
-                let mut day_note = None;
-                if let Some(t) = &today {
-                    if t.closed == Some(true) {
-                        match (t.from, t.until) {
-                            (None, None) => usable = false,
-                            (from, until) => (closed_from, closed_until) = (from, until),
-                        }
-                    }
-                    // Reduced distances only ever reduce.
-                    tora = t.tora_m.map_or(tora, |v| v.min(tora));
-                    toda = t.toda_m.map_or(toda, |v| v.min(toda));
-                    asda = t.asda_m.map_or(asda, |v| v.min(asda));
-                    lda = t.lda_m.map_or(lda, |v| v.min(lda));
-                    if let Some(c) = t.condition {
-                        surface = SurfaceCase::of_day(e.surface, c);
-                    }
-                    day_note = Some(describe(t));
-                }
-                ends.push(EndModel {
-                    field: fi,
-                    index: ei,
-                    heading_true_deg: e.true_heading_deg,
-                    tora_m: tora,
-                    toda_m: toda.min(tora * 1.5),
-                    asda_m: asda,
-                    lda_m: lda,
-                    surface,
-                    slope_percent: e.slope_percent,
-                    required_gradient_ft_per_nm: e
-                        .required_climb_gradient
-                        .as_ref()
-                        .map(|g| g.ft_per_nm),
-                    usable,
-                    closed_from,
-                    closed_until,
-                    day_note,
-                });
-            }
+        let mut first_end = 0;
+        for a in &ops.airfields {
             let find = |d: &str| a.runway_ends.iter().position(|e| e.designator == d);
-            set_in_use.push(day.runway_in_use.get(&a.id).and_then(|d| find(d)));
             fields.push(FieldModel {
                 elevation_ft: a.elevation_ft,
                 first_end,
                 end_count: a.runway_ends.len(),
                 preferential_end: a.preferential_end.as_deref().and_then(find),
             });
+            first_end += a.runway_ends.len();
         }
+        // The day's start, then each time a change during the day takes effect.
+        let (ends, set_in_use) = compile_ends(ops, &day.as_of(ops, None));
+        let epochs = day
+            .state
+            .as_ref()
+            .map(|s| s.starts())
+            .unwrap_or_default()
+            .into_iter()
+            .map(|from| {
+                let (ends, set_in_use) = compile_ends(ops, &day.as_of(ops, Some(from)));
+                Epoch {
+                    from,
+                    ends,
+                    set_in_use,
+                }
+            })
+            .collect();
         let aircraft_type = ops
             .aircraft
             .iter()
@@ -477,6 +484,7 @@ impl Model {
             ends,
             aircraft_type,
             set_in_use,
+            epochs,
             headwind_credit: policy.wind.headwind_credit_percent / 100.0,
             tailwind_factor: policy.wind.tailwind_penalty_percent / 100.0,
             stale_after_min: policy.stale_after_min,
@@ -525,11 +533,94 @@ impl Model {
         self.sun_on(date).field(fi)
     }
 
-    /// The runway ends of field `fi`.
+    /// The runway ends of field `fi` as the day starts.
     pub fn field_ends(&self, fi: usize) -> &[EndModel] {
         let f = &self.fields[fi];
         &self.ends[f.first_end..f.first_end + f.end_count]
     }
+
+    /// The runway ends of field `fi` at `t`: with the changes made during the day that
+    /// hold by then (a change set at 14Z leaves the morning's legs as they were).
+    pub fn field_ends_at(&self, fi: usize, t: chrono::DateTime<chrono::Utc>) -> &[EndModel] {
+        let f = &self.fields[fi];
+        let all = self
+            .epochs
+            .iter()
+            .rev()
+            .find(|e| e.from <= t)
+            .map_or(&self.ends, |e| &e.ends);
+        &all[f.first_end..f.first_end + f.end_count]
+    }
+
+    /// The end set in use at field `fi` at `t` (as [`Model::field_ends_at`]).
+    pub fn set_in_use_at(&self, fi: usize, t: chrono::DateTime<chrono::Utc>) -> Option<usize> {
+        self.epochs
+            .iter()
+            .rev()
+            .find(|e| e.from <= t)
+            .map_or(&self.set_in_use, |e| &e.set_in_use)
+            .get(fi)
+            .copied()
+            .flatten()
+    }
+}
+
+/// Every airfield's runway ends with `day`'s state on them, grouped by airfield as
+/// [`Model::ends`], and each airfield's end set in use.
+fn compile_ends(ops: &Ops, day: &DaySettings) -> (Vec<EndModel>, Vec<Option<usize>>) {
+    let mut ends = Vec::new();
+    let mut set_in_use = Vec::with_capacity(ops.airfields.len());
+    for (fi, a) in ops.airfields.iter().enumerate() {
+        let closed = day.closed.get(&a.id);
+
+        for (ei, e) in a.runway_ends.iter().enumerate() {
+            let mut usable = closed.is_none_or(|c| !c.contains(&e.designator));
+            let today = day.state.as_ref().and_then(|s| s.end(&a.id, &e.designator));
+            let (mut tora, mut toda, mut asda, mut lda) = (e.tora_m, e.toda_m, e.asda_m, e.lda_m);
+            let mut surface = SurfaceCase::of(e.surface, e.condition);
+            let (mut closed_from, mut closed_until) = (None, None);
+            let mut day_note = None;
+            if let Some(t) = &today {
+                if t.closed == Some(true) {
+                    match (t.from, t.until) {
+                        (None, None) => usable = false,
+                        (from, until) => (closed_from, closed_until) = (from, until),
+                    }
+                }
+                // Reduced distances only ever reduce.
+                tora = t.tora_m.map_or(tora, |v| v.min(tora));
+                toda = t.toda_m.map_or(toda, |v| v.min(toda));
+                asda = t.asda_m.map_or(asda, |v| v.min(asda));
+                lda = t.lda_m.map_or(lda, |v| v.min(lda));
+                if let Some(c) = t.condition {
+                    surface = SurfaceCase::of_day(e.surface, c);
+                }
+                day_note = Some(describe(t));
+            }
+            ends.push(EndModel {
+                field: fi,
+                index: ei,
+                heading_true_deg: e.true_heading_deg,
+                tora_m: tora,
+                toda_m: toda.min(tora * 1.5),
+                asda_m: asda,
+                lda_m: lda,
+                surface,
+                slope_percent: e.slope_percent,
+                required_gradient_ft_per_nm: e
+                    .required_climb_gradient
+                    .as_ref()
+                    .map(|g| g.ft_per_nm),
+                usable,
+                closed_from,
+                closed_until,
+                day_note,
+            });
+        }
+        let find = |d: &str| a.runway_ends.iter().position(|e| e.designator == d);
+        set_in_use.push(day.runway_in_use.get(&a.id).and_then(|d| find(d)));
+    }
+    (ends, set_in_use)
 }
 
 /// Today's state of an end in words: "closed until 1800Z (works); TORA 900 m; wet".

@@ -494,7 +494,7 @@ impl<'a> FieldPrep<'a> {
     ) -> FieldPrep<'a> {
         let ops = ctx.ops;
         let model = ctx.model;
-        let ends = model.field_ends(fi);
+        let ends = model.field_ends_at(fi, ctx.at);
         let FieldReport { found, wx } = report;
         let stale = found.as_ref().is_some_and(|(_, u)| u.stale);
         let mut winds = std::mem::take(&mut scratch.winds);
@@ -506,19 +506,22 @@ impl<'a> FieldPrep<'a> {
         usable.clear();
         usable.extend(ends.iter().map(|e| e.usable_at(ctx.at)));
         let is_usable = |k: &usize| usable.get(*k).copied().unwrap_or(false);
-        let in_use = model.set_in_use[fi].filter(is_usable).or_else(|| {
-            let wx = wx.as_ref()?;
-            if wx.calm() {
-                model.fields[fi]
-                    .preferential_end
-                    .filter(is_usable)
-                    .or_else(|| (0..ends.len()).find(is_usable))
-            } else {
-                (0..ends.len())
-                    .filter(is_usable)
-                    .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
-            }
-        });
+        let in_use = model
+            .set_in_use_at(fi, ctx.at)
+            .filter(is_usable)
+            .or_else(|| {
+                let wx = wx.as_ref()?;
+                if wx.calm() {
+                    model.fields[fi]
+                        .preferential_end
+                        .filter(is_usable)
+                        .or_else(|| (0..ends.len()).find(is_usable))
+                } else {
+                    (0..ends.len())
+                        .filter(is_usable)
+                        .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
+                }
+            });
         let mut minimums = [None; 4];
         for c in Category::ALL {
             minimums[cat_index(c)] = ops.minimums(c);

@@ -759,30 +759,6 @@ impl App {
             parts.push("in use".to_string());
         }
         let what = format!("{} {}: {}", entry.airfield, entry.end, parts.join("; "));
-        // Only a closure has times: the rest holds for the whole day, so say which legs
-        // already flown at that airfield it re-grades.
-        if crate::commands::runway::whole_day(&entry) {
-            let gone: Vec<&str> = self
-                .assessment
-                .legs
-                .iter()
-                .filter_map(|r| self.ops.legs.get(r.index))
-                .filter(|l| {
-                    l.departs_utc() < self.clock
-                        && (l.from == entry.airfield || l.to == entry.airfield)
-                })
-                .map(|l| l.id.as_str())
-                .collect();
-            if !gone.is_empty() {
-                let text = format!(
-                    "{what}: holds for the whole day (only a closure has times), so the legs \
-                     already flown at {} are graded with it too: {}",
-                    entry.airfield,
-                    gone.join(", ")
-                );
-                self.note(NoteKind::Info, text);
-            }
-        }
         match self.settings.ops_dir.clone() {
             Some(dir) if !self.settings.demo => {
                 self.note(NoteKind::Info, format!("{what}: saving…"));

@@ -146,9 +146,9 @@ impl RunwayForm {
             }
         };
         let opt = |s: &String| (!s.trim().is_empty()).then(|| s.trim().to_string());
-        let from = now
-            .filter(|_| closed == Some(true))
-            .map(|t| t.format("%Y-%m-%dT%H:%M:00Z").to_string());
+        // Every change starts at the board's clock: the legs already flown keep the
+        // state they flew in.
+        let from = now.map(|t| t.format("%Y-%m-%dT%H:%M:00Z").to_string());
         let req = Request {
             closed,
             from,

@@ -798,7 +798,7 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         let local = sun_local(app, sunset).unwrap_or_else(dash);
         let today: Vec<String> = app
             .model()
-            .field_ends(fi)
+            .field_ends_at(fi, app.clock)
             .iter()
             .filter_map(|e| {
                 let note = e.day_note.as_ref()?;
@@ -1343,10 +1343,10 @@ fn end_lines(app: &App, fi: usize, t: Theme) -> Vec<Line<'static>> {
     let (Some(field), Some(_)) = (app.ops.airfields.get(fi), app.model().fields.get(fi)) else {
         return Vec::new();
     };
-    let set = app.model().set_in_use.get(fi).copied().flatten();
+    let set = app.model().set_in_use_at(fi, app.clock);
     let now = app.field_end_in_use(fi);
     app.model()
-        .field_ends(fi)
+        .field_ends_at(fi, app.clock)
         .iter()
         .map(|e| {
             let id = field

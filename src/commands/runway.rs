@@ -27,9 +27,9 @@ pub struct Args {
     /// Open it again.
     #[arg(long)]
     pub open: bool,
-    /// The closure starts at this time: `13:00Z` on the day, or RFC 3339. Legs before it
-    /// keep the end (give it for a closure that starts now, so the morning's flown legs
-    /// are not re-graded).
+    /// The change holds from this time: `13:00Z` on the day, or RFC 3339 (none: the whole
+    /// day). Legs before it keep the state they flew in (give it for a change made during
+    /// the day, so the morning's flown legs are not re-graded).
     #[arg(long, value_name = "TIME")]
     pub from: Option<String>,
     /// The closure ends at this time: `18:00Z` on the day, or RFC 3339.
@@ -233,9 +233,6 @@ pub fn entry(
         .filter(|f| !f.is_empty())
         .map(|f| parse_until(&names.of("from"), f, date))
         .transpose()?;
-    if from.is_some() && req.closed != Some(true) {
-        bail!("{} goes with {}", names.of("from"), names.of("closed"));
-    }
     // A day's runway state holds for its own UTC day: times on it (until may be the
     // midnight that ends it).
     let start = date.and_time(NaiveTime::MIN).and_utc();
@@ -475,9 +472,9 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         entry,
         (today.date_naive() == date).then_some(today),
     );
-    if whole_day(&entry) {
+    if whole_day(&entry) && entry.from.is_none() {
         eprintln!(
-            "rhoboard: note: a reduced distance, a surface condition or the end in use holds for the whole of {date}: the legs already flown that day are graded with it too (only a closure has times)"
+            "rhoboard: note: with no --from, this holds for the whole of {date}: the legs already flown that day are graded with it too (--from 14:00Z starts it then)"
         );
     }
     if args.date.is_none() {

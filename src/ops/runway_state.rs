@@ -145,6 +145,29 @@ impl RunwayStateFile {
         out
     }
 
+    /// The state as it stands at `t`: the entries that hold from the day's start (no
+    /// `from`) and those whose `from` is at or before `t` (`None`: the day's start
+    /// only). A change set at 14Z is not part of the state at 09Z.
+    pub fn as_of(&self, t: Option<DateTime<Utc>>) -> RunwayStateFile {
+        RunwayStateFile {
+            entries: self
+                .entries
+                .iter()
+                .filter(|e| e.from.is_none_or(|f| t.is_some_and(|t| f <= t)))
+                .cloned()
+                .collect(),
+            ..self.clone()
+        }
+    }
+
+    /// The times entries start from (their `from`), earliest first, each once.
+    pub fn starts(&self) -> Vec<DateTime<Utc>> {
+        let mut t: Vec<DateTime<Utc>> = self.entries.iter().filter_map(|e| e.from).collect();
+        t.sort_unstable();
+        t.dedup();
+        t
+    }
+
     /// The end set in use at an airfield, the latest entry that says so.
     pub fn in_use(&self, airfield: &str) -> Option<String> {
         self.entries
