@@ -1143,8 +1143,8 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
         Some("09"),
         "L12 at 1400Z loses 27"
     );
-    // Opened again at 14Z: the closure ends then, not erased (L10 left at 1300Z under
-    // it and keeps it); L12 at 1400Z has 27 again.
+    // Opened again at 14Z: from then on (L10 left at 1300Z under the closure and
+    // keeps it); L12 at 1400Z has 27 again.
     app.update(key(KeyCode::Char('n')));
     app.update(key(KeyCode::Char('r')));
     app.update(key(KeyCode::BackTab));
@@ -1159,7 +1159,7 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
     assert!(
         app.notes
             .iter()
-            .any(|n| n.text.contains("XSEA 27: closed 1300Z–1400Z")),
+            .any(|n| n.text.starts_with("XSEA 27: open: ")),
         "{:?}",
         app.notes.iter().take(5).collect::<Vec<_>>()
     );
@@ -1206,5 +1206,28 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
         runway(&app, "L12").as_deref(),
         Some("09"),
         "L12 at 1400Z: 09 set in use"
+    );
+}
+
+/// The runway form closes from the board's clock; an end time before it is named as
+/// such, under "until" (trial finding: the error named a "from" the form does not
+/// have).
+#[test]
+fn an_until_before_the_boards_clock_is_named_as_such() {
+    let mut app = demo_stepped_to(14);
+    app.update(key(KeyCode::Char('r')));
+    type_text(&mut app, "y");
+    app.update(key(KeyCode::Tab));
+    type_text(&mut app, "13:00Z");
+    app.update(key(KeyCode::Enter));
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("the form stays open");
+    };
+    assert_eq!(f.focus, 3, "{:?}", f.errors);
+    assert_eq!(
+        f.error_for(3),
+        Some(
+            "until is not after the board's clock (1400Z): give a later time, or leave it empty for the rest of the day"
+        )
     );
 }

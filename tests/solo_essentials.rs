@@ -723,3 +723,54 @@ fn a_change_made_during_the_day_holds_from_its_start() {
         "no start: all day"
     );
 }
+
+/// An end's state in words is never empty (trial finding: "today:" with nothing after
+/// it, and `runway_today: ""` in the JSON, for an end set in use or opened again), and
+/// an end opened again from 14Z with wet set in the same entry is wet from 14Z only.
+#[test]
+fn an_ends_state_in_words_is_never_empty() {
+    let ops = rhoboard::ops::demo::load().ops.unwrap();
+    let date = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    let mut state = RunwayStateFile::new(date);
+    let entry = |end: &str| EndState {
+        airfield: "XSEA".into(),
+        end: end.into(),
+        ..EndState::default()
+    };
+    state.entries.push(EndState {
+        in_use: Some(true),
+        ..entry("09")
+    });
+    state.entries.push(EndState {
+        closed: Some(true),
+        from: Some(at(12, 0)),
+        ..entry("27")
+    });
+    state.entries.push(EndState {
+        closed: Some(false),
+        from: Some(at(14, 0)),
+        condition: Some(DayCondition::Wet),
+        ..entry("27")
+    });
+    let mut with = ops.clone();
+    with.runway_states.push(state);
+    let model = Model::new(&with, &DaySettings::for_date(&with, date));
+    let fi = with.airfields.iter().position(|a| a.id == "XSEA").unwrap();
+    let notes = |t: DateTime<Utc>| -> Vec<Option<String>> {
+        model
+            .field_ends_at(fi, t)
+            .iter()
+            .map(|e| e.day_note.clone())
+            .collect()
+    };
+    // XSEA's ends are 09 and 27, in that order.
+    assert_eq!(notes(at(8, 0)), [Some("in use".into()), None]);
+    assert_eq!(
+        notes(at(13, 0)),
+        [Some("in use".into()), Some("closed from 1200Z".into())]
+    );
+    assert_eq!(
+        notes(at(15, 0)),
+        [Some("in use".into()), Some("open; wet".into())]
+    );
+}

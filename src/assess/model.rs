@@ -595,7 +595,8 @@ fn compile_ends(ops: &Ops, day: &DaySettings) -> (Vec<EndModel>, Vec<Option<usiz
                 if let Some(c) = t.condition {
                     surface = SurfaceCase::of_day(e.surface, c);
                 }
-                day_note = Some(describe(t));
+                // An entry that says nothing in words leaves none.
+                day_note = Some(describe(t)).filter(|d| !d.is_empty());
             }
             ends.push(EndModel {
                 field: fi,
@@ -635,6 +636,7 @@ pub fn describe(t: &EndState) -> String {
         (Some(true), Some(f), None) => parts.push(format!("closed from {}", f.format("%H%MZ"))),
         (Some(true), None, Some(u)) => parts.push(format!("closed until {}", u.format("%H%MZ"))),
         (Some(true), None, None) => parts.push("closed".to_string()),
+        (Some(false), ..) => parts.push("open".to_string()),
         _ => {}
     }
     for (name, v) in [
@@ -649,6 +651,9 @@ pub fn describe(t: &EndState) -> String {
     }
     if let Some(c) = t.condition {
         parts.push(c.word().to_string());
+    }
+    if t.in_use == Some(true) {
+        parts.push("in use".to_string());
     }
     let mut s = parts.join("; ");
     if !t.note.is_empty() {

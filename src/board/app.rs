@@ -747,18 +747,13 @@ impl App {
     /// A submitted runway-state entry: written by the event loop to the operator
     /// folder, or on the built-in demo (no folder) kept in memory and said so.
     fn runway_entry(&mut self, entry: EndState) {
-        let mut parts: Vec<String> = Vec::new();
-        if entry.closed == Some(false) {
-            parts.push("open again".to_string());
-        }
-        let described = crate::assess::model::describe(&entry);
-        if !described.is_empty() {
-            parts.push(described);
-        }
-        if entry.in_use == Some(true) {
-            parts.push("in use".to_string());
-        }
-        let what = format!("{} {}: {}", entry.airfield, entry.end, parts.join("; "));
+        // In the words the day's state uses ("open; wet", "closed from 1300Z", "in use").
+        let what = format!(
+            "{} {}: {}",
+            entry.airfield,
+            entry.end,
+            crate::assess::model::describe(&entry)
+        );
         match self.settings.ops_dir.clone() {
             Some(dir) if !self.settings.demo => {
                 self.note(NoteKind::Info, format!("{what}: saving…"));

@@ -163,9 +163,7 @@ impl RunwayForm {
             by: "board".to_string(),
         };
         let end = v[1].trim().to_ascii_uppercase();
-        match entry(ops, &self.airfield(), &end, date, &req, Names::Labels)
-            .map(|e| crate::commands::runway::reopen_at(ops, date, e, now))
-        {
+        match entry(ops, &self.airfield(), &end, date, &req, Names::Labels) {
             Ok(e) if self.errors.is_empty() => {
                 if changes_something(&e) {
                     return Some(e);
@@ -179,12 +177,23 @@ impl RunwayForm {
             }
             Ok(_) => {}
             Err(e) => {
-                let msg = e.to_string();
+                let mut msg = e.to_string();
+                // The form has no start field (it is the board's clock): say so.
+                if msg.starts_with("from ")
+                    && msg.contains("is not before until")
+                    && let Some(t) = now
+                {
+                    msg = format!(
+                        "until is not after the board's clock ({}): give a later time, or \
+                         leave it empty for the rest of the day",
+                        t.format("%H%MZ")
+                    );
+                }
                 let field = if msg.starts_with("unknown airfield") {
                     Some(0)
                 } else if msg.contains("has no runway end") {
                     Some(1)
-                } else if msg.starts_with("from ") {
+                } else if msg.starts_with("from ") || msg.starts_with("until is not after") {
                     // The start is the board's clock: the end time is what to change.
                     Some(3)
                 } else {

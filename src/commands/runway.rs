@@ -293,43 +293,6 @@ pub fn entry(
     })
 }
 
-/// Opening an end again at `now` ends its closure then rather than erase it: the legs
-/// flown under the closure keep it (an entry closed from its start until `now`). An
-/// entry that opens nothing closed at `now`, or with no `now`, is returned as it is.
-pub fn reopen_at(
-    ops: &crate::ops::Ops,
-    date: NaiveDate,
-    entry: EndState,
-    now: Option<DateTime<Utc>>,
-) -> EndState {
-    let Some(now) = now.filter(|_| entry.closed == Some(false)) else {
-        return entry;
-    };
-    let current = ops
-        .runway_states
-        .iter()
-        .find(|s| s.date == date)
-        .and_then(|s| s.end(&entry.airfield, &entry.end));
-    match current {
-        Some(c)
-            if c.closed == Some(true)
-                && c.from.is_none_or(|f| f < now)
-                && c.until.is_none_or(|u| u > now) =>
-        {
-            EndState {
-                closed: Some(true),
-                from: c.from,
-                until: Some(
-                    now.duration_trunc(chrono::TimeDelta::minutes(1))
-                        .unwrap_or(now),
-                ),
-                ..entry
-            }
-        }
-        _ => entry,
-    }
-}
-
 /// Whether an entry sets something that holds for the whole day (only a closure has
 /// times): a reduced distance, a surface condition, the end in use.
 pub fn whole_day(e: &EndState) -> bool {
@@ -464,17 +427,20 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         by: args.by.clone().unwrap_or_default(),
     };
     let entry = entry(&ops, &args.field, &args.end, date, &req, Names::Flags)?;
-    // Opened today: the closure ends now, the legs flown under it keep it.
+    // Opened again on today's date with no --from: from now, so the legs flown under
+    // the closure keep it (and whatever else the same entry sets starts then too).
     let today = Utc::now();
-    let entry = reopen_at(
-        &ops,
-        date,
-        entry,
-        (today.date_naive() == date).then_some(today),
-    );
+    let mut entry = entry;
+    if entry.closed == Some(false) && entry.from.is_none() && today.date_naive() == date {
+        entry.from = Some(
+            today
+                .duration_trunc(chrono::TimeDelta::minutes(1))
+                .unwrap_or(today),
+        );
+    }
     if whole_day(&entry) && entry.from.is_none() {
         eprintln!(
-            "rhoboard: note: with no --from, this holds for the whole of {date}: the legs already flown that day are graded with it too (--from 14:00Z starts it then)"
+            "rhoboard: note: with no --from, this holds for the whole of {date}: the legs already flown that day are graded with it too (--from HH:MMZ starts it then)"
         );
     }
     if args.date.is_none() {
@@ -490,16 +456,14 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     };
     match state.end(&field, &end) {
         Some(s) => {
-            let mut parts = vec![crate::assess::model::describe(&s)];
-            if state.in_use(&field).as_deref() == Some(end.as_str()) {
-                parts.push("in use".to_string());
-            }
-            parts.retain(|p| !p.is_empty());
-            if parts.is_empty() {
-                // Opened again with nothing else set (trial finding: an empty line).
-                parts.push("open; as declared".to_string());
-            }
-            writeln!(out, "{field} {end} on {date}: {}", parts.join("; "))?
+            let said = crate::assess::model::describe(&s);
+            // Nothing in words (a note alone): as declared, never an empty line.
+            let said = if said.is_empty() {
+                "as declared".to_string()
+            } else {
+                said
+            };
+            writeln!(out, "{field} {end} on {date}: {said}")?
         }
         None => writeln!(
             out,
