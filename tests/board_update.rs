@@ -1116,12 +1116,7 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
     }
     app.update(key(KeyCode::Char('r')));
     // The cursor starts on "closed" with the end in use filled in; make it 27.
-    app.update(key(KeyCode::BackTab));
-    app.update(Msg::Key(KeyEvent::new(
-        KeyCode::Char('u'),
-        KeyModifiers::CONTROL,
-    )));
-    type_text(&mut app, "27");
+    runway_end(&mut app, "27");
     app.update(key(KeyCode::Tab));
     type_text(&mut app, "y");
     app.update(key(KeyCode::Enter));
@@ -1147,12 +1142,7 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
     // keeps it); L12 at 1400Z has 27 again.
     app.update(key(KeyCode::Char('n')));
     app.update(key(KeyCode::Char('r')));
-    app.update(key(KeyCode::BackTab));
-    app.update(Msg::Key(KeyEvent::new(
-        KeyCode::Char('u'),
-        KeyModifiers::CONTROL,
-    )));
-    type_text(&mut app, "27");
+    runway_end(&mut app, "27");
     app.update(key(KeyCode::Tab));
     type_text(&mut app, "n");
     app.update(key(KeyCode::Enter));
@@ -1182,12 +1172,7 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
     // grade and runway, L12 at 1400Z takes 09.
     let l05_before = state(&app, "L05");
     app.update(key(KeyCode::Char('r')));
-    app.update(key(KeyCode::BackTab));
-    app.update(Msg::Key(KeyEvent::new(
-        KeyCode::Char('u'),
-        KeyModifiers::CONTROL,
-    )));
-    type_text(&mut app, "09");
+    runway_end(&mut app, "09");
     for _ in 0..8 {
         app.update(key(KeyCode::Tab));
     }
@@ -1230,4 +1215,15 @@ fn an_until_before_the_boards_clock_is_named_as_such() {
             "until is not after the board's clock (1400Z): give a later time, or leave it empty for the rest of the day"
         )
     );
+}
+
+/// In the open runway form (cursor on "closed"): back to the end field, cleared, and
+/// `end` typed there.
+fn runway_end(app: &mut rhoboard::board::App, end: &str) {
+    app.update(key(KeyCode::BackTab));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    type_text(app, end);
 }
