@@ -774,3 +774,45 @@ fn an_ends_state_in_words_is_never_empty() {
         [Some("in use".into()), Some("open; wet".into())]
     );
 }
+
+/// An end set in use from a time says so in the runway reason ("set in use from
+/// 1200Z"), not "set for the day"; the legs before the change keep the wind's choice,
+/// and an end set with no start is "set for the day" (trial finding).
+#[test]
+fn an_end_set_in_use_from_a_time_says_from_when() {
+    let ops = rhoboard::ops::demo::load().ops.unwrap();
+    let l = ops.legs.iter().find(|l| l.id == "L01").unwrap().clone();
+    let date = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    let with_entry = |from: Option<DateTime<Utc>>| {
+        let mut state = RunwayStateFile::new(date);
+        state.entries.push(EndState {
+            airfield: "XSEA".into(),
+            end: "09".into(),
+            in_use: Some(true),
+            from,
+            ..EndState::default()
+        });
+        let mut with = ops.clone();
+        with.runway_states.push(state);
+        with
+    };
+    let mut late = l.clone();
+    late.departs_at = at(13, 0).fixed_offset();
+    late.arrives_at = at(13, 50).fixed_offset();
+    let wind = ["METAR XSEA 141300Z 27006KT 9999 FEW040 18/08 Q1016".to_string()];
+
+    let from_noon = with_entry(Some(at(12, 0)));
+    let day = DaySettings::for_date(&from_noon, date);
+    let r = run(&from_noon, &day, &wind, at(13, 10), &late);
+    assert_eq!(r.departure.runway.as_deref(), Some("09"));
+    assert_eq!(r.departure.runway_reason, "set in use from 1200Z");
+    let morning = ["METAR XSEA 140600Z 27006KT 9999 FEW040 18/08 Q1016".to_string()];
+    let r = run(&from_noon, &day, &morning, at(6, 30), &l);
+    assert_eq!(r.departure.runway.as_deref(), Some("27"), "before 1200Z");
+    assert_eq!(r.departure.runway_reason, "most headwind");
+
+    let all_day = with_entry(None);
+    let day = DaySettings::for_date(&all_day, date);
+    let r = run(&all_day, &day, &wind, at(13, 10), &late);
+    assert_eq!(r.departure.runway_reason, "set for the day");
+}

@@ -1240,7 +1240,11 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             .set_in_use_at(side_in.field_index, side_in.event_at)
             .filter(|&k| usable.contains(&k));
         let choice = if let Some(k) = set {
-            Some((k, "set for the day".to_string()))
+            let why = match model.set_in_use_since(side_in.field_index, side_in.event_at) {
+                Some(from) => format!("set in use from {}", from.format("%H%MZ")),
+                None => "set for the day".to_string(),
+            };
+            Some((k, why))
         } else if wx.calm() {
             match model.fields[side_in.field_index]
                 .preferential_end

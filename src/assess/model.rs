@@ -563,6 +563,28 @@ impl Model {
             .copied()
             .flatten()
     }
+
+    /// Since when the end set in use at field `fi` at `t` has been set: `None` when it
+    /// holds from the day's start, else the start of the change that made it so.
+    pub fn set_in_use_since(
+        &self,
+        fi: usize,
+        t: chrono::DateTime<chrono::Utc>,
+    ) -> Option<chrono::DateTime<chrono::Utc>> {
+        let now = self.set_in_use_at(fi, t)?;
+        let mut since = None;
+        for e in self.epochs.iter().rev().filter(|e| e.from <= t) {
+            if e.set_in_use.get(fi).copied().flatten() != Some(now) {
+                return since;
+            }
+            since = Some(e.from);
+        }
+        // Every change up to `t` keeps it: from the day's start, unless the day's start
+        // had another (or none).
+        (self.set_in_use.get(fi).copied().flatten() != Some(now))
+            .then_some(since)
+            .flatten()
+    }
 }
 
 /// Every airfield's runway ends with `day`'s state on them, grouped by airfield as

@@ -58,7 +58,7 @@ pub const RUNWAY_FIELDS: [RunwayField; 11] = [
     },
     RunwayField {
         label: "in use",
-        hint: "y makes this the end in use for the day",
+        hint: "y makes this the end in use from the board's clock",
     },
     RunwayField {
         label: "note",
