@@ -381,6 +381,47 @@ fn the_runway_command_writes_a_state_that_check_uses() {
             "{err}"
         );
     }
+    // The changes to one end are listed with when each holds from (trial nit: the
+    // merged state alone hid that wet starts at 1300Z), and opening an end that was
+    // never closed is noted.
+    let on_day = |args: &[&str]| {
+        let mut all = vec!["runway", "XMRS", "22"];
+        all.extend_from_slice(args);
+        all.extend_from_slice(&["--date", "2026-06-14", "--ops", d]);
+        cmd(&all)
+    };
+    let (code, _, err) = on_day(&["--condition", "wet", "--from", "13:00Z"]);
+    assert_eq!(code, 0, "{err}");
+    let (code, out, err) = on_day(&["--in-use"]);
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        out.contains("XMRS 22 on 2026-06-14: wet; in use\n  changes, in the order written"),
+        "{out}"
+    );
+    assert!(
+        out.contains("\n    from 1300Z: wet\n    all day: in use\n"),
+        "{out}"
+    );
+    let (code, _, err) = on_day(&["--open", "--from", "14:00Z"]);
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        err.contains("XMRS 22 was not closed on 2026-06-14"),
+        "{err}"
+    );
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "27",
+        "--open",
+        "--from",
+        "15:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 0, "{err}");
+    assert!(!err.contains("was not closed"), "{err}");
     let (code, out, _) = cmd(&["validate", "--ops", d]);
     assert_eq!(code, 0, "{out}");
     let (_, out, _) = cmd(&[

@@ -50,7 +50,7 @@ pub struct Args {
     /// Surface condition for the day: dry, wet, soft (ground), long-grass, water.
     #[arg(long, value_name = "CONDITION")]
     pub condition: Option<String>,
-    /// Make this the end in use for the day.
+    /// Make this the end in use (from --from, else the whole day).
     #[arg(long)]
     pub in_use: bool,
     /// Why (works, rain overnight …).
@@ -116,7 +116,7 @@ pub struct Request {
     pub lda: Option<String>,
     /// Surface condition word: dry, wet, soft, long-grass, water.
     pub condition: Option<String>,
-    /// Make the end the one in use for the day.
+    /// Make the end the one in use (from its start, else the whole day).
     pub in_use: bool,
     /// Why.
     pub note: String,
@@ -393,6 +393,50 @@ fn warn_if_no_legs_that_day(ops: &crate::ops::Ops, date: NaiveDate) {
 }
 
 /// Runs `rhoboard runway`.
+/// The changes to one end, in the order written, each with when it holds from: after
+/// the merged state, whenever there are several or one starts during the day, so
+/// the reader can see which legs each one reaches.
+fn write_changes(
+    state: &RunwayStateFile,
+    field: &str,
+    end: &str,
+    out: &mut dyn Write,
+) -> anyhow::Result<()> {
+    let changes: Vec<&EndState> = state
+        .entries
+        .iter()
+        .filter(|e| e.airfield == field && e.end == end)
+        .collect();
+    // One change that says its own window (a closure) needs no list.
+    if changes.len() < 2
+        && changes
+            .iter()
+            .all(|e| e.from.is_none() || e.closed == Some(true))
+    {
+        return Ok(());
+    }
+    writeln!(
+        out,
+        "  changes, in the order written (a later one wins where both hold):"
+    )?;
+    for e in changes {
+        let said = crate::assess::model::describe(e);
+        let said = if said.is_empty() {
+            "a note".to_string()
+        } else {
+            said
+        };
+        let line = match (e.closed, e.from) {
+            // A closure says its own window.
+            (Some(true), _) => said,
+            (_, Some(f)) => format!("from {}: {said}", f.format("%H%MZ")),
+            (_, None) => format!("all day: {said}"),
+        };
+        writeln!(out, "    {line}")?;
+    }
+    Ok(())
+}
+
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     let choice = config::choose(args.ops.as_deref(), config::config_file().as_deref());
     let dir = match &choice {
@@ -447,6 +491,17 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         warn_if_no_legs_that_day(&ops, date);
     }
     let (field, end) = (entry.airfield.clone(), entry.end.clone());
+    if entry.closed == Some(false) {
+        let before = read_state(&dir, date)?;
+        if before
+            .end(&field, &end)
+            .is_none_or(|s| s.closed != Some(true))
+        {
+            eprintln!(
+                "rhoboard: note: {field} {end} was not closed on {date}; --open changes nothing but the entry's other fields"
+            );
+        }
+    }
     let state = if changes_something(&entry) {
         let (path, state) = append_entry(&dir, date, entry)?;
         writeln!(out, "Saved in {}.", path.display())?;
@@ -463,7 +518,8 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
             } else {
                 said
             };
-            writeln!(out, "{field} {end} on {date}: {said}")?
+            writeln!(out, "{field} {end} on {date}: {said}")?;
+            write_changes(&state, &field, &end, out)?;
         }
         None => writeln!(
             out,
