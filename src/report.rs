@@ -270,6 +270,9 @@ pub fn forecast_lines(
                 (None, _) => "no forecast covers it".to_string(),
                 (Some(l), _) => {
                     let when = match l.fails_from {
+                        Some(t) if l.fails_now => {
+                            format!("would be below if flown now ({})", t.format("%H%MZ"))
+                        }
                         Some(t) => format!("would be below if flown from ~{}", t.format("%H%MZ")),
                         None if r.state == State::Below => "below now".to_string(),
                         None => "holds through the forecast".to_string(),

@@ -216,3 +216,41 @@ fn a_leg_already_gone_shows_when_it_left_not_a_forecast() {
     );
     assert!(!detail.contains("flown from ~"), "{detail}");
 }
+
+/// A forecast that makes a leg `below` already at the board's clock (the observation
+/// says thin) reads "fails now", not "fails ~1100Z" at 11:00Z as if a time still ahead
+/// (trial nit); the one-line summary says "now" too.
+#[test]
+fn a_forecast_below_at_the_clock_reads_fails_now() {
+    let found = (7..=17).map(demo_stepped_to).find(|app| {
+        (0..app.assessment.legs.len()).any(|k| app.look(k).is_some_and(|l| l.fails_now))
+    });
+    let mut app = found.expect("some hour of the demo has a leg the forecast breaks now");
+    let now: Vec<usize> = (0..app.assessment.legs.len())
+        .filter(|&k| app.look(k).is_some_and(|l| l.fails_now))
+        .collect();
+    for &k in &now {
+        let l = app.look(k).unwrap();
+        assert_eq!(l.fails_from, Some(app.clock), "{l:?}");
+        let r = &app.assessment.legs[k];
+        let cell = rhoboard::board::forecast::cell(
+            Some(l),
+            r.state,
+            rhoboard::assess::lookahead::Progress::Ahead,
+        );
+        assert_eq!(cell, "fails now");
+        let summary = rhoboard::board::forecast::summary(
+            Some(l),
+            r.state,
+            rhoboard::assess::lookahead::Progress::Ahead,
+        );
+        assert!(
+            summary.ends_with("would be below if flown now"),
+            "{summary}"
+        );
+    }
+    let text = screen(&mut app, 120, 40);
+    assert!(text.contains("fails now"), "{text}");
+    let at_clock = format!("fails ~{}", app.clock.format("%H%MZ"));
+    assert!(!text.contains(&at_clock), "{text}");
+}

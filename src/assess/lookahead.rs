@@ -57,6 +57,9 @@ pub struct LookAhead {
     /// For a leg not `below` now: the first time, flown then, at which the forecast
     /// makes it `below` (to about 5 minutes); `None` when it holds through the forecast.
     pub fails_from: Option<DateTime<Utc>>,
+    /// `fails_from` is the clock itself: the forecast makes it `below` already now
+    /// (read "fails now", not as a time still ahead).
+    pub fails_now: bool,
     /// What limits it in the forecast.
     pub limiting: Option<String>,
     /// The forecasts used.
@@ -199,6 +202,7 @@ pub fn look_ahead(
     };
     Some(LookAhead {
         state,
+        fails_now: fails_from.is_some_and(|t| t <= ctx.at),
         fails_from,
         limiting,
         basis,

@@ -68,6 +68,7 @@ fn ahead_cell(l: Option<&LookAhead>, observed: State) -> String {
         Some(_) if observed == State::Below => "below now".to_string(),
         Some(l) if l.observation_missing => "forecast only".to_string(),
         Some(l) => match l.fails_from {
+            Some(_) if l.fails_now => "fails now".to_string(),
             Some(t) => format!("fails ~{}", t.format("%H%MZ")),
             None => format!("{} holds", l.state.glyph()),
         },
@@ -95,6 +96,7 @@ pub fn summary(l: Option<&LookAhead>, observed: State, progress: Progress) -> St
             "forecast {}{}",
             l.state_words(),
             match l.fails_from {
+                Some(_) if l.fails_now => "; would be below if flown now".to_string(),
                 Some(t) => format!("; would be below if flown from ~{}", t.format("%H%MZ")),
                 None => "; holds all day".to_string(),
             }
@@ -179,6 +181,10 @@ pub fn detail_lines(app: &App, k: usize, t: Theme) -> Vec<Line<'static>> {
                 )),
             ]));
             let when = match l.fails_from {
+                Some(t) if l.fails_now => format!(
+                    "  flown now ({}) or later, the forecast makes it below",
+                    t.format("%H:%MZ")
+                ),
                 Some(t) => format!(
                     "  flown from ~{} on, the forecast makes it below",
                     t.format("%H:%MZ")

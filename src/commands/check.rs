@@ -442,6 +442,7 @@ pub fn forecast_json(l: Option<&LookAhead>) -> Value {
         Some(l) => json!({
             "state": l.state,
             "fails_from": l.fails_from,
+            "fails_now": l.fails_now,
             "limiting": l.limiting,
             "basis": l.basis,
             "worst_case": l.worst_case,
