@@ -141,3 +141,75 @@ fn live_on_a_folder_watches_its_observations_and_runs_the_feed_command() {
     assert!(err.contains("--feed-every 'soon'"), "{err}");
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+/// The folder feed starts where the operator folder's load ended: the reports loaded at
+/// start are not read, stored and listed a second time (trial nit: a rejected line was
+/// listed twice, and two reports of one station and minute were stored again in turn),
+/// while a line appended after the load still arrives, once.
+#[test]
+fn the_folder_feed_starts_after_what_the_load_read() {
+    use chrono::{TimeZone, Utc};
+    use rhoboard::board::Msg;
+    use rhoboard::commands::board::{Args, prepare};
+    use std::collections::BTreeMap;
+    let dir = demo_folder("loaded");
+    let day = dir.join("observations/2026-06-14.txt");
+    let mut text = std::fs::read_to_string(&day).unwrap();
+    text.push_str("METAR XSEA 141130Z 27010KT 9999 Q1016\n");
+    std::fs::write(&day, &text).unwrap();
+    let args = Args {
+        ops: Some(dir.clone()),
+        at: Some("2026-06-14T13:00:00Z".into()),
+        feed_every: "5m".into(),
+        ..Args::default()
+    };
+    let now = Utc.with_ymd_and_hms(2026, 12, 1, 19, 0, 0).unwrap();
+    let (app, feeds) = prepare(&args, now).expect("prepares");
+    // The bad line is named once, with its line, by the load.
+    let named = app
+        .notes
+        .iter()
+        .filter(|n| n.text.contains("141130Z"))
+        .count();
+    assert_eq!(named, 1, "{:?}", app.notes);
+    let mut files: BTreeMap<_, _> = feeds
+        .folder_loaded
+        .into_iter()
+        .map(|f| (f.path().to_path_buf(), f))
+        .collect();
+    assert!(files.contains_key(&day), "{:?}", files.keys());
+    let (tx, rx) = std::sync::mpsc::channel();
+    let reference = Utc.with_ymd_and_hms(2026, 6, 14, 23, 0, 0).unwrap();
+    let obs = dir.join("observations");
+    assert!(rhoboard::board::feed::poll_folder(
+        &obs, &mut files, reference, &tx
+    ));
+    assert!(rx.try_iter().next().is_none(), "nothing read twice");
+    let mut f = std::fs::OpenOptions::new().append(true).open(&day).unwrap();
+    std::io::Write::write_all(
+        &mut f,
+        b"METAR XSEA 141310Z 27010KT 9999 FEW040 24/10 Q1016\n",
+    )
+    .unwrap();
+    assert!(rhoboard::board::feed::poll_folder(
+        &obs, &mut files, reference, &tx
+    ));
+    let got: Vec<String> = rx
+        .try_iter()
+        .flat_map(|m| match m {
+            Msg::Observations { reports, .. } => reports
+                .into_iter()
+                .map(|r| format!("{}: {}", r.line, r.report.text))
+                .collect(),
+            other => vec![format!("{other:?}")],
+        })
+        .collect();
+    let line = text.lines().count() + 1;
+    assert_eq!(
+        got,
+        [format!(
+            "{line}: METAR XSEA 141310Z 27010KT 9999 FEW040 24/10 Q1016"
+        )]
+    );
+    std::fs::remove_dir_all(&dir).unwrap();
+}

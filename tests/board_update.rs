@@ -296,6 +296,40 @@ fn a_rejected_report_shows_with_its_reason() {
     assert!(r.rejected.is_some(), "{r:?}");
 }
 
+/// A report in place of one of the same station and minute (a correction, or a hand
+/// report typed for a METAR's minute) is said on the board and marked in the Reports
+/// pane, never silent; a group the decoder did not understand is shown with it.
+#[test]
+fn a_report_replacing_one_of_the_same_minute_is_said() {
+    let mut app = demo(8, 0);
+    let first = "METAR XSEA 140800Z 24008KT 9999 FEW040 19/08 Q1017";
+    app.update(Msg::Observations {
+        source: "feed command".into(),
+        reports: decode_all(first, demo_time(23, 0)),
+    });
+    let second = "METAR XSEA 140800Z 24012KT 9999 ZZZZ FEW040 21/08 Q1017";
+    app.update(Msg::Observations {
+        source: "feed command".into(),
+        reports: decode_all(second, demo_time(23, 0)),
+    });
+    let r = app.received.front().unwrap();
+    assert!(r.replaced, "{r:?}");
+    assert_eq!(r.not_understood, ["ZZZZ"]);
+    assert!(
+        app.notes.iter().any(|n| n.kind == NoteKind::Info
+            && n.text == "feed command: XSEA 0800Z replaces the report of the same station and time read before"),
+        "{:?}",
+        app.notes
+    );
+    app.update(key(KeyCode::BackTab));
+    assert_eq!(app.ui.pane, Pane::Reports);
+    let text = board_common::screen(&mut app, 120, 40);
+    assert!(
+        text.contains("replaced not understood: ZZZZ — METAR XSEA 140800Z 24012KT"),
+        "{text}"
+    );
+}
+
 #[test]
 fn a_failing_feed_is_shown_once() {
     let mut app = demo(8, 0);

@@ -268,6 +268,10 @@ pub struct Received {
     pub text: String,
     /// `None` if stored, else why it was rejected.
     pub rejected: Option<String>,
+    /// Stored in place of an earlier report of the same station and time.
+    pub replaced: bool,
+    /// Groups of a stored report not understood (kept, not fatal).
+    pub not_understood: Vec<String>,
 }
 
 /// How the note of a replay step back starts.
@@ -495,7 +499,7 @@ impl App {
                 .collect();
             latest.sort_by_key(|r| r.observed_at);
             for r in latest {
-                app.log_received("on load", &r, None);
+                app.log_received("on load", &r, None, false);
             }
         }
         app.rebuild_rows();
@@ -799,12 +803,14 @@ impl App {
         self.notes.truncate(NOTES_KEPT);
     }
 
-    fn log_received(&mut self, source: &str, r: &Report, rejected: Option<String>) {
+    fn log_received(&mut self, source: &str, r: &Report, rejected: Option<String>, replaced: bool) {
         self.received.push_front(Received {
             at: self.clock,
             source: source.to_string(),
             text: r.text.clone(),
             rejected,
+            replaced,
+            not_understood: r.not_understood.iter().map(|g| g.group.clone()).collect(),
         });
         self.received.truncate(RECEIVED_KEPT);
     }
@@ -842,8 +848,26 @@ impl App {
                 };
                 let copy = r.clone();
                 match self.store.insert(r) {
-                    Insert::Added { .. } | Insert::Replaced => {
-                        self.log_received(source, &copy, None);
+                    Insert::Added { .. } => {
+                        self.log_received(source, &copy, None, false);
+                        label = Some(this);
+                    }
+                    Insert::Replaced => {
+                        // A correction, a resend with a difference, or a hand report
+                        // typed for the minute of a METAR: never silently.
+                        if source != "on load" {
+                            let when = copy
+                                .observed_at
+                                .map_or(String::new(), |t| format!(" {}", t.format("%H%MZ")));
+                            self.note(
+                                NoteKind::Info,
+                                format!(
+                                    "{source}: {}{when} replaces the report of the same station and time read before",
+                                    copy.station
+                                ),
+                            );
+                        }
+                        self.log_received(source, &copy, None, true);
                         label = Some(this);
                     }
                     Insert::Duplicate | Insert::KeptCorrection => {}
@@ -852,7 +876,7 @@ impl App {
                         if source != "on load" {
                             self.note(NoteKind::Error, format!("{source}: rejected {why}"));
                         }
-                        self.log_received(source, &copy, Some(why));
+                        self.log_received(source, &copy, Some(why), false);
                     }
                 }
             }
@@ -1062,9 +1086,10 @@ impl App {
             .iter()
             .take_while(|r| r.observed_at.is_none_or(|t| t <= clock))
             .count();
-        for r in &rp.queue[..rp.fed] {
-            self.store.insert(r.clone());
-        }
+        let replaced: Vec<bool> = rp.queue[..rp.fed]
+            .iter()
+            .map(|r| self.store.insert(r.clone()) == Insert::Replaced)
+            .collect();
         // Hand-entered reports stay whatever their time: the store only answers with
         // reports at or before the time asked.
         for r in &self.manual {
@@ -1072,9 +1097,9 @@ impl App {
         }
         self.received.clear();
         let shown: Vec<Report> = rp.queue[..rp.fed].to_vec();
-        for r in &shown {
+        for (r, replaced) in shown.iter().zip(replaced) {
             let rej = r.rejection();
-            self.log_received("replay", r, rej);
+            self.log_received("replay", r, rej, replaced);
         }
         let ctx = Context {
             ops: &self.ops,

@@ -21,19 +21,24 @@ pub const FEED_COMMAND_TIMEOUT: Duration = Duration::from_secs(60);
 /// Watches `dir` by polling every `every`: new `*.txt` files and lines appended to
 /// known ones are read with [`ObservationFile::read_new`] and sent as reports.
 /// `offset` shifts the wall clock used to date the reports (a live board run `--at`).
-/// On the same pass, `runway` (when given) looks at the operator's runway-state files,
+/// `loaded` are the files read with the operator folder, each from where that read
+/// ended ([`ObservationFile::read_already`]). On the same pass, `runway` (when given) looks at the operator's runway-state files,
 /// so a change made by another process (`rhoboard runway`) reaches the board too.
 pub fn spawn_folder_watch(
     dir: PathBuf,
     every: Duration,
     offset: TimeDelta,
     mut runway: Option<RunwayStateWatch>,
+    loaded: Vec<ObservationFile>,
     tx: Sender<Msg>,
 ) {
     thread::Builder::new()
         .name("rhoboard-folder-feed".into())
         .spawn(move || {
-            let mut files: BTreeMap<PathBuf, ObservationFile> = BTreeMap::new();
+            let mut files: BTreeMap<PathBuf, ObservationFile> = loaded
+                .into_iter()
+                .map(|f| (f.path().to_path_buf(), f))
+                .collect();
             loop {
                 if !poll_folder(&dir, &mut files, Utc::now() + offset, &tx) {
                     return;

@@ -25,6 +25,9 @@ use super::feed;
 pub struct Feeds {
     /// The operator's `observations/` folder to watch, and how often to look.
     pub folder: Option<(PathBuf, Duration)>,
+    /// The folder's files as read with the operator folder (watched from where that
+    /// read ended).
+    pub folder_loaded: Vec<crate::observation::file::ObservationFile>,
     /// The operator's runway-state files, watched on the folder's polling pass.
     pub runway_state: Option<feed::RunwayStateWatch>,
     /// A command whose output is read as reports, and how often to run it.
@@ -123,7 +126,14 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<Ending> {
         spawn_input(tx.clone(), stop.clone());
         if let Some((dir, every)) = feeds.folder {
             let runway = feeds.runway_state;
-            feed::spawn_folder_watch(dir, every, feeds.clock_offset, runway, tx.clone());
+            feed::spawn_folder_watch(
+                dir,
+                every,
+                feeds.clock_offset,
+                runway,
+                feeds.folder_loaded,
+                tx.clone(),
+            );
         }
         if let Some((cmd, every)) = feeds.command {
             feed::spawn_feed_command(cmd, every, feeds.clock_offset, tx.clone());

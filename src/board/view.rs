@@ -939,7 +939,19 @@ fn reports(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
     let mut styles = Vec::new();
     for (i, r) in app.received.iter().enumerate().skip(off).take(height) {
         let (m, body, style) = match &r.rejected {
-            None => ("stored", r.text.clone(), Style::new()),
+            None => {
+                let m = if r.replaced { "replaced" } else { "stored" };
+                let body = if r.not_understood.is_empty() {
+                    r.text.clone()
+                } else {
+                    format!(
+                        "not understood: {} — {}",
+                        r.not_understood.join(" "),
+                        r.text
+                    )
+                };
+                (m, body, Style::new())
+            }
             Some(why) => ("REJECTED", format!("{why} — {}", r.text), t.error()),
         };
         at.push(Line::from(r.at.format("%H%MZ").to_string()));

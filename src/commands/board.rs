@@ -143,6 +143,15 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         }
         if let Choice::Explicit(dir) | Choice::Configured(dir) = &choice {
             feeds.folder = Some((dir.join("observations"), crate::board::run::FOLDER_POLL));
+            feeds.folder_loaded = loaded
+                .ops
+                .observations
+                .iter()
+                .filter(|(rel, _)| rel.starts_with("observations/"))
+                .map(|(rel, text)| {
+                    crate::observation::file::ObservationFile::read_already(dir.join(rel), text)
+                })
+                .collect();
             feeds.runway_state = Some(crate::board::feed::RunwayStateWatch::new(dir, &loaded.ops));
         }
         App::new(loaded.ops, loaded.store, loaded.at, None, settings)

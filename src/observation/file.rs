@@ -96,6 +96,19 @@ impl ObservationFile {
         }
     }
 
+    /// A file whose text `read` has been read already (the operator folder's load): the
+    /// next [`ObservationFile::read_new`] starts after its last complete line, so the
+    /// reports loaded are not read, stored and listed a second time. An unterminated
+    /// last line is read again (the store keeps one copy).
+    pub fn read_already(path: impl Into<PathBuf>, read: &str) -> Self {
+        let complete = read.rfind('\n').map_or(0, |p| p + 1);
+        Self {
+            path: path.into(),
+            offset: complete as u64,
+            lines: read[..complete].lines().count(),
+        }
+    }
+
     /// The file's path.
     pub fn path(&self) -> &Path {
         &self.path
