@@ -77,6 +77,16 @@ impl Show {
         format!("{:+.1} {}", self.warming_value(dc), self.temp_unit())
     }
 
+    /// A headroom in the display unit to a tenth, rounded the safe way
+    /// ([`units::colder_tenth`]), as every headroom is shown: `+4.2 °C`, `-11.4 °F`.
+    pub fn headroom_degrees(self, dc: f64) -> String {
+        format!(
+            "{:+.1} {}",
+            units::colder_tenth(self.warming_value(dc)),
+            self.temp_unit()
+        )
+    }
+
     /// A limit's value in the display unit: metres of visibility as statute miles
     /// with distances in ft (the unit visibility is given in where runways are in
     /// feet), other metres as distances, kg and mm as lb and in with masses in lb;
@@ -188,10 +198,56 @@ impl Show {
                     Some((head, l)) => self
                         .limit_reason(head, l)
                         .unwrap_or_else(|| self.in_text(why)),
-                    None => self.in_text(why),
+                    None => self.in_text(&self.distance_reason(r, why)),
                 }
             })
             .collect()
+    }
+
+    /// A distance check's reason (`arrival XPIN 26 takeoff: distance_50ft × 1.25 ≤ TORA
+    /// needs 1171 m, 1100 m available (-7 %)`) with its distances converted from the
+    /// check's own figures, as the chain shows them (`3841 ft`), not from the whole
+    /// metres of the sentence (`3842 ft`); any other sentence as it is.
+    fn distance_reason(self, r: &LegResult, why: &str) -> String {
+        if self.0.distance == DistanceUnit::M {
+            return why.to_string();
+        }
+        for (role, side) in [("departure", &r.departure), ("arrival", &r.arrival)] {
+            let at = format!(
+                "{} {}",
+                side.airfield,
+                side.runway.as_deref().unwrap_or("?")
+            );
+            for (phase, p) in [("takeoff", &side.takeoff), ("landing", &side.landing)] {
+                let Some(p) = p else { continue };
+                for c in &p.checks {
+                    let head = format!("{role} {at} {phase}: {} needs ", c.rule);
+                    if !why.starts_with(&head) {
+                        continue;
+                    }
+                    let (req, avail) = (c.result.required_m, c.result.available_m);
+                    let (req_m, req_d) = (
+                        format!("needs {req:.0} m"),
+                        format!("needs {}", self.dist(req)),
+                    );
+                    let mut out = why.replacen(&req_m, &req_d, 1);
+                    for m in [format!("{avail} m"), format!("{avail:.0} m")] {
+                        for (before, after) in [("", " available"), ("of ", ",")] {
+                            let from = format!("{before}{m}{after}");
+                            if out.contains(&from) {
+                                out = out.replacen(
+                                    &from,
+                                    &format!("{before}{}{after}", self.dist(avail)),
+                                    1,
+                                );
+                            }
+                        }
+                    }
+                    return out;
+                }
+            }
+        }
+        why.to_string()
     }
 
     /// A limit row's reason in the display unit: `head — V against L, margin M; from
@@ -432,5 +488,39 @@ mod tests {
         );
         // In °C the words are the report's own.
         assert_eq!(h.words_in(|d| d, |c| c, "°C"), h.words());
+    }
+
+    /// The cooling and the OAT it reaches add up as shown (trial finding: 79.2 °F less
+    /// 11.3 °F printed as 67.8 °F). By NIST SP 811 (°F = 1.8 °C + 32): 26.2 °C is
+    /// 79.16 °F, shown 79.2; 6.3 °C of cooling is 11.34 °F, shown 11.4 (rounded the
+    /// safe way, more cooling); 79.2 − 11.4 = 67.8 °F. Room is rounded down: 4.15 °C
+    /// is 7.47 °F, shown 7.4.
+    #[test]
+    fn a_headroom_and_its_oat_add_up_in_fahrenheit() {
+        let s = imperial();
+        let below = crate::assess::leg::Headroom {
+            warming_c: -6.3,
+            warmest_oat_c: 19.9,
+            table_ends: false,
+            survives_expected_high: None,
+        };
+        assert_eq!(s.temp(26.2), "79.2 °F");
+        assert_eq!(
+            s.headroom_words(&below),
+            "below now: needs 11.4 °F of cooling, not below at a departure OAT of 67.8 °F or colder"
+        );
+        assert_eq!(s.headroom(&below), "-11.4°F");
+        let room = crate::assess::leg::Headroom {
+            warming_c: 4.15,
+            warmest_oat_c: 20.15,
+            table_ends: false,
+            survives_expected_high: None,
+        };
+        // 16.0 °C is 60.8 °F; 60.8 + 7.4 = 68.2 °F.
+        assert_eq!(
+            s.headroom_words(&room),
+            "takes 7.4 °F more warming: turns below at a departure OAT of 68.2 °F"
+        );
+        assert_eq!(s.headroom_degrees(4.15), "+7.4 °F");
     }
 }

@@ -121,6 +121,13 @@ pub fn down0(x: f64) -> f64 {
     (x + 1e-9).floor() + 0.0
 }
 
+/// A headroom (warming left, negative: cooling needed) to a tenth, rounded down: less
+/// room left, more cooling needed — the safe side of either (`11.34` is `11.3`,
+/// `-11.34` is `-11.4`).
+pub fn colder_tenth(d: f64) -> f64 {
+    (d * 10.0 + 1e-6).floor() / 10.0 + 0.0
+}
+
 /// What kind of quantity a typed value was expected to be.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Kind {

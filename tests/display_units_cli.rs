@@ -108,21 +108,31 @@ fn headroom_f(h_c: f64, table_ends: bool) -> String {
         (true, true) => "≥",
         (true, false) => "≤",
     };
-    format!("{mark}{:+.1}°F", f_diff(h_c))
+    // Rounded down to a tenth: less room, more cooling (the safe side of either).
+    let f = (f_diff(h_c) * 10.0 + 1e-6).floor() / 10.0 + 0.0;
+    format!("{mark}{f:+.1}°F")
 }
 
-/// Every `needs N m, M m available` of a metric text, as the ft the imperial text
-/// must print for it.
-fn distances_in_ft(metric: &str) -> Vec<String> {
+/// Every distance check of `check --json` that is below, as `needs N ft, M ft
+/// available`: its own metres (not the whole metres of the metric sentence) in ft, so
+/// the reason and the chain give the same figure.
+fn distances_in_ft(json: &Value) -> Vec<String> {
     let mut out = Vec::new();
-    for line in metric.lines() {
-        let Some((_, rest)) = line.split_once(" needs ") else {
-            continue;
-        };
-        let words: Vec<&str> = rest.split(' ').collect();
-        if let [n, "m,", m, "m", "available", ..] = words[..] {
-            let ft = |v: &str| v.parse::<f64>().unwrap() / M_PER_FT;
-            out.push(format!("needs {:.0} ft, {:.0} ft available", ft(n), ft(m)));
+    for leg in json["legs"].as_array().unwrap() {
+        for side in ["departure", "arrival"] {
+            for phase in ["takeoff", "landing"] {
+                let Some(checks) = leg[side][phase]["checks"].as_array() else {
+                    continue;
+                };
+                for c in checks.iter().filter(|c| c["state"] == "below") {
+                    let ft = |k: &str| c[k].as_f64().unwrap() / M_PER_FT;
+                    out.push(format!(
+                        "needs {:.0} ft, {:.0} ft available",
+                        ft("required_m"),
+                        ft("available_m")
+                    ));
+                }
+            }
         }
     }
     out
@@ -174,8 +184,8 @@ fn check_prints_the_operator_display_units() {
             assert!(row.contains(&want), "{id}: want {want} in {row}");
         }
     }
-    // The distances of the reasons: the metric copy's metres in ft.
-    let want = distances_in_ft(&metric);
+    // The distances of the reasons: the checks' own metres in ft.
+    let want = distances_in_ft(&json);
     assert!(!want.is_empty(), "{metric}");
     for w in &want {
         assert!(text.contains(w.as_str()), "want '{w}' in:\n{text}");
@@ -292,12 +302,13 @@ fn report_prints_the_operator_display_units() {
     // L16 is below by warming: the cooling it needs, in °F.
     let h = l16["headroom_c"].as_f64().unwrap();
     assert!(h < 0.0 && l16["headroom_table_ends"] == false);
+    // Rounded to a tenth the safe way: more cooling.
+    let cooling = -((f_diff(h) * 10.0 + 1e-6).floor() / 10.0);
     want.push(format!(
-        "headroom: below now: needs {:.1} °F of cooling",
-        -f_diff(h)
+        "headroom: below now: needs {cooling:.1} °F of cooling"
     ));
-    // The reasons' distances: the metric sheet's metres in ft.
-    want.extend(distances_in_ft(&metric));
+    // The reasons' distances: the checks' own metres in ft.
+    want.extend(distances_in_ft(&json));
     for w in &want {
         assert!(md.contains(w.as_str()), "want '{w}' in:\n{md}");
         assert!(html.contains(w.as_str()), "want '{w}' in the html");
@@ -399,8 +410,10 @@ fn leg_set_prints_the_operator_display_units() {
     let at = "2026-06-14T14:00:00Z";
     let (_, text, _) = set(&f.imperial, "L16", at, false);
     let (_, metric, _) = set(&f.metric, "L16", at, false);
+    let (_, json, _) = set(&f.imperial, "L16", at, true);
+    let json: Value = serde_json::from_str(&json).unwrap();
     assert_no_metric(&text);
-    let want = distances_in_ft(&metric);
+    let want = distances_in_ft(&serde_json::json!({ "legs": [json["after"]] }));
     assert!(!want.is_empty(), "{metric}");
     for w in &want {
         assert!(text.contains(w.as_str()), "want '{w}' in:\n{text}");

@@ -708,7 +708,10 @@ impl Headroom {
             (true, true) => "≥",
             (true, false) => "≤",
         };
-        format!("{mark}{:+.1}{unit}", diff(self.warming_c))
+        format!(
+            "{mark}{:+.1}{unit}",
+            crate::units::colder_tenth(diff(self.warming_c))
+        )
     }
 
     /// The headroom in words, saying when the figure is only a bound: "takes 6.2 °C
@@ -729,7 +732,16 @@ impl Headroom {
         temp: impl Fn(f64) -> f64,
         unit: &str,
     ) -> String {
-        let (w, t) = (diff(self.warming_c), temp(self.warmest_oat_c));
+        // The warming shown rounded the cold way (less room, more cooling), and the
+        // OAT it turns at is the OAT as shown plus that figure, so the two add up in
+        // any unit (26.2 °C less 6.3 °C is 19.9 °C; 79.2 °F less 11.4 °F is 67.8 °F).
+        let w = crate::units::colder_tenth(diff(self.warming_c));
+        let t = if self.table_ends {
+            temp(self.warmest_oat_c)
+        } else {
+            let oat = temp(self.warmest_oat_c - self.warming_c);
+            (oat * 10.0).round() / 10.0 + w
+        };
         const TABLE_ENDS: &str = "where the flight-manual table ends";
         match (self.table_ends, self.warming_c >= 0.0) {
             // The search's grain is 0.1 °C, rounded down: 0.0 is less than a step.

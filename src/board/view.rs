@@ -591,7 +591,7 @@ pub fn pair_margin(c: &PairCell, show: Show) -> Option<(f64, &'static str, usize
 fn pair_headroom(c: &PairCell, show: Show) -> String {
     match c.headroom_c {
         None => "—".to_string(),
-        Some(h) => format!("{}{}", c.headroom_mark(), show.warming(h)),
+        Some(h) => format!("{}{}", c.headroom_mark(), show.headroom_degrees(h)),
     }
 }
 

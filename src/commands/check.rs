@@ -506,7 +506,7 @@ pub fn pair_headroom_text(c: &pairing::PairCell, show: Show) -> String {
         Some(h) => format!(
             "{}{:+.1}{}",
             c.headroom_mark(),
-            show.warming_value(h),
+            crate::units::colder_tenth(show.warming_value(h)),
             show.temp_unit()
         ),
     }
