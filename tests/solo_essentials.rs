@@ -331,6 +331,10 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     ]);
     assert_eq!(code, 0, "{err}");
     assert!(out.contains("closed until 1500Z (works)"), "{out}");
+    assert!(
+        err.contains("with no --from, this closure holds from the start of 2026-06-14 until 1500Z"),
+        "{err}"
+    );
     let (code, _, err) = cmd(&[
         "runway",
         "XSEA",
@@ -381,9 +385,10 @@ fn the_runway_command_writes_a_state_that_check_uses() {
             "{err}"
         );
     }
-    // The changes to one end are listed with when each holds from (trial nit: the
-    // merged state alone hid that wet starts at 1300Z), and opening an end that was
-    // never closed is noted.
+    // An end's state is shown through the day, as the assessment reads it at each
+    // time (trial finding: the merged state alone read "closed 1300Z–1500Z" while the
+    // day-long closure still held before 1300Z), and opening an end that is not
+    // closed (the wrong end) saves nothing.
     let on_day = |args: &[&str]| {
         let mut all = vec!["runway", "XMRS", "22"];
         all.extend_from_slice(args);
@@ -395,18 +400,57 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     let (code, out, err) = on_day(&["--in-use"]);
     assert_eq!(code, 0, "{err}");
     assert!(
-        out.contains("XMRS 22 on 2026-06-14: wet; in use\n  changes, in the order written"),
+        out.ends_with(
+            "XMRS 22 on 2026-06-14, through the day:\n  from the day's start: in use\n  from 1300Z: wet; in use\n"
+        ),
         "{out}"
     );
     assert!(
-        out.contains("\n    from 1300Z: wet\n    all day: in use\n"),
-        "{out}"
+        err.contains("with no --from, this holds for the whole of 2026-06-14"),
+        "{err}"
     );
-    let (code, _, err) = on_day(&["--open", "--from", "14:00Z"]);
+    let (code, out, err) = on_day(&["--open", "--from", "14:00Z"]);
+    assert_eq!(code, 2, "{out}");
+    assert!(
+        err.contains(
+            "XMRS 22 is not closed on 2026-06-14, so there is nothing to open; nothing was saved"
+        ),
+        "{err}"
+    );
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "09",
+        "--open",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 2);
+    assert!(err.contains("(closed that day: 27)"), "{err}");
+    // A closure with no start says it holds from the day's start; one with a start
+    // after it shows both, each from when it holds.
+    let (code, out, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "27",
+        "--closed",
+        "--from",
+        "13:00Z",
+        "--until",
+        "15:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
     assert_eq!(code, 0, "{err}");
     assert!(
-        err.contains("XMRS 22 was not closed on 2026-06-14"),
-        "{err}"
+        out.ends_with(
+            "XSEA 27 on 2026-06-14, through the day:\n  from the day's start: closed until 1500Z (works)\n  from 1300Z: closed 1300Z–1500Z (works)\n"
+        ),
+        "{out}"
     );
     let (code, _, err) = cmd(&[
         "runway",
@@ -421,7 +465,6 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         d,
     ]);
     assert_eq!(code, 0, "{err}");
-    assert!(!err.contains("was not closed"), "{err}");
     let (code, out, _) = cmd(&["validate", "--ops", d]);
     assert_eq!(code, 0, "{out}");
     let (_, out, _) = cmd(&[

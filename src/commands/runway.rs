@@ -293,17 +293,6 @@ pub fn entry(
     })
 }
 
-/// Whether an entry sets something that holds for the whole day (only a closure has
-/// times): a reduced distance, a surface condition, the end in use.
-pub fn whole_day(e: &EndState) -> bool {
-    e.tora_m.is_some()
-        || e.toda_m.is_some()
-        || e.asda_m.is_some()
-        || e.lda_m.is_some()
-        || e.condition.is_some()
-        || e.in_use == Some(true)
-}
-
 /// Whether an entry changes anything (a note alone does not).
 pub fn changes_something(e: &EndState) -> bool {
     e.closed.is_some()
@@ -393,46 +382,85 @@ fn warn_if_no_legs_that_day(ops: &crate::ops::Ops, date: NaiveDate) {
 }
 
 /// Runs `rhoboard runway`.
-/// The changes to one end, in the order written, each with when it holds from: after
-/// the merged state, whenever there are several or one starts during the day, so
-/// the reader can see which legs each one reaches.
-fn write_changes(
+/// `" (closed that day: 27)"`: the field's ends a closure names, for a message about
+/// opening the wrong one; empty when none is.
+pub fn closed_elsewhere(ops: &crate::ops::Ops, state: &RunwayStateFile, field: &str) -> String {
+    let closed: Vec<&str> = ops
+        .airfields
+        .iter()
+        .find(|a| a.id == field)
+        .map(|a| {
+            a.runway_ends
+                .iter()
+                .map(|e| e.designator.as_str())
+                .filter(|d| state.end(field, d).is_some_and(|s| s.closed == Some(true)))
+                .collect()
+        })
+        .unwrap_or_default();
+    if closed.is_empty() {
+        String::new()
+    } else {
+        format!(" (closed that day: {})", closed.join(", "))
+    }
+}
+
+/// One end's state through the day, as the assessment reads it at each time: from the
+/// day's start, then from each change's start where it differs. One line when it holds
+/// all day (`XSEA 27 on 2026-06-14: closed until 1500Z (works)`), else a line per time.
+fn write_through_the_day(
     state: &RunwayStateFile,
     field: &str,
     end: &str,
+    date: NaiveDate,
     out: &mut dyn Write,
 ) -> anyhow::Result<()> {
-    let changes: Vec<&EndState> = state
+    let words = |at: Option<DateTime<Utc>>| {
+        let said = state
+            .as_of(at)
+            .end(field, end)
+            .map(|s| crate::assess::model::describe(&s))
+            .unwrap_or_default();
+        // Nothing in words (a note alone): as declared, never an empty line.
+        if said.is_empty() {
+            "as declared".to_string()
+        } else {
+            said
+        }
+    };
+    let mut starts: Vec<DateTime<Utc>> = state
         .entries
         .iter()
         .filter(|e| e.airfield == field && e.end == end)
+        .filter_map(|e| e.from)
         .collect();
-    // One change that says its own window (a closure) needs no list.
-    if changes.len() < 2
-        && changes
+    starts.sort_unstable();
+    starts.dedup();
+    let mut segments: Vec<(Option<DateTime<Utc>>, String)> = vec![(None, words(None))];
+    for t in starts {
+        let said = words(Some(t));
+        if segments.last().is_none_or(|(_, s)| *s != said) {
+            segments.push((Some(t), said));
+        }
+    }
+    if let [(_, said)] = &segments[..] {
+        let said = if state
+            .entries
             .iter()
-            .all(|e| e.from.is_none() || e.closed == Some(true))
-    {
+            .any(|e| e.airfield == field && e.end == end)
+        {
+            said.clone()
+        } else {
+            "as declared (no change for the day)".to_string()
+        };
+        writeln!(out, "{field} {end} on {date}: {said}")?;
         return Ok(());
     }
-    writeln!(
-        out,
-        "  changes, in the order written (a later one wins where both hold):"
-    )?;
-    for e in changes {
-        let said = crate::assess::model::describe(e);
-        let said = if said.is_empty() {
-            "a note".to_string()
-        } else {
-            said
-        };
-        let line = match (e.closed, e.from) {
-            // A closure says its own window.
-            (Some(true), _) => said,
-            (_, Some(f)) => format!("from {}: {said}", f.format("%H%MZ")),
-            (_, None) => format!("all day: {said}"),
-        };
-        writeln!(out, "    {line}")?;
+    writeln!(out, "{field} {end} on {date}, through the day:")?;
+    for (at, said) in segments {
+        let when = at.map_or("from the day's start".to_string(), |t| {
+            format!("from {}", t.format("%H%MZ"))
+        });
+        writeln!(out, "  {when}: {said}")?;
     }
     Ok(())
 }
@@ -471,6 +499,21 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         by: args.by.clone().unwrap_or_default(),
     };
     let entry = entry(&ops, &args.field, &args.end, date, &req, Names::Flags)?;
+    // Opening an end that is not closed (the wrong end, or a second time) saves nothing.
+    if entry.closed == Some(false) {
+        let before = read_state(&dir, date)?;
+        if before
+            .end(&entry.airfield, &entry.end)
+            .is_none_or(|s| s.closed != Some(true))
+        {
+            bail!(
+                "{} {} is not closed on {date}, so there is nothing to open{}; nothing was saved",
+                entry.airfield,
+                entry.end,
+                closed_elsewhere(&ops, &before, &entry.airfield)
+            );
+        }
+    }
     // Opened again on today's date with no --from: from now, so the legs flown under
     // the closure keep it (and whatever else the same entry sets starts then too).
     let today = Utc::now();
@@ -482,26 +525,23 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 .unwrap_or(today),
         );
     }
-    if whole_day(&entry) && entry.from.is_none() {
+    if changes_something(&entry) && entry.from.is_none() {
+        let what = match (entry.closed, entry.until) {
+            (Some(true), Some(u)) => format!(
+                "this closure holds from the start of {date} until {}",
+                u.format("%H%MZ")
+            ),
+            (Some(true), None) => format!("this closure holds for the whole of {date}"),
+            _ => format!("this holds for the whole of {date}"),
+        };
         eprintln!(
-            "rhoboard: note: with no --from, this holds for the whole of {date}: the legs already flown that day are graded with it too (--from HH:MMZ starts it then)"
+            "rhoboard: note: with no --from, {what}: the legs already flown that day are graded with it too (--from HH:MMZ starts it then)"
         );
     }
     if args.date.is_none() {
         warn_if_no_legs_that_day(&ops, date);
     }
     let (field, end) = (entry.airfield.clone(), entry.end.clone());
-    if entry.closed == Some(false) {
-        let before = read_state(&dir, date)?;
-        if before
-            .end(&field, &end)
-            .is_none_or(|s| s.closed != Some(true))
-        {
-            eprintln!(
-                "rhoboard: note: {field} {end} was not closed on {date}; --open changes nothing but the entry's other fields"
-            );
-        }
-    }
     let state = if changes_something(&entry) {
         let (path, state) = append_entry(&dir, date, entry)?;
         writeln!(out, "Saved in {}.", path.display())?;
@@ -509,22 +549,6 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
     } else {
         read_state(&dir, date)?
     };
-    match state.end(&field, &end) {
-        Some(s) => {
-            let said = crate::assess::model::describe(&s);
-            // Nothing in words (a note alone): as declared, never an empty line.
-            let said = if said.is_empty() {
-                "as declared".to_string()
-            } else {
-                said
-            };
-            writeln!(out, "{field} {end} on {date}: {said}")?;
-            write_changes(&state, &field, &end, out)?;
-        }
-        None => writeln!(
-            out,
-            "{field} {end} on {date}: as declared (no change for the day)"
-        )?,
-    }
+    write_through_the_day(&state, &field, &end, date, out)?;
     Ok(Outcome::Success)
 }
