@@ -7,7 +7,7 @@ use chrono::NaiveDate;
 
 use crate::commands::runway::{Names, Request, changes_something, entry};
 use crate::ops::Ops;
-use crate::ops::runway_state::EndState;
+use crate::ops::runway_state::{EndState, RunwayStateFile};
 
 /// One field of the form.
 #[derive(Debug, Clone, Copy)]
@@ -165,6 +165,31 @@ impl RunwayForm {
         let end = v[1].trim().to_ascii_uppercase();
         match entry(ops, &self.airfield(), &end, date, &req, Names::Labels) {
             Ok(e) if self.errors.is_empty() => {
+                // Opening an end that is not closed (the end in use offered, the closed
+                // one elsewhere) would save nothing useful: say which one is closed.
+                if e.closed == Some(false) {
+                    let day = ops
+                        .runway_states
+                        .iter()
+                        .find(|s| s.date == date)
+                        .cloned()
+                        .unwrap_or_else(|| RunwayStateFile::new(date));
+                    if day
+                        .end(&e.airfield, &e.end)
+                        .is_none_or(|s| s.closed != Some(true))
+                    {
+                        self.errors.push((
+                            Some(1),
+                            format!(
+                                "{} is not closed today, so there is nothing to open{}",
+                                e.end,
+                                crate::commands::runway::closed_elsewhere(ops, &day, &e.airfield)
+                            ),
+                        ));
+                        self.focus = 1;
+                        return None;
+                    }
+                }
                 if changes_something(&e) {
                     return Some(e);
                 }
