@@ -592,3 +592,67 @@ fn every_problem_in_one_run() {
     exit 2
     "#);
 }
+
+/// `check` (as every command that uses a folder: board, report, runway, signoff) on a
+/// folder that does not load names its first problems with file, line, column and
+/// field, as `validate` does, rather than a bare count (trial finding).
+#[test]
+fn a_command_on_a_broken_folder_names_the_problems() {
+    let root = Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/bad-ops");
+    for (case, want) in [
+        ("json-syntax", 1),
+        ("three-errors-one-file", 3),
+        ("every-problem-in-one-run", 3),
+    ] {
+        let dir =
+            std::env::temp_dir().join(format!("rhoboard-bad-use-{case}-{}", std::process::id()));
+        let _ = std::fs::remove_dir_all(&dir);
+        std::fs::create_dir_all(&dir).unwrap();
+        copy_tree(&root.join("_base"), &dir);
+        copy_tree(&root.join(case), &dir);
+        let home = dir.join(".home");
+        let o = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+            .args(["check", "--ops"])
+            .arg(&dir)
+            .env("HOME", &home)
+            .env("XDG_CONFIG_HOME", &home)
+            .env("RHOBOARD_DATA_DIR", &home)
+            .output()
+            .unwrap();
+        let err = String::from_utf8_lossy(&o.stderr).into_owned();
+        assert_eq!(o.status.code(), Some(2), "{case}: {err}");
+        // The same lines validate prints, each on its own line.
+        let mut out = Vec::new();
+        run(
+            &Args {
+                ops: Some(dir.clone()),
+                json: false,
+            },
+            &mut out,
+        )
+        .unwrap();
+        let listed = String::from_utf8(out).unwrap();
+        // validate's error lines: those indented under "N error(s):".
+        let errors: Vec<&str> = listed
+            .lines()
+            .skip_while(|l| !l.ends_with("error(s):"))
+            .skip(1)
+            .take_while(|l| l.starts_with("  "))
+            .collect();
+        assert!(!errors.is_empty(), "{case}: {listed}");
+        let shown: Vec<&str> = err
+            .lines()
+            .filter(|l| l.starts_with("  ") && !l.contains("… and"))
+            .collect();
+        assert_eq!(shown.len(), want.min(errors.len()), "{case}: {err}");
+        assert_eq!(shown[..], errors[..shown.len()], "{case}: {err}\n{listed}");
+        if errors.len() > 3 {
+            assert!(
+                err.contains(&format!("… and {} more", errors.len() - 3)),
+                "{err}"
+            );
+        }
+        assert!(err.contains("rhoboard validate --ops"), "{err}");
+        std::fs::remove_dir_all(&dir).unwrap();
+    }
+}

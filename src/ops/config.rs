@@ -45,6 +45,23 @@ pub fn choose(explicit: Option<&Path>, config: Option<&Path>) -> Choice {
     }
 }
 
+/// How many errors a folder that did not load names in place (`validate` lists all).
+const PROBLEMS_SHOWN: usize = 3;
+
+/// `1 problem:` and each of the first few errors on its own line, as `validate` prints
+/// them (`airfields/XPIN.json:6:19: elevation_ft: JSON syntax: …`), then how many more.
+fn first_problems(report: &super::load::Report) -> String {
+    let n = report.errors.len();
+    let mut s = format!("{n} problem{}:", if n == 1 { "" } else { "s" });
+    for d in report.errors.iter().take(PROBLEMS_SHOWN) {
+        s.push_str(&format!("\n  {d}"));
+    }
+    if n > PROBLEMS_SHOWN {
+        s.push_str(&format!("\n  … and {} more", n - PROBLEMS_SHOWN));
+    }
+    s
+}
+
 /// Loads the chosen operator for use (board, check, report). A folder that fails —
 /// given with `--ops` or remembered as the default — is an error naming it: the demo
 /// is never shown in place of a real operator's folder (its invented legs could be
@@ -62,9 +79,9 @@ pub fn load_for_use(choice: &Choice) -> anyhow::Result<super::Ops> {
             match loaded.ops {
                 Some(ops) => Ok(ops),
                 None => Err(anyhow::anyhow!(
-                    "operator folder {} has {} problem(s); run `rhoboard validate --ops {}`",
+                    "operator folder {} did not load: {}\nrun `rhoboard validate --ops {}` to see every problem and warning",
                     dir.display(),
-                    loaded.report.errors.len(),
+                    first_problems(&loaded.report),
                     dir.display()
                 )),
             }
@@ -73,12 +90,12 @@ pub fn load_for_use(choice: &Choice) -> anyhow::Result<super::Ops> {
             let why = match super::load_dir(dir) {
                 Ok(loaded) => match loaded.ops {
                     Some(ops) => return Ok(ops),
-                    None => format!("{} problem(s)", loaded.report.errors.len()),
+                    None => first_problems(&loaded.report),
                 },
                 Err(e) => format!("{e:#}"),
             };
             Err(anyhow::anyhow!(
-                "the default operator folder {} did not load ({why}); run `rhoboard validate` to see the problems, or pass --ops DIR for another folder",
+                "the default operator folder {} did not load: {why}\nrun `rhoboard validate` to see every problem, or pass --ops DIR for another folder",
                 dir.display()
             ))
         }
