@@ -555,10 +555,9 @@ fn side_lines(
     }
     if let Some(a) = &s.air {
         out.push(format!(
-            "air: OAT {} (ISA {:+.0} {}), pressure altitude {:.0} ft, density altitude {:.0} ft",
-            show.temp0(a.oat_c),
-            show.warming_value(a.isa_deviation_c),
-            show.temp_unit(),
+            "air: OAT {} (ISA {}), pressure altitude {:.0} ft, density altitude {:.0} ft",
+            show.temp(a.oat_c),
+            show.warming(a.isa_deviation_c),
             a.pressure_altitude_ft,
             crate::units::up0(a.density_altitude_ft)
         ));
@@ -794,7 +793,7 @@ pub fn markdown(s: &Sheet) -> String {
             md_cell(&f.name),
             f.elevation_ft,
             f.report_cell(),
-            opt(f.oat_c, |v| s.show.temp0(v)),
+            opt(f.oat_c, |v| s.show.temp(v)),
             opt(f.pressure_altitude_ft, |v| format!("{v:.0} ft")),
             opt(f.density_altitude_ft, |v| format!("{v:.0} ft")),
             f.wind,
@@ -1012,7 +1011,7 @@ pub fn html(s: &Sheet) -> String {
             esc(&f.name),
             f.elevation_ft,
             f.report_cell(),
-            opt(f.oat_c, |v| s.show.temp0(v)),
+            opt(f.oat_c, |v| s.show.temp(v)),
             opt(f.pressure_altitude_ft, |v| format!("{v:.0} ft")),
             opt(f.density_altitude_ft, |v| format!("{v:.0} ft")),
             esc(&f.wind),

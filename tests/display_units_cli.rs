@@ -276,7 +276,7 @@ fn report_prints_the_operator_display_units() {
     let ft = |m: &Value| m.as_f64().unwrap() / M_PER_FT;
     let mut want = vec![
         format!(
-            "air: OAT {:.0} °F (ISA {:+.0} °F)",
+            "air: OAT {:.1} °F (ISA {:+.1} °F)",
             f_of_c(oat),
             f_diff(isa)
         ),
@@ -325,7 +325,7 @@ fn report_prints_the_operator_display_units() {
             .lines()
             .find(|l| l.starts_with(&format!("| {field} ")))
             .unwrap();
-        let want = format!("| {:.0} °F |", f_of_c(metar_oat_c(m)));
+        let want = format!("| {:.1} °F |", f_of_c(metar_oat_c(m)));
         assert!(row.contains(&want), "{field}: want {want} in {row}");
     }
     // The metric sheet is as it was.

@@ -782,7 +782,7 @@ fn airfields(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
                         v.age.num_minutes(),
                         if v.stale { " STALE" } else { "" }
                     ),
-                    v.report.temperature_c.map_or_else(dash, |c| show.temp0(c)),
+                    v.report.temperature_c.map_or_else(dash, |c| show.temp(c)),
                     wx.map_or_else(dash, |w| {
                         format!("{:.0} ft", crate::units::up0(w.air.density_altitude_ft))
                     }),
