@@ -381,7 +381,7 @@ pub enum Refusal {
     UnknownLeg(String),
     /// A student solo whose solo endorsement has lapsed or is missing.
     #[error(
-        "leg {leg}: student solo cannot be signed — {detail}; renew the endorsement in pilots.json first"
+        "leg {leg}: student solo cannot be signed — {detail}; renew the endorsement first (pilots.json in the operator folder)"
     )]
     EndorsementLapsed {
         /// Leg id.

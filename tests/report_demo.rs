@@ -206,6 +206,13 @@ fn the_command_writes_both_formats() {
         "{}",
         String::from_utf8_lossy(&o.stderr)
     );
+    // It says where the sheet went and why the exit is 1 (trial nit: silence).
+    let said = String::from_utf8_lossy(&o.stderr);
+    assert!(
+        said.contains(&format!("wrote the briefing sheet to {}", out.display()))
+            && said.contains("below or no-data: exit 1"),
+        "{said}"
+    );
     let html = std::fs::read_to_string(&out).expect("written");
     assert_well_formed(&html);
     assert!(html.contains("sign-off log head: none"));

@@ -685,7 +685,7 @@ pub fn field_limits_to<S: LimitSink>(
             ),
             |c| {
                 c.source = src.text(who);
-                c.note = "ceiling unknown (a layer of unknown height or amount)".to_string();
+                c.note = "ceiling unknown (no sky group in the report, or a layer of unknown height or amount)".to_string();
             },
         ),
     }

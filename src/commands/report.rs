@@ -65,12 +65,25 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         Format::Markdown => report::markdown(&sheet),
         Format::Html => report::html(&sheet),
     };
+    let all_ok = results.iter().all(|r| r.state.meets_minimums());
     match &args.out {
-        Some(path) => std::fs::write(path, text)
-            .with_context(|| format!("writing the sheet to {}", path.display()))?,
+        Some(path) => {
+            std::fs::write(path, text)
+                .with_context(|| format!("writing the sheet to {}", path.display()))?;
+            let short = results.iter().filter(|r| !r.state.meets_minimums()).count();
+            eprintln!(
+                "rhoboard: wrote the briefing sheet to {} ({} leg(s){})",
+                path.display(),
+                results.len(),
+                if all_ok {
+                    String::new()
+                } else {
+                    format!("; {short} below or no-data: exit 1")
+                }
+            );
+        }
         None => out.write_all(text.as_bytes())?,
     }
-    let all_ok = results.iter().all(|r| r.state.meets_minimums());
     Ok(if all_ok {
         Outcome::Success
     } else {
