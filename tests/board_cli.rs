@@ -213,3 +213,82 @@ fn the_folder_feed_starts_after_what_the_load_read() {
     );
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+/// A sign-off written elsewhere (another board, or `rhoboard signoff` in another
+/// terminal) reaches an open board: the log watch sees the log change and the board
+/// reads it again, marks the leg and says so (trial finding: a second board kept
+/// "log: no sign-offs yet"); its own records read back are not announced again.
+#[test]
+fn a_sign_off_written_elsewhere_reaches_the_board() {
+    use chrono::{TimeZone, Utc};
+    use rhoboard::board::Msg;
+    use rhoboard::board::signoff::Mark;
+    use rhoboard::commands::board::{Args, prepare};
+    let dir = demo_folder("logwatch");
+    let home = dir.join(".home");
+    let args = Args {
+        ops: Some(dir.clone()),
+        at: Some("2026-06-14T08:00:00Z".into()),
+        feed_every: "5m".into(),
+        ..Args::default()
+    };
+    let now = Utc.with_ymd_and_hms(2026, 12, 1, 19, 0, 0).unwrap();
+    let (mut app, mut feeds) = prepare(&args, now).expect("prepares");
+    let mut watch = feeds.signoff_log.take().expect("the log is watched");
+    let (tx, rx) = std::sync::mpsc::channel();
+    assert!(rhoboard::board::feed::poll_log(&mut watch, &tx));
+    assert!(rx.try_iter().next().is_none(), "unchanged since the load");
+    let o = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(["signoff", "L04", "--instructor", "Mara Greyling", "--ops"])
+        .arg(&dir)
+        .args(["--at", "2026-06-14T08:00:00Z"])
+        .env("HOME", &home)
+        .env("XDG_CONFIG_HOME", &home)
+        .env("RHOBOARD_DATA_DIR", &home)
+        .output()
+        .unwrap();
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    assert!(rhoboard::board::feed::poll_log(&mut watch, &tx));
+    let msgs: Vec<Msg> = rx.try_iter().collect();
+    assert_eq!(msgs.len(), 1, "{msgs:?}");
+    for m in msgs {
+        app.update(m);
+    }
+    let k = app
+        .assessment
+        .legs
+        .iter()
+        .position(|r| r.id == "L04")
+        .unwrap();
+    assert!(
+        matches!(app.mark(k), Mark::Signed { seq: 1, .. }),
+        "{:?}",
+        app.mark(k)
+    );
+    let said = |app: &rhoboard::board::App| {
+        app.notes
+            .iter()
+            .filter(|n| n.text.starts_with("sign-off log changed on disk"))
+            .count()
+    };
+    assert_eq!(said(&app), 1, "{:?}", app.notes);
+    assert!(
+        app.notes
+            .iter()
+            .any(|n| n.text.ends_with("1 new record(s), newest #1"))
+    );
+    // Read again with nothing new: not said again.
+    let chain = rhoboard::signoff::Log::of_operator(&dir)
+        .read()
+        .map_err(|e| e.to_string());
+    app.update(Msg::LogRead(chain));
+    assert_eq!(said(&app), 1);
+    assert!(rhoboard::board::feed::poll_log(&mut watch, &tx));
+    assert!(rx.try_iter().next().is_none(), "nothing changed since");
+    std::fs::remove_dir_all(&dir).unwrap();
+}

@@ -65,6 +65,9 @@ pub enum Msg {
         /// The state it now holds.
         state: RunwayStateFile,
     },
+    /// The sign-off log changed on disk (another board, or `rhoboard signoff`): the
+    /// chain read again.
+    LogRead(Result<crate::signoff::Chain, String>),
     /// Quit (SIGTERM, SIGHUP, or the input thread ending): exit 0.
     Quit,
     /// The user interrupted (SIGINT): quit, exit 130.
@@ -661,6 +664,7 @@ impl App {
                     self.note(NoteKind::Error, text);
                 }
             }
+            Msg::LogRead(chain) => self.log_read(chain),
             // What the board holds already (its own save, read back) changes nothing.
             Msg::RunwayStateRead { source, state } => {
                 if !self.ops.runway_states.contains(&state)

@@ -251,6 +251,68 @@ pub fn poll_folder(
     true
 }
 
+/// The sign-off log's folder as last seen, so a record written by another board or
+/// by `rhoboard signoff` reaches this one.
+#[derive(Debug, Clone)]
+pub struct LogWatch {
+    log: crate::signoff::Log,
+    /// Each file's name, length and modification time at the last look (`None`: not
+    /// looked yet — the board read the log at load).
+    seen: Option<Vec<(String, u64, Option<std::time::SystemTime>)>>,
+}
+
+impl LogWatch {
+    /// A watch on `log`, taking the log as the board read it at load.
+    pub fn new(log: crate::signoff::Log) -> LogWatch {
+        let mut w = LogWatch { log, seen: None };
+        w.seen = Some(w.look());
+        w
+    }
+
+    fn look(&self) -> Vec<(String, u64, Option<std::time::SystemTime>)> {
+        let Ok(entries) = std::fs::read_dir(self.log.dir()) else {
+            return Vec::new();
+        };
+        let mut files: Vec<_> = entries
+            .filter_map(Result::ok)
+            .filter_map(|e| {
+                let name = e.file_name().to_string_lossy().into_owned();
+                if name.starts_with('.') {
+                    return None;
+                }
+                let m = e.metadata().ok()?;
+                Some((name, m.len(), m.modified().ok()))
+            })
+            .collect();
+        files.sort();
+        files
+    }
+}
+
+/// One look at the sign-off log: when its files changed since the last look, the
+/// chain read again goes to the board. False when the board has gone.
+pub fn poll_log(w: &mut LogWatch, tx: &Sender<Msg>) -> bool {
+    let now = w.look();
+    if w.seen.as_ref() == Some(&now) {
+        return true;
+    }
+    w.seen = Some(now);
+    let chain = w.log.read().map_err(|e| e.to_string());
+    tx.send(Msg::LogRead(chain)).is_ok()
+}
+
+/// Looks at the sign-off log every `every` on its own thread.
+pub fn spawn_log_watch(mut w: LogWatch, every: Duration, tx: Sender<Msg>) {
+    thread::Builder::new()
+        .name("rhoboard-log-watch".into())
+        .spawn(move || {
+            while poll_log(&mut w, &tx) {
+                thread::sleep(every);
+            }
+        })
+        .ok();
+}
+
 /// Runs `command` through `sh -c` now and then every `every`, reading its standard
 /// output as METAR lines.
 pub fn spawn_feed_command(command: String, every: Duration, offset: TimeDelta, tx: Sender<Msg>) {

@@ -30,6 +30,9 @@ pub struct Feeds {
     pub folder_loaded: Vec<crate::observation::file::ObservationFile>,
     /// The operator's runway-state files, watched on the folder's polling pass.
     pub runway_state: Option<feed::RunwayStateWatch>,
+    /// The sign-off log, watched for records written elsewhere (another board,
+    /// `rhoboard signoff`).
+    pub signoff_log: Option<feed::LogWatch>,
     /// A command whose output is read as reports, and how often to run it.
     pub command: Option<(String, Duration)>,
     /// Added to the wall clock when dating reports (a live board run `--at`).
@@ -134,6 +137,9 @@ pub fn run(mut app: App, feeds: Feeds) -> anyhow::Result<Ending> {
                 feeds.folder_loaded,
                 tx.clone(),
             );
+        }
+        if let Some(w) = feeds.signoff_log {
+            feed::spawn_log_watch(w, FOLDER_POLL, tx.clone());
         }
         if let Some((cmd, every)) = feeds.command {
             feed::spawn_feed_command(cmd, every, feeds.clock_offset, tx.clone());

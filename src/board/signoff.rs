@@ -183,6 +183,29 @@ impl App {
         }
     }
 
+    /// The log read again after it changed on disk: a record written elsewhere (the
+    /// head moved past what the board holds) is said; the board's own, read back,
+    /// is not.
+    pub(super) fn log_read(&mut self, chain: Result<Chain, String>) {
+        let before = self.signoffs.chain.as_ref().and_then(Chain::head);
+        if let Ok(c) = &chain {
+            let now = c.head();
+            if now != before
+                && let Some(h) = &now
+            {
+                let new = h.seq.saturating_sub(before.as_ref().map_or(0, |b| b.seq));
+                self.notice(
+                    NoteKind::Info,
+                    format!(
+                        "sign-off log changed on disk (another board or `rhoboard signoff`): read, {new} new record(s), newest #{}",
+                        h.seq
+                    ),
+                );
+            }
+        }
+        self.take_chain(chain);
+    }
+
     /// A chain read by the event loop (or at load).
     pub(super) fn take_chain(&mut self, chain: Result<Chain, String>) {
         match chain {

@@ -163,6 +163,10 @@ pub fn prepare(args: &Args, now: DateTime<Utc>) -> anyhow::Result<(App, Feeds)> 
         crate::commands::signoff::log_for(ops_dir.as_deref()),
         crate::commands::signoff::data_hashes(ops_dir.as_deref()),
     );
+    // Records written elsewhere (another board, `rhoboard signoff`) reach this board.
+    if let Some(log) = &app.signoffs.log {
+        feeds.signoff_log = Some(crate::board::feed::LogWatch::new(log.clone()));
+    }
     app.attach_legs_files(ops_dir.as_deref());
     if app.settings.demo {
         app.notice(
