@@ -346,3 +346,54 @@ fn ctrl_u_clears_the_focused_field_of_the_signoff_form() {
     assert_eq!(f.values[0], "M. Ortiz", "the other field stays");
     assert!(app.ui.filter.is_empty());
 }
+
+/// The sign-off's basis is the leg assessed at the board's clock when the form opens,
+/// not at the board's last re-check (trial finding: a record made at 13:07 gave a
+/// 13:05 report's age as 0.45 min, from a re-check at 13:05). Here the clock runs three
+/// minutes past 08:00 with no re-check, and the basis ages the 08:00 reports by three.
+#[test]
+fn the_basis_is_assessed_at_the_clock_the_form_opens() {
+    let mut app = demo_stepped_to(8);
+    let k = select_leg(&mut app, "L09");
+    let board_age = app.assessment.legs[k]
+        .departure
+        .observation
+        .as_ref()
+        .unwrap()
+        .age_min;
+    assert_eq!(board_age, 0.0, "re-checked at 08:00 on the 08:00 report");
+    // Running: half a second of real time is three minutes at the default pace.
+    app.update(key(KeyCode::Char(' ')));
+    app.update(rhoboard::board::Msg::Tick {
+        now: demo_time(8, 3),
+        elapsed: std::time::Duration::from_millis(500),
+    });
+    app.update(key(KeyCode::Char(' ')));
+    assert_eq!(app.clock, demo_time(8, 3));
+    assert_eq!(
+        app.assessment.legs[k]
+            .departure
+            .observation
+            .as_ref()
+            .unwrap()
+            .age_min,
+        0.0,
+        "no re-check yet"
+    );
+    app.update(key(KeyCode::Char('S')));
+    let Mode::Sign(f) = &app.ui.mode else {
+        panic!("S opens the form");
+    };
+    assert_eq!(f.basis_at, demo_time(8, 3));
+    for side in [&f.result.departure, &f.result.arrival] {
+        let o = side.observation.as_ref().unwrap();
+        let want = (demo_time(8, 3) - o.observed_at).num_seconds() as f64 / 60.0;
+        assert!(
+            (o.age_min - want).abs() < 1e-9,
+            "{}: {} vs {want}",
+            o.station,
+            o.age_min
+        );
+        assert!(o.age_min >= 3.0, "{}", o.age_min);
+    }
+}

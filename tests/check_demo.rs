@@ -675,3 +675,40 @@ fn a_hard_limit_has_no_margin_word_and_a_null_json_margin() {
         );
     }
 }
+
+/// A density altitude in a leg's advice is the figure its side shows (rounded up, as
+/// the limit row and the air line have it): trial finding, "8337 ft" on the air line
+/// beside "at 8336 ft density altitude" in the advice.
+#[test]
+fn the_advice_gives_the_density_altitude_the_side_shows() {
+    let mut checked = 0;
+    for at in ["2026-06-14T08:00:00Z", "2026-06-14T13:00:00Z"] {
+        let v = check_json(at);
+        for leg in v["legs"].as_array().unwrap() {
+            for advice in leg["advice"].as_array().unwrap() {
+                let a = advice.as_str().unwrap();
+                let words: Vec<&str> = a.split(' ').collect();
+                let figure = words
+                    .windows(3)
+                    .find_map(|w| (w[1] == "ft" && w[2] == "density").then_some(w[0]))
+                    .or_else(|| {
+                        words.windows(4).find_map(|w| {
+                            (w[0] == "density" && w[1] == "altitude" && w[3] == "ft")
+                                .then_some(w[2])
+                        })
+                    });
+                let Some(figure) = figure else { continue };
+                let field = a.split(':').next().unwrap();
+                let side = ["departure", "arrival"]
+                    .iter()
+                    .map(|s| &leg[*s])
+                    .find(|s| s["airfield"] == field)
+                    .unwrap_or_else(|| panic!("{a}"));
+                let da = side["density_altitude_ft"].as_f64().unwrap();
+                assert_eq!(figure, format!("{:.0}", da.ceil()), "{}: {a}", leg["id"]);
+                checked += 1;
+            }
+        }
+    }
+    assert!(checked > 3, "{checked}");
+}

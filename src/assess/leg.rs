@@ -1897,6 +1897,8 @@ fn advise(
 ) {
     let id = &field.id;
     let da = wx.air.density_altitude_ft;
+    // As every density altitude is shown: rounded up.
+    let da_shown = crate::units::up0(da);
     if let Some(w) = side.wind
         && w.headwind_kt < 0.0
     {
@@ -1936,14 +1938,12 @@ fn advise(
     }
     if da > 5_000.0 && side.takeoff.is_some() {
         advice.push(format!(
-            "{id}: density altitude {:.0} ft — lean the mixture for takeoff as the manual says.",
-            da
+            "{id}: density altitude {da_shown:.0} ft — lean the mixture for takeoff as the manual says."
         ));
     }
     if da > 3_000.0 {
         advice.push(format!(
-            "{id}: at {:.0} ft density altitude the same indicated speeds mean a {:.0} % higher true airspeed and ground speed; the ground will look faster — fly the normal indicated speeds.",
-            da,
+            "{id}: at {da_shown:.0} ft density altitude the same indicated speeds mean a {:.0} % higher true airspeed and ground speed; the ground will look faster — fly the normal indicated speeds.",
             (wx.air.true_airspeed_factor - 1.0) * 100.0
         ));
     }

@@ -289,7 +289,19 @@ impl App {
             self.notice(NoteKind::Info, "sign-off: no leg selected".into());
             return;
         };
-        let Some(result) = self.assessment.legs.get(k).cloned() else {
+        let Some(shown) = self.assessment.legs.get(k) else {
+            return;
+        };
+        // The basis is the leg assessed afresh at the board's clock, so the record's
+        // report ages and staleness are as of its basis time (the board's own
+        // re-check may be minutes old).
+        let ctx = crate::assess::leg::Context {
+            ops: &self.ops,
+            model: self.model(),
+            store: &self.store,
+            at: self.clock,
+        };
+        let Some(result) = crate::assess::assess_leg(&ctx, shown.index) else {
             return;
         };
         let offers_override = !result.state.meets_minimums()

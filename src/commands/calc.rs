@@ -210,8 +210,10 @@ pub fn feet(v: f64) -> String {
 
 /// One plain line on what this density altitude means for takeoff and climb.
 pub fn meaning(c: &CalcJson) -> String {
-    let above = c.density_altitude_ft - c.elevation_ft;
-    let da = feet(c.density_altitude_ft);
+    // Rounded up, as the board and the sheet show every density altitude.
+    let da_ft = units::up0(c.density_altitude_ft);
+    let above = da_ft - c.elevation_ft;
+    let da = feet(da_ft);
     if above.abs() < 250.0 {
         format!(
             "The air is close to standard for this field: the aircraft will perform about as its \
@@ -271,7 +273,7 @@ fn write_human(c: &CalcJson, out: &mut dyn Write) -> std::io::Result<()> {
         ),
         (
             "density altitude",
-            format!("{} ft", feet(c.density_altitude_ft)),
+            format!("{} ft", feet(units::up0(c.density_altitude_ft))),
             if c.dewpoint_c.is_some() {
                 "with humidity".to_string()
             } else {

@@ -38,7 +38,7 @@ pub fn run(out: &mut dyn Write) -> anyhow::Result<Outcome> {
         out,
         "  pressure altitude {} ft, density altitude {} ft (ISA {:+.1} °C), 65 kt indicated is {:.0} kt true.\n  {}\n",
         calc::feet(result.pressure_altitude_ft),
-        calc::feet(result.density_altitude_ft),
+        calc::feet(crate::units::up0(result.density_altitude_ft)),
         result.isa_deviation_c,
         result.true_airspeed_kt.unwrap_or(f64::NAN),
         calc::meaning(&result)
