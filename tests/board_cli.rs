@@ -292,3 +292,91 @@ fn a_sign_off_written_elsewhere_reaches_the_board() {
     assert!(rx.try_iter().next().is_none(), "nothing changed since");
     std::fs::remove_dir_all(&dir).unwrap();
 }
+
+/// The runway form lists a change set to start later today beside each end's state
+/// now (trial finding: "27 … today: as declared" with a closure at 1500Z unseen), and
+/// opening the end before that closure starts is refused, naming its start.
+#[test]
+fn the_runway_form_shows_a_later_closure_and_will_not_cancel_it() {
+    use chrono::{TimeZone, Utc};
+    use ratatui::crossterm::event::{KeyCode, KeyEvent, KeyModifiers};
+    use rhoboard::board::Msg;
+    use rhoboard::board::app::Mode;
+    use rhoboard::commands::board::{Args, prepare};
+    let dir = demo_folder("later");
+    let home = dir.join(".home");
+    let o = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args([
+            "runway", "XSEA", "27", "--closed", "--from", "15:00Z", "--until", "17:00Z",
+        ])
+        .args(["--date", "2026-06-14", "--ops"])
+        .arg(&dir)
+        .env("HOME", &home)
+        .env("XDG_CONFIG_HOME", &home)
+        .env("RHOBOARD_DATA_DIR", &home)
+        .output()
+        .unwrap();
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let args = Args {
+        ops: Some(dir.clone()),
+        at: Some("2026-06-14T13:00:00Z".into()),
+        feed_every: "5m".into(),
+        ..Args::default()
+    };
+    let now = Utc.with_ymd_and_hms(2026, 12, 1, 19, 0, 0).unwrap();
+    let (mut app, _) = prepare(&args, now).expect("prepares");
+    let key = |c: KeyCode| Msg::Key(KeyEvent::new(c, KeyModifiers::NONE));
+    app.update(Msg::Resize(120, 40));
+    app.update(key(KeyCode::Char('r')));
+    // Onto XSEA 27 (the first leg departs XSEA): the end field, cleared, 27.
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("r opens the form")
+    };
+    assert_eq!(f.values[0], "XSEA");
+    app.update(key(KeyCode::BackTab));
+    app.update(Msg::Key(KeyEvent::new(
+        KeyCode::Char('u'),
+        KeyModifiers::CONTROL,
+    )));
+    for c in "27".chars() {
+        app.update(key(KeyCode::Char(c)));
+    }
+    let backend = ratatui::backend::TestBackend::new(120, 40);
+    let mut term = ratatui::Terminal::new(backend).unwrap();
+    term.draw(|fr| fr.render_widget(&app, fr.area())).unwrap();
+    let text: String = term
+        .backend()
+        .buffer()
+        .content()
+        .chunks(120)
+        .map(|row| row.iter().map(|c| c.symbol()).collect::<String>() + "\n")
+        .collect();
+    // The line wraps in the form (the board shows beside the box).
+    let line = text
+        .lines()
+        .find(|l| l.contains("  27   ▶ in use"))
+        .unwrap_or_else(|| panic!("{text}"));
+    assert!(
+        line.contains("today: as declared; from 1500Z: closed"),
+        "{line}"
+    );
+    assert!(text.contains("│    1500Z–1700Z "), "{text}");
+    app.update(key(KeyCode::Tab));
+    app.update(key(KeyCode::Char('n')));
+    app.update(key(KeyCode::Enter));
+    let Mode::Runway(f) = &app.ui.mode else {
+        panic!("refused: the form stays")
+    };
+    assert_eq!(
+        f.error_for(1),
+        Some(
+            "27 is not closed at 1300Z: its closure starts at 1500Z, and opening it earlier would cancel that closure; to end the closure, open it from 1500Z or later (--from 15:00Z)"
+        )
+    );
+    std::fs::remove_dir_all(&dir).unwrap();
+}

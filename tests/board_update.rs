@@ -883,7 +883,7 @@ fn reopening_an_end_that_is_not_closed_names_the_closed_one() {
     assert_eq!(f.focus, 1, "the cursor goes to the end");
     assert_eq!(
         f.error_for(1),
-        Some("09 is not closed today, so there is nothing to open (closed that day: 27)")
+        Some("09 is not closed at 0630Z, so there is nothing to open (closed that day: 27)")
     );
     // On the end field: cleared, 27 typed, and sent.
     app.update(Msg::Key(KeyEvent::new(

@@ -413,7 +413,7 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     assert_eq!(code, 2, "{out}");
     assert!(
         err.contains(
-            "XMRS 22 is not closed on 2026-06-14, so there is nothing to open; nothing was saved"
+            "XMRS 22 is not closed at 1400Z, so there is nothing to open; nothing was saved"
         ),
         "{err}"
     );
@@ -448,7 +448,7 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     assert_eq!(code, 0, "{err}");
     assert!(
         out.ends_with(
-            "XSEA 27 on 2026-06-14, through the day:\n  from the day's start: closed until 1500Z (works)\n  from 1300Z: closed 1300Z–1500Z (works)\n"
+            "XSEA 27 on 2026-06-14, through the day:\n  from the day's start: closed until 1500Z (works)\n  from 1300Z: closed 1300Z–1500Z\n"
         ),
         "{out}"
     );
@@ -464,7 +464,72 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         "--ops",
         d,
     ]);
+    assert_eq!(code, 2, "closed until 1500Z: open again at 1500Z");
+    assert!(err.contains("XSEA 27 is not closed at 1500Z"), "{err}");
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XSEA",
+        "27",
+        "--open",
+        "--from",
+        "14:30Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
     assert_eq!(code, 0, "{err}");
+    // An opening before a closure that starts later would cancel it unseen (trial
+    // finding): refused, naming the closure's start; from its start on, it ends it.
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XKNL",
+        "14",
+        "--closed",
+        "--from",
+        "10:00Z",
+        "--note",
+        "works",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 0, "{err}");
+    let (code, _, err) = cmd(&[
+        "runway",
+        "XKNL",
+        "14",
+        "--open",
+        "--from",
+        "09:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 2);
+    assert!(
+        err.contains("XKNL 14 is not closed at 0900Z: its closure starts at 1000Z, and opening it earlier would cancel that closure; to end the closure, open it from 1000Z or later (--from 10:00Z); nothing was saved"),
+        "{err}"
+    );
+    let (code, out, err) = cmd(&[
+        "runway",
+        "XKNL",
+        "14",
+        "--open",
+        "--from",
+        "12:00Z",
+        "--date",
+        "2026-06-14",
+        "--ops",
+        d,
+    ]);
+    assert_eq!(code, 0, "{err}");
+    assert!(
+        out.ends_with("  from the day's start: as declared\n  from 1000Z: closed from 1000Z (works)\n  from 1200Z: open\n"),
+        "{out}"
+    );
     let (code, out, _) = cmd(&["validate", "--ops", d]);
     assert_eq!(code, 0, "{out}");
     let (_, out, _) = cmd(&[

@@ -174,18 +174,19 @@ impl RunwayForm {
                         .find(|s| s.date == date)
                         .cloned()
                         .unwrap_or_else(|| RunwayStateFile::new(date));
-                    if day
-                        .end(&e.airfield, &e.end)
-                        .is_none_or(|s| s.closed != Some(true))
-                    {
-                        self.errors.push((
-                            Some(1),
-                            format!(
-                                "{} is not closed today, so there is nothing to open{}",
-                                e.end,
-                                crate::commands::runway::closed_elsewhere(ops, &day, &e.airfield)
-                            ),
-                        ));
+                    if let Some(why) = crate::commands::runway::open_refusal(
+                        ops,
+                        &day,
+                        &e.airfield,
+                        &e.end,
+                        e.from,
+                    ) {
+                        // The field and end are the form's: say it from the end.
+                        let why = why
+                            .strip_prefix(&format!("{} ", e.airfield))
+                            .unwrap_or(&why)
+                            .to_string();
+                        self.errors.push((Some(1), why));
                         self.focus = 1;
                         return None;
                     }

@@ -1375,10 +1375,28 @@ fn end_lines(app: &App, fi: usize, t: Theme) -> Vec<Line<'static>> {
             } else {
                 "· usable"
             };
-            let state = e
+            let mut state = e
                 .day_note
                 .clone()
                 .unwrap_or_else(|| "as declared".to_string());
+            // Changes set to start later today (a closure at 1500Z), so an opening or
+            // another change now is made knowing them.
+            let mut prev = e.day_note.clone();
+            for ep in app.model().epochs.iter().filter(|ep| ep.from > app.clock) {
+                let then = app
+                    .model()
+                    .field_ends_at(fi, ep.from)
+                    .get(e.index)
+                    .and_then(|x| x.day_note.clone());
+                if then != prev {
+                    state.push_str(&format!(
+                        "; from {}: {}",
+                        ep.from.format("%H%MZ"),
+                        then.as_deref().unwrap_or("as declared")
+                    ));
+                    prev = then;
+                }
+            }
             Line::from(vec![
                 Span::styled(
                     format!("  {id:<4} {word:<15}"),
@@ -1392,7 +1410,7 @@ fn end_lines(app: &App, fi: usize, t: Theme) -> Vec<Line<'static>> {
                 )),
                 Span::styled(
                     format!("today: {state}"),
-                    if e.day_note.is_some() {
+                    if state != "as declared" {
                         t.heading()
                     } else {
                         t.dim()

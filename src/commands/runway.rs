@@ -404,6 +404,48 @@ pub fn closed_elsewhere(ops: &crate::ops::Ops, state: &RunwayStateFile, field: &
     }
 }
 
+/// Why opening `field end` from `at` (`None`: the day's start) is refused, if it is:
+/// the end is not closed then. An opening is written after the closures, so it would
+/// win over one that starts later and cancel it unseen; one from that closure's start
+/// on ends it as meant. `None` when the end is closed at `at`.
+pub fn open_refusal(
+    ops: &crate::ops::Ops,
+    state: &RunwayStateFile,
+    field: &str,
+    end: &str,
+    at: Option<DateTime<Utc>>,
+) -> Option<String> {
+    let then = state.as_of(at).end(field, end);
+    let closed_then = then.is_some_and(|s| {
+        s.closed == Some(true) && s.until.is_none_or(|u| at.is_none_or(|t| t < u))
+    });
+    if closed_then {
+        return None;
+    }
+    let when = at.map_or(format!("at the start of {}", state.date), |t| {
+        format!("at {}", t.format("%H%MZ"))
+    });
+    let later = state
+        .entries
+        .iter()
+        .filter(|e| e.airfield == field && e.end == end && e.closed == Some(true))
+        .filter_map(|e| e.from)
+        .filter(|f| at.is_none_or(|t| *f > t))
+        .min();
+    Some(match later {
+        Some(f) => format!(
+            "{field} {end} is not closed {when}: its closure starts at {}, and opening it earlier would cancel that closure; to end the closure, open it from {} or later (--from {})",
+            f.format("%H%MZ"),
+            f.format("%H%MZ"),
+            f.format("%H:%MZ")
+        ),
+        None => format!(
+            "{field} {end} is not closed {when}, so there is nothing to open{}",
+            closed_elsewhere(ops, state, field)
+        ),
+    })
+}
+
 /// One end's state through the day, as the assessment reads it at each time: from the
 /// day's start, then from each change's start where it differs. One line when it holds
 /// all day (`XSEA 27 on 2026-06-14: closed until 1500Z (works)`), else a line per time.
@@ -499,21 +541,6 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
         by: args.by.clone().unwrap_or_default(),
     };
     let entry = entry(&ops, &args.field, &args.end, date, &req, Names::Flags)?;
-    // Opening an end that is not closed (the wrong end, or a second time) saves nothing.
-    if entry.closed == Some(false) {
-        let before = read_state(&dir, date)?;
-        if before
-            .end(&entry.airfield, &entry.end)
-            .is_none_or(|s| s.closed != Some(true))
-        {
-            bail!(
-                "{} {} is not closed on {date}, so there is nothing to open{}; nothing was saved",
-                entry.airfield,
-                entry.end,
-                closed_elsewhere(&ops, &before, &entry.airfield)
-            );
-        }
-    }
     // Opened again on today's date with no --from: from now, so the legs flown under
     // the closure keep it (and whatever else the same entry sets starts then too).
     let today = Utc::now();
@@ -524,6 +551,14 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 .duration_trunc(chrono::TimeDelta::minutes(1))
                 .unwrap_or(today),
         );
+    }
+    // Opening an end that is not closed then (the wrong end, a second time, or before a
+    // closure set to start later, which it would cancel) saves nothing.
+    if entry.closed == Some(false) {
+        let before = read_state(&dir, date)?;
+        if let Some(why) = open_refusal(&ops, &before, &entry.airfield, &entry.end, entry.from) {
+            bail!("{why}; nothing was saved");
+        }
     }
     if changes_something(&entry) && entry.from.is_none() {
         let what = match (entry.closed, entry.until) {

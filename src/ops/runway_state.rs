@@ -128,11 +128,13 @@ impl RunwayStateFile {
             macro_rules! take {
                 ($($f:ident),*) => {$( if e.$f.is_some() { o.$f = e.$f.clone(); } )*};
             }
-            // A closure's times go with it: a later closing or opening replaces both.
+            // A closure's times and note go with it: a later closing or opening
+            // replaces them (an end opened again is not "open (works)").
             if e.closed.is_some() {
                 o.closed = e.closed;
                 o.from = e.from;
                 o.until = e.until;
+                o.note = e.note.clone();
             }
             take!(tora_m, toda_m, asda_m, lda_m, condition, in_use);
             if !e.note.is_empty() {
@@ -207,7 +209,8 @@ mod tests {
         let e = f.end("XSEA", "27").unwrap();
         assert_eq!(e.closed, Some(false));
         assert_eq!(e.tora_m, Some(900.0));
-        assert_eq!(e.note, "works");
+        // The closure's note went with it.
+        assert_eq!(e.note, "");
         assert!(f.end("XSEA", "09").is_none());
         assert_eq!(DayCondition::parse("soft"), Some(DayCondition::SoftGround));
         assert_eq!(
