@@ -142,8 +142,8 @@ pub struct FieldLine {
     pub density_altitude_ft: Option<f64>,
     /// The reported wind in words.
     pub wind: String,
-    /// Runway in use for the leg nearest the reference time, and why.
-    pub runway: Option<(String, String, String)>,
+    /// Runway in use at the sheet's time (on the report of the wind beside it), and why.
+    pub runway: Option<(String, String)>,
 }
 
 /// One leg's row.
@@ -391,19 +391,26 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
         .map(|a| {
             let valid = ctx.store.valid_at(&a.id, ctx.at);
             let wx = valid.and_then(|v| FieldWx::from_report(v.report, a.elevation_ft));
-            // The runway in use as assessed for the leg event nearest the reference time.
-            let runway = results
-                .iter()
-                .flat_map(|r| [(&r.id, &r.departure), (&r.id, &r.arrival)])
-                .filter(|(_, s)| s.airfield == a.id && s.runway.is_some())
-                .min_by_key(|(_, s)| (s.event_at - ctx.at).num_seconds().abs())
-                .map(|(id, s)| {
-                    (
-                        s.runway.clone().unwrap_or_default(),
-                        s.runway_reason.clone(),
-                        format!("{id} at {}", s.event_at.format("%H%MZ")),
-                    )
-                });
+            // The runway in use at the sheet's time on the same report as the wind
+            // beside it, as the board's Airfields pane has it.
+            let runway = ops.airfield_position(&a.id).and_then(|fi| {
+                let ends = ctx.model.field_ends_at(fi, ctx.at);
+                let winds: Vec<_> = wx
+                    .as_ref()
+                    .map(|w| ends.iter().map(|e| w.on_end(e.heading_true_deg)).collect())
+                    .unwrap_or_default();
+                let usable: Vec<bool> = ends.iter().map(|e| e.usable_at(ctx.at)).collect();
+                let (k, why) = crate::assess::pairing::end_in_use(
+                    ctx.model,
+                    fi,
+                    ctx.at,
+                    wx.as_ref(),
+                    &winds,
+                    &usable,
+                )?;
+                let end = a.runway_ends.get(k)?;
+                Some((end.designator.clone(), why.to_string()))
+            });
             FieldLine {
                 id: a.id.clone(),
                 name: a.name.clone(),
@@ -799,8 +806,8 @@ pub fn markdown(s: &Sheet) -> String {
             f.wind,
             f.runway
                 .as_ref()
-                .map_or("—".to_string(), |(r, why, for_leg)| md_cell(&format!(
-                    "{r} ({why}; {for_leg})"
+                .map_or("—".to_string(), |(r, why)| md_cell(&format!(
+                    "{r} ({why})"
                 )))
         );
     }
@@ -1017,9 +1024,7 @@ pub fn html(s: &Sheet) -> String {
             esc(&f.wind),
             f.runway
                 .as_ref()
-                .map_or("—".to_string(), |(r, why, for_leg)| esc(&format!(
-                    "{r} ({why}; {for_leg})"
-                )))
+                .map_or("—".to_string(), |(r, why)| esc(&format!("{r} ({why})")))
         );
     }
     let _ = writeln!(o, "</tbody>");

@@ -426,3 +426,43 @@ fn sheet_cli(at: &str) -> String {
         .expect("run");
     String::from_utf8_lossy(&o.stdout).into_owned()
 }
+
+/// The Airfields table gives the runway in use at the sheet's time on the report of the
+/// wind beside it — the end the pairings use — not the runway of whichever leg event is
+/// nearest (trial finding: "300° 12 kt | 24 (…; L04 at 0900Z)" where 34 has the
+/// headwind at 13Z).
+#[test]
+fn the_airfields_runway_goes_with_the_wind_beside_it() {
+    for at in ["2026-06-14T08:00:00Z", "2026-06-14T13:00:00Z"] {
+        let (loaded, days) = assessed(at);
+        let rs = results(&loaded, &days);
+        let model = Model::new(&loaded.ops, &DaySettings::default());
+        let ctx = Context {
+            ops: &loaded.ops,
+            model: &model,
+            store: &loaded.store,
+            at: loaded.at,
+        };
+        let sheet = report::build(&ctx, &rs, Err("none".into()));
+        let m = rhoboard::assess::pairing::matrix(&ctx);
+        let mut checked = 0;
+        for f in &sheet.fields {
+            let fi = loaded.ops.airfield_position(&f.id).unwrap();
+            let pairs = (0..m.aircraft.len())
+                .find_map(|ai| m.cell(ai, fi).end_in_use)
+                .map(|k| {
+                    loaded.ops.airfields[fi].runway_ends[usize::from(k)]
+                        .designator
+                        .clone()
+                });
+            assert_eq!(
+                f.runway.as_ref().map(|(r, _)| r.clone()),
+                pairs,
+                "{} at {at}",
+                f.id
+            );
+            checked += 1;
+        }
+        assert!(checked > 5);
+    }
+}

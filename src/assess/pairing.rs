@@ -141,6 +141,42 @@ impl FieldWeather {
     }
 }
 
+/// The end in use at field `fi` at `at`, on the report's air (`winds` and `usable`
+/// per end, as [`Model::field_ends_at`] has the ends then), and why: the end set in use
+/// when it is usable, else the one with the most headwind; calm, the preferential end,
+/// else the first usable one. `None` without a usable end, or without a report where
+/// none is set. The pairings, and the sheet's Airfields table, use it.
+pub fn end_in_use(
+    model: &Model,
+    fi: usize,
+    at: chrono::DateTime<chrono::Utc>,
+    wx: Option<&FieldWx>,
+    winds: &[EndWind],
+    usable: &[bool],
+) -> Option<(usize, &'static str)> {
+    let is_usable = |k: &usize| usable.get(*k).copied().unwrap_or(false);
+    if let Some(k) = model.set_in_use_at(fi, at).filter(is_usable) {
+        return Some((k, "set in use"));
+    }
+    let wx = wx?;
+    if wx.calm() {
+        model.fields[fi]
+            .preferential_end
+            .filter(is_usable)
+            .map(|k| (k, "calm: the preferential end"))
+            .or_else(|| {
+                (0..usable.len())
+                    .find(is_usable)
+                    .map(|k| (k, "calm: the first usable end"))
+            })
+    } else {
+        (0..usable.len().min(winds.len()))
+            .filter(is_usable)
+            .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
+            .map(|k| (k, "most headwind"))
+    }
+}
+
 /// The fold of the field's weather checks as [`limits::field_limits_to`] makes them: the
 /// highest state, then the lowest score ([`limits::LimitCheck::score`]) within it, and
 /// that check as the deciding minimum. No text is written.
@@ -505,23 +541,7 @@ impl<'a> FieldPrep<'a> {
         let mut usable = std::mem::take(&mut scratch.usable);
         usable.clear();
         usable.extend(ends.iter().map(|e| e.usable_at(ctx.at)));
-        let is_usable = |k: &usize| usable.get(*k).copied().unwrap_or(false);
-        let in_use = model
-            .set_in_use_at(fi, ctx.at)
-            .filter(is_usable)
-            .or_else(|| {
-                let wx = wx.as_ref()?;
-                if wx.calm() {
-                    model.fields[fi]
-                        .preferential_end
-                        .filter(is_usable)
-                        .or_else(|| (0..ends.len()).find(is_usable))
-                } else {
-                    (0..ends.len())
-                        .filter(is_usable)
-                        .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
-                }
-            });
+        let in_use = end_in_use(model, fi, ctx.at, wx.as_ref(), &winds, &usable).map(|(k, _)| k);
         let mut minimums = [None; 4];
         for c in Category::ALL {
             minimums[cat_index(c)] = ops.minimums(c);
