@@ -448,7 +448,7 @@ fn the_runway_command_writes_a_state_that_check_uses() {
     assert_eq!(code, 0, "{err}");
     assert!(
         out.ends_with(
-            "XSEA 27 on 2026-06-14, through the day:\n  from the day's start: closed until 1500Z (works)\n  from 1300Z: closed 1300Z–1500Z\n"
+            "XSEA 27 on 2026-06-14, through the day:\n  from the day's start: closed until 1500Z (works)\n  from 1300Z: closed 1300Z–1500Z\n  from 1500Z: as declared\n"
         ),
         "{out}"
     );

@@ -460,7 +460,16 @@ fn write_through_the_day(
         let said = state
             .as_of(at)
             .end(field, end)
-            .map(|s| crate::assess::model::describe(&s))
+            .map(|mut s| {
+                // A closure whose window has ended by `at` no longer says anything.
+                if s.closed == Some(true) && s.until.is_some_and(|u| at.is_some_and(|t| t >= u)) {
+                    s.closed = None;
+                    s.from = None;
+                    s.until = None;
+                    s.note.clear();
+                }
+                crate::assess::model::describe(&s)
+            })
             .unwrap_or_default();
         // Nothing in words (a note alone): as declared, never an empty line.
         if said.is_empty() {
@@ -469,11 +478,13 @@ fn write_through_the_day(
             said
         }
     };
+    // Each change's start, and each closure's end.
     let mut starts: Vec<DateTime<Utc>> = state
         .entries
         .iter()
         .filter(|e| e.airfield == field && e.end == end)
-        .filter_map(|e| e.from)
+        .flat_map(|e| [e.from, e.until.filter(|_| e.closed == Some(true))])
+        .flatten()
         .collect();
     starts.sort_unstable();
     starts.dedup();
