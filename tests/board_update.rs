@@ -330,6 +330,32 @@ fn a_report_replacing_one_of_the_same_minute_is_said() {
     );
 }
 
+/// A report rejected from a file names its line, as `check` and `validate` do (trial
+/// nit: the board said only the file).
+#[test]
+fn a_rejected_line_of_a_file_is_named_with_its_line() {
+    let mut app = demo(8, 0);
+    let mut reports = decode_all(
+        "METAR XSEA 140800Z 24008KT 9999 FEW040 19/08 Q1017\nMETAR XSEA 140810Z 24008KT 9999 Q1017",
+        demo_time(23, 0),
+    );
+    // As a file's lines 103 and 104.
+    for (k, r) in reports.iter_mut().enumerate() {
+        r.line = 103 + k;
+    }
+    app.update(Msg::Observations {
+        source: "observations/2026-06-14.txt".into(),
+        reports,
+    });
+    assert!(
+        app.notes.iter().any(|n| n.kind == NoteKind::Error
+            && n.text
+                .starts_with("observations/2026-06-14.txt:104: rejected observation XSEA 140810Z")),
+        "{:?}",
+        app.notes
+    );
+}
+
 #[test]
 fn a_failing_feed_is_shown_once() {
     let mut app = demo(8, 0);

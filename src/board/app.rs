@@ -654,8 +654,11 @@ impl App {
                 self.on_tick(now, elapsed)
             }
             Msg::Observations { source, reports } => {
-                let reports: Vec<Report> = reports.into_iter().map(|r| r.report).collect();
-                self.take_reports(&source, reports);
+                let reports: Vec<(Option<usize>, Report)> = reports
+                    .into_iter()
+                    .map(|r| (Some(r.line), r.report))
+                    .collect();
+                self.take_reports_at(&source, reports);
             }
             Msg::FeedError { source, error } => {
                 let text = format!("{source}: {error}");
@@ -821,12 +824,18 @@ impl App {
 
     /// Inserts reports, recomputes what they touch and lists the changes.
     fn take_reports(&mut self, source: &str, reports: Vec<Report>) {
+        self.take_reports_at(source, reports.into_iter().map(|r| (None, r)).collect());
+    }
+
+    /// [`App::take_reports`] with each report's line in its file, where it has one (a
+    /// rejection is named `observations/2026-06-14.txt:104`, as `check` names it).
+    fn take_reports_at(&mut self, source: &str, reports: Vec<(Option<usize>, Report)>) {
         // Station by station, so a change is put down to the report that made it.
-        let mut groups: Vec<(String, Vec<Report>)> = Vec::new();
-        for r in reports {
+        let mut groups: Vec<(String, Vec<(Option<usize>, Report)>)> = Vec::new();
+        for (line, r) in reports {
             match groups.iter_mut().find(|(s, _)| *s == r.station) {
-                Some((_, g)) => g.push(r),
-                None => groups.push((r.station.clone(), vec![r])),
+                Some((_, g)) => g.push((line, r)),
+                None => groups.push((r.station.clone(), vec![(line, r)])),
             }
         }
         // Many stations at once (a folder read at start): one full pass instead.
@@ -839,7 +848,7 @@ impl App {
         let mut touched: Vec<(String, String)> = Vec::new();
         for (station, group) in groups {
             let mut label = None;
-            for r in group {
+            for (line, r) in group {
                 // The note carries the board's time; name the report's own only if it differs.
                 let this = match r.observed_at {
                     Some(t)
@@ -878,7 +887,8 @@ impl App {
                     Insert::Rejected(why) => {
                         self.dirty = true;
                         if source != "on load" {
-                            self.note(NoteKind::Error, format!("{source}: rejected {why}"));
+                            let at = line.map_or(source.to_string(), |l| format!("{source}:{l}"));
+                            self.note(NoteKind::Error, format!("{at}: rejected {why}"));
                         }
                         self.log_received(source, &copy, Some(why), false);
                     }
