@@ -277,6 +277,9 @@ pub struct Received {
     pub not_understood: Vec<String>,
 }
 
+/// A report and its line in its file, where it has one.
+type LinedReport = (Option<usize>, Report);
+
 /// How the note of a replay step back starts.
 const STEPPED_BACK: &str = "stepped back to";
 
@@ -831,7 +834,7 @@ impl App {
     /// rejection is named `observations/2026-06-14.txt:104`, as `check` names it).
     fn take_reports_at(&mut self, source: &str, reports: Vec<(Option<usize>, Report)>) {
         // Station by station, so a change is put down to the report that made it.
-        let mut groups: Vec<(String, Vec<(Option<usize>, Report)>)> = Vec::new();
+        let mut groups: Vec<(String, Vec<LinedReport>)> = Vec::new();
         for (line, r) in reports {
             match groups.iter_mut().find(|(s, _)| *s == r.station) {
                 Some((_, g)) => g.push((line, r)),
