@@ -143,7 +143,7 @@ fn a_runway_state_changed_by_another_process_reaches_the_board_and_a_broken_one_
     let e = texts(&rx);
     assert_eq!(e.len(), 1, "{e:?}");
     assert!(
-        e[0] == "error runway-state/2026-06-14.json: line 5, column 0: EOF while parsing a list; the last good runway state stays",
+        e[0] == "error runway-state/2026-06-14.json: 5:1: JSON ends too early: EOF while parsing a list; the last good runway state stays",
         "{e:?}"
     );
     app.update(Msg::FeedError {
@@ -178,7 +178,7 @@ fn a_runway_state_changed_by_another_process_reaches_the_board_and_a_broken_one_
     assert_eq!(
         texts(&rx),
         [
-            "error runway-state/2026-06-14.json: entries[0].end: XSEA has no runway end '18' (it has: 09, 27); the last good runway state stays"
+            "error runway-state/2026-06-14.json: 1:85: entries[0].end: XSEA has no runway end '18' (it has: 09, 27); the last good runway state stays"
         ]
     );
     // Reopened by another process: the board follows.

@@ -82,43 +82,67 @@ impl RunwayStateWatch {
     }
 
     /// A runway-state file's text read as the day's state, or what is wrong with it,
-    /// naming the line and field.
+    /// placed as `validate` places it: `5:50: entries[0].closed: …` (line, column and
+    /// field, by the operator loader's own `Collector`).
     fn read(&self, path: &Path, text: &str) -> Result<RunwayStateFile, String> {
-        let state: RunwayStateFile = serde_json::from_str(text).map_err(|e| {
-            // serde_json ends its message with the place; it goes first here, as in
-            // every other message naming a file's line.
-            let place = format!(" at line {} column {}", e.line(), e.column());
-            let full = e.to_string();
-            let what = full.strip_suffix(&place).unwrap_or(&full).to_string();
-            format!("line {}, column {}: {what}", e.line(), e.column())
-        })?;
-        if state.schema_version != 1 {
-            return Err(format!(
-                "schema_version: {} is not a version this build reads (1)",
-                state.schema_version
-            ));
-        }
+        use crate::ops::load::{Collector, OpsFiles};
+        let name = path
+            .file_name()
+            .map_or_else(String::new, |n| n.to_string_lossy().into_owned());
+        let rel = format!("runway-state/{name}");
+        let files = OpsFiles {
+            files: BTreeMap::from([(rel.clone(), text.to_string())]),
+        };
+        let mut c = Collector::new(&files);
+        let first = |c: &Collector<'_>| {
+            c.report.errors.first().map_or_else(
+                || "does not read".to_string(),
+                |d| {
+                    let field = if d.path.is_empty() {
+                        String::new()
+                    } else {
+                        format!("{}: ", d.path)
+                    };
+                    format!("{}:{}: {field}{}", d.line, d.column, d.message)
+                },
+            )
+        };
+        let Some(state) = c.parse::<RunwayStateFile>(&rel, &[]) else {
+            return Err(first(&c));
+        };
         let stem = path.file_stem().and_then(|s| s.to_str()).unwrap_or("");
         if state.date.to_string() != stem {
-            return Err(format!(
-                "date: {} differs from the file name; name the file {}.json",
-                state.date, state.date
-            ));
+            c.error(
+                &rel,
+                "date",
+                format!(
+                    "{} differs from the file name; name the file {}.json",
+                    state.date, state.date
+                ),
+            );
+            return Err(first(&c));
         }
         for (i, e) in state.entries.iter().enumerate() {
             let Some(ends) = self.known_ends.get(&e.airfield) else {
-                return Err(format!(
-                    "entries[{i}].airfield: unknown airfield '{}'",
-                    e.airfield
-                ));
+                c.error(
+                    &rel,
+                    &format!("entries[{i}].airfield"),
+                    format!("unknown airfield '{}'", e.airfield),
+                );
+                return Err(first(&c));
             };
             if !ends.contains(&e.end) {
-                return Err(format!(
-                    "entries[{i}].end: {} has no runway end '{}' (it has: {})",
-                    e.airfield,
-                    e.end,
-                    ends.join(", ")
-                ));
+                c.error(
+                    &rel,
+                    &format!("entries[{i}].end"),
+                    format!(
+                        "{} has no runway end '{}' (it has: {})",
+                        e.airfield,
+                        e.end,
+                        ends.join(", ")
+                    ),
+                );
+                return Err(first(&c));
             }
         }
         Ok(state)
