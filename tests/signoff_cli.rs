@@ -285,6 +285,16 @@ fn a_new_sign_off_supersedes_and_a_revocation_is_a_new_record() {
     ] {
         assert!(shown.contains(want), "{want} in {shown}");
     }
+    // A leg id the operator does not have is named (trial nit: "(no records)" read as
+    // if the leg were merely unsigned); a real leg without records is just that.
+    let o = rhoboard(&["log", "show", "--ops", d, "--leg", "L99"], dir.path());
+    assert!(
+        text(&o).contains("(no records: L99 is not one of the operator's legs; they are L01, L02,"),
+        "{}",
+        text(&o)
+    );
+    let o = rhoboard(&["log", "show", "--ops", d, "--leg", "L12"], dir.path());
+    assert!(text(&o).contains("\n(no records)\n"), "{}", text(&o));
     let o = rhoboard(
         &["log", "show", "--ops", d, "--leg", "L03", "--json"],
         dir.path(),

@@ -251,7 +251,27 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                     )?;
                 }
                 if shown.is_empty() {
-                    writeln!(out, "(no records)")?;
+                    // A leg asked for by id that the operator does not have: say so, not
+                    // just that the log holds nothing for it (a typo reads as "unsigned").
+                    let unknown = leg.as_ref().and_then(|l| {
+                        let (_, loaded) = load_operator(ops.as_deref(), at.as_deref()).ok()?;
+                        let known = loaded.ops.legs.iter().any(|x| &x.id == l);
+                        (!known).then(|| {
+                            let mut ids: Vec<&str> =
+                                loaded.ops.legs.iter().map(|x| x.id.as_str()).collect();
+                            ids.sort_unstable();
+                            ids.dedup();
+                            format!(
+                                "(no records: {l} is not one of the operator's legs; they are {})",
+                                ids.join(", ")
+                            )
+                        })
+                    });
+                    writeln!(
+                        out,
+                        "{}",
+                        unknown.unwrap_or_else(|| "(no records)".to_string())
+                    )?;
                 }
                 if let Some(n) = &recheck_note {
                     writeln!(out, "{n}")?;
