@@ -339,6 +339,35 @@ pub fn parse_pressure_hpa(text: &str) -> Result<f64, UnitError> {
     }
 }
 
+/// The altimeter settings accepted (QNH), hPa: 850 to 1100 (25.10 to 32.48 inHg).
+pub const ALTIMETER_RANGE_HPA: (f64, f64) = (850.0, 1100.0);
+
+/// Parses an altimeter setting ([`parse_pressure_hpa`]) and checks it lies in
+/// [`ALTIMETER_RANGE_HPA`]. Out of range, where the number would be in range in the
+/// other unit (`30.12hPa`, `1013inHg`), the message asks whether that was meant.
+pub fn parse_altimeter_hpa(text: &str) -> Result<f64, UnitError> {
+    const RANGE: &str = "850 to 1100 hPa (25.10 to 32.48 inHg)";
+    let hpa = parse_pressure_hpa(text)?;
+    let (lo, hi) = ALTIMETER_RANGE_HPA;
+    if (lo..=hi).contains(&hpa) {
+        return Ok(hpa);
+    }
+    let (v, unit) = split_number(text, Kind::Pressure)?;
+    let as_inhg = inhg_to_hpa(v);
+    let other = if unit.starts_with("in") || unit == "\"hg" {
+        (lo..=hi).contains(&v).then(|| format!("{v}hPa"))
+    } else {
+        (lo..=hi).contains(&as_inhg).then(|| format!("{v}inHg"))
+    };
+    Err(UnitError::OutOfRange {
+        text: text.to_string(),
+        range: match other {
+            Some(o) => format!("{RANGE}; did you mean {o}?"),
+            None => RANGE.to_string(),
+        },
+    })
+}
+
 /// Parses a temperature such as `31C`, `-4C`, `88F` or `290K`, in °C.
 pub fn parse_temperature_c(text: &str) -> Result<f64, UnitError> {
     let (v, unit) = split_number(text, Kind::Temperature)?;

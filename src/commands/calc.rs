@@ -71,17 +71,8 @@ impl Inputs {
             "-1,500 ft to 20,000 ft",
         )
         .map_err(|e| arg_error("elevation", e))?;
-        let altimeter_hpa = units::parse_pressure_hpa(&args.altimeter)
-            .and_then(|v| {
-                units::in_range(
-                    &args.altimeter,
-                    v,
-                    850.0,
-                    1_100.0,
-                    "850 to 1100 hPa (25.10 to 32.48 inHg)",
-                )
-            })
-            .map_err(|e| arg_error("altimeter", e))?;
+        let altimeter_hpa =
+            units::parse_altimeter_hpa(&args.altimeter).map_err(|e| arg_error("altimeter", e))?;
         let temperature_c = units::parse_temperature_c(&args.temp)
             .and_then(|v| units::in_range(&args.temp, v, -60.0, 60.0, "-60 °C to +60 °C"))
             .map_err(|e| arg_error("temp", e))?;
@@ -373,6 +364,9 @@ mod tests {
         insta::assert_snapshot!(err(args("5900", "30.12inHg", "31C", None)), @"--elevation '5900': the unit is missing; write it after the number, one of ft, m, km, sm or nm (e.g. 5900ft, 1800m)");
         insta::assert_snapshot!(err(args("25000ft", "30.12inHg", "31C", None)), @"--elevation '25000ft' is outside the accepted range -1,500 ft to 20,000 ft");
         insta::assert_snapshot!(err(args("5900ft", "800hPa", "31C", None)), @"--altimeter '800hPa' is outside the accepted range 850 to 1100 hPa (25.10 to 32.48 inHg)");
+        // The number in range in the other unit: asked whether that was meant.
+        insta::assert_snapshot!(err(args("5900ft", "30.12hpa", "31C", None)), @"--altimeter '30.12hpa' is outside the accepted range 850 to 1100 hPa (25.10 to 32.48 inHg); did you mean 30.12inHg?");
+        insta::assert_snapshot!(err(args("5900ft", "1013inHg", "31C", None)), @"--altimeter '1013inHg' is outside the accepted range 850 to 1100 hPa (25.10 to 32.48 inHg); did you mean 1013hPa?");
         insta::assert_snapshot!(err(args("5900ft", "30.12", "31C", None)), @"--altimeter '30.12': the unit is missing; write it after the number, one of hPa, mb or inHg (e.g. 1013hPa, 29.92inHg)");
         insta::assert_snapshot!(err(args("5900ft", "30.12inHg", "61C", None)), @"--temp '61C' is outside the accepted range -60 °C to +60 °C");
         insta::assert_snapshot!(err(args("5900ft", "30.12inHg", "31C", Some("32C"))), @"--dewpoint '32C' is above the temperature '31C'; the dew point can be at most the temperature");

@@ -8,9 +8,7 @@
 use chrono::{DateTime, Utc};
 
 use super::{Bound, Ceiling, Hazards, Kind, Report, SpeedUnit, Visibility, Wind};
-use crate::units::{
-    UnitError, in_range, parse_length, parse_pressure_hpa, parse_speed_kt, parse_temperature_c,
-};
+use crate::units::{UnitError, in_range, parse_length, parse_speed_kt, parse_temperature_c};
 
 /// What the manual-observation form says beside the wind direction.
 pub const WIND_FORM_NOTE: &str = "wind direction in degrees magnetic, as given by a tower, an \
@@ -284,15 +282,7 @@ pub fn manual_observation(
             ),
         });
     }
-    let altimeter_hpa = match parse_pressure_hpa(&input.altimeter).and_then(|v| {
-        in_range(
-            &input.altimeter,
-            v,
-            850.0,
-            1100.0,
-            "850 to 1100 hPa (25.10 to 32.48 inHg)",
-        )
-    }) {
+    let altimeter_hpa = match crate::units::parse_altimeter_hpa(&input.altimeter) {
         Ok(v) => Some(v),
         Err(e) => {
             errors.push(value_err("altimeter", e));
