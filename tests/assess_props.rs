@@ -189,6 +189,29 @@ fn a_stale_report_is_no_data() {
         "{:?}",
         r.reasons
     );
+    // A later report that came but was rejected is named with the stale one (trial
+    // nit: the rejection showed only where the file was read).
+    let mut with_bad = store_with(&[&old], at(9, 0));
+    let bad = decode(
+        &format!("METAR {} 140620Z 23004KT 9999 FEW030 1O/05 Q1019", leg.from),
+        at(9, 0),
+    );
+    let why = bad.rejection().expect("rejected");
+    with_bad.insert(bad);
+    let ctx = Context {
+        store: &with_bad,
+        ..ctx
+    };
+    let r = assess_leg(&ctx, i).unwrap();
+    assert_eq!(r.state, State::NoData);
+    let want = format!("; the later report 140620Z was rejected: {why}");
+    assert!(
+        r.reasons
+            .iter()
+            .any(|w| w.contains("is stale") && w.ends_with(&want)),
+        "{:?}",
+        r.reasons
+    );
     // No report at all: no-data too.
     let empty = Store::default();
     let ctx = Context {

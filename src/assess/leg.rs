@@ -1201,10 +1201,23 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
         };
         side.air = Some(wx.air);
         if stale {
-            let why = format!(
+            let mut why = format!(
                 "{role} {}: report {} is stale ({age:.0} min old, policy {:.0} min)",
                 side_in.field.id, report.time_text, model.stale_after_min
             );
+            // A later report that came but could not be used is why: say so here, not
+            // only where it was read.
+            if let Some(rej) = ctx.store.last_rejected(&side_in.field.id)
+                && let (Some(t), Some(used)) = (rej.observed_at, report.observed_at)
+                && t > used
+                && t <= side_in.event_at.min(ctx.at)
+                && let Some(r) = rej.rejection()
+            {
+                why.push_str(&format!(
+                    "; the later report {} was rejected: {r}",
+                    rej.time_text
+                ));
+            }
             side.gaps.push(why.clone());
             reasons.push(why);
             side.state = State::NoData;
