@@ -364,6 +364,9 @@ fn bad_inputs_give_a_clear_message() {
     insta::assert_snapshot!(all_errors("", at), @"observation (no station): empty report");
     insta::assert_snapshot!(all_errors("   \n\t ", at), @"observation (no station): empty report");
     insta::assert_snapshot!(all_errors("\u{0}\u{7f}\u{fffd}ÿþ garbage", at), @r"observation (no station): not a METAR: no group recognised, starting with '\u{0}\u{7f}�ÿþ'");
+    // A line of words: one reads as a station, nothing else as a METAR group (trial
+    // nit: it was "time group missing").
+    insta::assert_snapshot!(all_errors("this is not a metar", at), @"observation THIS: not a METAR: no group recognised, starting with 'THIS'");
     let huge = "XQAB 141250Z ".to_string() + &"9".repeat(1 << 20);
     insta::assert_snapshot!(all_errors(&huge, at), @"observation (no station): report is 1048589 characters long; a METAR is at most 2000");
     insta::assert_snapshot!(all_errors("XQAB 141250Z 27010KT 99", at), @r"

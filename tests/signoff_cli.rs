@@ -66,6 +66,8 @@ fn a_within_leg_is_signed_with_its_basis() {
         text(&o)
     );
     assert!(text(&o).contains("log head 1:"), "{}", text(&o));
+    // The planning-aid statement goes with every sign-off (trial nit: it was missing).
+    assert!(text(&o).contains(rhoboard::CAUTION), "{}", text(&o));
 
     let chain = Log::of_operator(dir.path()).read().expect("read");
     assert!(chain.is_sound(), "{:?}", chain.problems);

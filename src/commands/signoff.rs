@@ -215,7 +215,8 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                         "head": format!("{}:{}", r.seq, a.entry.sha256),
                         "set_aside_torn_line": a.set_aside.as_ref().map(|t| t.to_string()),
                         "record": r,
-                    }
+                    },
+                    "caution": crate::CAUTION,
                 });
                 serde_json::to_writer_pretty(&mut *out, &v)?;
                 writeln!(out)?;
@@ -250,17 +251,19 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 a.entry.line
             )?;
             writeln!(out, "log head {}:{}", r.seq, a.entry.sha256)?;
+            writeln!(out, "{}", crate::CAUTION)?;
             Ok(Outcome::Success)
         }
         Err(LogError::Refused(why)) => {
             if args.json {
                 serde_json::to_writer_pretty(
                     &mut *out,
-                    &serde_json::json!({ "refused": why.to_string() }),
+                    &serde_json::json!({ "refused": why.to_string(), "caution": crate::CAUTION }),
                 )?;
                 writeln!(out)?;
             } else {
                 writeln!(out, "refused: {why}")?;
+                writeln!(out, "{}", crate::CAUTION)?;
             }
             Ok(Outcome::Findings)
         }

@@ -487,7 +487,13 @@ impl<'a> Decoder<'a> {
     }
 
     fn finish(&mut self) {
-        if self.r.groups.is_empty() {
+        // Nothing read, or only a word that could be a station ("this is not a metar"
+        // reads THIS): not a METAR, rather than a report missing its time group.
+        let only_a_station = self.r.groups.len() <= self.r.not_understood.len() + 1
+            && !matches!(self.toks.tok(0), "METAR" | "SPECI")
+            && self.r.observed_at.is_none()
+            && self.r.time_text.is_empty();
+        if self.r.groups.is_empty() || only_a_station {
             self.r.errors = vec![DecodeError::NotMetar {
                 start: quote(self.toks.tok(0)),
             }];
