@@ -400,6 +400,10 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                     .map(|w| ends.iter().map(|e| w.on_end(e.heading_true_deg)).collect())
                     .unwrap_or_default();
                 let usable: Vec<bool> = ends.iter().map(|e| e.usable_at(ctx.at)).collect();
+                // On a stale report no runway is given (the board shows none either).
+                if valid.is_some_and(|v| v.stale) {
+                    return None;
+                }
                 let (k, why) = crate::assess::pairing::end_in_use(
                     ctx.model,
                     fi,
@@ -409,7 +413,14 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                     &usable,
                 )?;
                 let end = a.runway_ends.get(k)?;
-                Some((end.designator.clone(), why.to_string()))
+                let closed: Vec<&str> = a
+                    .runway_ends
+                    .iter()
+                    .zip(&usable)
+                    .filter(|(_, u)| !**u)
+                    .map(|(e, _)| e.designator.as_str())
+                    .collect();
+                Some((end.designator.clone(), why.words(&closed)))
             });
             FieldLine {
                 id: a.id.clone(),

@@ -433,7 +433,11 @@ fn sheet_cli(at: &str) -> String {
 /// headwind at 13Z).
 #[test]
 fn the_airfields_runway_goes_with_the_wind_beside_it() {
-    for at in ["2026-06-14T08:00:00Z", "2026-06-14T13:00:00Z"] {
+    for at in [
+        "2026-06-14T08:00:00Z",
+        "2026-06-14T13:00:00Z",
+        "2026-06-14T14:00:00Z",
+    ] {
         let (loaded, days) = assessed(at);
         let rs = results(&loaded, &days);
         let model = Model::new(&loaded.ops, &DaySettings::default());
@@ -464,5 +468,36 @@ fn the_airfields_runway_goes_with_the_wind_beside_it() {
             checked += 1;
         }
         assert!(checked > 5);
+        // A stale report gives no runway (XSHT's reports stop at 12Z).
+        if at.contains("T14") {
+            let xsht = sheet.fields.iter().find(|f| f.id == "XSHT").unwrap();
+            assert!(
+                xsht.report_stale && xsht.runway.is_none(),
+                "{:?}",
+                xsht.runway
+            );
+        }
     }
+    // With the into-wind end closed, the reason says so, as a leg's does (trial
+    // finding: "09 (most headwind)" with a 12 kt tailwind on 09).
+    let (loaded, days) = assessed("2026-06-14T16:00:00Z");
+    let rs = results(&loaded, &days);
+    let mut day = DaySettings::default();
+    day.closed.insert("XSEA".into(), vec!["27".into()]);
+    let model = Model::new(&loaded.ops, &day);
+    let ctx = Context {
+        ops: &loaded.ops,
+        model: &model,
+        store: &loaded.store,
+        at: loaded.at,
+    };
+    let sheet = report::build(&ctx, &rs, Err("none".into()));
+    let xsea = sheet.fields.iter().find(|f| f.id == "XSEA").unwrap();
+    assert_eq!(
+        xsea.runway,
+        Some((
+            "09".to_string(),
+            "the only usable end: 27 is closed".to_string()
+        ))
+    );
 }

@@ -141,11 +141,45 @@ impl FieldWeather {
     }
 }
 
+/// Why an end is the one in use ([`end_in_use`]).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum EndChoice {
+    /// Set in use in the day's runway state.
+    Set,
+    /// The other ends are closed.
+    OnlyUsable,
+    /// The most headwind.
+    MostHeadwind,
+    /// Calm: the field's preferential end.
+    CalmPreferential,
+    /// Calm, no preferential end usable: the first usable one.
+    CalmFirst,
+}
+
+impl EndChoice {
+    /// In words, as a leg's runway reason has them (`the only usable end: 27 is closed`);
+    /// `closed` names the field's ends not usable then.
+    pub fn words(self, closed: &[&str]) -> String {
+        match self {
+            EndChoice::Set => "set in use".to_string(),
+            EndChoice::OnlyUsable => format!(
+                "the only usable end: {} {} closed",
+                closed.join(", "),
+                if closed.len() == 1 { "is" } else { "are" }
+            ),
+            EndChoice::MostHeadwind => "most headwind".to_string(),
+            EndChoice::CalmPreferential => "calm: the preferential end".to_string(),
+            EndChoice::CalmFirst => "calm: the first usable end".to_string(),
+        }
+    }
+}
+
 /// The end in use at field `fi` at `at`, on the report's air (`winds` and `usable`
 /// per end, as [`Model::field_ends_at`] has the ends then), and why: the end set in use
-/// when it is usable, else the one with the most headwind; calm, the preferential end,
-/// else the first usable one. `None` without a usable end, or without a report where
-/// none is set. The pairings, and the sheet's Airfields table, use it.
+/// when it is usable, else the only usable one, else the one with the most headwind;
+/// calm, the preferential end, else the first usable one. `None` without a usable end,
+/// or without a (fresh) report where none is set. The pairings, and the sheet's
+/// Airfields table, use it.
 pub fn end_in_use(
     model: &Model,
     fi: usize,
@@ -153,27 +187,34 @@ pub fn end_in_use(
     wx: Option<&FieldWx>,
     winds: &[EndWind],
     usable: &[bool],
-) -> Option<(usize, &'static str)> {
+) -> Option<(usize, EndChoice)> {
     let is_usable = |k: &usize| usable.get(*k).copied().unwrap_or(false);
     if let Some(k) = model.set_in_use_at(fi, at).filter(is_usable) {
-        return Some((k, "set in use"));
+        return Some((k, EndChoice::Set));
     }
     let wx = wx?;
+    let open = usable.iter().filter(|u| **u).count();
     if wx.calm() {
         model.fields[fi]
             .preferential_end
             .filter(is_usable)
-            .map(|k| (k, "calm: the preferential end"))
+            .map(|k| (k, EndChoice::CalmPreferential))
             .or_else(|| {
                 (0..usable.len())
                     .find(is_usable)
-                    .map(|k| (k, "calm: the first usable end"))
+                    .map(|k| (k, EndChoice::CalmFirst))
             })
     } else {
         (0..usable.len().min(winds.len()))
             .filter(is_usable)
             .max_by(|&a, &b| winds[a].headwind_kt.total_cmp(&winds[b].headwind_kt))
-            .map(|k| (k, "most headwind"))
+            .map(|k| {
+                if open == 1 && usable.len() > 1 {
+                    (k, EndChoice::OnlyUsable)
+                } else {
+                    (k, EndChoice::MostHeadwind)
+                }
+            })
     }
 }
 
