@@ -372,11 +372,13 @@ fn the_runway_form_shows_a_later_closure_and_will_not_cancel_it() {
     let Mode::Runway(f) = &app.ui.mode else {
         panic!("refused: the form stays")
     };
+    // Under "closed", in the form's words (it has no start field).
     assert_eq!(
-        f.error_for(1),
+        f.error_for(2),
         Some(
-            "27 is not closed at 1300Z: its closure starts at 1500Z, and opening it earlier would cancel that closure; to end the closure, open it from 1500Z or later (--from 15:00Z)"
+            "27 is not closed at 1300Z: its closure starts at 1500Z, and opening it earlier would cancel that closure; to end it, open it here at 1500Z or later, or with `rhoboard runway XSEA 27 --open --from` that time"
         )
     );
+    assert_eq!(f.focus, 2);
     std::fs::remove_dir_all(&dir).unwrap();
 }

@@ -1248,7 +1248,7 @@ fn a_closure_set_on_the_board_does_not_re_grade_the_legs_already_flown() {
     assert!(
         app.notes
             .iter()
-            .any(|n| n.text.starts_with("XSEA 27: open: ")),
+            .any(|n| n.text.starts_with("XSEA 27: open from 1400Z: ")),
         "{:?}",
         app.notes.iter().take(5).collect::<Vec<_>>()
     );

@@ -761,9 +761,14 @@ impl App {
     /// A submitted runway-state entry: written by the event loop to the operator
     /// folder, or on the built-in demo (no folder) kept in memory and said so.
     fn runway_entry(&mut self, entry: EndState) {
-        // In the words the day's state uses ("open; wet", "closed from 1300Z", "in use").
+        // In the words the day's state uses ("open; wet", "closed from 1300Z", "in use"),
+        // with the time it holds from (a closure says its own).
+        let from = match (entry.closed, entry.from) {
+            (Some(true), _) | (_, None) => String::new(),
+            (_, Some(t)) => format!(" from {}", t.format("%H%MZ")),
+        };
         let what = format!(
-            "{} {}: {}",
+            "{} {}: {}{from}",
             entry.airfield,
             entry.end,
             crate::assess::model::describe(&entry)

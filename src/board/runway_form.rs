@@ -181,13 +181,33 @@ impl RunwayForm {
                         &e.end,
                         e.from,
                     ) {
-                        // The field and end are the form's: say it from the end.
+                        // The field and end are the form's: say it from the end. The
+                        // form has no start field (it is the board's clock): a closure
+                        // set to start later is ended from its start, here or by
+                        // `rhoboard runway`, and the error goes with "closed".
                         let why = why
                             .strip_prefix(&format!("{} ", e.airfield))
                             .unwrap_or(&why)
                             .to_string();
-                        self.errors.push((Some(1), why));
-                        self.focus = 1;
+                        let (field, why) = match why.split_once("; to end the closure") {
+                            Some((head, _)) => {
+                                let start = why
+                                    .split("its closure starts at ")
+                                    .nth(1)
+                                    .and_then(|t| t.split(',').next())
+                                    .unwrap_or("its start");
+                                (
+                                    2,
+                                    format!(
+                                        "{head}; to end it, open it here at {start} or later, or with `rhoboard runway {} {} --open --from` that time",
+                                        e.airfield, e.end
+                                    ),
+                                )
+                            }
+                            None => (1, why),
+                        };
+                        self.errors.push((Some(field), why));
+                        self.focus = field;
                         return None;
                     }
                 }
