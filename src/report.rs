@@ -358,7 +358,7 @@ pub fn build(ctx: &Context<'_>, results: &[LegResult], log: Result<&Chain, Strin
                 leg: r.id.clone(),
                 aircraft: leg.map_or("—".to_string(), |l| l.aircraft.clone()),
                 route: format!("{}–{}", r.departure.airfield, r.arrival.airfield),
-                category: r.category.name().replace('_', " "),
+                category: r.category.words().to_string(),
                 state: r.state,
                 limiting: match (&r.limiting, show.reasons(r).first()) {
                     (Some(l), _) => l.check.clone(),
@@ -689,7 +689,7 @@ fn chain_block(ops: &Ops, r: &LegResult, show: Show) -> ChainBlock {
         r.departure.airfield,
         r.arrival.airfield,
         leg.map_or("—", |l| l.aircraft.as_str()),
-        r.category.name().replace('_', " "),
+        r.category.words(),
         leg.and_then(|l| ops.pilot(&l.pilot))
             .map_or(String::new(), |p| format!(", {}", p.name))
     );

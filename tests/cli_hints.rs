@@ -61,6 +61,13 @@ fn an_unknown_leg_lists_the_days_leg_ids() {
         out.contains("--leg 'l16': no such leg; did you mean L16? (the legs of"),
         "{out}"
     );
+    // A letter O for the digit 0 is named too (trial nit).
+    let (code, out) = rhoboard(home.path(), &["check", "--leg", "L1O"]);
+    assert_eq!(code, 2);
+    assert!(
+        out.contains("--leg 'L1O': no such leg; did you mean L10? (the legs of"),
+        "{out}"
+    );
 }
 
 #[test]

@@ -1539,7 +1539,7 @@ impl App {
                 aircraft.type_id,
                 field.id,
                 self.clock.format("%H%MZ"),
-                result.category.name().replace('_', " "),
+                result.category.words(),
                 result
                     .takeoff_mass_kg
                     .map_or("no mass".to_string(), |m| super::display::Show::of(

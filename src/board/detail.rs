@@ -126,7 +126,7 @@ pub fn lines(
             leg.to,
             leg.departs_utc().format("%H%MZ"),
             leg.arrives_utc().format("%H%MZ"),
-            r.category.name().replace('_', " "),
+            r.category.words(),
             if leg.pilot.is_empty() {
                 "—"
             } else {

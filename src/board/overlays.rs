@@ -272,7 +272,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
         leg.map_or("—", |l| l.aircraft.as_str()),
         leg.map_or("—".into(), |l| format!("{}→{}", l.from, l.to)),
         leg.map_or("—", |l| l.pilot.as_str()),
-        r.category.name().replace('_', " ")
+        r.category.words()
     )));
     let show = super::display::Show::of(&app.ops);
     lines.push(Line::from(vec![
@@ -372,7 +372,7 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
             format!(
                 "{:>16} none: the policy allows no override for {} legs",
                 "",
-                r.category.name().replace('_', " ")
+                r.category.words()
             ),
             t.dim(),
         ));

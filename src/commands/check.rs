@@ -149,12 +149,23 @@ pub fn unknown_leg(ops: &Ops, id: &str, at: DateTime<Utc>) -> String {
     if ids.is_empty() {
         return format!("leg '{id}': no such leg; the operator has no legs");
     }
-    // Only an id in another case is named: leg ids are short, and a near spelling
-    // (L99 → L09) is more likely another leg than the one meant.
+    // Only an id in another case, or with a letter O or I for a digit 0 or 1, is
+    // named: leg ids are short, and a near spelling (L99 → L09) is more likely another
+    // leg than the one meant.
+    let norm = |s: &str| -> String {
+        s.chars()
+            .map(|c| match c.to_ascii_uppercase() {
+                'O' => '0',
+                'I' => '1',
+                c => c,
+            })
+            .collect()
+    };
     let hint = ops
         .legs
         .iter()
         .find(|l| l.id.eq_ignore_ascii_case(id))
+        .or_else(|| ops.legs.iter().find(|l| norm(&l.id) == norm(id)))
         .map_or(String::new(), |l| format!("; did you mean {}?", l.id));
     format!(
         "leg '{id}': no such leg{hint} ({whose}: {})",
@@ -366,7 +377,7 @@ fn write_table(ops: &Ops, results: &[LegResult], out: &mut dyn Write) -> std::io
             r.id,
             leg.aircraft,
             format!("{}-{}", leg.from, leg.to),
-            r.category.name().replace('_', " "),
+            r.category.words().to_string(),
             r.state.to_string(),
             limiting_margin_text(r, show),
             headroom_text(r, show),

@@ -243,7 +243,7 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                         r.signed_at.format("%Y-%m-%d %H:%M"),
                         r.leg,
                         r.leg_date,
-                        r.category.name(),
+                        r.category.words(),
                         state,
                         r.basis_at.format("as of %H%MZ"),
                         status(e),

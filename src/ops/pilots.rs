@@ -48,6 +48,14 @@ impl Category {
             Category::Charter => "charter",
         }
     }
+
+    /// In words, as tables and sentences show it: `student solo`.
+    pub const fn words(self) -> &'static str {
+        match self {
+            Category::StudentSolo => "student solo",
+            c => c.name(),
+        }
+    }
 }
 
 /// One pilot.
