@@ -452,6 +452,10 @@ fn the_runway_command_writes_a_state_that_check_uses() {
         ),
         "{out}"
     );
+    assert!(
+        err.contains("XSEA 27 already has a closure that day (closed until 1500Z (works)); this one is written after it"),
+        "{err}"
+    );
     let (code, _, err) = cmd(&[
         "runway",
         "XSEA",

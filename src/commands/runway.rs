@@ -563,6 +563,22 @@ pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
                 .unwrap_or(today),
         );
     }
+    // A closure over one already written: said, since the later one wins where both
+    // hold (its window replaces the earlier one's from its start).
+    if entry.closed == Some(true) {
+        let before = read_state(&dir, date)?;
+        if let Some(s) = before
+            .end(&entry.airfield, &entry.end)
+            .filter(|s| s.closed == Some(true))
+        {
+            eprintln!(
+                "rhoboard: note: {} {} already has a closure that day ({}); this one is written after it and wins where both hold",
+                entry.airfield,
+                entry.end,
+                crate::assess::model::describe(&s)
+            );
+        }
+    }
     // Opening an end that is not closed then (the wrong end, a second time, or before a
     // closure set to start later, which it would cancel) saves nothing.
     if entry.closed == Some(false) {
