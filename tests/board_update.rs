@@ -223,6 +223,37 @@ fn enter_opens_the_detail_and_esc_closes_it() {
     assert_eq!(selected_id(&app), "L02");
 }
 
+/// Scrolling the detail stops with its last line in view (trial nit: past the end the
+/// pane went blank, and it took as many presses back).
+#[test]
+fn the_detail_scrolls_no_further_than_its_last_line() {
+    let mut app = demo(8, 0);
+    app.update(key(KeyCode::Enter));
+    let first = board_common::screen(&mut app, 120, 40);
+    for _ in 0..500 {
+        app.update(key(KeyCode::Down));
+    }
+    let max = app.ui.detail_scroll;
+    assert!(max > 0 && max < 500, "{max}");
+    let end = board_common::screen(&mut app, 120, 40);
+    assert_ne!(first, end);
+    // The detail's last line is in view at the end.
+    let k = app.rows()[app.ui.leg_row];
+    let r = &app.assessment.legs[k];
+    let theme = rhoboard::board::theme::Theme { color: false };
+    let mut lines = rhoboard::board::detail::lines(&app.ops, r, None, theme, 60);
+    lines.extend(rhoboard::board::overlays::detail_extra(&app, k, theme));
+    let last = lines
+        .iter()
+        .map(|l| l.to_string())
+        .rfind(|l| !l.trim().is_empty())
+        .unwrap();
+    let head: String = last.trim().chars().take(20).collect();
+    assert!(end.contains(&head), "{head:?} not in\n{end}");
+    app.update(key(KeyCode::Up));
+    assert_eq!(app.ui.detail_scroll, max - 1, "one press back is one line");
+}
+
 #[test]
 fn enter_on_a_pairing_opens_its_chain() {
     let mut app = demo_stepped_to(15);

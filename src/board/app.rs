@@ -234,6 +234,9 @@ pub struct Ui {
     pub pairing: Option<Box<PairingDetail>>,
     /// Lines scrolled in the detail.
     pub detail_scroll: u16,
+    /// The furthest the detail scrolls at its last drawing (its wrapped lines less the
+    /// lines in view), so scrolling stops at the last line. Set by the view.
+    pub detail_scroll_max: std::cell::Cell<u16>,
     /// Lines scrolled in the help.
     pub help_scroll: u16,
 }
@@ -471,6 +474,7 @@ impl App {
                 detail_open: false,
                 pairing: None,
                 detail_scroll: 0,
+                detail_scroll_max: std::cell::Cell::new(u16::MAX),
                 help_scroll: 0,
             },
             notes: VecDeque::new(),
@@ -1383,8 +1387,9 @@ impl App {
                     Action::PageUp => -(self.page() as i32),
                     _ => self.page() as i32,
                 };
+                let max = i32::from(self.ui.detail_scroll_max.get().min(2000));
                 self.ui.detail_scroll =
-                    (i32::from(self.ui.detail_scroll) + by).clamp(0, 2000) as u16;
+                    (i32::from(self.ui.detail_scroll) + by).clamp(0, max) as u16;
             }
             Action::Top if detail => self.ui.detail_scroll = 0,
             Action::Up => self.move_by(-1, 0),

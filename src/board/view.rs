@@ -1006,8 +1006,12 @@ fn detail(app: &App, area: Rect, buf: &mut Buffer, t: Theme) {
         .into_iter()
         .flat_map(|l| fit::wrap(l, w, None))
         .collect();
+    // Scrolling stops with the last line in view.
+    let max =
+        u16::try_from(lines.len().saturating_sub(usize::from(inner.height))).unwrap_or(u16::MAX);
+    app.ui.detail_scroll_max.set(max);
     Paragraph::new(lines)
-        .scroll((app.ui.detail_scroll, 0))
+        .scroll((app.ui.detail_scroll.min(max), 0))
         .render(inner, buf);
 }
 
