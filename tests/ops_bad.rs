@@ -656,3 +656,37 @@ fn a_command_on_a_broken_folder_names_the_problems() {
         std::fs::remove_dir_all(&dir).unwrap();
     }
 }
+
+/// serde_json's words for the commonest slips are put in a writer's terms (trial nit:
+/// "control character (\u0000-\u001F) found while parsing a string" for a missing
+/// closing quote, "expected value" for a word without quotes), still at the file,
+/// line and field.
+#[test]
+fn a_missing_quote_and_a_misspelt_word_are_said_plainly() {
+    let base = rhoboard::ops::demo::files();
+    let aircraft = base.files["fleet/aircraft.json"].clone();
+    let first_reg = aircraft.find("\"X-TRNA\"").unwrap();
+    for (broken, want) in [
+        (
+            // The registration's closing quote dropped.
+            format!(
+                "{}\"X-TRNA,{}",
+                &aircraft[..first_reg],
+                &aircraft[first_reg + "\"X-TRNA\",".len()..]
+            ),
+            "a text runs on past the end of its line: a closing quote \" is missing",
+        ),
+        (
+            aircraft.replacen("\"available\"", "availabel", 1),
+            "expected a value here: a number, a text in quotes, true or false, a list or an object",
+        ),
+    ] {
+        let mut files = base.clone();
+        files.files.insert("fleet/aircraft.json".into(), broken);
+        let loaded = rhoboard::ops::load_files(&files);
+        let e = loaded.report.errors.first().expect("an error");
+        assert_eq!(e.file, "fleet/aircraft.json");
+        assert!(e.message.contains(want), "{e}");
+        assert!(e.line > 1, "{e}");
+    }
+}

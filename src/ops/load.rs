@@ -454,7 +454,17 @@ impl<'a> Collector<'a> {
                 "expected a number (the unit is in the field name)",
             )
             .replace("expected u32", "expected a whole number")
-            .replace("expected u64", "expected a whole number");
+            .replace("expected u64", "expected a whole number")
+            // serde_json's words for the commonest slips, in a writer's terms.
+            .replace(
+                "control character (\\u0000-\\u001F) found while parsing a string",
+                "a text runs on past the end of its line: a closing quote \" is missing (here or on the line before)",
+            )
+            .replace(
+                "expected value",
+                "expected a value here: a number, a text in quotes, true or false, a list or an object",
+            )
+;
         let msg = match err.classify() {
             serde_json::error::Category::Syntax => format!("JSON syntax: {msg}"),
             serde_json::error::Category::Eof => format!("JSON ends too early: {msg}"),
