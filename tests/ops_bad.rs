@@ -690,3 +690,26 @@ fn a_missing_quote_and_a_misspelt_word_are_said_plainly() {
         assert!(e.line > 1, "{e}");
     }
 }
+
+/// A report rejected for a malformed group is placed at that group's column, as the
+/// decoder and the board name it (trial nit: `:104:1:` beside "at column 40").
+#[test]
+fn a_rejected_report_is_placed_at_its_bad_group() {
+    let mut files = rhoboard::ops::demo::files();
+    let obs = files.files.get_mut("observations/2026-06-14.txt").unwrap();
+    let line = obs.lines().count() + 1;
+    // Q10155: column 39 of this line.
+    let bad = "METAR XPIN 141230Z 31012KT 9999 28/02 Q10155";
+    assert_eq!(bad.find("Q10155").map(|i| i + 1), Some(39));
+    obs.push_str(bad);
+    obs.push('\n');
+    let loaded = rhoboard::ops::load_files(&files);
+    let w = loaded
+        .report
+        .warnings
+        .iter()
+        .find(|w| w.line == line)
+        .expect("warned");
+    assert_eq!(w.column, 39, "{w}");
+    assert!(w.message.contains("at column 39"), "{w}");
+}

@@ -1405,11 +1405,23 @@ pub fn check_cross(ops: &Ops, c: &mut Collector<'_>) {
         };
         for r in crate::observation::file::decode_all(text, reference) {
             if let Some(why) = r.report.rejection() {
+                // At the group that is wrong, where the first problem names one.
+                let column = r
+                    .report
+                    .errors
+                    .first()
+                    .and_then(|e| match e {
+                        crate::observation::metar::DecodeError::Malformed { column, .. } => {
+                            Some(*column)
+                        }
+                        _ => None,
+                    })
+                    .unwrap_or(1);
                 c.at_line(
                     super::load::Severity::Warning,
                     file,
                     r.line,
-                    1,
+                    column,
                     format!("report not usable: {why}"),
                 );
             }
