@@ -365,7 +365,7 @@ fn the_runway_form_shows_a_later_closure_and_will_not_cancel_it() {
         line.contains("today: as declared; from 1500Z: closed"),
         "{line}"
     );
-    assert!(text.contains("│    1500Z–1700Z "), "{text}");
+    assert!(text.contains("│    1500Z–1700Z; from 1700Z: as declared "), "{text}");
     app.update(key(KeyCode::Tab));
     app.update(key(KeyCode::Char('n')));
     app.update(key(KeyCode::Enter));

@@ -969,3 +969,64 @@ fn an_end_set_in_use_from_a_time_says_from_when() {
     let r = run(&all_day, &day, &wind, at(13, 10), &late);
     assert_eq!(r.departure.runway_reason, "set for the day");
 }
+
+/// Two closures of one end in different windows both hold, whichever was written
+/// first (trial finding: closing 27 for 14–15Z on the board after a 15–17Z closure had
+/// been set wiped the later one, and a 16Z landing was graded on 27); an opening
+/// written after both ends them from its start.
+#[test]
+fn closures_in_different_windows_both_hold() {
+    let ops = rhoboard::ops::demo::load().ops.unwrap();
+    let date = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    let closure = |from: u32, until: u32| EndState {
+        airfield: "XSEA".into(),
+        end: "27".into(),
+        closed: Some(true),
+        from: Some(at(from, 0)),
+        until: Some(at(until, 0)),
+        ..EndState::default()
+    };
+    let usable = |entries: Vec<EndState>| -> Vec<(u32, bool)> {
+        let mut state = RunwayStateFile::new(date);
+        state.entries = entries;
+        let mut with = ops.clone();
+        with.runway_states.push(state);
+        let model = Model::new(&with, &DaySettings::for_date(&with, date));
+        let fi = with.airfields.iter().position(|a| a.id == "XSEA").unwrap();
+        [13, 14, 15, 16, 17, 18]
+            .into_iter()
+            .map(|h| {
+                let t = at(h, 30);
+                (h, model.field_ends_at(fi, t)[1].usable_at(t))
+            })
+            .collect()
+    };
+    let want = vec![
+        (13, true),
+        (14, false),
+        (15, false),
+        (16, false),
+        (17, true),
+        (18, true),
+    ];
+    assert_eq!(usable(vec![closure(15, 17), closure(14, 15)]), want);
+    assert_eq!(usable(vec![closure(14, 15), closure(15, 17)]), want);
+    let reopen = EndState {
+        airfield: "XSEA".into(),
+        end: "27".into(),
+        closed: Some(false),
+        from: Some(at(16, 0)),
+        ..EndState::default()
+    };
+    assert_eq!(
+        usable(vec![closure(15, 17), closure(14, 15), reopen]),
+        [
+            (13, true),
+            (14, false),
+            (15, false),
+            (16, true),
+            (17, true),
+            (18, true)
+        ]
+    );
+}

@@ -1850,7 +1850,10 @@ fn collect_reasons(
             let ch = &c.chain;
             let mut s = format!(
                 "{role} {at} climb: {:.0} ft/min (minimum {:.0}), {:.0} ft/NM",
-                ch.rate_fpm, ch.min_rate_fpm, ch.gradient_ft_per_nm
+                ch.rate_fpm,
+                ch.min_rate_fpm,
+                // Rounded down, as the chain shows it.
+                crate::units::down0(ch.gradient_ft_per_nm)
             );
             if let Some(g) = ch.required_gradient_ft_per_nm {
                 s.push_str(&format!(" (required {g:.0})"));
@@ -1918,7 +1921,8 @@ fn advise(
         advice.push(format!(
             "{id} {}: tailwind component {:.0} kt — distances rise steeply with a tailwind.",
             side.runway.as_deref().unwrap_or(""),
-            -w.headwind_kt
+            // The tailwind's limit row's figure (with the gust), rounded up as it is.
+            crate::units::up0(w.tailwind_limit_kt)
         ));
     }
     match end.surface {

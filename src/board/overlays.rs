@@ -340,7 +340,8 @@ pub fn sign(app: &App, f: &SignForm, area: Rect, buf: &mut Buffer, t: Theme) {
                 "  climb {:.0} fpm (min {:.0}), {:.0} ft/NM{}",
                 c.rate_fpm,
                 c.min_rate_fpm,
-                c.gradient_ft_per_nm,
+                // Rounded down, as the detail and the sheet show it.
+                crate::units::down0(c.gradient_ft_per_nm),
                 c.required_gradient_ft_per_nm
                     .map_or(String::new(), |g| format!(" (required {g:.0})"))
             )));

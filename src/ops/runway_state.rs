@@ -150,21 +150,46 @@ impl RunwayStateFile {
     /// The state as it stands at `t`: the entries that hold from the day's start (no
     /// `from`) and those whose `from` is at or before `t` (`None`: the day's start
     /// only). A change set at 14Z is not part of the state at 09Z.
+    ///
+    /// A closure whose window has ended by `t` no longer closes anything (its other
+    /// fields still hold): so one closure written after another, in another window,
+    /// does not cancel it — each closes its own window, and where both hold the later
+    /// written wins.
     pub fn as_of(&self, t: Option<DateTime<Utc>>) -> RunwayStateFile {
         RunwayStateFile {
             entries: self
                 .entries
                 .iter()
                 .filter(|e| e.from.is_none_or(|f| t.is_some_and(|t| f <= t)))
-                .cloned()
+                .map(|e| {
+                    let ended = e.closed == Some(true)
+                        && e.until.is_some_and(|u| t.is_some_and(|t| u <= t));
+                    if ended {
+                        EndState {
+                            closed: None,
+                            from: None,
+                            until: None,
+                            note: String::new(),
+                            ..e.clone()
+                        }
+                    } else {
+                        e.clone()
+                    }
+                })
                 .collect(),
             ..self.clone()
         }
     }
 
-    /// The times entries start from (their `from`), earliest first, each once.
+    /// The times the state changes during the day: each entry's start (`from`) and
+    /// each closure's end (`until`), earliest first, each once.
     pub fn starts(&self) -> Vec<DateTime<Utc>> {
-        let mut t: Vec<DateTime<Utc>> = self.entries.iter().filter_map(|e| e.from).collect();
+        let mut t: Vec<DateTime<Utc>> = self
+            .entries
+            .iter()
+            .flat_map(|e| [e.from, e.until.filter(|_| e.closed == Some(true))])
+            .flatten()
+            .collect();
         t.sort_unstable();
         t.dedup();
         t
