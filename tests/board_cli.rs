@@ -165,6 +165,15 @@ fn the_folder_feed_starts_after_what_the_load_read() {
     };
     let now = Utc.with_ymd_and_hms(2026, 12, 1, 19, 0, 0).unwrap();
     let (app, feeds) = prepare(&args, now).expect("prepares");
+    // The Reports pane starts with each station's report valid at the board's clock,
+    // none from after it (trial nit: 1700Z reports listed on a board at 1300Z).
+    assert!(!app.received.is_empty());
+    for r in &app.received {
+        let end_of_day = Utc.with_ymd_and_hms(2026, 6, 14, 23, 59, 0).unwrap();
+        let rep = rhoboard::observation::decode(&r.text, end_of_day);
+        let t = rep.observed_at.unwrap();
+        assert!(t <= app.clock, "{} after {}", r.text, app.clock);
+    }
     // The bad line is named once, with its line, by the load.
     let named = app
         .notes
@@ -365,7 +374,10 @@ fn the_runway_form_shows_a_later_closure_and_will_not_cancel_it() {
         line.contains("today: as declared; from 1500Z: closed"),
         "{line}"
     );
-    assert!(text.contains("│    1500Z–1700Z; from 1700Z: as declared "), "{text}");
+    assert!(
+        text.contains("│    1500Z–1700Z; from 1700Z: as declared "),
+        "{text}"
+    );
     app.update(key(KeyCode::Tab));
     app.update(key(KeyCode::Char('n')));
     app.update(key(KeyCode::Enter));

@@ -68,6 +68,13 @@ fn an_unknown_leg_lists_the_days_leg_ids() {
         out.contains("--leg 'L1O': no such leg; did you mean L10? (the legs of"),
         "{out}"
     );
+    // A number without its leading zero too.
+    let (code, out) = rhoboard(home.path(), &["check", "--leg", "L9"]);
+    assert_eq!(code, 2);
+    assert!(
+        out.contains("--leg 'L9': no such leg; did you mean L09? (the legs of"),
+        "{out}"
+    );
 }
 
 #[test]

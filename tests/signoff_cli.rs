@@ -68,6 +68,27 @@ fn a_within_leg_is_signed_with_its_basis() {
     assert!(text(&o).contains("log head 1:"), "{}", text(&o));
     // The planning-aid statement goes with every sign-off (trial nit: it was missing).
     assert!(text(&o).contains(rhoboard::CAUTION), "{}", text(&o));
+    // An empty instructor is bad input, exit 2 (trial nit: it was a refusal, exit 1).
+    let d = dir.path().to_str().expect("utf-8");
+    let empty = rhoboard(
+        &[
+            "signoff",
+            "L09",
+            "--instructor",
+            " ",
+            "--ops",
+            d,
+            "--at",
+            MORNING,
+        ],
+        dir.path(),
+    );
+    assert_eq!(empty.status.code(), Some(2), "{}", text(&empty));
+    assert!(
+        text(&empty).contains("--instructor: give the name"),
+        "{}",
+        text(&empty)
+    );
 
     let chain = Log::of_operator(dir.path()).read().expect("read");
     assert!(chain.is_sound(), "{:?}", chain.problems);

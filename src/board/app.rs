@@ -500,12 +500,13 @@ impl App {
         if app.replay.is_some() {
             app.rebuild_store();
         } else {
-            // Seed the Reports pane with each station's latest report.
+            // Seed the Reports pane with each station's report valid at the clock (a
+            // live board run `--at` an earlier time knows nothing later).
             let mut latest: Vec<Report> = app
                 .store
                 .stations()
                 .iter()
-                .filter_map(|s| app.store.current(s).cloned())
+                .filter_map(|s| app.store.valid_at(s, app.clock).map(|v| v.report.clone()))
                 .collect();
             latest.sort_by_key(|r| r.observed_at);
             for r in latest {

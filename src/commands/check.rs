@@ -161,11 +161,22 @@ pub fn unknown_leg(ops: &Ops, id: &str, at: DateTime<Utc>) -> String {
             })
             .collect()
     };
+    // And a number written without its leading zero (L9 for L09).
+    let number = |s: &str| -> Option<(String, u64)> {
+        let s = norm(s);
+        let digits = s.trim_start_matches(|c: char| !c.is_ascii_digit());
+        let prefix = &s[..s.len() - digits.len()];
+        Some((prefix.to_string(), digits.parse().ok()?))
+    };
     let hint = ops
         .legs
         .iter()
         .find(|l| l.id.eq_ignore_ascii_case(id))
         .or_else(|| ops.legs.iter().find(|l| norm(&l.id) == norm(id)))
+        .or_else(|| {
+            let n = number(id)?;
+            ops.legs.iter().find(|l| number(&l.id).as_ref() == Some(&n))
+        })
         .map_or(String::new(), |l| format!("; did you mean {}?", l.id));
     format!(
         "leg '{id}': no such leg{hint} ({whose}: {})",

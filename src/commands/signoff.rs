@@ -169,6 +169,10 @@ pub fn sign_warnings(
 
 /// Runs `rhoboard signoff`.
 pub fn run(args: &Args, out: &mut dyn Write) -> anyhow::Result<Outcome> {
+    // An empty name is bad input (exit 2), not a refusal of the leg.
+    if args.instructor.trim().is_empty() {
+        anyhow::bail!("--instructor: give the name of the instructor signing");
+    }
     let (dir, loaded) = load_operator(args.ops.as_deref(), args.at.as_deref())?;
     let ops = &loaded.ops;
     let index = leg_index(ops, &args.leg, loaded.at)?;
