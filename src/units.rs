@@ -199,6 +199,14 @@ pub enum UnitError {
         /// What was expected.
         kind: Kind,
     },
+    /// A decimal comma (`26,2C`): the number is read with a point.
+    #[error("'{text}': write the decimal point as a point ('{fixed}')")]
+    DecimalComma {
+        /// The text as typed.
+        text: String,
+        /// The text with the comma as a point.
+        fixed: String,
+    },
     /// A value outside the range the program accepts for this input.
     #[error("'{text}' is outside the accepted range {range}")]
     OutOfRange {
@@ -297,6 +305,13 @@ fn split_number(text: &str, kind: Kind) -> Result<(f64, String), UnitError> {
         return Err(no_number());
     }
     let unit = t[end..].trim();
+    // `26,2C`: a comma where a point was meant (not a thousands separator).
+    if unit.starts_with(',') && unit[1..].starts_with(|c: char| c.is_ascii_digit()) {
+        return Err(UnitError::DecimalComma {
+            text: text.to_string(),
+            fixed: format!("{}.{}", &t[..end], &unit[1..]),
+        });
+    }
     if unit.is_empty() {
         return Err(UnitError::MissingUnit {
             text: text.to_string(),
@@ -426,6 +441,17 @@ pub fn in_range(text: &str, value: f64, lo: f64, hi: f64, range: &str) -> Result
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// A decimal comma is named, with the number as meant (trial nit: "',2c' is not a
+    /// temperature unit"); a thousands separator is still read.
+    #[test]
+    fn a_decimal_comma_is_named() {
+        assert_eq!(
+            parse_temperature_c("26,2C").unwrap_err().to_string(),
+            "'26,2C': write the decimal point as a point ('26.2C')"
+        );
+        assert_eq!(parse_length("5,900ft").unwrap().ft(), 5900.0);
+    }
 
     // Exact definitions: NIST SP 811 (2008), appendix B.8 — 1 ft = 0.3048 m,
     // 1 mi = 1609.344 m, 1 nmi = 1852 m, 1 lb = 0.45359237 kg, 1 gal (US) = 3.785411784 L,

@@ -1176,6 +1176,9 @@ fn help(app: &App, area: Rect, buf: &mut Buffer, t: Theme, scroll: u16) {
     let b = &app.ops.operator.policy.buffers;
     let show = Show::of(&app.ops);
     let mut lines: Vec<Line> = vec![
+        // First, so it is in view however small the screen the help covers.
+        Line::styled(crate::CAUTION, t.heading()),
+        Line::from(""),
         Line::styled("What the board shows", t.heading()),
         Line::from(
             "Every leg of the day against the operator's minimums, re-checked as each \
