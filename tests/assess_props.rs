@@ -651,6 +651,10 @@ fn the_limiting_reference_points_at_the_check_it_names() {
                     };
                     (format!("{place} {name}"), percent_text(c.chain.margin()))
                 }
+                LimitingAt::NoRunway { .. } => (
+                    format!("{}: no usable runway end", side.airfield),
+                    NO_MARGIN.to_string(),
+                ),
                 LimitingAt::Limit { .. } => {
                     let c = r.limiting_check().expect("the limit row");
                     let m = c.margin_text();

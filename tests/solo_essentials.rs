@@ -1030,3 +1030,51 @@ fn closures_in_different_windows_both_hold() {
         ]
     );
 }
+
+/// With every end closed at the departure's time, that is the deciding check (trial
+/// finding: an arrival's tailwind read as limiting, the closure only as "no data"),
+/// the reason names each end's closure, the ends are listed, and nothing is a gap.
+#[test]
+fn no_usable_end_at_the_departure_is_the_deciding_check() {
+    let ops = rhoboard::ops::demo::load().ops.unwrap();
+    let date = NaiveDate::from_ymd_opt(2026, 6, 14).unwrap();
+    let closure = |end: &str, from: u32, until: u32| EndState {
+        airfield: "XSEA".into(),
+        end: end.into(),
+        closed: Some(true),
+        from: Some(at(from, 0)),
+        until: Some(at(until, 0)),
+        ..EndState::default()
+    };
+    let mut state = RunwayStateFile::new(date);
+    state.entries = vec![closure("27", 15, 17), closure("09", 16, 17)];
+    let mut with = ops.clone();
+    with.runway_states.push(state);
+    let day = DaySettings::for_date(&with, date);
+    let mut l = leg(&with, "L05");
+    l.departs_at = at(16, 0).fixed_offset();
+    l.arrives_at = at(16, 50).fixed_offset();
+    let reports = ["METAR XSEA 141600Z 30013KT 9999 FEW040 29/10 Q1013".to_string()];
+    let r = run(&with, &day, &reports, at(16, 0), &l);
+    assert_eq!(r.state, State::Below);
+    let lim = r.limiting.as_ref().unwrap();
+    assert_eq!(lim.check, "XSEA: no usable runway end");
+    assert_eq!(
+        lim.at,
+        rhoboard::assess::leg::LimitingAt::NoRunway { departure: true }
+    );
+    assert_eq!(r.limiting_side().unwrap().airfield, "XSEA");
+    assert!(
+        r.reasons.iter().any(|w| w
+            == "departure XSEA: no usable runway end at 1600Z (09 closed 1600Z–1700Z; 27 closed 1500Z–1700Z)"),
+        "{:?}",
+        r.reasons
+    );
+    assert_eq!(r.departure.ends.len(), 2);
+    assert!(r.departure.ends.iter().all(|e| !e.usable));
+    assert!(r.departure.gaps.is_empty(), "{:?}", r.departure.gaps);
+    assert!(
+        r.headroom_absent_why()
+            .contains("no usable runway end at XSEA")
+    );
+}

@@ -597,6 +597,11 @@ pub enum LimitingAt {
         /// Index in that side's `limits`.
         index: usize,
     },
+    /// No runway end usable at the departure's (`departure`) or the arrival's time.
+    NoRunway {
+        /// On the departure side, else the arrival.
+        departure: bool,
+    },
 }
 
 impl LegResult {
@@ -644,7 +649,9 @@ impl LegResult {
         }
         for side in [&self.departure, &self.arrival] {
             if side.state == State::Below
-                && side.gaps.iter().any(|g| g.contains("no usable runway end"))
+                && side.runway.is_none()
+                && !side.ends.is_empty()
+                && side.ends.iter().all(|e| !e.usable)
             {
                 add(format!("no usable runway end at {}", side.airfield));
             }
@@ -670,6 +677,8 @@ impl LegResult {
             LimitingAt::Limit {
                 departure: false, ..
             } => &self.arrival,
+            LimitingAt::NoRunway { departure: true } => &self.departure,
+            LimitingAt::NoRunway { departure: false } => &self.arrival,
         })
     }
 }
@@ -821,6 +830,7 @@ enum What {
     Climb,
     Landing(usize),
     Limit(usize),
+    NoRunway(bool),
 }
 
 #[derive(Debug, Clone, Copy)]
@@ -1313,11 +1323,30 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             }
         });
         let Some((k, why_end)) = choice else {
-            let why = format!("{role} {}: no usable runway end", side_in.field.id);
-            side.gaps.push(why.clone());
+            // Every end closed then: which, and how, as the day's state has them.
+            let closed: Vec<String> = options
+                .iter()
+                .map(|(o, _)| match &o.today {
+                    Some(t) => format!("{} {t}", o.designator),
+                    None => format!("{} not usable", o.designator),
+                })
+                .collect();
+            let why = format!(
+                "{role} {}: no usable runway end at {} ({})",
+                side_in.field.id,
+                side_in.event_at.format("%H%MZ"),
+                closed.join("; ")
+            );
+            // A known below, not a gap in the data.
             reasons.push(why);
             side.state = State::Below;
-            worst.add(State::Below, -1.0, What::Limit(usize::MAX));
+            side.ends = options.into_iter().map(|(o, _)| o).collect();
+            // Nothing can be flown from or to it: the deciding check, before any margin.
+            worst.add(
+                State::Below,
+                f64::NEG_INFINITY,
+                What::NoRunway(side_in.departure),
+            );
             temperature_independent_below = true;
             weatherless_pilot_checks(
                 side_in.departure,
@@ -1761,6 +1790,14 @@ fn describe_limiting(what: What, score: f64, dep: &Side, arr: &Side) -> Option<L
             )
         }
         What::Limit(usize::MAX) => return None,
+        What::NoRunway(departure) => {
+            let side = if departure { dep } else { arr };
+            (
+                format!("{}: no usable runway end", side.airfield),
+                NO_MARGIN.to_string(),
+                LimitingAt::NoRunway { departure },
+            )
+        }
         What::Limit(i) => {
             let departure = i < dep.limits.len();
             let (side, index) = if departure {
