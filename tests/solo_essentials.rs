@@ -1072,6 +1072,37 @@ fn no_usable_end_at_the_departure_is_the_deciding_check() {
     );
     assert_eq!(r.departure.ends.len(), 2);
     assert!(r.departure.ends.iter().all(|e| !e.usable));
+    // A closed end is below, never no-data (trial finding: "state": "no-data" in the
+    // alternatives of the JSON).
+    assert!(r.departure.ends.iter().all(|e| e.state == State::Below));
+    // The pairings at XSEA then: below on no usable runway end, not "no usable report"
+    // (trial finding), in the fast path and the cell-by-cell reference alike.
+    let model = Model::new(&with, &day);
+    let s = store(&reports, at(16, 10));
+    let ctx = Context {
+        ops: &with,
+        model: &model,
+        store: &s,
+        at: at(16, 10),
+    };
+    let m = rhoboard::assess::pairing::matrix(&ctx);
+    let fi = with.airfield_position("XSEA").unwrap();
+    let mut cells = 0;
+    for ai in 0..m.aircraft.len() {
+        let c = m.cell(ai, fi);
+        if c.state == State::NoData && c.limiting != rhoboard::assess::pairing::PairLimit::NoRunway
+        {
+            // An aircraft the tables cannot place (none in the demo) stays no-data.
+            continue;
+        }
+        assert_eq!(c.state, State::Below, "{ai}: {c:?}");
+        assert_eq!(
+            c.limiting_words(),
+            "no usable runway end (every end closed)"
+        );
+        cells += 1;
+    }
+    assert!(cells > 3, "{cells}");
     assert!(r.departure.gaps.is_empty(), "{:?}", r.departure.gaps);
     assert!(
         r.headroom_absent_why()

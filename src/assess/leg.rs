@@ -1252,9 +1252,10 @@ pub fn assess(ctx: &Context<'_>, leg: &Leg, index: usize) -> LegResult {
             let w = wx.on_end(end.heading_true_deg);
             let usable = end.usable_at(side_in.event_at);
             let ev = usable.then(|| evaluate_end(&setup, &who, end, &wx, &w, side_in.departure));
+            // A closed end is known unusable: below, never no-data.
             let (state, score) = ev
                 .as_ref()
-                .map_or((State::NoData, f64::NAN), |e| (e.state, e.score));
+                .map_or((State::Below, f64::NEG_INFINITY), |e| (e.state, e.score));
             options.push((
                 EndOption {
                     designator: side_in.field.runway_ends[k].designator.clone(),

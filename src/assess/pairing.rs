@@ -52,6 +52,8 @@ pub enum PairLimit {
     Observation,
     /// Outside the flight-manual tables, or a correction the manual lacks.
     Table,
+    /// Every runway end closed at the time.
+    NoRunway,
 }
 
 impl PairLimit {
@@ -61,7 +63,11 @@ impl PairLimit {
             PairLimit::Takeoff | PairLimit::Climb | PairLimit::Landing => "%",
             PairLimit::Crosswind | PairLimit::Tailwind => "kt",
             PairLimit::DensityAltitude => "ft",
-            PairLimit::None | PairLimit::Weather | PairLimit::Observation | PairLimit::Table => "",
+            PairLimit::None
+            | PairLimit::Weather
+            | PairLimit::Observation
+            | PairLimit::Table
+            | PairLimit::NoRunway => "",
         }
     }
 }
@@ -348,8 +354,22 @@ impl PairCell {
             (PairLimit::Weather, None) => "the field's weather",
             (PairLimit::Observation, _) => "no usable report (none, or stale)",
             (PairLimit::Table, _) => "the flight-manual tables",
+            (PairLimit::NoRunway, _) => "no usable runway end (every end closed)",
         }
     }
+
+    /// Every runway end closed at a field with a fresh report: below, as a leg there is.
+    const NO_RUNWAY: PairCell = PairCell {
+        state: State::Below,
+        score: f64::NEG_INFINITY,
+        margin_percent: f64::NAN,
+        limiting: PairLimit::NoRunway,
+        best_end_state: State::Below,
+        end_in_use: None,
+        headroom_c: None,
+        headroom_table_ends: false,
+        minimum: None,
+    };
 
     const NO_DATA: PairCell = PairCell {
         state: State::NoData,
@@ -561,6 +581,15 @@ fn cat_index(c: Category) -> usize {
 }
 
 impl<'a> FieldPrep<'a> {
+    /// A fresh report, and every runway end closed then.
+    fn no_runway(&self) -> bool {
+        self.wx.is_some()
+            && !self.stale
+            && self.in_use.is_none()
+            && !self.usable.is_empty()
+            && !self.usable.iter().any(|u| *u)
+    }
+
     /// Field `fi` with its report `found` ([`field_report`]).
     fn new(
         ctx: &Context<'a>,
@@ -882,6 +911,9 @@ impl Prepared {
     ) -> PairCell {
         let ops = ctx.ops;
         let model = ctx.model;
+        if class.ty.is_some() && field.no_runway() {
+            return PairCell::NO_RUNWAY;
+        }
         let (Some(t), Some(wx), Some(warming), Some(in_use)) = (
             class.ty,
             field.wx.as_ref(),
@@ -1531,6 +1563,9 @@ mod tests {
     ) -> PairCell {
         let (ops, model) = (ctx.ops, ctx.model);
         let ap = &prep.aircraft[a];
+        if ap.ty.is_some() && field.no_runway() {
+            return PairCell::NO_RUNWAY;
+        }
         let (Some(t), Some(wx), Some(in_use)) = (ap.ty, field.wx.as_ref(), field.in_use) else {
             return PairCell::NO_DATA;
         };
