@@ -62,6 +62,26 @@ fn board_options_without_the_command_mean_the_board() {
     assert!(err.contains("--bell"), "{err}");
 }
 
+/// Runs the binary on the operator folder `dir` (`--ops dir` after `args`) with `home`
+/// as its home, config and data folder, and asserts it exits 0.
+fn succeeds_in(home: &std::path::Path, dir: &std::path::Path, args: &[&str]) {
+    let o = Command::new(env!("CARGO_BIN_EXE_rhoboard"))
+        .args(args)
+        .arg("--ops")
+        .arg(dir)
+        .env("HOME", home)
+        .env("XDG_CONFIG_HOME", home)
+        .env("RHOBOARD_DATA_DIR", home)
+        .output()
+        .unwrap();
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{args:?}: {}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+}
+
 fn demo_folder(tag: &str) -> std::path::PathBuf {
     let dir = std::env::temp_dir().join(format!("rhoboard-board-ops-{tag}-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&dir);
@@ -247,20 +267,17 @@ fn a_sign_off_written_elsewhere_reaches_the_board() {
     let (tx, rx) = std::sync::mpsc::channel();
     assert!(rhoboard::board::feed::poll_log(&mut watch, &tx));
     assert!(rx.try_iter().next().is_none(), "unchanged since the load");
-    let o = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args(["signoff", "L04", "--instructor", "Mara Greyling", "--ops"])
-        .arg(&dir)
-        .args(["--at", "2026-06-14T08:00:00Z"])
-        .env("HOME", &home)
-        .env("XDG_CONFIG_HOME", &home)
-        .env("RHOBOARD_DATA_DIR", &home)
-        .output()
-        .unwrap();
-    assert_eq!(
-        o.status.code(),
-        Some(0),
-        "{}",
-        String::from_utf8_lossy(&o.stderr)
+    succeeds_in(
+        &home,
+        &dir,
+        &[
+            "signoff",
+            "L04",
+            "--instructor",
+            "Mara Greyling",
+            "--at",
+            "2026-06-14T08:00:00Z",
+        ],
     );
     assert!(rhoboard::board::feed::poll_log(&mut watch, &tx));
     let msgs: Vec<Msg> = rx.try_iter().collect();
@@ -314,22 +331,21 @@ fn the_runway_form_shows_a_later_closure_and_will_not_cancel_it() {
     use rhoboard::commands::board::{Args, prepare};
     let dir = demo_folder("later");
     let home = dir.join(".home");
-    let o = std::process::Command::new(env!("CARGO_BIN_EXE_rhoboard"))
-        .args([
-            "runway", "XSEA", "27", "--closed", "--from", "15:00Z", "--until", "17:00Z",
-        ])
-        .args(["--date", "2026-06-14", "--ops"])
-        .arg(&dir)
-        .env("HOME", &home)
-        .env("XDG_CONFIG_HOME", &home)
-        .env("RHOBOARD_DATA_DIR", &home)
-        .output()
-        .unwrap();
-    assert_eq!(
-        o.status.code(),
-        Some(0),
-        "{}",
-        String::from_utf8_lossy(&o.stderr)
+    succeeds_in(
+        &home,
+        &dir,
+        &[
+            "runway",
+            "XSEA",
+            "27",
+            "--closed",
+            "--from",
+            "15:00Z",
+            "--until",
+            "17:00Z",
+            "--date",
+            "2026-06-14",
+        ],
     );
     let args = Args {
         ops: Some(dir.clone()),
